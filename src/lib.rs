@@ -10,4 +10,5 @@ pub mod checks;
 pub mod fe;
 pub mod geom;
 pub mod model;
+pub mod numfmt;
 pub mod props;

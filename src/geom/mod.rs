@@ -1,1 +1,18 @@
-//! geom
+//! Geometry: shapes turned into closed boundaries of straight segments and circular arcs.
+//!
+//! A [`Contour`] is a closed loop; counter-clockwise loops enclose material, clockwise
+//! loops are holes (the inside of a pipe or a box). Arcs are kept exact — nothing here
+//! approximates a curve by facets except [`Contour::facets`], which the mesher and the
+//! drawing use. What lives elsewhere: the area integrals over these boundaries are in
+//! [`crate::props::moments`]; placing a part (anchor, flip, rotate) is in [`place`].
+
+pub mod contour;
+pub mod place;
+pub mod region;
+pub mod shapes;
+pub mod simple;
+
+pub use contour::{Contour, Pt, Seg};
+pub use place::{Anchor, Placement};
+pub use region::{solid_bounds, Piece};
+pub use shapes::Shape;

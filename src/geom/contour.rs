@@ -1,0 +1,297 @@
+//! Points, segments (lines and circular arcs) and closed contours, with the affine
+//! maps a part's placement needs.
+
+use std::f64::consts::{FRAC_PI_2, PI, TAU};
+
+/// A point or a vector in the plane.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct Pt {
+    pub x: f64,
+    pub y: f64,
+}
+
+impl Pt {
+    pub const fn new(x: f64, y: f64) -> Pt {
+        Pt { x, y }
+    }
+    pub fn add(self, o: Pt) -> Pt {
+        Pt::new(self.x + o.x, self.y + o.y)
+    }
+    pub fn sub(self, o: Pt) -> Pt {
+        Pt::new(self.x - o.x, self.y - o.y)
+    }
+    pub fn scale(self, k: f64) -> Pt {
+        Pt::new(self.x * k, self.y * k)
+    }
+    /// Rotated counter-clockwise by `angle` radians about the origin.
+    pub fn rotated(self, angle: f64) -> Pt {
+        let (s, c) = angle.sin_cos();
+        Pt::new(c * self.x - s * self.y, s * self.x + c * self.y)
+    }
+    pub fn cross(self, o: Pt) -> f64 {
+        self.x * o.y - self.y * o.x
+    }
+    pub fn dist(self, o: Pt) -> f64 {
+        (self.x - o.x).hypot(self.y - o.y)
+    }
+}
+
+/// One piece of a boundary: a straight line or a circular arc.
+///
+/// An arc runs from angle `a0` to `a1` (radians, measured from +x about the centre
+/// `c`); `a1 > a0` is counter-clockwise travel, `a1 < a0` clockwise (a concave fillet
+/// on a counter-clockwise outline). `|a1 − a0| ≤ 2π`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Seg {
+    Line(Pt, Pt),
+    Arc { c: Pt, r: f64, a0: f64, a1: f64 },
+}
+
+impl Seg {
+    pub fn arc(c: Pt, r: f64, a0: f64, a1: f64) -> Seg {
+        Seg::Arc { c, r, a0, a1 }
+    }
+
+    pub fn start(&self) -> Pt {
+        match *self {
+            Seg::Line(a, _) => a,
+            Seg::Arc { c, r, a0, .. } => c.add(Pt::new(r * a0.cos(), r * a0.sin())),
+        }
+    }
+
+    pub fn end(&self) -> Pt {
+        match *self {
+            Seg::Line(_, b) => b,
+            Seg::Arc { c, r, a1, .. } => c.add(Pt::new(r * a1.cos(), r * a1.sin())),
+        }
+    }
+
+    /// The same segment traversed the other way.
+    pub fn reversed(&self) -> Seg {
+        match *self {
+            Seg::Line(a, b) => Seg::Line(b, a),
+            Seg::Arc { c, r, a0, a1 } => Seg::Arc {
+                c,
+                r,
+                a0: a1,
+                a1: a0,
+            },
+        }
+    }
+
+    /// The image under `p ↦ origin + R(angle)·p` (rotation, then translation).
+    pub fn moved(&self, angle: f64, origin: Pt) -> Seg {
+        let f = |p: Pt| p.rotated(angle).add(origin);
+        match *self {
+            Seg::Line(a, b) => Seg::Line(f(a), f(b)),
+            Seg::Arc { c, r, a0, a1 } => Seg::Arc {
+                c: f(c),
+                r,
+                a0: a0 + angle,
+                a1: a1 + angle,
+            },
+        }
+    }
+
+    /// The mirror image under `x ↦ −x` (if `mx`) and `y ↦ −y` (if `my`), same direction of travel.
+    pub fn mirrored(&self, mx: bool, my: bool) -> Seg {
+        let f = |p: Pt| Pt::new(if mx { -p.x } else { p.x }, if my { -p.y } else { p.y });
+        let g = |t: f64| {
+            let t = if mx { PI - t } else { t };
+            if my {
+                -t
+            } else {
+                t
+            }
+        };
+        match *self {
+            Seg::Line(a, b) => Seg::Line(f(a), f(b)),
+            Seg::Arc { c, r, a0, a1 } => Seg::Arc {
+                c: f(c),
+                r,
+                a0: g(a0),
+                a1: g(a1),
+            },
+        }
+    }
+
+    /// The image under a quarter turn clockwise, `(x, y) ↦ (y, −x)`, exact (no sin/cos).
+    pub fn quarter_turn_cw(&self) -> Seg {
+        let f = |p: Pt| Pt::new(p.y, -p.x);
+        match *self {
+            Seg::Line(a, b) => Seg::Line(f(a), f(b)),
+            Seg::Arc { c, r, a0, a1 } => Seg::Arc {
+                c: f(c),
+                r,
+                a0: a0 - FRAC_PI_2,
+                a1: a1 - FRAC_PI_2,
+            },
+        }
+    }
+
+    /// Extent of the segment: `[xmin, xmax, ymin, ymax]`, exact for arcs.
+    pub fn bounds(&self) -> [f64; 4] {
+        let (p, q) = (self.start(), self.end());
+        let mut b = [p.x.min(q.x), p.x.max(q.x), p.y.min(q.y), p.y.max(q.y)];
+        if let Seg::Arc { c, r, a0, a1 } = *self {
+            let (lo, hi) = (a0.min(a1), a0.max(a1));
+            // Every multiple of π/2 inside the sweep is an extreme point of the circle.
+            let mut k = (lo / FRAC_PI_2).ceil();
+            while k * FRAC_PI_2 <= hi && k.is_finite() {
+                let t = k * FRAC_PI_2;
+                let e = c.add(Pt::new(r * t.cos(), r * t.sin()));
+                b = [b[0].min(e.x), b[1].max(e.x), b[2].min(e.y), b[3].max(e.y)];
+                k += 1.0;
+                if k - (lo / FRAC_PI_2).ceil() > 8.0 {
+                    break;
+                }
+            }
+        }
+        b
+    }
+
+    /// Points along the segment, excluding its end point: the start for a line; for an
+    /// arc, the start and interior points with at most `max_angle` radians between them.
+    pub fn facet_points(&self, max_angle: f64, out: &mut Vec<Pt>) {
+        match *self {
+            Seg::Line(a, _) => out.push(a),
+            Seg::Arc { c, r, a0, a1 } => {
+                let sweep = a1 - a0;
+                let n = ((sweep.abs() / max_angle.max(1e-3)).ceil() as usize).clamp(1, 4096);
+                for i in 0..n {
+                    let t = a0 + sweep * i as f64 / n as f64;
+                    out.push(c.add(Pt::new(r * t.cos(), r * t.sin())));
+                }
+            }
+        }
+    }
+}
+
+/// A closed loop of segments, each starting where the previous one ends.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Contour {
+    pub segs: Vec<Seg>,
+}
+
+impl Contour {
+    /// A straight-sided loop through `pts` (closed back to the first point).
+    pub fn polygon(pts: &[Pt]) -> Contour {
+        let n = pts.len();
+        Contour {
+            segs: (0..n)
+                .map(|i| Seg::Line(pts[i], pts[(i + 1) % n]))
+                .collect(),
+        }
+    }
+
+    /// A full circle, counter-clockwise.
+    pub fn circle(c: Pt, r: f64) -> Contour {
+        Contour {
+            segs: vec![Seg::arc(c, r, 0.0, TAU)],
+        }
+    }
+
+    /// An axis-aligned rectangle `x0..x1 × y0..y1` with corner radius `r` (0 for sharp
+    /// corners), counter-clockwise.
+    pub fn rounded_rect(x0: f64, y0: f64, x1: f64, y1: f64, r: f64) -> Contour {
+        if r <= 0.0 {
+            return Contour::polygon(&[
+                Pt::new(x0, y0),
+                Pt::new(x1, y0),
+                Pt::new(x1, y1),
+                Pt::new(x0, y1),
+            ]);
+        }
+        let corner = |cx: f64, cy: f64, a: f64| Seg::arc(Pt::new(cx, cy), r, a, a + FRAC_PI_2);
+        let mut b = Builder::start(Pt::new(x0 + r, y0));
+        b.line(Pt::new(x1 - r, y0));
+        b.seg(corner(x1 - r, y0 + r, -FRAC_PI_2));
+        b.line(Pt::new(x1, y1 - r));
+        b.seg(corner(x1 - r, y1 - r, 0.0));
+        b.line(Pt::new(x0 + r, y1));
+        b.seg(corner(x0 + r, y1 - r, FRAC_PI_2));
+        b.line(Pt::new(x0, y0 + r));
+        b.seg(corner(x0 + r, y0 + r, PI));
+        b.close()
+    }
+
+    /// The loop traversed the other way (a solid outline becomes a hole).
+    pub fn reversed(&self) -> Contour {
+        Contour {
+            segs: self.segs.iter().rev().map(Seg::reversed).collect(),
+        }
+    }
+
+    /// Extent `[xmin, xmax, ymin, ymax]`; `None` for an empty contour.
+    pub fn bounds(&self) -> Option<[f64; 4]> {
+        self.segs.iter().map(Seg::bounds).reduce(union_bounds)
+    }
+
+    /// The loop as a polygon, arcs cut into chords of at most `max_angle` radians.
+    pub fn facets(&self, max_angle: f64) -> Vec<Pt> {
+        let mut out = Vec::with_capacity(self.segs.len());
+        for s in &self.segs {
+            s.facet_points(max_angle, &mut out);
+        }
+        out
+    }
+}
+
+/// The smallest box holding both boxes.
+pub fn union_bounds(a: [f64; 4], b: [f64; 4]) -> [f64; 4] {
+    [
+        a[0].min(b[0]),
+        a[1].max(b[1]),
+        a[2].min(b[2]),
+        a[3].max(b[3]),
+    ]
+}
+
+/// Builds a contour segment by segment, joining lines from the current point.
+pub struct Builder {
+    first: Pt,
+    cur: Pt,
+    segs: Vec<Seg>,
+}
+
+impl Builder {
+    pub fn start(p: Pt) -> Builder {
+        Builder {
+            first: p,
+            cur: p,
+            segs: Vec::new(),
+        }
+    }
+    /// A straight line from the current point to `p` (skipped if of zero length).
+    pub fn line(&mut self, p: Pt) {
+        if p != self.cur {
+            self.segs.push(Seg::Line(self.cur, p));
+        }
+        self.cur = p;
+    }
+    /// An arc or other segment; a line joins the current point to its start if needed.
+    /// Zero-radius arcs are skipped (a fillet of radius 0 is a sharp corner).
+    pub fn seg(&mut self, s: Seg) {
+        if let Seg::Arc { r, .. } = s {
+            if r <= 0.0 {
+                return;
+            }
+        }
+        let (a, b) = (s.start(), s.end());
+        // Arc ends come from sin/cos and miss exact corners by rounding; do not add slivers.
+        let scale = a.x.abs() + a.y.abs() + self.cur.x.abs() + self.cur.y.abs();
+        if a.dist(self.cur) > 1e-12 * scale {
+            self.segs.push(Seg::Line(self.cur, a));
+        }
+        self.segs.push(s);
+        self.cur = b;
+    }
+    pub fn close(mut self) -> Contour {
+        let first = self.first;
+        let scale = first.x.abs() + first.y.abs() + self.cur.x.abs() + self.cur.y.abs();
+        if first.dist(self.cur) > 1e-12 * scale {
+            self.line(first);
+        }
+        Contour { segs: self.segs }
+    }
+}

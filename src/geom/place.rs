@@ -1,0 +1,124 @@
+//! Placing a shape in the section: flip in its own frame, put its anchor point at `at`,
+//! then rotate about `at` (FORMAT.md, "Placement").
+
+use super::contour::{union_bounds, Contour, Pt};
+
+/// The point of a shape that is put at `at`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Anchor {
+    Center,
+    Centroid,
+    Origin,
+    BottomLeft,
+    Bottom,
+    BottomRight,
+    Left,
+    Right,
+    TopLeft,
+    Top,
+    TopRight,
+}
+
+impl Anchor {
+    /// Every anchor with its name in the file.
+    pub const ALL: [(Anchor, &'static str); 11] = [
+        (Anchor::Center, "center"),
+        (Anchor::Centroid, "centroid"),
+        (Anchor::Origin, "origin"),
+        (Anchor::BottomLeft, "bottom_left"),
+        (Anchor::Bottom, "bottom"),
+        (Anchor::BottomRight, "bottom_right"),
+        (Anchor::Left, "left"),
+        (Anchor::Right, "right"),
+        (Anchor::TopLeft, "top_left"),
+        (Anchor::Top, "top"),
+        (Anchor::TopRight, "top_right"),
+    ];
+
+    pub fn parse(s: &str) -> Option<Anchor> {
+        Anchor::ALL.iter().find(|a| a.1 == s).map(|a| a.0)
+    }
+
+    pub fn name(self) -> &'static str {
+        Anchor::ALL
+            .iter()
+            .find(|a| a.0 == self)
+            .map_or("center", |a| a.1)
+    }
+
+    /// The anchor point given the shape's bounding box and centroid.
+    fn point(self, b: [f64; 4], centroid: Pt) -> Pt {
+        let (xm, ym) = ((b[0] + b[1]) / 2.0, (b[2] + b[3]) / 2.0);
+        let p = Pt::new;
+        match self {
+            Anchor::Center => p(xm, ym),
+            Anchor::Centroid => centroid,
+            Anchor::Origin => p(0.0, 0.0),
+            Anchor::BottomLeft => p(b[0], b[2]),
+            Anchor::Bottom => p(xm, b[2]),
+            Anchor::BottomRight => p(b[1], b[2]),
+            Anchor::Left => p(b[0], ym),
+            Anchor::Right => p(b[1], ym),
+            Anchor::TopLeft => p(b[0], b[3]),
+            Anchor::Top => p(xm, b[3]),
+            Anchor::TopRight => p(b[1], b[3]),
+        }
+    }
+}
+
+/// Where and how a part sits in the section.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Placement {
+    pub at: Pt,
+    pub anchor: Anchor,
+    /// Degrees, counter-clockwise, about `at`.
+    pub rotate: f64,
+    pub flip_x: bool,
+    pub flip_y: bool,
+}
+
+impl Placement {
+    /// Places contours given in the shape's own frame: `p ↦ at + R(rotate)·(F(p) − anchor)`.
+    /// A single mirror reverses the direction of travel, so those loops are reversed to
+    /// keep outlines counter-clockwise.
+    pub fn apply(&self, own: &[Contour]) -> Vec<Contour> {
+        let mirrored: Vec<Contour> = own
+            .iter()
+            .map(|c| {
+                let m = Contour {
+                    segs: c
+                        .segs
+                        .iter()
+                        .map(|s| s.mirrored(self.flip_x, self.flip_y))
+                        .collect(),
+                };
+                if self.flip_x != self.flip_y {
+                    m.reversed()
+                } else {
+                    m
+                }
+            })
+            .collect();
+        let bounds = mirrored
+            .iter()
+            .filter_map(Contour::bounds)
+            .reduce(union_bounds)
+            .unwrap_or([0.0; 4]);
+        let centroid = if self.anchor == Anchor::Centroid {
+            crate::props::moments::Moments::of_contours(&mirrored)
+                .centroid()
+                .unwrap_or_default()
+        } else {
+            Pt::default()
+        };
+        let anchor = self.anchor.point(bounds, centroid);
+        let angle = self.rotate.to_radians();
+        let shift = self.at.sub(anchor.rotated(angle));
+        mirrored
+            .into_iter()
+            .map(|c| Contour {
+                segs: c.segs.iter().map(|s| s.moved(angle, shift)).collect(),
+            })
+            .collect()
+    }
+}

@@ -1,0 +1,50 @@
+//! The section as placed parts ready for the property engine: each enabled part's
+//! boundaries with its sign and material weights.
+
+use super::contour::{union_bounds, Contour};
+
+/// One enabled part, placed in the section frame.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Piece {
+    /// Index of the part in the document (for messages and highlighting).
+    pub part: usize,
+    pub name: String,
+    pub contours: Vec<Contour>,
+    pub void: bool,
+    /// Modular ratio `n = E / E_ref` (1 when no materials are given).
+    pub n: f64,
+    /// Weight for the plastic properties: `fy / fy_ref` when every material in use has
+    /// a yield strength, otherwise the modular ratio.
+    pub strength: f64,
+    /// Density in kg/m³, when its material gives one.
+    pub density: Option<f64>,
+    /// Material index, if any.
+    pub material: Option<usize>,
+}
+
+impl Piece {
+    /// +1 for a solid, −1 for a void.
+    pub fn sign(&self) -> f64 {
+        if self.void {
+            -1.0
+        } else {
+            1.0
+        }
+    }
+
+    pub fn bounds(&self) -> Option<[f64; 4]> {
+        self.contours
+            .iter()
+            .filter_map(Contour::bounds)
+            .reduce(union_bounds)
+    }
+}
+
+/// The extent of the solid pieces, `[xmin, xmax, ymin, ymax]`.
+pub fn solid_bounds(pieces: &[Piece]) -> Option<[f64; 4]> {
+    pieces
+        .iter()
+        .filter(|p| !p.void)
+        .filter_map(Piece::bounds)
+        .reduce(union_bounds)
+}

@@ -1,0 +1,271 @@
+//! Warnings about how parts sit together: solids that overlap (and so count twice),
+//! voids that are not wholly inside solid material, voids that overlap each other, and
+//! parts with no area.
+//!
+//! The area shared by two regions P and Q is found with Green's theorem, `A = ∮ x dy`
+//! over the boundary of P ∩ Q, which is made of the pieces of ∂P inside Q and of ∂Q
+//! inside P (edges the two share in the same direction are counted once). Curved
+//! edges are cut into chords of at most 3°, which is ample for a warning.
+
+use crate::geom::{Piece, Pt};
+use crate::numfmt::sig;
+
+const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
+
+/// A region as polygons (outlines counter-clockwise, holes clockwise).
+struct Shape {
+    loops: Vec<Vec<Pt>>,
+    bounds: [f64; 4],
+    area: f64,
+}
+
+impl Shape {
+    fn of(p: &Piece) -> Option<Shape> {
+        let loops: Vec<Vec<Pt>> = p.contours.iter().map(|c| c.facets(FACET)).collect();
+        let bounds = p.bounds()?;
+        let area = loops
+            .iter()
+            .map(|l| crate::geom::simple::signed_area(l))
+            .sum();
+        Some(Shape {
+            loops,
+            bounds,
+            area,
+        })
+    }
+
+    fn edges(&self) -> impl Iterator<Item = (Pt, Pt)> + '_ {
+        self.loops
+            .iter()
+            .flat_map(|l| (0..l.len()).map(move |i| (l[i], l[(i + 1) % l.len()])))
+    }
+
+    /// Winding number of the region about `p` (outline +1, hole −1).
+    fn winding(&self, p: Pt) -> i32 {
+        let mut w = 0;
+        for (a, b) in self.edges() {
+            let side = b.sub(a).cross(p.sub(a));
+            if a.y <= p.y {
+                if b.y > p.y && side > 0.0 {
+                    w += 1;
+                }
+            } else if b.y <= p.y && side < 0.0 {
+                w -= 1;
+            }
+        }
+        w
+    }
+
+    /// The direction of the edge `p` lies on, if any (within `tol`).
+    fn edge_at(&self, p: Pt, tol: f64) -> Option<Pt> {
+        self.edges().find_map(|(a, b)| {
+            let d = b.sub(a);
+            let len2 = d.x * d.x + d.y * d.y;
+            if len2 == 0.0 {
+                return None;
+            }
+            let t = (p.sub(a).x * d.x + p.sub(a).y * d.y) / len2;
+            let foot = a.add(d.scale(t.clamp(0.0, 1.0)));
+            (foot.dist(p) <= tol).then_some(d)
+        })
+    }
+}
+
+fn boxes_overlap(a: [f64; 4], b: [f64; 4]) -> bool {
+    a[0] < b[1] && b[0] < a[1] && a[2] < b[3] && b[2] < a[3]
+}
+
+/// `∮ x dy` over the pieces of ∂P inside Q; pieces along ∂Q count only if `shared`
+/// and running the same way.
+fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
+    let mut sum = 0.0;
+    for (a, b) in p.edges() {
+        let d = b.sub(a);
+        let mut ts = vec![0.0, 1.0];
+        for (c, e) in q.edges() {
+            let f = e.sub(c);
+            let den = d.cross(f);
+            if den == 0.0 {
+                // Parallel: the ends of the other edge may still cut this one.
+                for r in [c, e] {
+                    let len2 = d.x * d.x + d.y * d.y;
+                    let t = (r.sub(a).x * d.x + r.sub(a).y * d.y) / len2;
+                    if t > 0.0 && t < 1.0 && a.add(d.scale(t)).dist(r) <= tol {
+                        ts.push(t);
+                    }
+                }
+                continue;
+            }
+            let t = c.sub(a).cross(f) / den;
+            let u = c.sub(a).cross(d) / den;
+            if t > 0.0 && t < 1.0 && (-1e-12..=1.0 + 1e-12).contains(&u) {
+                ts.push(t);
+            }
+        }
+        ts.sort_by(f64::total_cmp);
+        for w in ts.windows(2) {
+            if w[1] - w[0] <= 1e-12 {
+                continue;
+            }
+            let (s0, s1) = (a.add(d.scale(w[0])), a.add(d.scale(w[1])));
+            let mid = a.add(d.scale(0.5 * (w[0] + w[1])));
+            let keep = match q.edge_at(mid, tol) {
+                Some(dir) => shared && dir.x * d.x + dir.y * d.y > 0.0,
+                None => q.winding(mid) > 0,
+            };
+            if keep {
+                sum += 0.5 * (s0.x + s1.x) * (s1.y - s0.y);
+            }
+        }
+    }
+    sum
+}
+
+/// Area common to two regions.
+fn common_area(p: &Shape, q: &Shape) -> f64 {
+    if !boxes_overlap(p.bounds, q.bounds) {
+        return 0.0;
+    }
+    let size = (p.bounds[1] - p.bounds[0])
+        .max(p.bounds[3] - p.bounds[2])
+        .max(q.bounds[1] - q.bounds[0])
+        .max(q.bounds[3] - q.bounds[2]);
+    let tol = 1e-9 * size;
+    boundary_inside(p, q, true, tol) + boundary_inside(q, p, false, tol)
+}
+
+/// Warnings about the arrangement of the pieces, in plain words.
+pub fn warnings(pieces: &[Piece]) -> Vec<String> {
+    let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
+    let total: f64 = shapes.iter().flatten().map(|s| s.area.abs()).sum();
+    let mut out = Vec::new();
+    for (p, s) in pieces.iter().zip(&shapes) {
+        if s.as_ref().is_none_or(|s| s.area.abs() <= 1e-12 * total) {
+            out.push(format!(
+                "part `{}` has no area after placement and adds nothing",
+                p.name
+            ));
+        }
+    }
+    let n = pieces.len();
+    for i in 0..n {
+        for j in i + 1..n {
+            let (Some(a), Some(b)) = (&shapes[i], &shapes[j]) else {
+                continue;
+            };
+            let (pi, pj) = (&pieces[i], &pieces[j]);
+            if pi.void != pj.void {
+                continue;
+            }
+            let common = common_area(a, b);
+            if common > 1e-6 * a.area.min(b.area) {
+                let pct = 100.0 * common / a.area.min(b.area);
+                out.push(if pi.void {
+                    format!("voids `{}` and `{}` overlap ({}% of the smaller): the shared area is removed twice", pi.name, pj.name, sig(pct, 3))
+                } else {
+                    format!("solid parts `{}` and `{}` overlap ({}% of the smaller): the shared area counts twice; make one of them a void or trim it", pi.name, pj.name, sig(pct, 3))
+                });
+            }
+        }
+    }
+    for (i, v) in pieces.iter().enumerate().filter(|(_, p)| p.void) {
+        let Some(vs) = &shapes[i] else { continue };
+        let inside: f64 = pieces
+            .iter()
+            .zip(&shapes)
+            .filter(|(p, _)| !p.void)
+            .filter_map(|(_, s)| s.as_ref())
+            .map(|s| common_area(vs, s))
+            .sum();
+        if inside < (1.0 - 1e-6) * vs.area {
+            let pct = 100.0 * (1.0 - inside / vs.area);
+            out.push(format!(
+                "void `{}` is not wholly inside solid material ({}% of it lies outside): it removes area that is not there",
+                v.name,
+                sig(pct, 3)
+            ));
+        }
+    }
+    out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::Contour;
+
+    fn piece(name: &str, c: Contour, void: bool) -> Piece {
+        Piece {
+            part: 0,
+            name: name.into(),
+            contours: vec![c],
+            void,
+            n: 1.0,
+            strength: 1.0,
+            density: None,
+            material: None,
+        }
+    }
+
+    #[test]
+    fn touching_plates_do_not_warn_overlapping_ones_do() {
+        let web = piece(
+            "web",
+            Contour::rounded_rect(-5.0, 0.0, 5.0, 100.0, 0.0),
+            false,
+        );
+        let flange = piece(
+            "flange",
+            Contour::rounded_rect(-50.0, 100.0, 50.0, 110.0, 0.0),
+            false,
+        );
+        assert!(warnings(&[web.clone(), flange]).is_empty());
+        let low = piece(
+            "low flange",
+            Contour::rounded_rect(-50.0, 95.0, 50.0, 105.0, 0.0),
+            false,
+        );
+        let w = warnings(&[web, low]);
+        assert_eq!(w.len(), 1);
+        assert!(w[0].contains("`web` and `low flange` overlap"), "{w:?}");
+    }
+
+    #[test]
+    fn hole_inside_passes_hole_at_edge_and_outside_warn() {
+        let plate = piece(
+            "plate",
+            Contour::rounded_rect(0.0, 0.0, 100.0, 100.0, 0.0),
+            false,
+        );
+        let inside = piece(
+            "bolt hole",
+            Contour::circle(Pt::new(50.0, 50.0), 10.0),
+            true,
+        );
+        assert!(warnings(&[plate.clone(), inside]).is_empty());
+        // A notch flush with the edge is still wholly inside the plate.
+        let notch = piece(
+            "notch",
+            Contour::rounded_rect(0.0, 0.0, 20.0, 20.0, 0.0),
+            true,
+        );
+        assert!(warnings(&[plate.clone(), notch]).is_empty());
+        let stray = piece(
+            "stray",
+            Contour::rounded_rect(90.0, 40.0, 110.0, 60.0, 0.0),
+            true,
+        );
+        let w = warnings(&[plate, stray]);
+        assert!(
+            w.len() == 1 && w[0].contains("50.0% of it lies outside"),
+            "{w:?}"
+        );
+    }
+
+    #[test]
+    fn a_part_minus_itself_is_inside() {
+        let c = Contour::circle(Pt::new(0.0, 0.0), 25.0);
+        let w = warnings(&[piece("bar", c.clone(), false), piece("same", c, true)]);
+        assert!(w.is_empty(), "{w:?}");
+    }
+}

@@ -1,0 +1,172 @@
+//! All section properties of a composite, from its placed pieces.
+//!
+//! Moments are taken about a reference point at the middle of the section's extent,
+//! not the file origin, so a section drawn far from its origin loses no digits to the
+//! parallel axis theorem.
+
+use super::moments::{Centroidal, Moments};
+use super::plastic::{plastic_axis_x, plastic_axis_y, Weighted};
+use super::principal::Principal;
+use crate::geom::{solid_bounds, Contour, Piece, Pt};
+
+/// Elastic section moduli to the extreme fibres: `Ixx/(ymax − ȳ)`, `Ixx/(ȳ − ymin)`,
+/// `Iyy/(x̄ − xmin)`, `Iyy/(xmax − x̄)`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Elastic {
+    pub x_top: f64,
+    pub x_bottom: f64,
+    pub y_left: f64,
+    pub y_right: f64,
+}
+
+/// Plastic moduli about the plastic neutral axes parallel to x (`zx`, at height `y`)
+/// and parallel to y (`zy`, at `x`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Plastic {
+    pub zx: f64,
+    pub zy: f64,
+    pub y: f64,
+    pub x: f64,
+}
+
+/// Radii of gyration `√(Ixx/A)`, `√(Iyy/A)`, `√(I₂/A)`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Gyration {
+    pub x: f64,
+    pub y: f64,
+    pub min: f64,
+}
+
+/// Every closed-form property of a section, in the file's length unit (areas in
+/// unit², second moments in unit⁴…), transformed to the reference material.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Properties {
+    pub area: f64,
+    pub centroid: Pt,
+    /// Extent of the solid parts `[xmin, xmax, ymin, ymax]`.
+    pub bounds: [f64; 4],
+    pub ixx: f64,
+    pub iyy: f64,
+    pub ixy: f64,
+    pub principal: Principal,
+    pub elastic: Elastic,
+    pub plastic: Option<Plastic>,
+    pub gyration: Gyration,
+    /// `Σ ±A·ρ` in (length unit)²·kg/m³, when every piece has a density.
+    pub mass_area: Option<f64>,
+}
+
+impl Properties {
+    /// Computes the properties of the pieces; the error says why there are none (no
+    /// solid part, or a net area that is not positive).
+    pub fn compute(pieces: &[Piece]) -> Result<Properties, String> {
+        let b = solid_bounds(pieces)
+            .ok_or("the section has no enabled solid part; add one or enable one")?;
+        let origin = Pt::new(0.5 * (b[0] + b[1]), 0.5 * (b[2] + b[3]));
+        let local: Vec<Vec<Contour>> = pieces
+            .iter()
+            .map(|p| shifted(&p.contours, origin))
+            .collect();
+        let m = pieces
+            .iter()
+            .zip(&local)
+            .fold(Moments::default(), |s, (p, c)| {
+                s.plus(&Moments::of_contours(c), p.sign() * p.n)
+            });
+        let c = m.centroidal().filter(|c| c.area > 1e-12 * (b[1] - b[0]) * (b[3] - b[2])).ok_or_else(|| {
+            format!("the net area of the section is not positive ({:.6e}); voids remove all the solid material", m.a)
+        })?;
+        let Centroidal {
+            area,
+            cx,
+            cy,
+            ixx,
+            iyy,
+            mut ixy,
+        } = c;
+        // Rounding leaves about 1e-16 of the moments in Ixy of a symmetric section.
+        if ixy.abs() <= 1e-13 * (ixx * iyy).abs().sqrt() {
+            ixy = 0.0;
+        }
+        let principal = Principal::new(ixx, iyy, ixy);
+        let lb = [
+            b[0] - origin.x,
+            b[1] - origin.x,
+            b[2] - origin.y,
+            b[3] - origin.y,
+        ];
+        let elastic = Elastic {
+            x_top: ixx / (lb[3] - cy),
+            x_bottom: ixx / (cy - lb[2]),
+            y_left: iyy / (cx - lb[0]),
+            y_right: iyy / (lb[1] - cx),
+        };
+        let weighted: Vec<Weighted> = pieces
+            .iter()
+            .zip(&local)
+            .map(|(p, c)| Weighted {
+                contours: c,
+                weight: p.sign() * p.strength,
+            })
+            .collect();
+        let plastic = match (
+            plastic_axis_x(&weighted, lb[2], lb[3]),
+            plastic_axis_y(&weighted, lb[0], lb[1]),
+        ) {
+            (Some(px), Some(py)) => Some(Plastic {
+                zx: px.z,
+                zy: py.z,
+                y: px.level + origin.y,
+                x: py.level + origin.x,
+            }),
+            _ => None,
+        };
+        let mass_area = pieces
+            .iter()
+            .zip(&local)
+            .map(|(p, c)| {
+                p.density
+                    .map(|rho| p.sign() * rho * Moments::of_contours(c).a)
+            })
+            .sum::<Option<f64>>();
+        Ok(Properties {
+            area,
+            centroid: Pt::new(cx + origin.x, cy + origin.y),
+            bounds: b,
+            ixx,
+            iyy,
+            ixy,
+            principal,
+            elastic,
+            plastic,
+            gyration: Gyration {
+                x: (ixx / area).sqrt(),
+                y: (iyy / area).sqrt(),
+                min: (principal.i2.max(0.0) / area).sqrt(),
+            },
+            mass_area,
+        })
+    }
+
+    /// Centroidal values, for the checks.
+    pub fn centroidal(&self) -> Centroidal {
+        Centroidal {
+            area: self.area,
+            cx: self.centroid.x,
+            cy: self.centroid.y,
+            ixx: self.ixx,
+            iyy: self.iyy,
+            ixy: self.ixy,
+        }
+    }
+}
+
+/// Contours translated so that `origin` becomes (0, 0).
+pub fn shifted(cs: &[Contour], origin: Pt) -> Vec<Contour> {
+    let back = Pt::new(-origin.x, -origin.y);
+    cs.iter()
+        .map(|c| Contour {
+            segs: c.segs.iter().map(|s| s.moved(0.0, back)).collect(),
+        })
+        .collect()
+}
