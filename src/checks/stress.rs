@@ -1,1 +1,538 @@
+//! Normal stresses under axial force and biaxial bending (the generalised flexure formula
+//! for unsymmetric sections), where they peak, where the neutral axis lies, and the convex
+//! hull the peaks are searched on.
+//!
+//! Sign conventions (the section file's `[actions]`): σ positive is tension, `n` positive is
+//! tension, positive `mx` compresses the fibres on the +y side, positive `my` compresses the
+//! fibres on the +x side. All values are in whatever consistent units the caller supplies
+//! (e.g. N, mm, N·mm and MPa); nothing here converts units.
 
+/// Centroidal properties the stress calculation needs. Coordinates in the file frame;
+/// `ixx = ∫(y−cy)² dA`, `iyy = ∫(x−cx)² dA`, `ixy = ∫(x−cx)(y−cy) dA`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Centroidal {
+    pub area: f64,
+    pub cx: f64,
+    pub cy: f64,
+    pub ixx: f64,
+    pub iyy: f64,
+    pub ixy: f64,
+}
+
+impl Centroidal {
+    /// `D = Ixx·Iyy − Ixy²`, positive for every real section (Cauchy–Schwarz).
+    pub fn det(&self) -> f64 {
+        self.ixx * self.iyy - self.ixy * self.ixy
+    }
+}
+
+/// Internal forces on the section: `n` tension positive; positive `mx` compresses the fibres
+/// on the +y side; positive `my` compresses the fibres on the +x side.
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
+pub struct Actions {
+    pub n: f64,
+    pub mx: f64,
+    pub my: f64,
+}
+
+/// A linear normal-stress field `σ(x, y) = σ0 + a·(x − cx) + b·(y − cy)`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct StressField {
+    pub sigma0: f64,
+    pub a: f64,
+    pub b: f64,
+    pub cx: f64,
+    pub cy: f64,
+}
+
+impl StressField {
+    /// The generalised flexure formula: `σ0 = N/A` and `a`, `b` from the resultant conditions
+    /// `∫σ·x dA = −My` and `∫σ·y dA = −Mx` (coordinates about the centroid), i.e.
+    ///
+    /// ```text
+    /// a·Iyy + b·Ixy = −My        a = (Mx·Ixy − My·Ixx)/D
+    /// a·Ixy + b·Ixx = −Mx   ⇒    b = (My·Ixy − Mx·Iyy)/D,   D = Ixx·Iyy − Ixy²
+    /// ```
+    ///
+    /// For a doubly symmetric section this is `σ = N/A − Mx·y/Ixx − My·x/Iyy` (Gere & Goodno,
+    /// Mechanics of Materials, "doubly symmetric beams with inclined loads"; "unsymmetric beams").
+    /// `None` when `area ≤ 0`, `D ≤ 0` or a value is not finite.
+    ///
+    /// ```
+    /// use kern::checks::stress::{Actions, Centroidal, StressField};
+    /// // 100 × 200 rectangle centred on the origin, Mx = 1e6: σ_top = −6·Mx/(b·h²) = −1.5
+    /// let sec = Centroidal { area: 20_000.0, cx: 0.0, cy: 0.0,
+    ///                        ixx: 100.0 * 200f64.powi(3) / 12.0, iyy: 200.0 * 100f64.powi(3) / 12.0, ixy: 0.0 };
+    /// let f = StressField::new(&sec, &Actions { n: 0.0, mx: 1e6, my: 0.0 }).unwrap();
+    /// assert!((f.at(0.0, 100.0) + 1.5).abs() < 1e-12);
+    /// ```
+    pub fn new(sec: &Centroidal, act: &Actions) -> Option<StressField> {
+        let d = sec.det();
+        if !(sec.area > 0.0 && d > 0.0) {
+            return None;
+        }
+        let field = StressField {
+            sigma0: act.n / sec.area,
+            a: (act.mx * sec.ixy - act.my * sec.ixx) / d,
+            b: (act.my * sec.ixy - act.mx * sec.iyy) / d,
+            cx: sec.cx,
+            cy: sec.cy,
+        };
+        let values = [field.sigma0, field.a, field.b, field.cx, field.cy];
+        values.iter().all(|v| v.is_finite()).then_some(field)
+    }
+
+    /// σ at the point (x, y) of the file frame.
+    pub fn at(&self, x: f64, y: f64) -> f64 {
+        self.sigma0 + self.a * (x - self.cx) + self.b * (y - self.cy)
+    }
+
+    /// The field multiplied by `n`: the stress in a material whose modular ratio to the
+    /// reference material is `n` (transformed-section method; Gere & Goodno, "composite beams").
+    pub fn scaled(&self, n: f64) -> StressField {
+        StressField {
+            sigma0: self.sigma0 * n,
+            a: self.a * n,
+            b: self.b * n,
+            ..*self
+        }
+    }
+
+    /// Angle of the zero-stress line from +x, counter-clockwise, in degrees in (−90, 90].
+    /// The line runs perpendicular to the gradient (a, b). `None` under pure axial force
+    /// (a = b = 0), when there is no such line.
+    pub fn neutral_axis_angle_deg(&self) -> Option<f64> {
+        if self.a == 0.0 && self.b == 0.0 {
+            return None;
+        }
+        let deg = self.a.atan2(-self.b).to_degrees();
+        let deg = if deg > 90.0 {
+            deg - 180.0
+        } else if deg <= -90.0 {
+            deg + 180.0
+        } else {
+            deg
+        };
+        deg.is_finite().then_some(deg)
+    }
+
+    /// The two ends of the neutral axis (σ = 0) clipped to the box [xmin, xmax] × [ymin, ymax],
+    /// for drawing. `None` under pure axial force, for an empty or non-finite box, or when the
+    /// line misses the box. Clipping is the parametric (Liang–Barsky) method.
+    pub fn neutral_axis_in_box(
+        &self,
+        xmin: f64,
+        xmax: f64,
+        ymin: f64,
+        ymax: f64,
+    ) -> Option<[(f64, f64); 2]> {
+        let bounds = [xmin, xmax, ymin, ymax];
+        if !bounds.iter().all(|v| v.is_finite()) || xmin > xmax || ymin > ymax {
+            return None;
+        }
+        let g2 = self.a * self.a + self.b * self.b;
+        if !(g2 > 0.0 && g2.is_finite()) {
+            return None;
+        }
+        // Foot of the perpendicular from the centroid, and a unit direction along the line.
+        let g = g2.sqrt();
+        let p = (
+            self.cx - self.sigma0 * self.a / g2,
+            self.cy - self.sigma0 * self.b / g2,
+        );
+        let d = (-self.b / g, self.a / g);
+        let mut t0 = f64::NEG_INFINITY;
+        let mut t1 = f64::INFINITY;
+        for (p, d, lo, hi) in [(p.0, d.0, xmin, xmax), (p.1, d.1, ymin, ymax)] {
+            if d == 0.0 {
+                if p < lo || p > hi {
+                    return None;
+                }
+            } else {
+                let (ta, tb) = ((lo - p) / d, (hi - p) / d);
+                t0 = t0.max(ta.min(tb));
+                t1 = t1.min(ta.max(tb));
+            }
+        }
+        if !(t0 <= t1 && t0.is_finite() && t1.is_finite()) {
+            return None;
+        }
+        let point = |t: f64| (p.0 + t * d.0, p.1 + t * d.1);
+        Some([point(t0), point(t1)])
+    }
+}
+
+/// A stress value and where it occurs.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct StressPoint {
+    pub value: f64,
+    pub x: f64,
+    pub y: f64,
+}
+
+/// The largest and the smallest σ over a set of points.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Extremes {
+    /// The point of largest σ (negative when the whole section is in compression).
+    pub max_tension: StressPoint,
+    /// The point of smallest σ (positive when the whole section is in tension).
+    pub max_compression: StressPoint,
+}
+
+/// Extremes of a linear field over `points`, normally the vertices of the convex hull of the
+/// section: a linear function on a convex polygon peaks at its vertices. The first of equal
+/// values wins. `None` when no point gives a finite σ.
+pub fn extremes(field: &StressField, points: &[(f64, f64)]) -> Option<Extremes> {
+    let mut found: Option<Extremes> = None;
+    for &(x, y) in points {
+        let value = field.at(x, y);
+        if !value.is_finite() {
+            continue;
+        }
+        let here = StressPoint { value, x, y };
+        found = Some(match found {
+            None => Extremes {
+                max_tension: here,
+                max_compression: here,
+            },
+            Some(mut e) => {
+                if value > e.max_tension.value {
+                    e.max_tension = here;
+                }
+                if value < e.max_compression.value {
+                    e.max_compression = here;
+                }
+                e
+            }
+        });
+    }
+    found
+}
+
+/// Convex hull by Andrew's monotone chain (A. M. Andrew, "Another efficient algorithm for
+/// convex hulls in two dimensions", Information Processing Letters 9, 1979).
+/// Counter-clockwise, starting from the lowest-x (then lowest-y) point, without collinear or
+/// repeated points. Non-finite points are ignored; with fewer than three distinct points the
+/// distinct points are returned (sorted), and a collinear set gives its two ends.
+pub fn convex_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
+    let mut pts: Vec<(f64, f64)> = points
+        .iter()
+        .copied()
+        .filter(|p| p.0.is_finite() && p.1.is_finite())
+        .collect();
+    pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
+    pts.dedup();
+    if pts.len() < 3 {
+        return pts;
+    }
+    let cross = |o: (f64, f64), a: (f64, f64), b: (f64, f64)| {
+        (a.0 - o.0) * (b.1 - o.1) - (a.1 - o.1) * (b.0 - o.0)
+    };
+    // Lower chain left to right, then upper chain right to left; each keeps only strict left
+    // turns, and each chain's last point is dropped because it starts the other chain.
+    let mut hull: Vec<(f64, f64)> = Vec::with_capacity(2 * pts.len());
+    let add = |hull: &mut Vec<(f64, f64)>, chain_start: usize, p: (f64, f64)| {
+        while let [.., o, a] = hull[chain_start..] {
+            if cross(o, a, p) > 0.0 {
+                break;
+            }
+            hull.pop();
+        }
+        hull.push(p);
+    };
+    for &p in &pts {
+        add(&mut hull, 0, p);
+    }
+    hull.pop();
+    let upper = hull.len();
+    for &p in pts.iter().rev() {
+        add(&mut hull, upper, p);
+    }
+    hull.pop();
+    hull
+}
+
+#[cfg(test)]
+pub(crate) mod test_support {
+    //! Section properties of a simple polygon, for tests only (the project's own property
+    //! code lives in `props`): the shoelace-type sums of Steger, "On the calculation of
+    //! arbitrary moments of polygons" (1996), moved to the centroid by the parallel-axis theorem.
+    use super::Centroidal;
+
+    pub(crate) fn polygon_centroidal(pts: &[(f64, f64)]) -> Centroidal {
+        let (mut a, mut sx, mut sy, mut ixx, mut iyy, mut ixy) = (0.0, 0.0, 0.0, 0.0, 0.0, 0.0);
+        for (i, &(x0, y0)) in pts.iter().enumerate() {
+            let (x1, y1) = pts[(i + 1) % pts.len()];
+            let c = x0 * y1 - x1 * y0;
+            a += c / 2.0;
+            sx += (x0 + x1) * c / 6.0;
+            sy += (y0 + y1) * c / 6.0;
+            ixx += (y0 * y0 + y0 * y1 + y1 * y1) * c / 12.0;
+            iyy += (x0 * x0 + x0 * x1 + x1 * x1) * c / 12.0;
+            ixy += (x0 * y1 + 2.0 * x0 * y0 + 2.0 * x1 * y1 + x1 * y0) * c / 24.0;
+        }
+        let (cx, cy) = (sx / a, sy / a);
+        Centroidal {
+            area: a,
+            cx,
+            cy,
+            ixx: ixx - a * cy * cy,
+            iyy: iyy - a * cx * cx,
+            ixy: ixy - a * cx * cy,
+        }
+    }
+
+    /// Corners (CCW) of a b × h rectangle centred on (cx, cy), turned by `deg` about its centre.
+    pub(crate) fn rectangle(b: f64, h: f64, cx: f64, cy: f64, deg: f64) -> Vec<(f64, f64)> {
+        let (s, c) = deg.to_radians().sin_cos();
+        [(-b, -h), (b, -h), (b, h), (-b, h)]
+            .iter()
+            .map(|&(u, v)| {
+                let (u, v) = (u / 2.0, v / 2.0);
+                (cx + u * c - v * s, cy + u * s + v * c)
+            })
+            .collect()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::test_support::{polygon_centroidal, rectangle};
+    use super::*;
+
+    fn close(a: f64, b: f64, rel: f64) -> bool {
+        (a - b).abs() <= rel * a.abs().max(b.abs()).max(1e-300)
+    }
+
+    #[test]
+    fn rectangle_flexure_formula_signs() {
+        // Flexure formula σ = −M·y/I with the file's signs (Gere & Goodno, Mechanics of
+        // Materials, "normal stresses in beams"): positive Mx compresses +y, positive My +x.
+        let (b, h) = (300.0, 500.0);
+        let sec = polygon_centroidal(&rectangle(b, h, 40.0, -20.0, 0.0));
+        let ixx = b * h.powi(3) / 12.0;
+        let iyy = h * b.powi(3) / 12.0;
+        assert!(close(sec.ixx, ixx, 1e-12) && close(sec.iyy, iyy, 1e-12));
+        let mx = StressField::new(
+            &sec,
+            &Actions {
+                n: 0.0,
+                mx: 2e8,
+                my: 0.0,
+            },
+        )
+        .unwrap();
+        let top = mx.at(40.0, -20.0 + h / 2.0);
+        assert!(close(top, -2e8 * (h / 2.0) / ixx, 1e-12));
+        assert!(top < 0.0);
+        let my = StressField::new(
+            &sec,
+            &Actions {
+                n: 0.0,
+                mx: 0.0,
+                my: 5e7,
+            },
+        )
+        .unwrap();
+        let right = my.at(40.0 + b / 2.0, -20.0);
+        assert!(close(right, -5e7 * (b / 2.0) / iyy, 1e-12));
+        assert!(right < 0.0);
+        assert!(mx.neutral_axis_angle_deg().unwrap().abs() < 1e-12);
+        assert!(close(my.neutral_axis_angle_deg().unwrap(), 90.0, 1e-12));
+    }
+
+    #[test]
+    fn eccentric_axial_load_corner_stresses() {
+        // Rectangular column under N with biaxial bending: corner stresses
+        // σ = N/A ± Mx/Sx ± My/Sy (Gere & Goodno, Mechanics of Materials, "eccentric axial loads").
+        let (b, h) = (400.0, 600.0);
+        let pts = rectangle(b, h, 0.0, 0.0, 0.0);
+        let sec = polygon_centroidal(&pts);
+        let act = Actions {
+            n: -1.2e6,
+            mx: 9e7,
+            my: -3e7,
+        };
+        let f = StressField::new(&sec, &act).unwrap();
+        let (area, sx, sy) = (b * h, b * h * h / 6.0, h * b * b / 6.0);
+        let e = extremes(&f, &pts).unwrap();
+        // Mx > 0 puts tension at −y; My < 0 puts compression at −x, tension at +x.
+        let tension = act.n / area + act.mx / sx - act.my / sy;
+        let compression = act.n / area - act.mx / sx + act.my / sy;
+        assert!(close(e.max_tension.value, tension, 1e-12));
+        assert_eq!((e.max_tension.x, e.max_tension.y), (b / 2.0, -h / 2.0));
+        assert!(close(e.max_compression.value, compression, 1e-12));
+        assert_eq!(
+            (e.max_compression.x, e.max_compression.y),
+            (-b / 2.0, h / 2.0)
+        );
+    }
+
+    #[test]
+    fn unsymmetric_section_agrees_with_principal_axis_method() {
+        // Unequal-leg angle 150 × 90 × 12 (our own dimensions). The textbook route for
+        // unsymmetric bending resolves the moment on the principal axes and applies the
+        // flexure formula about each (Gere & Goodno, "bending of unsymmetric beams").
+        let l_shape = [
+            (0.0, 0.0),
+            (90.0, 0.0),
+            (90.0, 12.0),
+            (12.0, 12.0),
+            (12.0, 150.0),
+            (0.0, 150.0),
+        ];
+        let sec = polygon_centroidal(&l_shape);
+        assert!(sec.ixy.abs() > 0.1 * sec.ixx.min(sec.iyy));
+        let act = Actions {
+            n: 5e4,
+            mx: 3e6,
+            my: -1e6,
+        };
+        let f = StressField::new(&sec, &act).unwrap();
+
+        // Principal axes (Mohr's circle): u at θ from +x.
+        let theta = 0.5 * (-2.0 * sec.ixy).atan2(sec.ixx - sec.iyy);
+        let (s, c) = theta.sin_cos();
+        let i_about_u = sec.ixx * c * c + sec.iyy * s * s - 2.0 * sec.ixy * s * c; // ∫v² dA
+        let i_about_v = sec.ixx * s * s + sec.iyy * c * c + 2.0 * sec.ixy * s * c; // ∫u² dA
+                                                                                   // The pair (My, Mx) is conjugate to (x, y) and turns with the axes.
+        let m_u = act.my * c + act.mx * s; // conjugate to u
+        let m_v = -act.my * s + act.mx * c; // conjugate to v
+        for &(x, y) in &l_shape {
+            let (xr, yr) = (x - sec.cx, y - sec.cy);
+            let u = xr * c + yr * s;
+            let v = -xr * s + yr * c;
+            let expected = act.n / sec.area - m_u * u / i_about_v - m_v * v / i_about_u;
+            assert!(close(f.at(x, y), expected, 1e-10), "at ({x}, {y})");
+        }
+    }
+
+    #[test]
+    fn neutral_axis_clipped_to_box() {
+        // Mx with axial tension on a 200 × 400 rectangle: σ = N/A − Mx·y/Ixx is zero at
+        // y = N·Ixx/(A·Mx) (flexure formula), a horizontal line across the box.
+        let sec = polygon_centroidal(&rectangle(200.0, 400.0, 0.0, 0.0, 0.0));
+        let act = Actions {
+            n: 4e5,
+            mx: 1e8,
+            my: 0.0,
+        };
+        let f = StressField::new(&sec, &act).unwrap();
+        let y0 = act.n * sec.ixx / (sec.area * act.mx);
+        let [p, q] = f.neutral_axis_in_box(-100.0, 100.0, -200.0, 200.0).unwrap();
+        assert!(close(p.1, y0, 1e-12) && close(q.1, y0, 1e-12));
+        assert!(close((p.0 - q.0).abs(), 200.0, 1e-12));
+        // A box wholly above the line is missed.
+        assert!(f.neutral_axis_in_box(-100.0, 100.0, 150.0, 200.0).is_none());
+        // Biaxial case: both ends on the box boundary with σ = 0.
+        let g = StressField::new(
+            &sec,
+            &Actions {
+                n: 1e5,
+                mx: 1e8,
+                my: 2e7,
+            },
+        )
+        .unwrap();
+        let ends = g.neutral_axis_in_box(-100.0, 100.0, -200.0, 200.0).unwrap();
+        for (x, y) in ends {
+            assert!(g.at(x, y).abs() < 1e-12);
+            let on_edge = [x + 100.0, x - 100.0, y + 200.0, y - 200.0]
+                .iter()
+                .any(|d| d.abs() < 1e-9);
+            assert!(on_edge);
+        }
+        let pure = StressField::new(
+            &sec,
+            &Actions {
+                n: 1e5,
+                ..Actions::default()
+            },
+        )
+        .unwrap();
+        assert!(pure.neutral_axis_angle_deg().is_none());
+        assert!(pure.neutral_axis_in_box(-1.0, 1.0, -1.0, 1.0).is_none());
+        assert!(g.neutral_axis_in_box(1.0, -1.0, 0.0, 1.0).is_none());
+        assert!(g.neutral_axis_in_box(f64::NAN, 1.0, 0.0, 1.0).is_none());
+    }
+
+    #[test]
+    fn neutral_axis_angle_of_rotated_rectangle() {
+        // A rectangle turned by 30° bent about its own major axis: the neutral axis is that axis
+        // (flexure formula in the rectangle's principal frame), so it lies at 30°.
+        let pts = rectangle(200.0, 500.0, 0.0, 0.0, 30.0);
+        let sec = polygon_centroidal(&pts);
+        let (s, c) = 30f64.to_radians().sin_cos();
+        // Moment conjugate to the rectangle's own v axis: (My, Mx) = M·(−sin, cos).
+        let m = 1e7;
+        let f = StressField::new(
+            &sec,
+            &Actions {
+                n: 0.0,
+                mx: m * c,
+                my: -m * s,
+            },
+        )
+        .unwrap();
+        assert!(close(f.neutral_axis_angle_deg().unwrap(), 30.0, 1e-10));
+        // Turned by −60°: the same bending about its own long axis, now at −60°.
+        let sec = polygon_centroidal(&rectangle(200.0, 500.0, 0.0, 0.0, -60.0));
+        let (s, c) = (-60f64).to_radians().sin_cos();
+        let f = StressField::new(
+            &sec,
+            &Actions {
+                n: 0.0,
+                mx: m * c,
+                my: -m * s,
+            },
+        )
+        .unwrap();
+        assert!(close(f.neutral_axis_angle_deg().unwrap(), -60.0, 1e-10));
+    }
+
+    #[test]
+    fn scaled_field_and_invalid_sections() {
+        let sec = polygon_centroidal(&rectangle(100.0, 100.0, 0.0, 0.0, 0.0));
+        let f = StressField::new(
+            &sec,
+            &Actions {
+                n: 1e4,
+                mx: 1e6,
+                my: 2e6,
+            },
+        )
+        .unwrap();
+        // Transformed section: stress in a material with modular ratio n is n·σ.
+        let g = f.scaled(15.0);
+        assert!(close(g.at(30.0, -10.0), 15.0 * f.at(30.0, -10.0), 1e-14));
+        let bad = Centroidal { ixy: 1e9, ..sec };
+        assert!(StressField::new(&bad, &Actions::default()).is_none());
+        let bad = Centroidal { area: 0.0, ..sec };
+        assert!(StressField::new(&bad, &Actions::default()).is_none());
+        let bad = Centroidal {
+            ixx: f64::NAN,
+            ..sec
+        };
+        assert!(StressField::new(&bad, &Actions::default()).is_none());
+        assert!(extremes(&f, &[]).is_none());
+    }
+
+    #[test]
+    fn hull_of_awkward_point_sets() {
+        let square = [(0.0, 0.0), (1.0, 0.0), (1.0, 1.0), (0.0, 1.0)];
+        let mut pts = square.to_vec();
+        pts.extend([(0.5, 0.5), (0.5, 0.0), (1.0, 0.5), (0.0, 0.0), (0.2, 0.9)]);
+        pts.push((f64::NAN, 3.0));
+        assert_eq!(convex_hull(&pts), square.to_vec());
+        assert_eq!(convex_hull(&[]), Vec::<(f64, f64)>::new());
+        assert_eq!(convex_hull(&[(1.0, 2.0), (1.0, 2.0)]), vec![(1.0, 2.0)]);
+        assert_eq!(
+            convex_hull(&[(2.0, 2.0), (0.0, 0.0), (1.0, 1.0), (3.0, 3.0)]),
+            vec![(0.0, 0.0), (3.0, 3.0)]
+        );
+        // Clockwise input comes back counter-clockwise (positive shoelace area).
+        let cw: Vec<_> = square.iter().rev().copied().collect();
+        let hull = convex_hull(&cw);
+        assert!(polygon_centroidal(&hull).area > 0.0);
+    }
+}
