@@ -8,7 +8,7 @@
 //! in e per vertex; the kern is their intersection (Gere & Goodno, Mechanics of Materials,
 //! "core of a section").
 
-use super::stress::{convex_hull, Centroidal};
+use super::stress::{convex_hull, det, Centroidal};
 
 /// The kern: points e where an axial compressive load causes no tension anywhere, as a
 /// counter-clockwise convex polygon in the file frame.
@@ -36,7 +36,7 @@ use super::stress::{convex_hull, Centroidal};
 /// assert!(kern.iter().any(|&(x, y)| x.abs() < 1e-12 && (y - 20.0).abs() < 1e-12));
 /// ```
 pub fn kern_polygon(sec: &Centroidal, hull: &[(f64, f64)]) -> Vec<(f64, f64)> {
-    let d = sec.det();
+    let d = det(sec);
     if !(sec.area > 0.0 && d > 0.0 && sec.cx.is_finite() && sec.cy.is_finite()) {
         return Vec::new();
     }

@@ -7,23 +7,14 @@
 //! fibres on the +x side. All values are in whatever consistent units the caller supplies
 //! (e.g. N, mm, N·mm and MPa); nothing here converts units.
 
-/// Centroidal properties the stress calculation needs. Coordinates in the file frame;
-/// `ixx = ∫(y−cy)² dA`, `iyy = ∫(x−cx)² dA`, `ixy = ∫(x−cx)(y−cy) dA`.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct Centroidal {
-    pub area: f64,
-    pub cx: f64,
-    pub cy: f64,
-    pub ixx: f64,
-    pub iyy: f64,
-    pub ixy: f64,
-}
+/// Centroidal properties the stress calculation needs (the section's own, from
+/// [`crate::props`]): area, centroid in the file frame, `ixx = ∫(y−cy)² dA`,
+/// `iyy = ∫(x−cx)² dA`, `ixy = ∫(x−cx)(y−cy) dA`.
+pub use crate::props::Centroidal;
 
-impl Centroidal {
-    /// `D = Ixx·Iyy − Ixy²`, positive for every real section (Cauchy–Schwarz).
-    pub fn det(&self) -> f64 {
-        self.ixx * self.iyy - self.ixy * self.ixy
-    }
+/// `D = Ixx·Iyy − Ixy²`, positive for every real section (Cauchy–Schwarz).
+pub(crate) fn det(sec: &Centroidal) -> f64 {
+    sec.ixx * sec.iyy - sec.ixy * sec.ixy
 }
 
 /// Internal forces on the section: `n` tension positive; positive `mx` compresses the fibres
@@ -67,7 +58,7 @@ impl StressField {
     /// assert!((f.at(0.0, 100.0) + 1.5).abs() < 1e-12);
     /// ```
     pub fn new(sec: &Centroidal, act: &Actions) -> Option<StressField> {
-        let d = sec.det();
+        let d = det(sec);
         if !(sec.area > 0.0 && d > 0.0) {
             return None;
         }
