@@ -6,9 +6,13 @@
 //!
 //! The core (`model`, `geom`, `props`, `fe`, `checks`) does no terminal or file I/O.
 
+pub mod analysis;
 pub mod checks;
+pub mod cli;
 pub mod fe;
+pub mod file;
 pub mod geom;
 pub mod model;
 pub mod numfmt;
 pub mod props;
+pub mod report;

@@ -1,1 +1,73 @@
-fn main() {}
+//! `kern`: arguments and dispatch only; the work is in the library.
+
+use clap::{Parser, Subcommand};
+use kern::analysis::Options;
+use kern::cli::{calc, CalcArgs};
+use kern::fe::TorsionOptions;
+use kern::model::units::LengthUnit;
+use std::path::PathBuf;
+
+/// Design and check beam and column cross-sections in the terminal.
+#[derive(Parser)]
+#[command(name = "kern", version, about, long_about = None)]
+struct Cli {
+    #[command(subcommand)]
+    verb: Option<Verb>,
+    /// A section file to open in the workbench (without one, a bundled demo opens).
+    file: Option<PathBuf>,
+}
+
+#[derive(Subcommand)]
+enum Verb {
+    /// Compute every property of one or more section files.
+    Calc {
+        #[arg(required = true)]
+        files: Vec<PathBuf>,
+        /// One JSON object per file, one per line (FORMAT.md).
+        #[arg(long)]
+        json: bool,
+        /// Express lengths in this unit: mm, cm, m, in or ft.
+        #[arg(long, value_parser = parse_unit)]
+        units: Option<LengthUnit>,
+        /// Skip the finite-element torsion solve.
+        #[arg(long)]
+        no_torsion: bool,
+        /// Target relative error of the torsion results.
+        #[arg(long, default_value_t = 1e-3)]
+        torsion_tol: f64,
+    },
+}
+
+fn parse_unit(s: &str) -> Result<LengthUnit, String> {
+    LengthUnit::parse(s).ok_or_else(|| format!("unknown unit `{s}`; use mm, cm, m, in or ft"))
+}
+
+fn main() {
+    let cli = Cli::parse();
+    let status = match cli.verb {
+        Some(Verb::Calc {
+            files,
+            json,
+            units,
+            no_torsion,
+            torsion_tol,
+        }) => {
+            let torsion = (!no_torsion).then(|| TorsionOptions {
+                tol: torsion_tol,
+                ..TorsionOptions::default()
+            });
+            calc(&CalcArgs {
+                files,
+                json,
+                units,
+                options: Options { torsion },
+            })
+        }
+        None => {
+            println!("kern: the workbench is not built yet; try `kern calc FILE...` (kern --help)");
+            let _ = cli.file;
+            0
+        }
+    };
+    std::process::exit(status);
+}

@@ -1,0 +1,24 @@
+//! Section files on disk and in text: reading TOML into a [`crate::model::Document`]
+//! with the place of every value ([`read`]), turning byte offsets into line and
+//! column ([`locate`]), and saving atomically ([`save`]).
+
+pub mod read;
+pub mod save;
+
+pub use read::parse;
+
+/// Line and column (both from 1, columns counted in characters) of a byte offset.
+///
+/// ```
+/// assert_eq!(kern::file::locate("a = 1\nbb = 2\n", 8), (2, 3));
+/// ```
+pub fn locate(text: &str, offset: usize) -> (usize, usize) {
+    let mut off = offset.min(text.len());
+    while !text.is_char_boundary(off) {
+        off -= 1;
+    }
+    let before = &text[..off];
+    let line = before.matches('\n').count() + 1;
+    let col = before.rsplit('\n').next().map_or(0, |l| l.chars().count()) + 1;
+    (line, col)
+}

@@ -1,0 +1,477 @@
+//! Reading a section file (FORMAT.md, format 1) into a [`Document`], keeping the byte
+//! range of every value so that each error can say `line:column`. Unknown keys are
+//! errors, so a typo never silently changes a result.
+
+use crate::geom::shapes::SHAPES;
+use crate::geom::Anchor;
+use crate::model::document::ActionsDoc;
+use crate::model::units::LengthUnit;
+use crate::model::{
+    Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, Val, Value,
+};
+use toml_edit::{ImDocument, Item, TableLike};
+
+const TOP_KEYS: &[&str] = &[
+    "format",
+    "title",
+    "units",
+    "params",
+    "materials",
+    "parts",
+    "actions",
+    "member",
+];
+const PART_KEYS: &[&str] = &[
+    "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "enabled", "material",
+];
+const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density"];
+const ACTION_KEYS: &[&str] = &["N", "Mx", "My"];
+const MEMBER_KEYS: &[&str] = &[
+    "span",
+    "support",
+    "udl",
+    "point",
+    "deflection_limit",
+    "self_weight",
+];
+
+/// Parses the text of a section file.
+pub fn parse(text: &str) -> Result<Document, Diagnostic> {
+    let doc = ImDocument::parse(text).map_err(|e| {
+        let span = e.span().unwrap_or(0..1);
+        Diagnostic::new(span, format!("not valid TOML: {}", e.message().trim()))
+    })?;
+    let root = doc.as_table();
+    let r = Reader;
+    r.known_keys(root, TOP_KEYS, "the top level", 0..1)?;
+    match root.get("format") {
+        None => return Err(Diagnostic::new(0..1, "missing `format = 1` at the top of the file")),
+        Some(item) => match item.as_integer() {
+            Some(1) => {}
+            Some(n) if n > 1 => {
+                return Err(Diagnostic::new(span(item, 0..1), format!("format {n} is newer than this kern understands (it reads format 1); update kern")))
+            }
+            _ => return Err(Diagnostic::new(span(item, 0..1), "`format` must be the integer 1")),
+        },
+    }
+    let title = r.opt_str(root, "title", 0..1)?.map(|s| s.0);
+    let (units, units_span) = match r.opt_str(root, "units", 0..1)? {
+        None => {
+            return Err(Diagnostic::new(
+                0..1,
+                "missing `units`; add units = \"mm\" (or cm, m, in, ft)",
+            ))
+        }
+        Some((u, sp)) => match LengthUnit::parse(&u) {
+            Some(unit) => (unit, sp),
+            None => {
+                return Err(Diagnostic::new(
+                    sp,
+                    format!("unknown length unit `{u}`; use mm, cm, m, in or ft"),
+                ))
+            }
+        },
+    };
+    let mut params = Vec::new();
+    if let Some(item) = root.get("params") {
+        let t = r.table(item, "params", 0..1)?;
+        for (k, v) in t.iter() {
+            let ks = t
+                .key(k)
+                .and_then(|k| k.span())
+                .unwrap_or_else(|| span(v, 0..1));
+            params.push((k.to_string(), ks.clone(), r.val(v, k, ks)?));
+        }
+    }
+    let materials = r
+        .tables(root, "materials")?
+        .into_iter()
+        .map(|(t, sp)| r.material(t, sp))
+        .collect::<Result<Vec<_>, _>>()?;
+    for (i, m) in materials.iter().enumerate() {
+        if materials[..i].iter().any(|o| o.name == m.name) {
+            return Err(Diagnostic::new(
+                m.span.clone(),
+                format!(
+                    "material `{}` is defined twice; give each material its own name",
+                    m.name
+                ),
+            ));
+        }
+    }
+    let parts = r
+        .tables(root, "parts")?
+        .into_iter()
+        .map(|(t, sp)| r.part(t, sp))
+        .collect::<Result<Vec<_>, _>>()?;
+    let actions = match root.get("actions") {
+        None => None,
+        Some(item) => {
+            let t = r.table(item, "actions", 0..1)?;
+            let sp = span(item, 0..1);
+            r.known_keys(t, ACTION_KEYS, "[actions]", sp.clone())?;
+            Some(ActionsDoc {
+                n: r.opt_val(t, "N", sp.clone())?,
+                mx: r.opt_val(t, "Mx", sp.clone())?,
+                my: r.opt_val(t, "My", sp.clone())?,
+                span: sp,
+            })
+        }
+    };
+    let member = match root.get("member") {
+        None => None,
+        Some(item) => Some(r.member(r.table(item, "member", 0..1)?, span(item, 0..1))?),
+    };
+    Ok(Document {
+        title,
+        units,
+        units_span,
+        params,
+        materials,
+        parts,
+        actions,
+        member,
+    })
+}
+
+fn span(item: &Item, fallback: Span) -> Span {
+    item.span().unwrap_or(fallback)
+}
+
+/// Edit distance, for "did you mean" hints.
+fn distance(a: &str, b: &str) -> usize {
+    let b: Vec<char> = b.chars().collect();
+    let mut row: Vec<usize> = (0..=b.len()).collect();
+    for (i, ca) in a.chars().enumerate() {
+        let mut prev = row[0];
+        row[0] = i + 1;
+        for (j, cb) in b.iter().enumerate() {
+            let cur = row[j + 1];
+            row[j + 1] = (prev + usize::from(ca != *cb)).min(row[j] + 1).min(cur + 1);
+            prev = cur;
+        }
+    }
+    row[b.len()]
+}
+
+struct Reader;
+
+impl Reader {
+    fn known_keys(
+        &self,
+        t: &dyn TableLike,
+        allowed: &[&str],
+        place: &str,
+        fallback: Span,
+    ) -> Result<(), Diagnostic> {
+        for (k, v) in t.iter() {
+            if !allowed.contains(&k) {
+                let sp = t
+                    .key(k)
+                    .and_then(|k| k.span())
+                    .unwrap_or_else(|| span(v, fallback.clone()));
+                let best = allowed
+                    .iter()
+                    .min_by_key(|a| distance(k, a))
+                    .filter(|a| distance(k, a) <= 2);
+                let hint = match best {
+                    Some(b) => format!("did you mean `{b}`?"),
+                    None => format!("allowed here: {}", allowed.join(", ")),
+                };
+                return Err(Diagnostic::new(
+                    sp,
+                    format!("unknown key `{k}` in {place}; {hint}"),
+                ));
+            }
+        }
+        Ok(())
+    }
+
+    fn table<'a>(
+        &self,
+        item: &'a Item,
+        name: &str,
+        fallback: Span,
+    ) -> Result<&'a dyn TableLike, Diagnostic> {
+        item.as_table_like().ok_or_else(|| {
+            Diagnostic::new(
+                span(item, fallback),
+                format!("`{name}` must be a table, e.g. [{name}]"),
+            )
+        })
+    }
+
+    /// `[[name]]` tables (or an inline array of tables) with the span of each.
+    fn tables<'a>(
+        &self,
+        root: &'a toml_edit::Table,
+        name: &str,
+    ) -> Result<Vec<(&'a dyn TableLike, Span)>, Diagnostic> {
+        let Some(item) = root.get(name) else {
+            return Ok(Vec::new());
+        };
+        if let Some(aot) = item.as_array_of_tables() {
+            return Ok(aot
+                .iter()
+                .map(|t| (t as &dyn TableLike, t.span().unwrap_or(0..1)))
+                .collect());
+        }
+        if let Some(arr) = item.as_array() {
+            return arr
+                .iter()
+                .map(|v| match v.as_inline_table() {
+                    Some(t) => Ok((t as &dyn TableLike, v.span().unwrap_or(0..1))),
+                    None => Err(Diagnostic::new(
+                        v.span().unwrap_or(0..1),
+                        format!("each entry of `{name}` must be a table"),
+                    )),
+                })
+                .collect();
+        }
+        Err(Diagnostic::new(
+            span(item, 0..1),
+            format!("`{name}` must be written as [[{name}]] tables"),
+        ))
+    }
+
+    fn val(&self, item: &Item, key: &str, fallback: Span) -> Result<Val, Diagnostic> {
+        let sp = span(item, fallback);
+        let value = match item.as_value() {
+            Some(v) if v.as_integer().is_some() => Value::Number(v.as_integer().unwrap_or(0) as f64),
+            Some(v) if v.as_float().is_some() => Value::Number(v.as_float().unwrap_or(f64::NAN)),
+            Some(v) if v.as_str().is_some() => Value::Expr(v.as_str().unwrap_or("").to_string()),
+            _ => {
+                return Err(Diagnostic::new(
+                    sp,
+                    format!("`{key}` must be a number or an expression in quotes, e.g. {key} = 12 or {key} = \"2*tf\""),
+                ))
+            }
+        };
+        if let Value::Number(x) = value {
+            if !x.is_finite() {
+                return Err(Diagnostic::new(
+                    sp,
+                    format!("`{key}` is not a finite number"),
+                ));
+            }
+        }
+        Ok(Val { value, span: sp })
+    }
+
+    fn opt_val(
+        &self,
+        t: &dyn TableLike,
+        key: &str,
+        fallback: Span,
+    ) -> Result<Option<Val>, Diagnostic> {
+        t.get(key).map(|v| self.val(v, key, fallback)).transpose()
+    }
+
+    fn opt_str(
+        &self,
+        t: &dyn TableLike,
+        key: &str,
+        fallback: Span,
+    ) -> Result<Option<(String, Span)>, Diagnostic> {
+        match t.get(key) {
+            None => Ok(None),
+            Some(item) => match item.as_str() {
+                Some(s) => Ok(Some((s.to_string(), span(item, fallback)))),
+                None => Err(Diagnostic::new(
+                    span(item, fallback),
+                    format!("`{key}` must be a string in quotes"),
+                )),
+            },
+        }
+    }
+
+    fn opt_bool(
+        &self,
+        t: &dyn TableLike,
+        key: &str,
+        default: bool,
+        fallback: Span,
+    ) -> Result<bool, Diagnostic> {
+        match t.get(key) {
+            None => Ok(default),
+            Some(item) => item.as_bool().ok_or_else(|| {
+                Diagnostic::new(
+                    span(item, fallback),
+                    format!("`{key}` must be true or false"),
+                )
+            }),
+        }
+    }
+
+    /// `[x, y]` of two values.
+    fn pair(&self, item: &Item, key: &str, fallback: Span) -> Result<[Val; 2], Diagnostic> {
+        let sp = span(item, fallback);
+        let bad = || {
+            Diagnostic::new(
+                sp.clone(),
+                format!("`{key}` must be a pair [x, y] of numbers or expressions"),
+            )
+        };
+        let arr = item.as_array().ok_or_else(bad)?;
+        if arr.len() != 2 {
+            return Err(bad());
+        }
+        let one = |i: usize| -> Result<Val, Diagnostic> {
+            let v = arr.get(i).ok_or_else(bad)?;
+            self.val(&Item::Value(v.clone()), key, v.span().unwrap_or(sp.clone()))
+                .map(|mut val| {
+                    val.span = v.span().unwrap_or(sp.clone());
+                    val
+                })
+        };
+        Ok([one(0)?, one(1)?])
+    }
+
+    fn material(&self, t: &dyn TableLike, sp: Span) -> Result<MaterialDoc, Diagnostic> {
+        self.known_keys(t, MATERIAL_KEYS, "[[materials]]", sp.clone())?;
+        let name = self
+            .opt_str(t, "name", sp.clone())?
+            .ok_or_else(|| {
+                Diagnostic::new(
+                    sp.clone(),
+                    "a material needs a `name`, e.g. name = \"steel\"",
+                )
+            })?
+            .0;
+        Ok(MaterialDoc {
+            name,
+            e: self.opt_val(t, "E", sp.clone())?,
+            fy: self.opt_val(t, "fy", sp.clone())?,
+            density: self.opt_val(t, "density", sp.clone())?,
+            span: sp,
+        })
+    }
+
+    fn part(&self, t: &dyn TableLike, sp: Span) -> Result<PartDoc, Diagnostic> {
+        let (shape, shape_span) = self.opt_str(t, "shape", sp.clone())?.ok_or_else(|| {
+            Diagnostic::new(sp.clone(), "a part needs a `shape`, e.g. shape = \"rect\"")
+        })?;
+        let Some((_, req, opt)) = SHAPES.iter().find(|s| s.0 == shape) else {
+            let best = SHAPES
+                .iter()
+                .map(|s| s.0)
+                .min_by_key(|s| distance(&shape, s))
+                .filter(|s| distance(&shape, s) <= 3);
+            let hint = best.map_or(String::new(), |b| format!("did you mean `{b}`? "));
+            return Err(Diagnostic::new(
+                shape_span,
+                format!(
+                    "unknown shape `{shape}`; {hint}shapes: {}",
+                    crate::geom::shapes::shape_names()
+                ),
+            ));
+        };
+        let mut allowed: Vec<&str> = PART_KEYS.to_vec();
+        allowed.extend(req.iter());
+        allowed.extend(opt.iter().map(|o| o.0));
+        if shape == "polygon" {
+            allowed.push("points");
+        }
+        self.known_keys(t, &allowed, &format!("a {shape} part"), sp.clone())?;
+        let mut dims = Vec::new();
+        for (k, v) in t.iter() {
+            if req.contains(&k) || opt.iter().any(|o| o.0 == k) {
+                dims.push((k.to_string(), self.val(v, k, sp.clone())?));
+            }
+        }
+        let (points, points_span) = match t.get("points") {
+            None => (None, sp.clone()),
+            Some(item) => {
+                let psp = span(item, sp.clone());
+                let arr = item.as_array().ok_or_else(|| {
+                    Diagnostic::new(psp.clone(), "`points` must be a list of [x, y] pairs")
+                })?;
+                let pts = arr
+                    .iter()
+                    .map(|v| {
+                        self.pair(
+                            &Item::Value(v.clone()),
+                            "points",
+                            v.span().unwrap_or(psp.clone()),
+                        )
+                    })
+                    .collect::<Result<Vec<_>, _>>()?;
+                (Some(pts), psp)
+            }
+        };
+        let anchor = match self.opt_str(t, "anchor", sp.clone())? {
+            None => None,
+            Some((a, asp)) => Some(Anchor::parse(&a).ok_or_else(|| {
+                let names: Vec<&str> = Anchor::ALL.iter().map(|a| a.1).collect();
+                Diagnostic::new(
+                    asp,
+                    format!("unknown anchor `{a}`; use one of {}", names.join(", ")),
+                )
+            })?),
+        };
+        Ok(PartDoc {
+            name: self.opt_str(t, "name", sp.clone())?.map(|s| s.0),
+            shape,
+            shape_span,
+            dims,
+            points,
+            points_span,
+            at: t
+                .get("at")
+                .map(|i| self.pair(i, "at", sp.clone()))
+                .transpose()?,
+            anchor,
+            rotate: self.opt_val(t, "rotate", sp.clone())?,
+            flip_x: self.opt_bool(t, "flip_x", false, sp.clone())?,
+            flip_y: self.opt_bool(t, "flip_y", false, sp.clone())?,
+            void: self.opt_bool(t, "void", false, sp.clone())?,
+            enabled: self.opt_bool(t, "enabled", true, sp.clone())?,
+            material: self.opt_str(t, "material", sp.clone())?,
+            span: sp,
+        })
+    }
+
+    fn member(&self, t: &dyn TableLike, sp: Span) -> Result<MemberDoc, Diagnostic> {
+        self.known_keys(t, MEMBER_KEYS, "[member]", sp.clone())?;
+        let length = self.opt_val(t, "span", sp.clone())?.ok_or_else(|| {
+            Diagnostic::new(sp.clone(), "[member] needs `span`, e.g. span = \"6 m\"")
+        })?;
+        let support = self
+            .opt_str(t, "support", sp.clone())?
+            .unwrap_or(("simple".into(), sp.clone()));
+        let mut points = Vec::new();
+        if let Some(item) = t.get("point") {
+            let psp = span(item, sp.clone());
+            let bad = || {
+                Diagnostic::new(
+                    psp.clone(),
+                    "`point` must be a list like [{ P = \"30 kN\", a = \"2 m\" }]",
+                )
+            };
+            let arr = item.as_array().ok_or_else(bad)?;
+            for v in arr.iter() {
+                let it = v.as_inline_table().ok_or_else(bad)?;
+                let vsp = v.span().unwrap_or(psp.clone());
+                self.known_keys(it, &["P", "a"], "a point load", vsp.clone())?;
+                let p = self.opt_val(it, "P", vsp.clone())?;
+                let a = self.opt_val(it, "a", vsp.clone())?;
+                match (p, a) {
+                    (Some(p), Some(a)) => points.push(PointDoc { p, a }),
+                    _ => return Err(Diagnostic::new(
+                        vsp,
+                        "a point load needs both `P` and `a`, e.g. { P = \"30 kN\", a = \"2 m\" }",
+                    )),
+                }
+            }
+        }
+        Ok(MemberDoc {
+            length,
+            support,
+            udl: self.opt_val(t, "udl", sp.clone())?,
+            points,
+            deflection_limit: self.opt_val(t, "deflection_limit", sp.clone())?,
+            self_weight: self.opt_bool(t, "self_weight", false, sp.clone())?,
+            span: sp,
+        })
+    }
+}

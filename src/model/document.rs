@@ -1,0 +1,112 @@
+//! A section file as written: every value keeps its text and where it stands, so
+//! that errors can point at it and the workbench can show and edit it.
+
+use super::diag::Span;
+use super::units::LengthUnit;
+use crate::geom::Anchor;
+
+/// A number as written in the file: a literal, or an expression in a string.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Value {
+    Number(f64),
+    Expr(String),
+}
+
+impl Value {
+    /// The value as the user would type it.
+    pub fn text(&self) -> String {
+        match self {
+            Value::Number(x) => format!("{x}"),
+            Value::Expr(s) => s.clone(),
+        }
+    }
+}
+
+/// A value with its place in the file.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Val {
+    pub value: Value,
+    pub span: Span,
+}
+
+/// `[[materials]]`: quantities are kept as written, with their units.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MaterialDoc {
+    pub name: String,
+    pub span: Span,
+    pub e: Option<Val>,
+    pub fy: Option<Val>,
+    pub density: Option<Val>,
+}
+
+/// `[[parts]]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PartDoc {
+    pub name: Option<String>,
+    pub shape: String,
+    pub shape_span: Span,
+    /// Dimension keys in file order (`b`, `h`, `tf`…).
+    pub dims: Vec<(String, Val)>,
+    /// `points` of a polygon.
+    pub points: Option<Vec<[Val; 2]>>,
+    pub points_span: Span,
+    pub at: Option<[Val; 2]>,
+    pub anchor: Option<Anchor>,
+    pub rotate: Option<Val>,
+    pub flip_x: bool,
+    pub flip_y: bool,
+    pub void: bool,
+    pub enabled: bool,
+    pub material: Option<(String, Span)>,
+    /// The part's table in the file.
+    pub span: Span,
+}
+
+impl PartDoc {
+    /// The value of dimension `key`, if written.
+    pub fn dim(&self, key: &str) -> Option<&Val> {
+        self.dims.iter().find(|(k, _)| k == key).map(|(_, v)| v)
+    }
+}
+
+/// One point load of `[member]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PointDoc {
+    pub p: Val,
+    pub a: Val,
+}
+
+/// `[member]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct MemberDoc {
+    pub span: Span,
+    pub length: Val,
+    pub support: (String, Span),
+    pub udl: Option<Val>,
+    pub points: Vec<PointDoc>,
+    pub deflection_limit: Option<Val>,
+    pub self_weight: bool,
+}
+
+/// `[actions]`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ActionsDoc {
+    pub span: Span,
+    pub n: Option<Val>,
+    pub mx: Option<Val>,
+    pub my: Option<Val>,
+}
+
+/// A whole section file.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Document {
+    pub title: Option<String>,
+    pub units: LengthUnit,
+    pub units_span: Span,
+    /// `[params]` in file order, with the span of each key.
+    pub params: Vec<(String, Span, Val)>,
+    pub materials: Vec<MaterialDoc>,
+    pub parts: Vec<PartDoc>,
+    pub actions: Option<ActionsDoc>,
+    pub member: Option<MemberDoc>,
+}

@@ -1,0 +1,76 @@
+//! Output units: lengths in the file's unit (or the one asked for with `--units`),
+//! forces, moments and stresses in kN, kN·m, MPa for metric lengths and kip, kip·ft,
+//! ksi for US customary ones (FORMAT.md, `quantity_units`).
+
+use crate::model::units::{
+    display_unit, mass_per_length_unit, DisplayUnit, Kind, LengthUnit, System,
+};
+
+/// How to express results.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct OutUnits {
+    pub length: LengthUnit,
+    /// Output length units per file length unit.
+    k: f64,
+    pub system: System,
+}
+
+impl OutUnits {
+    pub fn new(file: LengthUnit, wanted: Option<LengthUnit>) -> OutUnits {
+        let length = wanted.unwrap_or(file);
+        OutUnits {
+            length,
+            k: file.metres() / length.metres(),
+            system: System::of(length),
+        }
+    }
+
+    /// A file quantity of length dimension `power` (1 length, 2 area, 4 second moment…).
+    pub fn geo(&self, x: f64, power: i32) -> f64 {
+        x * self.k.powi(power)
+    }
+
+    /// A length given in metres.
+    pub fn metres(&self, x: f64) -> f64 {
+        x / self.length.metres()
+    }
+
+    pub fn force(&self) -> DisplayUnit {
+        display_unit(Kind::Force, self.system)
+    }
+    pub fn moment(&self) -> DisplayUnit {
+        display_unit(Kind::Moment, self.system)
+    }
+    pub fn stress(&self) -> DisplayUnit {
+        display_unit(Kind::Stress, self.system)
+    }
+    pub fn line_load(&self) -> DisplayUnit {
+        display_unit(Kind::LineLoad, self.system)
+    }
+    pub fn mass(&self) -> DisplayUnit {
+        mass_per_length_unit(self.system)
+    }
+
+    /// Deflections: the output length unit for metric files, inches for US customary.
+    pub fn deflection(&self) -> DisplayUnit {
+        match self.system {
+            System::Si => DisplayUnit {
+                name: self.length.name(),
+                si_per_unit: self.length.metres(),
+            },
+            System::Us => display_unit(Kind::Length, System::Us),
+        }
+    }
+
+    /// `mm²`, `in⁴`…
+    pub fn label(&self, power: i32) -> String {
+        let sup = match power {
+            2 => "²",
+            3 => "³",
+            4 => "⁴",
+            6 => "⁶",
+            _ => "",
+        };
+        format!("{}{sup}", self.length.name())
+    }
+}

@@ -1,0 +1,305 @@
+//! The results of an analysis as labelled rows (quantity, symbol, value, unit), in
+//! output units. The `kern calc` table, the Markdown sheet and the workbench's result
+//! panel all show these rows, so they always agree.
+
+use super::out::OutUnits;
+use crate::analysis::Analysis;
+
+/// One result.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Row {
+    /// The group heading the row belongs to (e.g. "Second moments").
+    pub group: &'static str,
+    /// Symbol, unique within a section (e.g. "Ixx"); baselines are matched by it.
+    pub symbol: String,
+    pub value: Option<f64>,
+    pub unit: String,
+    /// What the row means, in words.
+    pub meaning: &'static str,
+}
+
+/// Rows for every property, then torsion, stresses and the member check when present.
+pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
+    let p = &a.props;
+    let mut out = Vec::new();
+    let mut add = |group: &'static str,
+                   symbol: &str,
+                   value: Option<f64>,
+                   unit: String,
+                   meaning: &'static str| {
+        out.push(Row {
+            group,
+            symbol: symbol.to_string(),
+            value: value.filter(|v| v.is_finite()),
+            unit,
+            meaning,
+        });
+    };
+    let (l1, l2, l3, l4, l6) = (u.label(1), u.label(2), u.label(3), u.label(4), u.label(6));
+    let g = |x: f64, pw| Some(u.geo(x, pw));
+    add(
+        "Area",
+        "A",
+        g(p.area, 2),
+        l2.clone(),
+        "net area (voids subtracted, other materials by modular ratio)",
+    );
+    add(
+        "Centroid",
+        "x̄",
+        g(p.centroid.x, 1),
+        l1.clone(),
+        "centroid, x",
+    );
+    add(
+        "Centroid",
+        "ȳ",
+        g(p.centroid.y, 1),
+        l1.clone(),
+        "centroid, y",
+    );
+    add(
+        "Second moments",
+        "Ixx",
+        g(p.ixx, 4),
+        l4.clone(),
+        "about the centroidal axis parallel to x",
+    );
+    add(
+        "Second moments",
+        "Iyy",
+        g(p.iyy, 4),
+        l4.clone(),
+        "about the centroidal axis parallel to y",
+    );
+    add(
+        "Second moments",
+        "Ixy",
+        g(p.ixy, 4),
+        l4.clone(),
+        "product of inertia about the centroid",
+    );
+    add(
+        "Principal axes",
+        "I1",
+        g(p.principal.i1, 4),
+        l4.clone(),
+        "major principal second moment",
+    );
+    add(
+        "Principal axes",
+        "I2",
+        g(p.principal.i2, 4),
+        l4.clone(),
+        "minor principal second moment",
+    );
+    add(
+        "Principal axes",
+        "θ",
+        Some(p.principal.angle_deg),
+        "°".into(),
+        "angle from +x to the major axis, counter-clockwise",
+    );
+    add(
+        "Elastic moduli",
+        "Sx,top",
+        g(p.elastic.x_top, 3),
+        l3.clone(),
+        "Ixx / (ymax − ȳ)",
+    );
+    add(
+        "Elastic moduli",
+        "Sx,bot",
+        g(p.elastic.x_bottom, 3),
+        l3.clone(),
+        "Ixx / (ȳ − ymin)",
+    );
+    add(
+        "Elastic moduli",
+        "Sy,left",
+        g(p.elastic.y_left, 3),
+        l3.clone(),
+        "Iyy / (x̄ − xmin)",
+    );
+    add(
+        "Elastic moduli",
+        "Sy,right",
+        g(p.elastic.y_right, 3),
+        l3.clone(),
+        "Iyy / (xmax − x̄)",
+    );
+    if let Some(z) = p.plastic {
+        add(
+            "Plastic moduli",
+            "Zx",
+            g(z.zx, 3),
+            l3.clone(),
+            "plastic modulus about the axis parallel to x",
+        );
+        add(
+            "Plastic moduli",
+            "Zy",
+            g(z.zy, 3),
+            l3.clone(),
+            "plastic modulus about the axis parallel to y",
+        );
+        add(
+            "Plastic moduli",
+            "yp",
+            g(z.y, 1),
+            l1.clone(),
+            "height of the plastic neutral axis",
+        );
+        add(
+            "Plastic moduli",
+            "xp",
+            g(z.x, 1),
+            l1.clone(),
+            "position of the plastic neutral axis parallel to y",
+        );
+    }
+    add(
+        "Radii of gyration",
+        "rx",
+        g(p.gyration.x, 1),
+        l1.clone(),
+        "√(Ixx/A)",
+    );
+    add(
+        "Radii of gyration",
+        "ry",
+        g(p.gyration.y, 1),
+        l1.clone(),
+        "√(Iyy/A)",
+    );
+    add(
+        "Radii of gyration",
+        "rmin",
+        g(p.gyration.min, 1),
+        l1.clone(),
+        "√(I2/A)",
+    );
+    if let Some(m) = a.mass_per_metre() {
+        add(
+            "Mass",
+            "m",
+            Some(u.mass().from_si(m)),
+            u.mass().name.into(),
+            "mass per length",
+        );
+    }
+    if let Some(Ok(t)) = &a.torsion {
+        add(
+            "Torsion",
+            "J",
+            g(t.j, 4),
+            l4.clone(),
+            "Saint-Venant torsion constant",
+        );
+        add(
+            "Torsion",
+            "Cw",
+            g(t.cw, 6),
+            l6.clone(),
+            "warping constant about the shear centre",
+        );
+        add(
+            "Torsion",
+            "xs",
+            g(t.shear_centre.x, 1),
+            l1.clone(),
+            "shear centre, x",
+        );
+        add(
+            "Torsion",
+            "ys",
+            g(t.shear_centre.y, 1),
+            l1.clone(),
+            "shear centre, y",
+        );
+        add(
+            "Torsion",
+            "err",
+            Some(100.0 * t.rel_error),
+            "%".into(),
+            "estimated relative error of J and Cw",
+        );
+    }
+    let su = u.stress();
+    if let Some(s) = &a.stress {
+        add(
+            "Stresses",
+            "σmax",
+            Some(su.from_si(s.extremes.max_tension.value)),
+            su.name.into(),
+            "largest normal stress (tension +)",
+        );
+        add(
+            "Stresses",
+            "σmin",
+            Some(su.from_si(s.extremes.max_compression.value)),
+            su.name.into(),
+            "smallest normal stress (compression −)",
+        );
+        add(
+            "Stresses",
+            "NA",
+            s.neutral_axis_angle_deg,
+            "°".into(),
+            "angle of the neutral axis from +x",
+        );
+    }
+    if let Some(m) = &a.member {
+        let d = u.deflection();
+        add(
+            "Member",
+            "Mmax",
+            Some(u.moment().from_si(m.m_max)),
+            u.moment().name.into(),
+            "largest bending moment",
+        );
+        add(
+            "Member",
+            "Vmax",
+            Some(u.force().from_si(m.v_max)),
+            u.force().name.into(),
+            "largest shear force",
+        );
+        add(
+            "Member",
+            "δmax",
+            m.deflection_max.map(|x| d.from_si(x)),
+            d.name.into(),
+            "largest deflection",
+        );
+        add(
+            "Member",
+            "δallow",
+            Some(d.from_si(m.deflection_allowed)),
+            d.name.into(),
+            "span / deflection limit",
+        );
+        add(
+            "Member",
+            "σb",
+            Some(su.from_si(m.stress_max)),
+            su.name.into(),
+            "bending stress Mmax / min(Sx)",
+        );
+        add(
+            "Member",
+            "util",
+            m.utilization,
+            "".into(),
+            "utilisation: max(σb/fy, δ/δallow)",
+        );
+        add(
+            "Member",
+            "Mcr",
+            m.mcr.map(|x| u.moment().from_si(x)),
+            u.moment().name.into(),
+            "elastic critical moment (LTB), uniform moment, ν = 0.3",
+        );
+    }
+    out
+}
