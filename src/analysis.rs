@@ -2,6 +2,7 @@
 //! placed pieces → properties, torsion and checks. Everything a view shows comes from
 //! an [`Analysis`]; nothing here prints or touches files.
 
+use crate::checks::kern::kern_polygon;
 use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
 use crate::checks::stress::{extremes, Actions as StressActions, Extremes, StressField};
 use crate::fe::{torsion, Torsion, TorsionOptions};
@@ -63,6 +64,9 @@ pub struct Analysis {
     pub torsion: Option<Result<Torsion, String>>,
     pub stress: Option<StressResult>,
     pub member: Option<MemberResult>,
+    /// The kern: where an axial compressive load leaves no fibre in tension
+    /// (counter-clockwise polygon in the file frame; empty if it cannot be formed).
+    pub kern: Vec<(f64, f64)>,
     pub warnings: Vec<String>,
 }
 
@@ -91,8 +95,10 @@ impl Analysis {
             torsion,
             stress: None,
             member: None,
+            kern: Vec::new(),
             warnings: warns,
         };
+        a.kern = kern_polygon(&a.props.centroidal(), &outline_points(&a.pieces));
         a.stress = a.stresses();
         a.member = a.member_check();
         Ok(a)
@@ -239,6 +245,18 @@ pub fn extreme_candidates(
         }
     }
     out
+}
+
+/// Points on the outline of the solid parts, arcs cut into chords of at most 1°
+/// (for the convex hull behind the kern).
+pub fn outline_points(pieces: &[Piece]) -> Vec<(f64, f64)> {
+    pieces
+        .iter()
+        .filter(|p| !p.void)
+        .flat_map(|p| p.contours.iter())
+        .flat_map(|c| c.facets(1f64.to_radians()))
+        .map(|q| (q.x, q.y))
+        .collect()
 }
 
 /// Is angle `t` (any turn) within the sweep from `a0` to `a1`?

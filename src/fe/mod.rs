@@ -1,8 +1,11 @@
 //! Torsion placeholder until the finite-element solver lands.
 use crate::geom::{Piece, Pt};
+use std::sync::atomic::AtomicBool;
+use std::sync::Arc;
 #[derive(Debug, Clone, Default)]
 pub struct TorsionOptions {
     pub tol: f64,
+    pub cancel: Option<Arc<AtomicBool>>,
 }
 #[derive(Debug, Clone)]
 pub struct Torsion {
