@@ -14,9 +14,11 @@ impl Pt {
     pub const fn new(x: f64, y: f64) -> Pt {
         Pt { x, y }
     }
+    #[allow(clippy::should_implement_trait)]
     pub fn add(self, o: Pt) -> Pt {
         Pt::new(self.x + o.x, self.y + o.y)
     }
+    #[allow(clippy::should_implement_trait)]
     pub fn sub(self, o: Pt) -> Pt {
         Pt::new(self.x - o.x, self.y - o.y)
     }
@@ -33,6 +35,20 @@ impl Pt {
     }
     pub fn dist(self, o: Pt) -> f64 {
         (self.x - o.x).hypot(self.y - o.y)
+    }
+}
+
+impl std::ops::Add for Pt {
+    type Output = Pt;
+    fn add(self, o: Pt) -> Pt {
+        Pt::new(self.x + o.x, self.y + o.y)
+    }
+}
+
+impl std::ops::Sub for Pt {
+    type Output = Pt;
+    fn sub(self, o: Pt) -> Pt {
+        Pt::new(self.x - o.x, self.y - o.y)
     }
 }
 

@@ -70,10 +70,13 @@ pub enum Shape {
     },
 }
 
+/// A shape's file name, its required dimension keys, and its optional keys with defaults.
+pub type ShapeKeys = (&'static str, &'static [&'static str], &'static [(&'static str, f64)]);
+
 /// The name of each shape in the file, with its dimension keys (required ones first,
 /// then optional ones with their defaults). The reader, the picker in the workbench and
 /// the documentation all take the list from here.
-pub const SHAPES: &[(&str, &[&str], &[(&str, f64)])] = &[
+pub const SHAPES: &[ShapeKeys] = &[
     ("rect", &["b", "h"], &[]),
     ("triangle", &["b", "h"], &[("apex", 0.0)]),
     ("circle", &["d"], &[]),
@@ -230,10 +233,8 @@ impl Shape {
                     );
                 }
             }
-            Shape::Pipe { d, t } => {
-                if 2.0 * t >= d {
-                    return fail("t", format!("wall t = {t} leaves no bore in diameter d = {d}; use a circle for a solid bar"));
-                }
+            Shape::Pipe { d, t } if 2.0 * t >= d => {
+                return fail("t", format!("wall t = {t} leaves no bore in diameter d = {d}; use a circle for a solid bar"));
             }
             Shape::Polygon { ref points } => {
                 if points.len() < 3 {

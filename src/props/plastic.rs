@@ -41,7 +41,7 @@ struct Below {
 /// `None` if the weighted area is not positive.
 pub fn plastic_axis_x(parts: &[Weighted], ymin: f64, ymax: f64) -> Option<PlasticAxis> {
     let total = below(parts, f64::INFINITY);
-    if !(total.a > 0.0) || !(ymax > ymin) {
+    if total.a.is_nan() || total.a <= 0.0 || ymax.is_nan() || ymin.is_nan() || ymax <= ymin {
         return None;
     }
     let half = total.a / 2.0;
