@@ -109,6 +109,7 @@ impl Properties {
                 weight: p.sign() * p.strength,
             })
             .collect();
+        let size = (b[1] - b[0]).max(b[3] - b[2]);
         let plastic = match (
             plastic_axis_x(&weighted, lb[2], lb[3]),
             plastic_axis_y(&weighted, lb[0], lb[1]),
@@ -116,8 +117,8 @@ impl Properties {
             (Some(px), Some(py)) => Some(Plastic {
                 zx: px.z,
                 zy: py.z,
-                y: px.level + origin.y,
-                x: py.level + origin.x,
+                y: snap(px.level + origin.y, size),
+                x: snap(py.level + origin.x, size),
             }),
             _ => None,
         };
@@ -131,7 +132,7 @@ impl Properties {
             .sum::<Option<f64>>();
         Ok(Properties {
             area,
-            centroid: Pt::new(cx + origin.x, cy + origin.y),
+            centroid: Pt::new(snap(cx + origin.x, size), snap(cy + origin.y, size)),
             bounds: b,
             ixx,
             iyy,
@@ -158,6 +159,16 @@ impl Properties {
             iyy: self.iyy,
             ixy: self.ixy,
         }
+    }
+}
+
+/// A coordinate within rounding noise of the origin (relative to the section's size
+/// `size`) is the origin: symmetric sections centred on it report exactly 0.
+pub fn snap(x: f64, size: f64) -> f64 {
+    if x.abs() <= 1e-12 * size {
+        0.0
+    } else {
+        x
     }
 }
 
