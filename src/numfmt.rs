@@ -24,13 +24,11 @@ pub fn sig(x: f64, sig: usize) -> String {
         let decimals = (sig as i32 - 1 - mag).max(0) as usize;
         let s = format!("{x:.decimals$}");
         // Rounding can carry into a new digit (999.96 → 1000.0); trim to the figures asked.
-        let m2 = s
-            .trim_start_matches('-')
-            .split('.')
-            .next()
-            .map_or(0, str::len) as i32;
-        if decimals > 0 && m2 > mag + 1 {
-            let d = decimals.saturating_sub(1);
+        let carried = s
+            .parse::<f64>()
+            .is_ok_and(|r| r.abs() >= 10f64.powi(mag + 1));
+        if decimals > 0 && carried {
+            let d = decimals - 1;
             return format!("{x:.d$}");
         }
         s

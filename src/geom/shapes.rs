@@ -71,7 +71,11 @@ pub enum Shape {
 }
 
 /// A shape's file name, its required dimension keys, and its optional keys with defaults.
-pub type ShapeKeys = (&'static str, &'static [&'static str], &'static [(&'static str, f64)]);
+pub type ShapeKeys = (
+    &'static str,
+    &'static [&'static str],
+    &'static [(&'static str, f64)],
+);
 
 /// The name of each shape in the file, with its dimension keys (required ones first,
 /// then optional ones with their defaults). The reader, the picker in the workbench and
