@@ -7,7 +7,7 @@ use crate::file::locate;
 use crate::model::units::LengthUnit;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
-use crate::report::{json::to_json, table::to_table, CAUTION};
+use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicUsize, Ordering};
 
@@ -105,4 +105,67 @@ pub fn calc(args: &CalcArgs) -> i32 {
     }
     print!("{out}");
     status
+}
+
+/// Options of `kern report`.
+#[derive(Debug, Clone, Default)]
+pub struct ReportArgs {
+    pub file: PathBuf,
+    /// Where to write; stdout when `None`.
+    pub out: Option<PathBuf>,
+    /// A self-contained HTML page instead of Markdown.
+    pub html: bool,
+    pub units: Option<LengthUnit>,
+    pub options: Options,
+}
+
+/// `kern report`: the calculation sheet of one file, Markdown or HTML.
+pub fn report(args: &ReportArgs) -> i32 {
+    let a = match load(&args.file, &args.options) {
+        Ok(a) => a,
+        Err(line) => {
+            eprintln!("{line}");
+            return 2;
+        }
+    };
+    let u = OutUnits::new(a.section.units, args.units);
+    let md = markdown::sheet(&args.file.display().to_string(), &a, &u);
+    let text = if args.html {
+        let title = a.section.title.as_deref().unwrap_or("(untitled section)");
+        html::page(title, &md, &drawing::drawing(&a, &u))
+    } else {
+        md
+    };
+    emit(args.out.as_deref(), &text)
+}
+
+/// `kern svg`: the drawing of one file, to `out` or stdout.
+pub fn svg(file: &Path, out: Option<&Path>, options: &Options) -> i32 {
+    match load(file, options) {
+        Ok(a) => {
+            let u = OutUnits::new(a.section.units, None);
+            emit(out, &drawing::drawing(&a, &u))
+        }
+        Err(line) => {
+            eprintln!("{line}");
+            2
+        }
+    }
+}
+
+/// Writes `text` to the file `out`, or to stdout; a failure to write is status 1.
+fn emit(out: Option<&Path>, text: &str) -> i32 {
+    match out {
+        None => {
+            print!("{text}");
+            0
+        }
+        Some(p) => match std::fs::write(p, text) {
+            Ok(()) => 0,
+            Err(e) => {
+                eprintln!("{}: cannot write the file: {e}", p.display());
+                1
+            }
+        },
+    }
 }

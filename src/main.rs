@@ -2,7 +2,7 @@
 
 use clap::{Parser, Subcommand};
 use kern::analysis::Options;
-use kern::cli::{calc, CalcArgs};
+use kern::cli::{calc, report, svg, CalcArgs, ReportArgs};
 use kern::fe::TorsionOptions;
 use kern::model::units::LengthUnit;
 use std::path::PathBuf;
@@ -36,10 +36,46 @@ enum Verb {
         #[arg(long, default_value_t = 1e-3)]
         torsion_tol: f64,
     },
+    /// Write a calculation sheet for one section file (Markdown, or HTML with --html).
+    Report {
+        file: PathBuf,
+        /// Write to this file instead of stdout.
+        #[arg(short, long)]
+        out: Option<PathBuf>,
+        /// A self-contained HTML page with the drawing inline.
+        #[arg(long)]
+        html: bool,
+        /// Express lengths in this unit: mm, cm, m, in or ft.
+        #[arg(long, value_parser = parse_unit)]
+        units: Option<LengthUnit>,
+        /// Skip the finite-element torsion solve.
+        #[arg(long)]
+        no_torsion: bool,
+    },
+    /// Draw one section file to scale as SVG.
+    Svg {
+        file: PathBuf,
+        /// Write to this file instead of stdout.
+        #[arg(short, long)]
+        out: Option<PathBuf>,
+        /// Skip the finite-element torsion solve (no shear centre).
+        #[arg(long)]
+        no_torsion: bool,
+    },
 }
 
 fn parse_unit(s: &str) -> Result<LengthUnit, String> {
     LengthUnit::parse(s).ok_or_else(|| format!("unknown unit `{s}`; use mm, cm, m, in or ft"))
+}
+
+/// Analysis options: torsion to the default relative error of 1e-3 unless skipped.
+fn torsion_options(no_torsion: bool) -> Options {
+    Options {
+        torsion: (!no_torsion).then(|| TorsionOptions {
+            tol: 1e-3,
+            ..TorsionOptions::default()
+        }),
+    }
 }
 
 fn main() {
@@ -63,6 +99,24 @@ fn main() {
                 options: Options { torsion },
             })
         }
+        Some(Verb::Report {
+            file,
+            out,
+            html,
+            units,
+            no_torsion,
+        }) => report(&ReportArgs {
+            file,
+            out,
+            html,
+            units,
+            options: torsion_options(no_torsion),
+        }),
+        Some(Verb::Svg {
+            file,
+            out,
+            no_torsion,
+        }) => svg(&file, out.as_deref(), &torsion_options(no_torsion)),
         None => {
             println!("kern: the workbench is not built yet; try `kern calc FILE...` (kern --help)");
             let _ = cli.file;
