@@ -1,8 +1,9 @@
 //! Numbers for people: a fixed count of significant figures, plain notation for
 //! everyday magnitudes and scientific notation (`1.234e9`) for the rest.
 
-/// `x` to `sig` significant figures (at least 1). Plain notation between 1e-3 and 1e7,
-/// scientific outside; non-finite values print as `—`.
+/// `x` to `sig` significant figures (at least 1). Plain notation from 1e-3 up to the
+/// largest number with `sig` integer digits, scientific outside (so no digit shown is
+/// beyond the figures asked); non-finite values print as `—`.
 ///
 /// ```
 /// use kern::numfmt::sig;
@@ -20,7 +21,7 @@ pub fn sig(x: f64, sig: usize) -> String {
         return "0".into();
     }
     let mag = x.abs().log10().floor() as i32;
-    if (-3..7).contains(&mag) {
+    if (-3..sig as i32).contains(&mag) {
         let decimals = (sig as i32 - 1 - mag).max(0) as usize;
         let s = format!("{x:.decimals$}");
         // Rounding can carry into a new digit (999.96 → 1000.0); trim to the figures asked.
