@@ -101,6 +101,7 @@ impl Analysis {
         a.kern = kern_polygon(&a.props.centroidal(), &outline_points(&a.pieces));
         a.stress = a.stresses();
         a.member = a.member_check();
+        a.warnings.extend(a.member_notes());
         Ok(a)
     }
 
@@ -153,6 +154,21 @@ impl Analysis {
     /// Mass per metre in kg/m, when every part has a density.
     pub fn mass_per_metre(&self) -> Option<f64> {
         self.props.mass_area.map(|ma| ma * self.m() * self.m())
+    }
+
+    /// What the member check had to leave out, in words.
+    fn member_notes(&self) -> Vec<String> {
+        let Some(mb) = &self.section.member else {
+            return Vec::new();
+        };
+        let mut notes = Vec::new();
+        if mb.self_weight && self.mass_per_metre().is_none() {
+            notes.push("self_weight is on but not every part has a material with a density; self-weight left out".to_string());
+        }
+        if self.section.materials.is_empty() {
+            notes.push("the member check has no modulus of elasticity: add [[materials]] with E for deflections".to_string());
+        }
+        notes
     }
 
     fn member_check(&self) -> Option<MemberResult> {
