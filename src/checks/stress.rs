@@ -12,6 +12,9 @@
 /// `iyy = ∫(x−cx)² dA`, `ixy = ∫(x−cx)(y−cy) dA`.
 pub use crate::props::Centroidal;
 
+use crate::geom::contour::clip_line;
+use crate::geom::Pt;
+
 /// `D = Ixx·Iyy − Ixy²`, positive for every real section (Cauchy–Schwarz).
 pub(crate) fn det(sec: &Centroidal) -> f64 {
     sec.ixx * sec.iyy - sec.ixy * sec.ixy
@@ -131,25 +134,9 @@ impl StressField {
             self.cx - self.sigma0 * self.a / g2,
             self.cy - self.sigma0 * self.b / g2,
         );
-        let d = (-self.b / g, self.a / g);
-        let mut t0 = f64::NEG_INFINITY;
-        let mut t1 = f64::INFINITY;
-        for (p, d, lo, hi) in [(p.0, d.0, xmin, xmax), (p.1, d.1, ymin, ymax)] {
-            if d == 0.0 {
-                if p < lo || p > hi {
-                    return None;
-                }
-            } else {
-                let (ta, tb) = ((lo - p) / d, (hi - p) / d);
-                t0 = t0.max(ta.min(tb));
-                t1 = t1.min(ta.max(tb));
-            }
-        }
-        if !(t0 <= t1 && t0.is_finite() && t1.is_finite()) {
-            return None;
-        }
-        let point = |t: f64| (p.0 + t * d.0, p.1 + t * d.1);
-        Some([point(t0), point(t1)])
+        let d = Pt::new(-self.b / g, self.a / g);
+        let (a, b) = clip_line(Pt::new(p.0, p.1), d, bounds)?;
+        Some([(a.x, a.y), (b.x, b.y)])
     }
 }
 

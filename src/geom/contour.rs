@@ -253,6 +253,25 @@ impl Contour {
     }
 }
 
+/// The part of the line through `p` along `d` inside the box `[xmin, xmax, ymin, ymax]`
+/// (parametric clipping, Liang & Barsky, "A new concept and method for line
+/// clipping", 1984); `None` when it misses the box.
+pub fn clip_line(p: Pt, d: Pt, b: [f64; 4]) -> Option<(Pt, Pt)> {
+    let (mut t0, mut t1) = (f64::NEG_INFINITY, f64::INFINITY);
+    for (p, d, lo, hi) in [(p.x, d.x, b[0], b[1]), (p.y, d.y, b[2], b[3])] {
+        if d.abs() < 1e-12 {
+            if p < lo || p > hi {
+                return None;
+            }
+        } else {
+            let (ta, tb) = ((lo - p) / d, (hi - p) / d);
+            t0 = t0.max(ta.min(tb));
+            t1 = t1.min(ta.max(tb));
+        }
+    }
+    (t0 <= t1 && t0.is_finite() && t1.is_finite()).then(|| (p.add(d.scale(t0)), p.add(d.scale(t1))))
+}
+
 /// The smallest box holding both boxes.
 pub fn union_bounds(a: [f64; 4], b: [f64; 4]) -> [f64; 4] {
     [

@@ -11,6 +11,7 @@ use super::out::OutUnits;
 use super::table::FIGURES;
 use super::CAUTION;
 use crate::analysis::Analysis;
+use crate::geom::contour::clip_line;
 use crate::geom::{Contour, Pt, Seg};
 use crate::numfmt::sig;
 use std::f64::consts::FRAC_PI_2;
@@ -92,24 +93,6 @@ fn contour_path(c: &Contour, v: &View) -> String {
     }
     d.push_str(" Z");
     d
-}
-
-/// The part of the line through `p` along `d` inside the box `[xmin, xmax, ymin, ymax]`
-/// (parametric clipping, Liang & Barsky 1984); `None` when it misses the box.
-fn clip(p: Pt, d: Pt, b: [f64; 4]) -> Option<(Pt, Pt)> {
-    let (mut t0, mut t1) = (f64::NEG_INFINITY, f64::INFINITY);
-    for (p, d, lo, hi) in [(p.x, d.x, b[0], b[1]), (p.y, d.y, b[2], b[3])] {
-        if d.abs() < 1e-12 {
-            if p < lo || p > hi {
-                return None;
-            }
-        } else {
-            let (ta, tb) = ((lo - p) / d, (hi - p) / d);
-            t0 = t0.max(ta.min(tb));
-            t1 = t1.min(ta.max(tb));
-        }
-    }
-    (t0 <= t1 && t0.is_finite() && t1.is_finite()).then(|| (p.add(d.scale(t0)), p.add(d.scale(t1))))
 }
 
 /// The drawing of one analysed section.
@@ -225,7 +208,7 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         ("2", p.principal.angle_deg + 90.0),
     ] {
         let t = deg.to_radians();
-        let Some((e0, e1)) = clip(c, Pt::new(t.cos(), t.sin()), frame) else {
+        let Some((e0, e1)) = clip_line(c, Pt::new(t.cos(), t.sin()), frame) else {
             continue;
         };
         s.push_str(&format!(
