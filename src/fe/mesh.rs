@@ -1,0 +1,670 @@
+//! The region to mesh and its meshes: a quality base triangulation of the union of the
+//! solid pieces minus the voids, and nested refinements of it.
+//!
+//! The base mesh: every piece's boundary, arcs cut into chords of at most
+//! [`ARC_FACET`], goes into a constrained Delaunay triangulation as constraint edges
+//! (crossing edges of overlapping parts are split where they cross). A triangle belongs
+//! to the region when its centroid is inside some solid piece and inside no void
+//! (nonzero winding number), so overlapping solids count once. Points are added in
+//! rings about re-entrant corners (where the warping function is singular), then the
+//! triangulation is refined to a minimum angle of 25° and a maximum area.
+//!
+//! Refinement splits every triangle into four through its mid-sides, so each mesh
+//! holds the previous one and the element size halves per level. A new node on an edge
+//! that lies on a circular arc goes on the arc, so curved boundaries converge with the
+//! mesh instead of staying faceted.
+
+use super::p2::shape;
+use crate::geom::{Piece, Pt, Seg};
+use spade::{
+    AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters, Triangulation,
+};
+use std::collections::HashMap;
+use std::f64::consts::{PI, TAU};
+
+/// Largest angle an arc facet of the base mesh spans (radians); refinement then puts
+/// the new nodes on the arc.
+pub const ARC_FACET: f64 = PI / 8.0;
+/// No arc on this edge.
+pub const NO_ARC: u32 = u32::MAX;
+
+/// A circle that boundary edges follow.
+#[derive(Debug, Clone, Copy)]
+pub struct Arc {
+    pub c: Pt,
+    pub r: f64,
+}
+
+impl Arc {
+    /// The point of the circle in the direction of `p` from the centre.
+    pub fn project(&self, p: Pt) -> Pt {
+        let d = p.sub(self.c);
+        let l = d.x.hypot(d.y);
+        if l > 0.0 {
+            self.c.add(d.scale(self.r / l))
+        } else {
+            p
+        }
+    }
+}
+
+/// A mesh of 6-node triangles in a local frame (the file frame shifted by `origin`).
+#[derive(Debug, Clone)]
+pub struct Mesh {
+    pub origin: Pt,
+    pub nodes: Vec<Pt>,
+    /// Corners counter-clockwise, then the mid-sides of edges 0–1, 1–2, 2–0.
+    pub elems: Vec<[u32; 6]>,
+    /// Modular ratio of each element's material (shear moduli scale alike, one ν).
+    pub weight: Vec<f64>,
+    /// The arc each element edge lies on, or [`NO_ARC`].
+    pub edge_arc: Vec<[u32; 3]>,
+    /// Whether the element may be curved (a mid-side off its chord).
+    pub curved: Vec<bool>,
+    pub arcs: Vec<Arc>,
+    /// Connected component of each node.
+    pub component: Vec<u32>,
+    /// One node per component, where the warping function is held at zero.
+    pub pinned: Vec<u32>,
+}
+
+/// The base mesh and the warnings its region deserves.
+pub struct Base {
+    pub mesh: Mesh,
+    pub warnings: Vec<String>,
+}
+
+/// Faceted boundaries of one piece, in the local frame.
+struct Outline {
+    loops: Vec<Vec<Pt>>,
+    void: bool,
+    n: f64,
+}
+
+impl Outline {
+    /// Winding number of the piece's loops about `p` (nonzero: inside).
+    fn winding(&self, p: Pt) -> i32 {
+        let mut w = 0;
+        for l in &self.loops {
+            for (i, &a) in l.iter().enumerate() {
+                let b = l[(i + 1) % l.len()];
+                let side = b.sub(a).cross(p.sub(a));
+                if a.y <= p.y {
+                    if b.y > p.y && side > 0.0 {
+                        w += 1;
+                    }
+                } else if b.y <= p.y && side < 0.0 {
+                    w -= 1;
+                }
+            }
+        }
+        w
+    }
+}
+
+/// What the region holds at a point: `None` outside, else the modular ratio and the
+/// number of solid pieces there.
+fn classify(outlines: &[Outline], p: Pt) -> Option<(f64, usize)> {
+    let mut solid = None;
+    let mut count = 0;
+    for o in outlines {
+        if o.winding(p) != 0 {
+            if o.void {
+                return None;
+            }
+            // Later parts lie on top of earlier ones.
+            solid = Some(o.n);
+            count += 1;
+        }
+    }
+    solid.map(|n| (n, count))
+}
+
+type Cdt = ConstrainedDelaunayTriangulation<Point2<f64>>;
+
+/// Builds the base mesh of the region of `pieces`. `size` scales the largest element
+/// area allowed (1 for the default).
+pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
+    let bounds = crate::geom::solid_bounds(pieces)
+        .ok_or("there is no enabled solid part to mesh for torsion")?;
+    if !bounds.iter().all(|v| v.is_finite()) {
+        return Err("the section extent is not finite".into());
+    }
+    let origin = Pt::new(0.5 * (bounds[0] + bounds[1]), 0.5 * (bounds[2] + bounds[3]));
+    let span = (bounds[1] - bounds[0]).max(bounds[3] - bounds[2]);
+    if span <= 0.0 {
+        return Err("the section has no extent to mesh for torsion".into());
+    }
+    let eps = 1e-9 * span;
+    let mut outlines = Vec::new();
+    let mut arcs = Vec::new();
+    let mut arc_sweeps = Vec::new();
+    let mut chords = Vec::new();
+    for p in pieces {
+        let mut loops = Vec::new();
+        for c in &p.contours {
+            let mut pts: Vec<Pt> = Vec::new();
+            for s in &c.segs {
+                let s = s.moved(0.0, origin.scale(-1.0));
+                let first = pts.len();
+                s.facet_points(ARC_FACET, &mut pts);
+                if let Seg::Arc { c, r, a0, a1 } = s {
+                    if r > eps {
+                        let id = arcs.len() as u32;
+                        arcs.push(Arc { c, r });
+                        arc_sweeps.push((a0.min(a1), a0.max(a1)));
+                        let mut ends = pts[first..].to_vec();
+                        ends.push(s.end());
+                        chords.extend(ends.windows(2).map(|w| (w[0], w[1], id)));
+                    }
+                }
+            }
+            pts.dedup_by(|a, b| a.dist(*b) <= eps);
+            while pts.len() > 1 && pts[0].dist(pts[pts.len() - 1]) <= eps {
+                pts.pop();
+            }
+            if pts.len() >= 3 {
+                loops.push(pts);
+            }
+        }
+        if !loops.is_empty() {
+            outlines.push(Outline {
+                loops,
+                void: p.void,
+                n: p.n,
+            });
+        }
+    }
+    if !outlines.iter().any(|o| !o.void) {
+        return Err("the solid parts have no area to mesh for torsion".into());
+    }
+    let mut cdt = Cdt::new();
+    let mut snap = Snap::new(eps);
+    for o in &outlines {
+        for l in &o.loops {
+            let handles: Vec<_> = l
+                .iter()
+                .map(|&p| snap.insert(&mut cdt, p))
+                .collect::<Result<_, _>>()?;
+            for i in 0..handles.len() {
+                let (a, b) = (handles[i], handles[(i + 1) % handles.len()]);
+                if a != b {
+                    cdt.add_constraint_and_split(a, b, |p| p);
+                }
+            }
+        }
+    }
+    let area: f64 = region_triangles(&cdt, &outlines)
+        .iter()
+        .map(|t| t.area)
+        .sum();
+    if area <= 0.0 {
+        return Err("the region of the section (solids minus voids) is empty".into());
+    }
+    grade_corners(&mut cdt, &outlines, &mut snap)?;
+    let params = RefinementParameters::<f64>::new()
+        .with_angle_limit(AngleLimit::from_deg(25.0))
+        .with_max_allowed_area(size * area / 60.0)
+        .with_min_required_area(area * 1e-12)
+        .with_max_additional_vertices(200_000);
+    cdt.refine(params);
+    let tris = region_triangles(&cdt, &outlines);
+    let mut warnings = Vec::new();
+    if tris.iter().any(|t| t.solids > 1) {
+        warnings.push(
+            "torsion uses the region (union of solids minus voids); overlapping solids counted once"
+                .to_string(),
+        );
+    }
+    let mut pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
+    snap_to_arcs(&cdt, &mut pos, &chords, &arcs, eps);
+    let mesh = build(&pos, &tris, origin, arcs, &arc_sweeps, eps);
+    Ok(Base { mesh, warnings })
+}
+
+/// Merges input points closer than `eps` so that parts meeting at a corner share it.
+struct Snap {
+    eps: f64,
+    grid: HashMap<(i64, i64), Vec<(Pt, spade::handles::FixedVertexHandle)>>,
+}
+
+impl Snap {
+    fn new(eps: f64) -> Snap {
+        Snap {
+            eps,
+            grid: HashMap::new(),
+        }
+    }
+
+    fn insert(
+        &mut self,
+        cdt: &mut Cdt,
+        p: Pt,
+    ) -> Result<spade::handles::FixedVertexHandle, String> {
+        let key = (
+            (p.x / self.eps).floor() as i64,
+            (p.y / self.eps).floor() as i64,
+        );
+        for dx in -1..=1 {
+            for dy in -1..=1 {
+                if let Some(v) = self.grid.get(&(key.0 + dx, key.1 + dy)) {
+                    if let Some(&(_, h)) = v.iter().find(|(q, _)| q.dist(p) <= self.eps) {
+                        return Ok(h);
+                    }
+                }
+            }
+        }
+        let h = cdt
+            .insert(Point2::new(p.x, p.y))
+            .map_err(|e| format!("cannot mesh the section for torsion: {e:?}"))?;
+        self.grid.entry(key).or_default().push((p, h));
+        Ok(h)
+    }
+}
+
+/// A triangle of the triangulation that lies in the region.
+struct Tri {
+    v: [usize; 3],
+    /// Whether each edge (0–1, 1–2, 2–0) is a constraint edge.
+    constraint: [bool; 3],
+    n: f64,
+    solids: usize,
+    area: f64,
+}
+
+fn pt(p: Point2<f64>) -> Pt {
+    Pt::new(p.x, p.y)
+}
+
+fn region_triangles(cdt: &Cdt, outlines: &[Outline]) -> Vec<Tri> {
+    let mut out = Vec::new();
+    for f in cdt.inner_faces() {
+        let [a, b, c] = f.positions().map(pt);
+        let g = a.add(b).add(c).scale(1.0 / 3.0);
+        if let Some((n, solids)) = classify(outlines, g) {
+            let e = f.adjacent_edges();
+            out.push(Tri {
+                v: f.vertices().map(|v| v.fix().index()),
+                constraint: e.map(|e| cdt.is_constraint_edge(e.as_undirected().fix())),
+                n,
+                solids,
+                area: 0.5 * b.sub(a).cross(c.sub(a)),
+            });
+        }
+    }
+    out
+}
+
+/// Adds rings of points about every re-entrant corner of the region: at radii
+/// ρ/2, ρ/4, … ρ/32 (ρ the shortest boundary edge at the corner), eight per ring, kept
+/// where they fall in the region well clear of its boundary. The warping function
+/// behaves like r^(π/α) at a corner of interior angle α > π (Grisvard, Elliptic
+/// Problems in Nonsmooth Domains, §2.7), so small elements there keep the error small.
+fn grade_corners(cdt: &mut Cdt, outlines: &[Outline], snap: &mut Snap) -> Result<(), String> {
+    let tris = region_triangles(cdt, outlines);
+    let nv = cdt.num_vertices();
+    let mut angle = vec![0.0; nv];
+    let mut shortest = vec![f64::INFINITY; nv];
+    let pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
+    for t in &tris {
+        for k in 0..3 {
+            let (a, b, c) = (t.v[k], t.v[(k + 1) % 3], t.v[(k + 2) % 3]);
+            let (u, w) = (pos[b].sub(pos[a]), pos[c].sub(pos[a]));
+            angle[a] += u.cross(w).atan2(u.x * w.x + u.y * w.y);
+            shortest[a] = shortest[a].min(u.x.hypot(u.y)).min(w.x.hypot(w.y));
+        }
+    }
+    let mut extra = Vec::new();
+    for v in 0..nv {
+        // A boundary vertex with more than 200° of region about it.
+        if angle[v] > PI * 200.0 / 180.0 && angle[v] < TAU - 1e-6 {
+            let mut rho = shortest[v] / 2.0;
+            for _ in 0..5 {
+                for k in 0..8 {
+                    let t = TAU * (k as f64 + 0.5) / 8.0;
+                    let p = pos[v].add(Pt::new(rho * t.cos(), rho * t.sin()));
+                    if classify(outlines, p).is_some() && clearance(outlines, p) > 0.3 * rho {
+                        extra.push(p);
+                    }
+                }
+                rho /= 2.0;
+            }
+        }
+    }
+    for p in extra {
+        snap.insert(cdt, p)?;
+    }
+    Ok(())
+}
+
+/// Distance from `p` to the nearest boundary edge of any piece.
+fn clearance(outlines: &[Outline], p: Pt) -> f64 {
+    let mut d = f64::INFINITY;
+    for l in outlines.iter().flat_map(|o| &o.loops) {
+        for (i, &a) in l.iter().enumerate() {
+            let b = l[(i + 1) % l.len()];
+            let ab = b.sub(a);
+            let len2 = ab.x * ab.x + ab.y * ab.y;
+            let t = if len2 > 0.0 {
+                ((p.sub(a).x * ab.x + p.sub(a).y * ab.y) / len2).clamp(0.0, 1.0)
+            } else {
+                0.0
+            };
+            d = d.min(p.dist(a.add(ab.scale(t))));
+        }
+    }
+    d
+}
+
+/// Moves the points that refinement put on an arc's chord (splitting a boundary
+/// edge) onto the arc itself, so that every boundary vertex lies on the true boundary.
+fn snap_to_arcs(cdt: &Cdt, pos: &mut [Pt], chords: &[(Pt, Pt, u32)], arcs: &[Arc], eps: f64) {
+    for v in cdt.vertices() {
+        if !v
+            .out_edges()
+            .any(|e| cdt.is_constraint_edge(e.as_undirected().fix()))
+        {
+            continue;
+        }
+        let i = v.fix().index();
+        let p = pos[i];
+        for &(a, b, id) in chords {
+            let ab = b.sub(a);
+            let len = ab.x.hypot(ab.y);
+            if len <= 0.0 || p.dist(a) <= eps || p.dist(b) <= eps {
+                continue;
+            }
+            let t = (p.sub(a).x * ab.x + p.sub(a).y * ab.y) / (len * len);
+            if t > 0.0 && t < 1.0 && ab.cross(p.sub(a)).abs() / len <= eps {
+                if let Some(arc) = arcs.get(id as usize) {
+                    pos[i] = arc.project(p);
+                }
+                break;
+            }
+        }
+    }
+}
+
+/// The index of an arc that the chord `p`–`q` follows, if any.
+fn arc_of(arcs: &[Arc], sweeps: &[(f64, f64)], p: Pt, q: Pt, eps: f64) -> u32 {
+    for (i, (a, &(lo, hi))) in arcs.iter().zip(sweeps).enumerate() {
+        if (p.dist(a.c) - a.r).abs() > eps || (q.dist(a.c) - a.r).abs() > eps {
+            continue;
+        }
+        // A chord of a facet spans a small angle; its mid-direction must be in the sweep.
+        let m = p.add(q).scale(0.5).sub(a.c);
+        if m.x.hypot(m.y) < 0.5 * a.r {
+            continue;
+        }
+        let t = m.y.atan2(m.x);
+        let inside = (-2..=2).any(|k| {
+            let t = t + TAU * k as f64;
+            t >= lo && t <= hi
+        });
+        if inside {
+            return i as u32;
+        }
+    }
+    NO_ARC
+}
+
+/// Turns the region's triangles into 6-node elements, numbers components and pins.
+fn build(
+    pos: &[Pt],
+    tris: &[Tri],
+    origin: Pt,
+    arcs: Vec<Arc>,
+    sweeps: &[(f64, f64)],
+    eps: f64,
+) -> Mesh {
+    // Splitting crossing constraints can leave a vertex a rounding error away from
+    // another; such twins are merged and the slivers between them dropped.
+    let mut map = vec![u32::MAX; pos.len()];
+    let mut nodes: Vec<Pt> = Vec::new();
+    let mut grid: HashMap<(i64, i64), Vec<u32>> = HashMap::new();
+    for t in tris {
+        for &v in &t.v {
+            if map[v] != u32::MAX {
+                continue;
+            }
+            let p = pos[v];
+            let key = ((p.x / eps).floor() as i64, (p.y / eps).floor() as i64);
+            let twin = (-1..=1)
+                .flat_map(|dx| (-1..=1).map(move |dy| (key.0 + dx, key.1 + dy)))
+                .filter_map(|k| grid.get(&k))
+                .flatten()
+                .copied()
+                .find(|&i| nodes[i as usize].dist(p) <= eps);
+            map[v] = twin.unwrap_or_else(|| {
+                nodes.push(p);
+                let id = nodes.len() as u32 - 1;
+                grid.entry(key).or_default().push(id);
+                id
+            });
+        }
+    }
+    let tris: Vec<&Tri> = tris
+        .iter()
+        .filter(|t| {
+            let c = t.v.map(|v| map[v]);
+            c[0] != c[1] && c[1] != c[2] && c[2] != c[0]
+        })
+        .collect();
+    let mut mids: HashMap<(u32, u32), u32> = HashMap::new();
+    let mut elems = Vec::with_capacity(tris.len());
+    let mut edge_arc = Vec::with_capacity(tris.len());
+    let mut curved = Vec::with_capacity(tris.len());
+    for t in &tris {
+        let c = t.v.map(|v| map[v]);
+        let mut e = [c[0], c[1], c[2], 0, 0, 0];
+        let mut ea = [NO_ARC; 3];
+        for k in 0..3 {
+            let (a, b) = (c[k], c[(k + 1) % 3]);
+            let (p, q) = (nodes[a as usize], nodes[b as usize]);
+            let arc = if t.constraint[k] {
+                arc_of(&arcs, sweeps, p, q, eps)
+            } else {
+                NO_ARC
+            };
+            ea[k] = arc;
+            let key = (a.min(b), a.max(b));
+            let id = *mids.entry(key).or_insert_with(|| {
+                let m = p.add(q).scale(0.5);
+                nodes.push(arcs.get(arc as usize).map_or(m, |a| a.project(m)));
+                nodes.len() as u32 - 1
+            });
+            e[3 + k] = id;
+        }
+        elems.push(e);
+        edge_arc.push(ea);
+        curved.push(ea.iter().any(|&a| a != NO_ARC));
+    }
+    let (component, pinned) = components(nodes.len(), &elems);
+    Mesh {
+        origin,
+        nodes,
+        elems,
+        weight: tris.iter().map(|t| t.n).collect(),
+        edge_arc,
+        curved,
+        arcs,
+        component,
+        pinned,
+    }
+}
+
+/// Connected components of the mesh (union–find over element nodes) and the smallest
+/// node of each.
+fn components(nodes: usize, elems: &[[u32; 6]]) -> (Vec<u32>, Vec<u32>) {
+    let mut parent: Vec<u32> = (0..nodes as u32).collect();
+    fn root(parent: &mut [u32], mut i: u32) -> u32 {
+        while parent[i as usize] != i {
+            let g = parent[parent[i as usize] as usize];
+            parent[i as usize] = g;
+            i = g;
+        }
+        i
+    }
+    for e in elems {
+        let r0 = root(&mut parent, e[0]);
+        for &v in &e[1..] {
+            let r = root(&mut parent, v);
+            if r != r0 {
+                let (lo, hi) = (r.min(r0), r.max(r0));
+                parent[hi as usize] = lo;
+            }
+        }
+    }
+    let mut comp = vec![0u32; nodes];
+    let mut ids: HashMap<u32, u32> = HashMap::new();
+    let mut pinned = Vec::new();
+    for i in 0..nodes as u32 {
+        let r = root(&mut parent, i);
+        let next = ids.len() as u32;
+        let id = *ids.entry(r).or_insert_with(|| {
+            pinned.push(r);
+            next
+        });
+        comp[i as usize] = id;
+    }
+    (comp, pinned)
+}
+
+/// Area coordinates, in the parent, of the new nodes of a four-way split: the halves of
+/// edges 0–1, 1–2, 2–0 (near the first corner, then the second), and the mid-sides
+/// of the inner triangle's edges (01–20, 01–12, 12–20).
+const NEW: [[f64; 3]; 9] = [
+    [0.75, 0.25, 0.0],
+    [0.25, 0.75, 0.0],
+    [0.0, 0.75, 0.25],
+    [0.0, 0.25, 0.75],
+    [0.25, 0.0, 0.75],
+    [0.75, 0.0, 0.25],
+    [0.5, 0.25, 0.25],
+    [0.25, 0.5, 0.25],
+    [0.25, 0.25, 0.5],
+];
+
+/// The nine new-node weights on the parent's six nodes.
+fn new_weights() -> [[f64; 6]; 9] {
+    NEW.map(shape)
+}
+
+/// Where the new node of edge `k` of a parent lies: the half of edge `k` near corner
+/// `a` is `NEW[2k]` if `a` is the edge's first corner.
+fn half_index(k: usize, near_first: bool) -> usize {
+    2 * k + usize::from(!near_first)
+}
+
+impl Mesh {
+    /// Splits every element into four; old nodes keep their numbers. Returns the finer
+    /// mesh.
+    pub fn refine(&self) -> Mesh {
+        let w = new_weights();
+        let old = self.nodes.len();
+        let mut nodes = self.nodes.clone();
+        // First of the two half-edge nodes of each old mid-side node.
+        let mut half = vec![u32::MAX; old];
+        let ne = self.elems.len();
+        let mut elems = Vec::with_capacity(4 * ne);
+        let mut edge_arc = Vec::with_capacity(4 * ne);
+        let mut curved = Vec::with_capacity(4 * ne);
+        let mut weight = Vec::with_capacity(4 * ne);
+        let place = |e: &[u32; 6], k: usize, nodes: &[Pt]| -> Pt {
+            let mut p = Pt::default();
+            for i in 0..6 {
+                p = p.add(nodes[e[i] as usize].scale(w[k][i]));
+            }
+            p
+        };
+        for (ei, e) in self.elems.iter().enumerate() {
+            let ea = self.edge_arc[ei];
+            // h[2k], h[2k+1]: halves of edge k near its first and second corner.
+            let mut h = [0u32; 6];
+            for k in 0..3 {
+                let (a, b, m) = (e[k], e[(k + 1) % 3], e[3 + k] as usize);
+                if half[m] == u32::MAX {
+                    half[m] = nodes.len() as u32;
+                    // The half near the smaller corner number comes first.
+                    let (lo, hi) = if a < b { (true, false) } else { (false, true) };
+                    for near_first in [lo, hi] {
+                        let p = place(e, half_index(k, near_first), &self.nodes);
+                        let p = self
+                            .arcs
+                            .get(ea[k] as usize)
+                            .map_or(p, |arc| arc.project(p));
+                        nodes.push(p);
+                    }
+                }
+                let first_is_lo = a < b;
+                h[2 * k] = half[m] + u32::from(!first_is_lo);
+                h[2 * k + 1] = half[m] + u32::from(first_is_lo);
+            }
+            let base = nodes.len() as u32;
+            for k in 6..9 {
+                nodes.push(place(e, k, &self.nodes));
+            }
+            let (i1, i2, i3) = (base, base + 1, base + 2);
+            let [a, b, c, mab, mbc, mca] = *e;
+            elems.push([a, mab, mca, h[0], i1, h[5]]);
+            elems.push([mab, b, mbc, h[1], h[2], i2]);
+            elems.push([mca, mbc, c, i3, h[3], h[4]]);
+            elems.push([mbc, mca, mab, i3, i1, i2]);
+            edge_arc.push([ea[0], NO_ARC, ea[2]]);
+            edge_arc.push([ea[0], ea[1], NO_ARC]);
+            edge_arc.push([NO_ARC, ea[1], ea[2]]);
+            edge_arc.push([NO_ARC; 3]);
+            for _ in 0..4 {
+                curved.push(self.curved[ei]);
+                weight.push(self.weight[ei]);
+            }
+        }
+        let mut component = self.component.clone();
+        component.resize(nodes.len(), 0);
+        for e in &elems {
+            let c = component[e[0] as usize];
+            for &v in &e[3..] {
+                component[v as usize] = c;
+            }
+        }
+        Mesh {
+            origin: self.origin,
+            nodes,
+            elems,
+            weight,
+            edge_arc,
+            curved,
+            arcs: self.arcs.clone(),
+            component,
+            pinned: self.pinned.clone(),
+        }
+    }
+
+    /// Carries nodal values of this mesh onto its refinement `fine` (exact for the
+    /// quadratic field: the finer space holds the coarser one).
+    pub fn prolong(&self, fine: &Mesh, u: &[f64]) -> Vec<f64> {
+        let w = new_weights();
+        let mut out = vec![0.0; fine.nodes.len()];
+        out[..u.len()].copy_from_slice(u);
+        for (ei, e) in self.elems.iter().enumerate() {
+            let children = &fine.elems[4 * ei..4 * ei + 4];
+            let val = |k: usize| (0..6).map(|i| w[k][i] * u[e[i] as usize]).sum::<f64>();
+            // Children hold the new nodes at known places (see `refine`).
+            let set = [
+                (children[0][3], 0),
+                (children[1][3], 1),
+                (children[1][4], 2),
+                (children[2][4], 3),
+                (children[2][5], 4),
+                (children[0][5], 5),
+                (children[0][4], 6),
+                (children[1][5], 7),
+                (children[2][3], 8),
+            ];
+            for (node, k) in set {
+                out[node as usize] = val(k);
+            }
+        }
+        out
+    }
+}

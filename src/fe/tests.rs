@@ -1,0 +1,257 @@
+//! Checks of the torsion solver against closed forms and handbook values.
+
+use super::*;
+use crate::geom::{Anchor, Placement, Shape};
+
+fn piece(shape: Shape, at: Pt, rotate: f64, flip_x: bool) -> Piece {
+    let pl = Placement {
+        at,
+        anchor: Anchor::Center,
+        rotate,
+        flip_x,
+        flip_y: false,
+    };
+    Piece {
+        part: 0,
+        name: "p".into(),
+        contours: pl.apply(&shape.contours()),
+        void: false,
+        n: 1.0,
+        strength: 1.0,
+        density: None,
+        material: None,
+    }
+}
+
+fn solid(shape: Shape) -> Vec<Piece> {
+    vec![piece(shape, Pt::default(), 0.0, false)]
+}
+
+fn run(p: &[Piece]) -> Torsion {
+    torsion(p, &TorsionOptions::default()).expect("torsion solves")
+}
+
+/// Checks J against `exact`: the true error is below the reported estimate (an
+/// honest estimate) and below the tolerance.
+fn check_j(name: &str, t: &Torsion, exact: f64) {
+    let err = (t.j - exact).abs() / exact;
+    assert!(
+        err <= t.rel_error.max(1e-9) && err <= 1e-3,
+        "{name}: J = {} vs {exact}, error {err:.2e}, estimate {:.2e}",
+        t.j,
+        t.rel_error
+    );
+    assert!(t.rel_error <= 1e-3, "{name}: estimate {:.2e}", t.rel_error);
+}
+
+/// Saint-Venant's series for a b × t rectangle (b ≥ t):
+/// J = (b t³/3)[1 − (192/π⁵)(t/b) Σ_{n odd} tanh(nπb/2t)/n⁵]
+/// (Timoshenko & Goodier, Theory of Elasticity, 3rd ed., §109).
+fn rect_series(b: f64, t: f64) -> f64 {
+    let s: f64 = (0..200)
+        .map(|k| {
+            let n = (2 * k + 1) as f64;
+            (n * PI * b / (2.0 * t)).tanh() / n.powi(5)
+        })
+        .sum();
+    b * t.powi(3) / 3.0 * (1.0 - 192.0 / PI.powi(5) * (t / b) * s)
+}
+
+use std::f64::consts::PI;
+
+#[test]
+fn rectangles_match_saint_venant_series() {
+    for ratio in [1.0, 0.5, 0.25, 0.1] {
+        let (b, t) = (120.0, 120.0 * ratio);
+        let r = run(&solid(Shape::Rect { b, h: t }));
+        check_j(&format!("rect t/b = {ratio}"), &r, rect_series(b, t));
+        // Doubly symmetric: the shear centre is the centroid (at the placement point).
+        assert!(r.shear_centre.x.abs() < 1e-6 * b && r.shear_centre.y.abs() < 1e-6 * b);
+    }
+}
+
+#[test]
+fn circle_pipe_ellipse_triangle_match_closed_forms() {
+    // Timoshenko & Goodier §§108–109 and any mechanics text: circle πd⁴/32, tube
+    // π(D⁴ − d⁴)/32, ellipse πa³b³/(a² + b²), equilateral triangle √3·a⁴/80.
+    let c = run(&solid(Shape::Circle { d: 80.0 }));
+    check_j("circle", &c, PI * 80f64.powi(4) / 32.0);
+    // Cw of a circle is zero (relative to Ip·r²).
+    assert!(c.cw.abs() < 1e-6 * (PI * 80f64.powi(4) / 32.0) * 40.0 * 40.0);
+    let p = run(&solid(Shape::Pipe { d: 100.0, t: 8.0 }));
+    check_j("pipe", &p, PI * (100f64.powi(4) - 84f64.powi(4)) / 32.0);
+    let (a, b) = (60.0, 25.0);
+    let n = 720;
+    let pts: Vec<Pt> = (0..n)
+        .map(|i| {
+            let t = 2.0 * PI * i as f64 / n as f64;
+            Pt::new(a * t.cos(), b * t.sin())
+        })
+        .collect();
+    let e = run(&solid(Shape::Polygon { points: pts }));
+    // The polygon's own J differs from the ellipse's by about its area defect, 1e-5.
+    let exact = PI * a.powi(3) * b.powi(3) / (a * a + b * b);
+    assert!(
+        (e.j - exact).abs() / exact < 1e-3,
+        "ellipse {} vs {exact}",
+        e.j
+    );
+    let s = 90.0;
+    let tri = run(&solid(Shape::Triangle {
+        b: s,
+        h: s * 3f64.sqrt() / 2.0,
+        apex: s / 2.0,
+    }));
+    check_j("triangle", &tri, 3f64.sqrt() * s.powi(4) / 80.0);
+}
+
+#[test]
+fn thin_channel_shear_centre_and_warping_constant() {
+    // Roark's Formulas for Stress and Strain (Young & Budynas, 7th ed.), shear centres
+    // and warping constants of thin-walled open sections, channel with equal
+    // thicknesses on centre-line dimensions: e = 3b²/(6b + h) from the web centre
+    // line, Cw = t b³ h² (3b + 2h) / (12 (6b + h)). Thickness effects allowed: 5%.
+    let (d, bf, t) = (200.0, 80.0, 4.0);
+    let shape = Shape::Channel {
+        d,
+        b: bf,
+        tf: t,
+        tw: t,
+        r: 0.0,
+    };
+    let p = vec![piece(shape, Pt::new(0.0, 0.0), 0.0, false)];
+    let r = run(&p);
+    let (b, h) = (bf - t / 2.0, d - t);
+    let e = 3.0 * b * b / (6.0 * b + h);
+    // Anchor centre: the back of the web is at x = −bf/2, its centre line at −bf/2 + t/2.
+    let web = -bf / 2.0 + t / 2.0;
+    let got = web - r.shear_centre.x;
+    assert!((got - e).abs() / e < 0.05, "e = {got} vs {e}");
+    assert!(r.shear_centre.y.abs() < 1e-6 * d);
+    let cw = t * b.powi(3) * h * h * (3.0 * b + 2.0 * h) / (12.0 * (6.0 * b + h));
+    assert!((r.cw - cw).abs() / cw < 0.05, "Cw = {} vs {cw}", r.cw);
+    // The mirrored channel (flanges toward −x) has its shear centre mirrored.
+    let m = run(&[piece(
+        Shape::Channel {
+            d,
+            b: bf,
+            tf: t,
+            tw: t,
+            r: 0.0,
+        },
+        Pt::new(0.0, 0.0),
+        0.0,
+        true,
+    )]);
+    assert!((m.shear_centre.x + r.shear_centre.x).abs() < 1e-4 * d);
+    assert!((m.j - r.j).abs() < 2e-4 * r.j && (m.cw - r.cw).abs() < 2e-4 * r.cw);
+}
+
+#[test]
+fn i_section_warping_constant() {
+    // Timoshenko & Gere, Theory of Elastic Stability, §5.10: Cw = Iy·h²/4 for an I with
+    // h between flange centroids (thin walls).
+    let (d, b, tf, tw) = (300.0, 150.0, 6.0, 4.0);
+    let r = run(&solid(Shape::IBeam {
+        d,
+        b,
+        tf,
+        tw,
+        r: 0.0,
+    }));
+    let h = d - tf;
+    let iy = 2.0 * tf * b.powi(3) / 12.0 + (d - 2.0 * tf) * tw.powi(3) / 12.0;
+    let cw = iy * h * h / 4.0;
+    assert!((r.cw - cw).abs() / cw < 0.02, "Cw = {} vs {cw}", r.cw);
+}
+
+#[test]
+fn rolled_ipe300_matches_section_tables() {
+    // IPE 300 (d 300, b 150, tw 7.1, tf 10.7, r 15): It ≈ 20.1 cm⁴, Iw ≈ 125.9e3 cm⁶,
+    // from memory of the European section tables (ArcelorMittal sales programme).
+    // Tables use an approximate fillet formula for It: 3% on It, 2% on Iw.
+    let r = run(&solid(Shape::IBeam {
+        d: 300.0,
+        b: 150.0,
+        tf: 10.7,
+        tw: 7.1,
+        r: 15.0,
+    }));
+    assert!(
+        (r.j / 1e4 - 20.1).abs() / 20.1 < 0.03,
+        "It = {} cm4",
+        r.j / 1e4
+    );
+    assert!(
+        (r.cw / 1e6 - 125.9e3).abs() / 125.9e3 < 0.02,
+        "Iw = {} cm6",
+        r.cw / 1e6
+    );
+    assert!(r.rel_error <= 1e-3);
+}
+
+#[test]
+fn translation_and_rotation_change_nothing_but_the_shear_centre() {
+    // A rigid motion of the section moves the shear centre with it and leaves J and Cw
+    // unchanged (definition of section constants).
+    let shape = || Shape::Channel {
+        d: 120.0,
+        b: 60.0,
+        tf: 8.0,
+        tw: 6.0,
+        r: 6.0,
+    };
+    let a = run(&[piece(shape(), Pt::new(0.0, 0.0), 0.0, false)]);
+    let at = Pt::new(350.0, -120.0);
+    let b = run(&[piece(shape(), at, 30.0, false)]);
+    assert!((a.j - b.j).abs() / a.j < 2e-4, "{} vs {}", a.j, b.j);
+    assert!((a.cw - b.cw).abs() / a.cw < 2e-4, "{} vs {}", a.cw, b.cw);
+    let expect = a.shear_centre.rotated(30f64.to_radians()).add(at);
+    assert!(
+        expect.dist(b.shear_centre) < 1e-3 * 120.0,
+        "{:?} vs {expect:?}",
+        b.shear_centre
+    );
+}
+
+#[test]
+fn refinement_converges_at_a_consistent_rate() {
+    // On a 2:1 rectangle (smooth solution, Saint-Venant's series as the reference) the
+    // error of J falls at a steady rate as the mesh is split: each level's error is a
+    // large, nearly constant factor below the previous (P2: up to 2⁴ for J).
+    let (b, t) = (100.0, 50.0);
+    let exact = rect_series(b, t);
+    let mut m = mesh::base(&solid(Shape::Rect { b, h: t }), 1.0)
+        .expect("mesh")
+        .mesh;
+    let mut errs = Vec::new();
+    for _ in 0..3 {
+        let (l, _) = torsion::solve(&m, None, None).expect("solves");
+        errs.push((l.j - exact).abs() / exact);
+        m = m.refine();
+    }
+    let (r1, r2) = (errs[0] / errs[1], errs[1] / errs[2]);
+    assert!(
+        r1 > 6.0 && r2 > 6.0 && (r1 / r2 - 1.0).abs() < 0.6,
+        "{errs:?}"
+    );
+}
+
+#[test]
+fn cancellation_flag_stops_the_solver() {
+    let flag = Arc::new(AtomicBool::new(true));
+    let opts = TorsionOptions {
+        tol: 1e-3,
+        cancel: Some(flag),
+    };
+    let r = torsion(&solid(Shape::Rect { b: 10.0, h: 5.0 }), &opts);
+    assert_eq!(r, Err("cancelled".to_string()));
+}
+
+#[test]
+fn nothing_to_mesh_is_an_error() {
+    assert!(torsion(&[], &TorsionOptions::default()).is_err());
+    let mut v = solid(Shape::Rect { b: 10.0, h: 5.0 });
+    v[0].void = true;
+    assert!(torsion(&v, &TorsionOptions::default()).is_err());
+}

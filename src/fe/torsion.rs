@@ -1,0 +1,192 @@
+//! Saint-Venant torsion on one mesh: the warping function, J, the shear centre and the
+//! warping constant (METHODS.md, "Saint-Venant torsion by the warping function",
+//! "Shear centre (Trefftz) and warping constant").
+//!
+//! Coordinates are about the centroid of the mesh itself, and the second moments in the
+//! formulas are those of the mesh, from the same quadrature, so that J, the shear
+//! centre and Cw are consistent with the geometry actually solved. Every integral
+//! carries the element's modular ratio n: with one Poisson's ratio for all materials
+//! G_i/G_ref = E_i/E_ref = n_i, so n weights both the stiffness (shear) and the
+//! warping normal stresses.
+
+use super::mesh::Mesh;
+use super::p2::{at, Rule};
+use super::solve::{pcg, Cancelled, Csr};
+use crate::geom::Pt;
+use std::sync::atomic::AtomicBool;
+
+/// The results on one mesh, in the mesh's local frame.
+#[derive(Debug, Clone, Copy)]
+pub struct Level {
+    pub j: f64,
+    pub cw: f64,
+    /// Shear centre in the local frame of the mesh.
+    pub sc: Pt,
+    pub area: f64,
+    /// Polar moment about the centroid, Ixx + Iyy.
+    pub ip: f64,
+    pub elements: usize,
+    pub iterations: usize,
+}
+
+/// Why a level could not be solved.
+#[derive(Debug)]
+pub enum Failure {
+    Cancelled,
+    Degenerate,
+}
+
+impl From<Cancelled> for Failure {
+    fn from(_: Cancelled) -> Failure {
+        Failure::Cancelled
+    }
+}
+
+/// Area moments of the mesh: `[A, ∫x, ∫y, ∫x², ∫y², ∫xy]` about the local origin.
+fn moments(m: &Mesh, rule: &Rule) -> Result<[f64; 6], Failure> {
+    let mut s = [0.0; 6];
+    for (e, &n) in m.elems.iter().zip(&m.weight) {
+        let p = e.map(|v| m.nodes[v as usize]);
+        for q in 0..rule.points() {
+            let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
+            let da = n * g.da;
+            s[0] += da;
+            s[1] += da * g.x;
+            s[2] += da * g.y;
+            s[3] += da * g.x * g.x;
+            s[4] += da * g.y * g.y;
+            s[5] += da * g.x * g.y;
+        }
+    }
+    Ok(s)
+}
+
+/// Solves the warping problem on `m`, starting the iteration from `guess` (nodal
+/// values on `m`) when given. Returns the level's results and the nodal solution.
+pub fn solve(
+    m: &Mesh,
+    guess: Option<Vec<f64>>,
+    cancel: Option<&AtomicBool>,
+) -> Result<(Level, Vec<f64>), Failure> {
+    let r4 = Rule::degree4();
+    let r2 = Rule::degree2();
+    let s = moments(m, &r4)?;
+    if s[0] <= 0.0 {
+        return Err(Failure::Degenerate);
+    }
+    let c = Pt::new(s[1] / s[0], s[2] / s[0]);
+    // About the centroid: Iyy = ∫x², Ixx = ∫y², Ixy = ∫xy.
+    let iyy = s[3] - s[0] * c.x * c.x;
+    let ixx = s[4] - s[0] * c.y * c.y;
+    let ixy = s[5] - s[0] * c.x * c.y;
+    let ip = ixx + iyy;
+    let nn = m.nodes.len();
+    let mut k = Csr::pattern(nn, &m.elems);
+    let mut f = vec![0.0; nn];
+    // Stiffness ∫n∇Nᵢ·∇Nⱼ dA and load ∫n(y ∂Nᵢ/∂x − x ∂Nᵢ/∂y) dA.
+    for (ei, e) in m.elems.iter().enumerate() {
+        let p = e.map(|v| m.nodes[v as usize].sub(c));
+        let rule = if m.curved[ei] { &r4 } else { &r2 };
+        let n = m.weight[ei];
+        let mut ke = [[0.0; 6]; 6];
+        for q in 0..rule.points() {
+            let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
+            let da = n * g.da;
+            for (a, row) in ke.iter_mut().enumerate() {
+                f[e[a] as usize] += da * (g.y * g.gx[a] - g.x * g.gy[a]);
+                for (b, v) in row.iter_mut().enumerate() {
+                    *v += da * (g.gx[a] * g.gx[b] + g.gy[a] * g.gy[b]);
+                }
+            }
+        }
+        k.add_element(e, &ke);
+    }
+    for &pn in &m.pinned {
+        k.pin(pn as usize);
+        f[pn as usize] = 0.0;
+    }
+    let mut u = guess
+        .filter(|g| g.len() == nn)
+        .unwrap_or_else(|| vec![0.0; nn]);
+    for &pn in &m.pinned {
+        u[pn as usize] = 0.0;
+    }
+    let iterations = pcg(&k, &f, &mut u, 1e-9, 20 * nn + 100, cancel)?;
+    // J = Ip − ∫n(x ∂ω/∂y − y ∂ω/∂x)… written as the stationary value
+    // Ip − (2fᵀu − uᵀKu), whose error is second order in the solver's error.
+    let mut ku = vec![0.0; nn];
+    k.mul(&u, &mut ku);
+    let fu: f64 = f.iter().zip(&u).map(|(a, b)| a * b).sum();
+    let uku: f64 = ku.iter().zip(&u).map(|(a, b)| a * b).sum();
+    let j = ip - (2.0 * fu - uku);
+    // Each component's warping made zero-mean (the constant is arbitrary).
+    let ncomp = m.pinned.len();
+    let mut mean = vec![[0.0; 2]; ncomp];
+    for (e, &n) in m.elems.iter().zip(&m.weight) {
+        let p = e.map(|v| m.nodes[v as usize]);
+        let comp = m.component[e[0] as usize] as usize;
+        for q in 0..r4.points() {
+            let g = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
+            let w: f64 = (0..6).map(|i| r4.n[q][i] * u[e[i] as usize]).sum();
+            mean[comp][0] += n * g.da * w;
+            mean[comp][1] += n * g.da;
+        }
+    }
+    let uc: Vec<f64> = (0..nn)
+        .map(|i| {
+            let mc = mean[m.component[i] as usize];
+            u[i] - if mc[1] > 0.0 { mc[0] / mc[1] } else { 0.0 }
+        })
+        .collect();
+    // Trefftz: I_ωx = ∫xω, I_ωy = ∫yω about the centroid.
+    let (mut iwx, mut iwy) = (0.0, 0.0);
+    integrate(m, &r4, c, &uc, |da, x, y, w| {
+        iwx += da * x * w;
+        iwy += da * y * w;
+    })?;
+    let d = ixx * iyy - ixy * ixy;
+    let (xs, ys) = if d > 0.0 {
+        ((ixy * iwx - iyy * iwy) / d, (ixx * iwx - ixy * iwy) / d)
+    } else {
+        (0.0, 0.0)
+    };
+    // Cw = ∫ω_S² − (∫ω_S)²/A with ω_S = ω − y_s·x + x_s·y.
+    let (mut s1, mut s2) = (0.0, 0.0);
+    integrate(m, &r4, c, &uc, |da, x, y, w| {
+        let ws = w - ys * x + xs * y;
+        s1 += da * ws;
+        s2 += da * ws * ws;
+    })?;
+    let cw = s2 - s1 * s1 / s[0];
+    Ok((
+        Level {
+            j,
+            cw,
+            sc: Pt::new(c.x + xs, c.y + ys),
+            area: s[0],
+            ip,
+            elements: m.elems.len(),
+            iterations,
+        },
+        u,
+    ))
+}
+
+/// Calls `f(n·dA, x, y, ω)` at every quadrature point, coordinates about `c`.
+fn integrate(
+    m: &Mesh,
+    rule: &Rule,
+    c: Pt,
+    u: &[f64],
+    mut f: impl FnMut(f64, f64, f64, f64),
+) -> Result<(), Failure> {
+    for (e, &n) in m.elems.iter().zip(&m.weight) {
+        let p = e.map(|v| m.nodes[v as usize].sub(c));
+        for q in 0..rule.points() {
+            let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
+            let w: f64 = (0..6).map(|i| rule.n[q][i] * u[e[i] as usize]).sum();
+            f(n * g.da, g.x, g.y, w);
+        }
+    }
+    Ok(())
+}
