@@ -7,7 +7,7 @@
 //! to the region when its centroid is inside some solid piece and inside no void
 //! (nonzero winding number), so overlapping solids count once. Points are added in
 //! rings about re-entrant corners (where the warping function is singular), then the
-//! triangulation is refined to a minimum angle of 25° and a maximum area.
+//! triangulation is refined to a minimum angle of 20° and a maximum area.
 //!
 //! Refinement splits every triangle into four through its mid-sides, so each mesh
 //! holds the previous one and the element size halves per level. A new node on an edge
@@ -203,7 +203,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
     }
     grade_corners(&mut cdt, &outlines, &mut snap)?;
     let params = RefinementParameters::<f64>::new()
-        .with_angle_limit(AngleLimit::from_deg(25.0))
+        .with_angle_limit(AngleLimit::from_deg(20.0))
         .with_max_allowed_area(size * area / 60.0)
         .with_min_required_area(area * 1e-12)
         .with_max_additional_vertices(200_000);

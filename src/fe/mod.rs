@@ -116,6 +116,24 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
     }
 }
 
+/// A mesh of the region for drawing: the corners of each triangle in the file frame,
+/// from the base mesh refined while it stays within `max_elements` (the base mesh
+/// itself if that is already larger). Empty when there is nothing to mesh. Curved
+/// element sides are drawn as chords.
+pub fn mesh_outline(pieces: &[Piece], max_elements: usize) -> Vec<[Pt; 3]> {
+    let Ok(base) = mesh::base(pieces, 1.0) else {
+        return Vec::new();
+    };
+    let mut m = base.mesh;
+    while 4 * m.elems.len() <= max_elements {
+        m = m.refine();
+    }
+    m.elems
+        .iter()
+        .map(|e| [0, 1, 2].map(|k| m.nodes[e[k] as usize].add(m.origin)))
+        .collect()
+}
+
 /// The largest distance from the local origin to the mesh's nodes.
 fn extent(m: &mesh::Mesh) -> f64 {
     m.nodes.iter().map(|p| p.x.hypot(p.y)).fold(0.0, f64::max)

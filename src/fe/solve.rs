@@ -3,11 +3,13 @@
 //! Systems, 2nd ed., Alg. 9.1) with a symmetric successive over-relaxation (SSOR)
 //! preconditioner (Saad §10.2).
 //!
-//! Why our own code rather than a sparse-matrix crate: the matrix pattern comes
-//! straight from the element connectivity, assembly adds into known rows, and the
-//! solver needs a cancellation check inside its loop — about 150 lines. Measured on
-//! the meshes this module produces, the time per iteration is bound by memory traffic
-//! over `val`/`col`, which a generic CSR type would not reduce.
+//! Why our own code rather than a sparse-matrix crate: the pattern comes straight from
+//! the element connectivity, assembly adds into known rows, and the solver needs a
+//! cancellation check inside its loop — about 150 lines. It has not been timed against
+//! nalgebra-sparse; on the meshes this module produces the conjugate-gradient
+//! iterations on the finest mesh take most of the time (see the bench
+//! `benches/torsion.rs`), so a stronger preconditioner, not the container, is the
+//! lever.
 
 use std::sync::atomic::{AtomicBool, Ordering};
 

@@ -255,3 +255,16 @@ fn nothing_to_mesh_is_an_error() {
     v[0].void = true;
     assert!(torsion(&v, &TorsionOptions::default()).is_err());
 }
+
+#[test]
+fn outline_covers_the_region() {
+    // The drawn triangles tile the rectangle: their areas sum to b·h.
+    let tris = mesh_outline(&solid(Shape::Rect { b: 30.0, h: 20.0 }), 1000);
+    assert!(!tris.is_empty() && tris.len() <= 1000);
+    let a: f64 = tris
+        .iter()
+        .map(|t| 0.5 * t[1].sub(t[0]).cross(t[2].sub(t[0])))
+        .sum();
+    assert!((a - 600.0).abs() < 1e-9 * 600.0);
+    assert!(mesh_outline(&[], 1000).is_empty());
+}

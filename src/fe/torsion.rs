@@ -111,7 +111,7 @@ pub fn solve(
     for &pn in &m.pinned {
         u[pn as usize] = 0.0;
     }
-    let iterations = pcg(&k, &f, &mut u, 1e-9, 20 * nn + 100, cancel)?;
+    let iterations = pcg(&k, &f, &mut u, 1e-7, 20 * nn + 100, cancel)?;
     // J = Ip − ∫n(x ∂ω/∂y − y ∂ω/∂x)… written as the stationary value
     // Ip − (2fᵀu − uᵀKu), whose error is second order in the solver's error.
     let mut ku = vec![0.0; nn];
