@@ -37,10 +37,20 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
     };
     let (l1, l2, l3, l4, l6) = (u.label(1), u.label(2), u.label(3), u.label(4), u.label(6));
     let g = |x: f64, pw| Some(u.geo(x, pw));
-    // A finite-element coordinate within a millionth of the section's size of zero is
-    // zero to the figures shown (a symmetric section's shear centre, say).
+    // A finite-element coordinate closer to zero than its estimated error (relative to
+    // the section's size) is zero to the figures shown: a symmetric section's shear
+    // centre, say.
     let size = (p.bounds[1] - p.bounds[0]).max(p.bounds[3] - p.bounds[2]);
-    let fe_coord = |x: f64| g(if x.abs() < 1e-6 * size { 0.0 } else { x }, 1);
+    let fe_coord = |x: f64, err: f64| {
+        g(
+            if x.abs() < err.max(1e-6) * size {
+                0.0
+            } else {
+                x
+            },
+            1,
+        )
+    };
     add(
         "Area",
         "A",
@@ -210,14 +220,14 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
         add(
             "Torsion",
             "xs",
-            fe_coord(t.shear_centre.x),
+            fe_coord(t.shear_centre.x, t.rel_error),
             l1.clone(),
             "shear centre, x",
         );
         add(
             "Torsion",
             "ys",
-            fe_coord(t.shear_centre.y),
+            fe_coord(t.shear_centre.y, t.rel_error),
             l1.clone(),
             "shear centre, y",
         );
