@@ -64,7 +64,7 @@ impl Col {
         match self {
             Col::Name => 14,
             Col::Shape => 8,
-            Col::Sign => 2,
+            Col::Sign => 3,
             Col::Dim(_) => 9,
             Col::AtX | Col::AtY => 11,
             Col::Rotate => 5,

@@ -168,6 +168,39 @@ impl Theme {
         }
     }
 
+    /// `s` as drawn: unchanged, or in ASCII mode with superscripts, Greek letters and
+    /// other symbols spelled out (`mm⁴` → `mm^4`, `x̄` → `xc`).
+    pub fn text(&self, s: &str) -> String {
+        if !self.ascii {
+            return s.to_string();
+        }
+        let mut out = String::with_capacity(s.len());
+        for c in s.chars() {
+            match c {
+                '²' => out.push_str("^2"),
+                '³' => out.push_str("^3"),
+                '⁴' => out.push_str("^4"),
+                '⁶' => out.push_str("^6"),
+                '\u{304}' => out.push('c'),
+                'ȳ' => out.push_str("yc"),
+                'θ' => out.push_str("theta"),
+                'σ' => out.push_str("s"),
+                'δ' => out.push_str("d"),
+                '−' | '—' | '–' => out.push('-'),
+                '±' => out.push_str("+/-"),
+                '√' => out.push_str("sqrt"),
+                '°' => out.push_str("deg"),
+                '…' => out.push_str("..."),
+                '·' => out.push('-'),
+                '→' => out.push_str("->"),
+                '×' => out.push('x'),
+                c if c.is_ascii() => out.push(c),
+                _ => out.push('?'),
+            }
+        }
+        out
+    }
+
     /// A glyph in Unicode, or its ASCII stand-in.
     pub fn glyph(&self, unicode: &'static str, ascii: &'static str) -> &'static str {
         if self.ascii {

@@ -202,5 +202,5 @@ fn legend(app: &App, per_cell: f64, area: Rect, buf: &mut Buffer) {
     }
     text.push_str("  ");
     text.push_str(&keys.join("  "));
-    buf.set_stringn(area.x, y, text, area.width as usize, th.muted);
+    buf.set_stringn(area.x, y, th.text(&text), area.width as usize, th.muted);
 }

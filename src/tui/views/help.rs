@@ -26,7 +26,7 @@ fn centred(area: Rect, w: u16, h: u16) -> Rect {
 /// The help: every key of the table by group, flowed into as many columns as fit.
 pub fn render(app: &App, scroll: u16, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
-    let win = centred(area, area.width.saturating_sub(2), area.height);
+    let win = area;
     Clear.render(win, buf);
     let block = pane(th, "Keys  (Esc closes, j/k scroll)", true);
     let inner = block.inner(win);
@@ -44,13 +44,13 @@ pub fn render(app: &App, scroll: u16, area: Rect, buf: &mut Buffer) {
         for bd in binds {
             lines.push(Line::from(vec![
                 Span::styled(fit(&keys_label(bd), key_w), th.border_focus),
-                Span::raw(bd.help),
+                Span::raw(th.text(bd.help)),
             ]));
         }
     }
     lines.push(Line::raw(""));
     lines.push(Line::styled(
-        "Steps: sizes by a share of their value, positions by a share of the section's size, rotations by 1°, 5°, 15°; set the shares in the config file.",
+        th.text("Steps: sizes by a share of their value, positions by a share of the section's size, rotations by 1°, 5°, 15°; set the shares in the config file."),
         th.muted,
     ));
     let col_w: u16 = 58;

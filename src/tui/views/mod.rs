@@ -103,10 +103,10 @@ fn title_line(app: &App, area: Rect, buf: &mut Buffer) {
     let changed = if app.modified() { " [changed]" } else { "" };
     let sep = th.glyph(" · ", " - ");
     let text = format!(
-        "kern{sep}{title}{sep}{file}{changed}{sep}lengths in {}",
+        "kern{sep}{title}{changed}{sep}lengths in {}{sep}{file}",
         app.units().length.name()
     );
-    buf.set_stringn(area.x, area.y, text, area.width as usize, th.title);
+    buf.set_stringn(area.x, area.y, th.text(&text), area.width as usize, th.title);
 }
 
 /// Pads or cuts `s` to exactly `w` columns.

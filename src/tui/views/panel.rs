@@ -10,7 +10,7 @@ use crate::tui::sanitize::clean;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Paragraph, Widget, Wrap};
+use ratatui::widgets::{Paragraph, Widget};
 
 /// The change of a row against the baseline: a percentage, or a difference for angles.
 pub fn row_change(row: &Row, base: Option<&Row>) -> Option<String> {
@@ -39,20 +39,24 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     let now = rows(&app.analysis, &u);
     let base = rows(&app.baseline, &u);
     let mut lines: Vec<Line> = Vec::new();
+    let w = inner.width as usize;
     let warn = th.glyph("⚠ ", "! ");
-    for w in &app.analysis.warnings {
-        lines.push(Line::styled(format!("{warn}{}", clean(w)), th.warning));
+    let mut plain = |text: String, style| {
+        for l in wrap(&th.text(&text), w) {
+            lines.push(Line::styled(l, style));
+        }
+    };
+    for m in &app.analysis.warnings {
+        plain(format!("{warn}{}", clean(m)), th.warning);
     }
     if app.solving {
-        lines.push(Line::styled(
-            "Torsion: solving… (J, Cw, shear centre follow)",
-            th.note,
-        ));
+        plain("Torsion: solving… (J, Cw, shear centre follow)".into(), th.note);
     } else if let Some(Err(m)) = &app.analysis.torsion {
-        lines.push(Line::styled(format!("Torsion: {}", clean(m)), th.muted));
+        plain(format!("Torsion: {}", clean(m)), th.muted);
     }
-    let w = inner.width as usize;
-    let meaning_w = w.saturating_sub(8 + 11 + 1 + 6 + 8 + 2);
+    // Symbol, value, unit and change; narrower on a narrow panel.
+    let (sym_w, val_w, unit_w) = if w >= 33 { (8, 10, 6) } else { (7, 10, 5) };
+    let meaning_w = w.saturating_sub(sym_w + val_w + 1 + unit_w + 8 + 2);
     let mut group = "";
     for r in &now {
         if r.group != group && meaning_w < 20 {
@@ -70,24 +74,23 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         } else {
             th.muted
         };
-        let value = r.value.map_or("—".to_string(), |v| sig(v, 4));
+        let value = r.value.map_or(th.glyph("—", "-").to_string(), |v| sig(v, 4));
         let mut spans = vec![
-            Span::raw(fit(&r.symbol, 8)),
-            Span::raw(fit_right(&value, 11)),
+            Span::raw(fit(&th.text(&r.symbol), sym_w)),
+            Span::raw(fit_right(&value, val_w)),
             Span::raw(" "),
-            Span::styled(fit(&r.unit, 6), th.muted),
-            Span::styled(fit_right(&chg, 8), chg_style),
+            Span::styled(fit(&th.text(&r.unit), unit_w), th.muted),
+            Span::styled(fit_right(&th.text(&chg), 8), chg_style),
         ];
         if meaning_w >= 20 {
             spans.push(Span::raw("  "));
-            spans.push(Span::styled(fit(r.meaning, meaning_w), th.muted));
+            spans.push(Span::styled(fit(&th.text(r.meaning), meaning_w), th.muted));
         }
         lines.push(Line::from(spans));
     }
     let total = lines.len() as u16;
     let scroll = app.results_scroll.min(total.saturating_sub(inner.height));
     Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
         .scroll((scroll, 0))
         .render(inner, buf);
     if total > inner.height {
@@ -95,4 +98,30 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         let x = inner.right().saturating_sub(more.len() as u16 + 1);
         buf.set_stringn(x, area.bottom().saturating_sub(1), more, inner.width as usize, th.border);
     }
+}
+
+/// `s` cut into lines of at most `w` characters, at spaces where possible.
+pub fn wrap(s: &str, w: usize) -> Vec<String> {
+    let w = w.max(1);
+    let mut out = Vec::new();
+    let mut line = String::new();
+    for word in s.split(' ') {
+        let (ll, wl) = (line.chars().count(), word.chars().count());
+        if ll > 0 && ll + 1 + wl > w {
+            out.push(std::mem::take(&mut line));
+        }
+        if !line.is_empty() {
+            line.push(' ');
+        }
+        line.push_str(word);
+        while line.chars().count() > w {
+            let head: String = line.chars().take(w).collect();
+            line = line.chars().skip(w).collect();
+            out.push(head);
+        }
+    }
+    if !line.is_empty() {
+        out.push(line);
+    }
+    out
 }

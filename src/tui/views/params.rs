@@ -50,6 +50,6 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         } else {
             Style::new()
         };
-        buf.set_stringn(inner.x, y, line, w, style);
+        buf.set_stringn(inner.x, y, th.text(&line), w, style);
     }
 }

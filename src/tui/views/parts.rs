@@ -50,10 +50,10 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         } else {
             col.heading().to_string()
         };
-        buf.set_stringn(x, inner.y, fit(&head, w), w, th.header);
+        buf.set_stringn(x, inner.y, fit(&th.text(&head), w), w, th.header);
         for (row, p) in app.analysis.document.parts.iter().enumerate().skip(top).take(rows) {
             let y = inner.y + 1 + (row - top) as u16;
-            let text = clean(&cell(p, row, col, th.ascii));
+            let text = th.text(&clean(&cell(p, row, col, th.ascii)));
             let selected = row == app.part;
             let mut style = if !p.enabled { th.muted } else { ratatui::style::Style::new() };
             if selected {

@@ -29,7 +29,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     match &app.message {
         Some((m, err)) => {
             let style = if *err { th.error } else { th.note };
-            buf.set_stringn(area.x, msg_y, clean(m), w, style);
+            buf.set_stringn(area.x, msg_y, th.text(&clean(m)), w, style);
         }
         None => {
             let hint = "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit";
@@ -70,14 +70,14 @@ fn edit_line(app: &App, x: u16, y: u16, w: usize, buf: &mut Buffer) {
             let at: String = chars.get(line.cursor).map_or(" ".into(), |c| c.to_string());
             let after: String = chars.iter().skip(line.cursor + 1).collect();
             Line::from(vec![
-                Span::styled(format!("{what}: "), th.header),
-                Span::styled(clean(&before), th.editing),
-                Span::styled(clean(&at), th.cell_selected),
-                Span::styled(clean(&after), th.editing),
-                Span::styled("  Enter keep · Esc cancel", th.muted),
+                Span::styled(th.text(&format!("{what}: ")), th.header),
+                Span::styled(th.text(&clean(&before)), th.editing),
+                Span::styled(th.text(&clean(&at)), th.cell_selected),
+                Span::styled(th.text(&clean(&after)), th.editing),
+                Span::styled(th.text("  Enter keep · Esc cancel"), th.muted),
             ])
         }
-        _ => Line::from(describe(app)),
+        _ => Line::from(th.text(&describe(app))),
     };
     let area = Rect::new(x, y, w as u16, 1);
     line.render(area, buf);
