@@ -3,13 +3,13 @@
 //! `TestBackend` as snapshots. Torsion is not solved here, so every screen is
 //! deterministic.
 
+use crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 use kern::tui::app::{App, Focus, Mode, Solver};
 use kern::tui::commands::{self, run};
 use kern::tui::config::Config;
 use kern::tui::handle_key;
 use kern::tui::keys::{markdown, Cmd};
 use kern::tui::views;
-use crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 use ratatui::backend::TestBackend;
 use ratatui::Terminal;
 use std::path::{Path, PathBuf};
@@ -21,7 +21,9 @@ fn app(text: &str) -> App {
 }
 
 fn section(name: &str) -> String {
-    let p = Path::new(env!("CARGO_MANIFEST_DIR")).join("sections").join(name);
+    let p = Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("sections")
+        .join(name);
     std::fs::read_to_string(p).expect("demo section readable")
 }
 
@@ -96,7 +98,10 @@ fn an_invalid_entry_is_refused_with_the_reason() {
     typed(&mut a, " - hw");
     key(&mut a, KeyCode::Enter);
     assert_eq!(a.text, GIRDER, "nothing changed");
-    assert!(matches!(a.mode, Mode::Typing { .. }), "the entry stays to be fixed");
+    assert!(
+        matches!(a.mode, Mode::Typing { .. }),
+        "the entry stays to be fixed"
+    );
     let (msg, err) = a.message.clone().unwrap();
     assert!(err && msg.starts_with("refused"), "{msg}");
     key(&mut a, KeyCode::Esc);
@@ -111,11 +116,20 @@ fn steps_numbers_and_bare_params_but_not_expressions() {
     run(&mut a, Cmd::Right);
     run(&mut a, Cmd::Right);
     run(&mut a, Cmd::StepUp);
-    assert!(a.text.contains("bf_top = 310   # top flange width"), "5 % of 300 is 15, stepped by 10");
+    assert!(
+        a.text.contains("bf_top = 310   # top flange width"),
+        "5 % of 300 is 15, stepped by 10"
+    );
     run(&mut a, Cmd::CoarseDown);
-    assert!(a.text.contains("bf_top = 250   #"), "25 % of 310 is 77.5: a step of 50, to a multiple of 50");
+    assert!(
+        a.text.contains("bf_top = 250   #"),
+        "25 % of 310 is 77.5: a step of 50, to a multiple of 50"
+    );
     run(&mut a, Cmd::FineUp);
-    assert!(a.text.contains("bf_top = 252   #"), "1 % of 250 is 2.5: a step of 2");
+    assert!(
+        a.text.contains("bf_top = 252   #"),
+        "1 % of 250 is 2.5: a step of 2"
+    );
     // at y of the top flange is "hw + tf/2": refused.
     run(&mut a, Cmd::Right);
     run(&mut a, Cmd::Right);
@@ -168,7 +182,13 @@ fn adds_copies_moves_and_deletes_parts() {
     assert_eq!(a.part, 3);
     run(&mut a, Cmd::First);
     run(&mut a, Cmd::DeletePart);
-    let names: Vec<_> = a.analysis.document.parts.iter().map(|p| p.name.clone().unwrap()).collect();
+    let names: Vec<_> = a
+        .analysis
+        .document
+        .parts
+        .iter()
+        .map(|p| p.name.clone().unwrap())
+        .collect();
     assert_eq!(names, ["web", "bottom flange", "pipe 4", "pipe 4"]);
     // The comment at the top of the file survives all of it.
     assert!(a.text.starts_with("# Mezzanine bay 3, edge girder"));
@@ -185,7 +205,13 @@ fn save_round_trip_keeps_comments_and_notices_changes_on_disk() {
     let dir = temp_dir("save");
     let file = dir.join("girder.toml");
     std::fs::write(&file, GIRDER).unwrap();
-    let mut a = App::new(GIRDER.into(), Some(file.clone()), Config::default(), Solver::Off).unwrap();
+    let mut a = App::new(
+        GIRDER.into(),
+        Some(file.clone()),
+        Config::default(),
+        Solver::Off,
+    )
+    .unwrap();
     run(&mut a, Cmd::SwitchList);
     run(&mut a, Cmd::StepUp);
     run(&mut a, Cmd::Save);
@@ -205,7 +231,9 @@ fn save_round_trip_keeps_comments_and_notices_changes_on_disk() {
     run(&mut a, Cmd::Save);
     assert!(matches!(a.mode, Mode::AskOverwrite(_)));
     run(&mut a, Cmd::Cancel);
-    assert!(std::fs::read_to_string(&file).unwrap().contains("edited elsewhere"));
+    assert!(std::fs::read_to_string(&file)
+        .unwrap()
+        .contains("edited elsewhere"));
     run(&mut a, Cmd::Save);
     run(&mut a, Cmd::Yes);
     assert_eq!(std::fs::read_to_string(&file).unwrap(), a.text);
@@ -220,7 +248,10 @@ fn the_demo_saves_under_a_new_name_and_quitting_asks_first() {
     run(&mut a, Cmd::Quit);
     assert_eq!(a.mode, Mode::AskQuit);
     run(&mut a, Cmd::SaveAndQuit);
-    assert!(matches!(a.mode, Mode::Typing { .. }), "the demo asks for a file name");
+    assert!(
+        matches!(a.mode, Mode::Typing { .. }),
+        "the demo asks for a file name"
+    );
     let name = dir.join("mine.toml");
     typed(&mut a, &name.display().to_string());
     key(&mut a, KeyCode::Enter);
@@ -243,7 +274,15 @@ fn the_baseline_can_be_moved_and_reset() {
 #[test]
 fn every_size_draws_without_panicking() {
     let mut a = app(GIRDER);
-    for (w, h) in [(1, 1), (5, 3), (39, 11), (40, 12), (41, 30), (200, 12), (40, 80)] {
+    for (w, h) in [
+        (1, 1),
+        (5, 3),
+        (39, 11),
+        (40, 12),
+        (41, 30),
+        (200, 12),
+        (40, 80),
+    ] {
         let s = screen(&a, w, h);
         assert_eq!(s.contains("Parts (3)"), w >= 40 && h >= 12, "{w}×{h}");
     }
@@ -265,11 +304,20 @@ fn names_from_the_file_are_drawn_without_escape_sequences() {
 
 #[test]
 fn readme_key_list_is_generated_from_the_key_table() {
-    let readme = std::fs::read_to_string(Path::new(env!("CARGO_MANIFEST_DIR")).join("README.md")).unwrap();
+    let readme =
+        std::fs::read_to_string(Path::new(env!("CARGO_MANIFEST_DIR")).join("README.md")).unwrap();
     let start = "<!-- keys:start -->\n";
-    let (_, rest) = readme.split_once(start).expect("README has the keys:start marker");
-    let (listed, _) = rest.split_once("<!-- keys:end -->").expect("keys:end marker");
-    assert_eq!(listed, markdown(), "README key list is stale: paste `kern keys` between the markers");
+    let (_, rest) = readme
+        .split_once(start)
+        .expect("README has the keys:start marker");
+    let (listed, _) = rest
+        .split_once("<!-- keys:end -->")
+        .expect("keys:end marker");
+    assert_eq!(
+        listed,
+        markdown(),
+        "README key list is stale: paste `kern keys` between the markers"
+    );
 }
 
 /// Sections shown in the snapshots (demo files of `sections/`).

@@ -36,7 +36,10 @@ const DEFAULT_MM: &[(&str, &[(&str, f64)])] = &[
         &[("d", 200.0), ("b", 75.0), ("tf", 10.0), ("tw", 6.0)],
     ),
     ("angle", &[("h", 100.0), ("b", 100.0), ("t", 10.0)]),
-    ("tee", &[("d", 150.0), ("b", 150.0), ("tf", 10.0), ("tw", 8.0)]),
+    (
+        "tee",
+        &[("d", 150.0), ("b", 150.0), ("tf", 10.0), ("tw", 8.0)],
+    ),
     ("box", &[("h", 200.0), ("b", 100.0), ("t", 8.0)]),
     ("pipe", &[("d", 100.0), ("t", 5.0)]),
 ];
@@ -267,9 +270,9 @@ pub fn add_part(text: &str, shape: &str, name: &str, unit: LengthUnit) -> Result
             t.insert(k, Item::Value(sized(mm, unit)));
         }
         if shape == "polygon" {
-            let pts = DEFAULT_POLYGON_MM.iter().map(|p| {
-                Value::Array(Array::from_iter(p.iter().map(|&c| sized(c, unit))))
-            });
+            let pts = DEFAULT_POLYGON_MM
+                .iter()
+                .map(|p| Value::Array(Array::from_iter(p.iter().map(|&c| sized(c, unit)))));
             t.insert("points", Item::Value(Value::Array(Array::from_iter(pts))));
         }
         tables.push(t);
@@ -351,7 +354,10 @@ mod tests {
         let t = add_part(SRC, "rect", "r", LengthUnit::In).unwrap();
         assert!(t.contains("b = 3.94\nh = 1.97"));
         let t = move_part(SRC, 0, true).unwrap();
-        let (pa, pb) = (t.find("name = \"a\"").unwrap(), t.find("name = \"b\"").unwrap());
+        let (pa, pb) = (
+            t.find("name = \"a\"").unwrap(),
+            t.find("name = \"b\"").unwrap(),
+        );
         assert!(pb < pa && t.starts_with("# a comment") && t.contains("# second part"));
         assert!(t.trim_end().ends_with("Mx = \"1 kN*m\""));
         let t = delete_part(SRC, 0).unwrap();

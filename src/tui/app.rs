@@ -88,7 +88,10 @@ pub enum Target {
 #[derive(Debug, Clone, PartialEq)]
 pub enum Mode {
     Main,
-    Typing { target: Target, line: LineEdit },
+    Typing {
+        target: Target,
+        line: LineEdit,
+    },
     /// The shape picker, with the highlighted row.
     Choosing(usize),
     /// Quit with unsaved changes?

@@ -97,9 +97,8 @@ pub fn dim_default(shape: &str, key: &str) -> Option<Option<f64>> {
 /// What a number cell holds: the value as written, a default, or nothing (`None`:
 /// the shape has no such key).
 pub fn number(p: &PartDoc, col: Col) -> Option<Value> {
-    let written = |v: Option<&Val>, default: f64| {
-        Some(v.map_or(Value::Number(default), |v| v.value.clone()))
-    };
+    let written =
+        |v: Option<&Val>, default: f64| Some(v.map_or(Value::Number(default), |v| v.value.clone()));
     match col {
         Col::Dim(k) => match dim_default(&p.shape, k)? {
             None => p.dim(k).map(|v| v.value.clone()),
@@ -115,7 +114,10 @@ pub fn number(p: &PartDoc, col: Col) -> Option<Value> {
 /// The text of a cell (unsanitised; views clean it before drawing).
 pub fn cell(p: &PartDoc, index: usize, col: Col, ascii: bool) -> String {
     match col {
-        Col::Name => p.name.clone().unwrap_or_else(|| format!("part {}", index + 1)),
+        Col::Name => p
+            .name
+            .clone()
+            .unwrap_or_else(|| format!("part {}", index + 1)),
         Col::Shape => p.shape.clone(),
         Col::Sign => match (p.void, ascii) {
             (false, _) => "+".into(),

@@ -138,11 +138,9 @@ pub fn begin_edit(app: &mut App) {
         Col::Material => p.material.as_ref().map_or(String::new(), |m| m.0.clone()),
         Col::Sign => return toggle(app, "void", false),
         Col::Enabled => return toggle(app, "enabled", true),
-        Col::Shape => {
-            return app.note(
-                "the shape of a part stays; add a part of the new shape (a) and delete this one (x)",
-            )
-        }
+        Col::Shape => return app.note(
+            "the shape of a part stays; add a part of the new shape (a) and delete this one (x)",
+        ),
         _ if p.shape == "polygon" && matches!(col, Col::Dim(_)) => {
             return app.note("a polygon's corners are edited in the file (points = [[x, y], …])")
         }
@@ -264,7 +262,8 @@ pub fn step(app: &mut App, level: usize, dir: f64) {
             };
             let col = app.column();
             let (Some(slot), Some(v)) = (col.slot(), number(p, col)) else {
-                return app.note("only numbers step; move to a dimension, a position or the rotation");
+                return app
+                    .note("only numbers step; move to a dimension, a position or the rotation");
             };
             let kind = match col {
                 Col::AtX | Col::AtY => Kind::Position,
@@ -308,12 +307,15 @@ pub fn step(app: &mut App, level: usize, dir: f64) {
             edit::set_param_value(&app.text, name, v.clone()),
         ),
         Stepped::Cell(i, slot) => (
-            format!("{}", app.column().heading()),
+            app.column().heading().to_string(),
             edit::set_part_number(&app.text, *i, slot, v.clone()),
         ),
     };
     if app.apply(result) {
-        app.note(format!("{label}: {} → {v} {unit} (step {s} {unit})", number_value(x)));
+        app.note(format!(
+            "{label}: {} → {v} {unit} (step {s} {unit})",
+            number_value(x)
+        ));
     }
 }
 

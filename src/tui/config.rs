@@ -83,7 +83,10 @@ impl Config {
                     .filter(|x| *x > 0.0 && x.is_finite())
                     .ok_or_else(|| format!("`{k}` must be a positive number (percent)"))
             };
-            let flag = || item.as_bool().ok_or_else(|| format!("`{k}` must be true or false"));
+            let flag = || {
+                item.as_bool()
+                    .ok_or_else(|| format!("`{k}` must be true or false"))
+            };
             match k {
                 "units" => {
                     let u = item.as_str().and_then(LengthUnit::parse);
@@ -130,7 +133,10 @@ mod tests {
         assert_eq!(c.units, Some(LengthUnit::Cm));
         assert_eq!(c.steps, [0.5, 10.0, 25.0]);
         assert!(c.ascii && !c.colour);
-        assert_eq!(c.colours, vec![("solid".to_string(), Color::Rgb(255, 0, 0))]);
+        assert_eq!(
+            c.colours,
+            vec![("solid".to_string(), Color::Rgb(255, 0, 0))]
+        );
         assert!(Config::parse("stpe = 3").is_err());
         assert!(Config::parse("step = -1").is_err());
         assert_eq!(Config::parse("").unwrap(), Config::default());

@@ -44,7 +44,12 @@ pub fn run(path: Option<PathBuf>) -> i32 {
         },
     };
     let (config, config_err) = Config::load();
-    let mut app = match App::new(text.clone(), path.clone(), config, Solver::Thread(Worker::spawn())) {
+    let mut app = match App::new(
+        text.clone(),
+        path.clone(),
+        config,
+        Solver::Thread(Worker::spawn()),
+    ) {
         Ok(a) => a,
         Err(d) => {
             let name = path.map_or("demo".into(), |p| p.display().to_string());

@@ -80,11 +80,7 @@ impl Raster {
         let (x, y) = (x as usize, y as usize);
         let (kx, ky) = (self.kx, self.ky);
         if let Some(c) = self.cell_mut(x / kx, y / ky) {
-            c.bits |= if kx == 2 {
-                BRAILLE[y % 4][x % 2]
-            } else {
-                1
-            };
+            c.bits |= if kx == 2 { BRAILLE[y % 4][x % 2] } else { 1 };
             if c.ink.is_none_or(|i| i <= ink) {
                 c.ink = Some(ink);
             }

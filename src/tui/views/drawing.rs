@@ -104,7 +104,13 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     for extra in [0.0, 90.0] {
         let t = (a.props.principal.angle_deg + extra).to_radians();
         let d = (reach * t.cos(), reach * t.sin());
-        line(&mut r, (c.x - d.0, c.y - d.1), (c.x + d.0, c.y + d.1), Ink::Axes, Dash::Dotted);
+        line(
+            &mut r,
+            (c.x - d.0, c.y - d.1),
+            (c.x + d.0, c.y + d.1),
+            Ink::Axes,
+            Dash::Dotted,
+        );
     }
     if let Some(s) = &a.stress {
         if let Some([p, q]) = s.field.neutral_axis_in_box(vb[0], vb[1], vb[2], vb[3]) {
@@ -144,7 +150,12 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     if let Some(Ok(t)) = &a.torsion {
         mark(&mut r, t.shear_centre.x, t.shear_centre.y, 'S');
     }
-    mark(&mut r, c.x, c.y, th.glyph("⊕", "+").chars().next().unwrap_or('+'));
+    mark(
+        &mut r,
+        c.x,
+        c.y,
+        th.glyph("⊕", "+").chars().next().unwrap_or('+'),
+    );
     blit(&r, area, buf, th);
     legend(app, v.sx * r.kx as f64, area, buf);
 }

@@ -89,8 +89,18 @@ pub fn picker(app: &App, sel: usize, area: Rect, buf: &mut Buffer) {
             dims.push("points".into());
         }
         let text = format!("{} {}", fit(name, 15), dims.join(" "));
-        let style = if i == sel { th.cell_selected } else { th.row_selected };
-        buf.set_stringn(inner.x, y, fit(&text, inner.width as usize), inner.width as usize, style);
+        let style = if i == sel {
+            th.cell_selected
+        } else {
+            th.row_selected
+        };
+        buf.set_stringn(
+            inner.x,
+            y,
+            fit(&text, inner.width as usize),
+            inner.width as usize,
+            style,
+        );
     }
 }
 

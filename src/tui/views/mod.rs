@@ -96,17 +96,23 @@ fn title_line(app: &App, area: Rect, buf: &mut Buffer) {
         .title
         .as_deref()
         .map_or_else(|| "untitled section".to_string(), clean);
-    let file = app
-        .path
-        .as_ref()
-        .map_or_else(|| "bundled demo (s saves a copy)".to_string(), |p| clean(&p.display().to_string()));
+    let file = app.path.as_ref().map_or_else(
+        || "bundled demo (s saves a copy)".to_string(),
+        |p| clean(&p.display().to_string()),
+    );
     let changed = if app.modified() { " [changed]" } else { "" };
     let sep = th.glyph(" · ", " - ");
     let text = format!(
         "kern{sep}{title}{changed}{sep}lengths in {}{sep}{file}",
         app.units().length.name()
     );
-    buf.set_stringn(area.x, area.y, th.text(&text), area.width as usize, th.title);
+    buf.set_stringn(
+        area.x,
+        area.y,
+        th.text(&text),
+        area.width as usize,
+        th.title,
+    );
 }
 
 /// Pads or cuts `s` to exactly `w` columns.

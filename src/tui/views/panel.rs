@@ -50,7 +50,10 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         plain(format!("{warn}{}", clean(m)), th.warning);
     }
     if app.solving {
-        plain("Torsion: solving… (J, Cw, shear centre follow)".into(), th.note);
+        plain(
+            "Torsion: solving… (J, Cw, shear centre follow)".into(),
+            th.note,
+        );
     } else if let Some(Err(m)) = &app.analysis.torsion {
         plain(format!("Torsion: {}", clean(m)), th.muted);
     }
@@ -74,7 +77,9 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         } else {
             th.muted
         };
-        let value = r.value.map_or(th.glyph("—", "-").to_string(), |v| sig(v, 4));
+        let value = r
+            .value
+            .map_or(th.glyph("—", "-").to_string(), |v| sig(v, 4));
         let mut spans = vec![
             Span::raw(fit(&th.text(&r.symbol), sym_w)),
             Span::raw(fit_right(&value, val_w)),
@@ -90,13 +95,17 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     }
     let total = lines.len() as u16;
     let scroll = app.results_scroll.min(total.saturating_sub(inner.height));
-    Paragraph::new(lines)
-        .scroll((scroll, 0))
-        .render(inner, buf);
+    Paragraph::new(lines).scroll((scroll, 0)).render(inner, buf);
     if total > inner.height {
         let more = th.glyph("PgDn ▾", "PgDn v");
         let x = inner.right().saturating_sub(more.len() as u16 + 1);
-        buf.set_stringn(x, area.bottom().saturating_sub(1), more, inner.width as usize, th.border);
+        buf.set_stringn(
+            x,
+            area.bottom().saturating_sub(1),
+            more,
+            inner.width as usize,
+            th.border,
+        );
     }
 }
 

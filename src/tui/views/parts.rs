@@ -51,11 +51,23 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
             col.heading().to_string()
         };
         buf.set_stringn(x, inner.y, fit(&th.text(&head), w), w, th.header);
-        for (row, p) in app.analysis.document.parts.iter().enumerate().skip(top).take(rows) {
+        for (row, p) in app
+            .analysis
+            .document
+            .parts
+            .iter()
+            .enumerate()
+            .skip(top)
+            .take(rows)
+        {
             let y = inner.y + 1 + (row - top) as u16;
             let text = th.text(&clean(&cell(p, row, col, th.ascii)));
             let selected = row == app.part;
-            let mut style = if !p.enabled { th.muted } else { ratatui::style::Style::new() };
+            let mut style = if !p.enabled {
+                th.muted
+            } else {
+                ratatui::style::Style::new()
+            };
             if selected {
                 style = style.patch(th.row_selected);
                 if focused && ci == sel_col {
@@ -67,6 +79,12 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         x = x.saturating_add(col.width() + 1);
     }
     if n == 0 {
-        buf.set_stringn(inner.x, inner.y + 1, "no parts: press a to add one", inner.width as usize, th.muted);
+        buf.set_stringn(
+            inner.x,
+            inner.y + 1,
+            "no parts: press a to add one",
+            inner.width as usize,
+            th.muted,
+        );
     }
 }

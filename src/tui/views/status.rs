@@ -59,7 +59,9 @@ fn edit_line(app: &App, x: u16, y: u16, w: usize, buf: &mut Buffer) {
                         .document
                         .parts
                         .get(*part)
-                        .map_or(String::new(), |p| cell(p, *part, crate::tui::columns::Col::Name, th.ascii));
+                        .map_or(String::new(), |p| {
+                            cell(p, *part, crate::tui::columns::Col::Name, th.ascii)
+                        });
                     format!("{} · {}", clean(&name), col.heading())
                 }
                 Target::Param(n) => format!("param {}", clean(n)),
@@ -110,7 +112,11 @@ fn describe(app: &App) -> String {
             };
             let col = app.column();
             let name = cell(p, app.part, crate::tui::columns::Col::Name, app.theme.ascii);
-            let mut s = format!("{name} · {} {}", p.shape, if p.void { "void" } else { "solid" });
+            let mut s = format!(
+                "{name} · {} {}",
+                p.shape,
+                if p.void { "void" } else { "solid" }
+            );
             if !p.enabled {
                 s.push_str(" (left out)");
             }
@@ -121,7 +127,11 @@ fn describe(app: &App) -> String {
                         s.push_str(&format!(" = {}", short(x)));
                     }
                 }
-                let u = if col == crate::tui::columns::Col::Rotate { "°" } else { unit };
+                let u = if col == crate::tui::columns::Col::Rotate {
+                    "°"
+                } else {
+                    unit
+                };
                 s.push_str(&format!(" {u}"));
             }
             clean(&s)
