@@ -51,7 +51,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::ToggleMesh => {
             app.show_mesh = !app.show_mesh;
             app.note(if app.show_mesh {
-                "torsion mesh shown (when the solver provides one)"
+                "torsion mesh shown"
             } else {
                 "torsion mesh hidden"
             });

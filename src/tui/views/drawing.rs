@@ -16,11 +16,15 @@ use ratatui::layout::Rect;
 /// Greatest angle between the chords that stand in for an arc in the drawing.
 const FACET: f64 = 0.1;
 
-/// Lines of the torsion mesh to draw, in the file's frame: the hook for the mesh
-/// toggle. The finite-element module does not offer its mesh yet, so there is
-/// nothing to draw and the legend says so.
-pub fn mesh_lines(_a: &Analysis) -> Option<Vec<(Pt, Pt)>> {
-    None
+/// Most triangles of the torsion mesh drawn (finer meshes would fill the cells solid).
+const MESH_ELEMENTS: usize = 2000;
+
+/// The sides of the torsion mesh's triangles, in the file's frame (for the mesh toggle).
+pub fn mesh_lines(a: &Analysis) -> Vec<(Pt, Pt)> {
+    crate::fe::mesh_outline(&a.pieces, MESH_ELEMENTS)
+        .into_iter()
+        .flat_map(|[p, q, r]| [(p, q), (q, r), (r, p)])
+        .collect()
 }
 
 /// Maps the file's frame to dot coordinates with one scale on both axes.
@@ -89,7 +93,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         r.line(v.at(p.0, p.1), v.at(q.0, q.1), ink, dash)
     };
     if app.show_mesh {
-        for (p, q) in mesh_lines(a).unwrap_or_default() {
+        for (p, q) in mesh_lines(a) {
             line(&mut r, (p.x, p.y), (q.x, q.y), Ink::Mesh, Dash::Solid);
         }
     }
@@ -205,8 +209,8 @@ fn legend(app: &App, per_cell: f64, area: Rect, buf: &mut Buffer) {
     if matches!(a.torsion, Some(Ok(_))) {
         keys.push("S shear centre".into());
     }
-    if app.show_mesh && mesh_lines(a).is_none() {
-        keys.push("mesh: not offered by the solver yet".into());
+    if app.show_mesh {
+        keys.push(format!("{} mesh", th.glyph("⠿", ",")));
     }
     if a.pieces.iter().any(|p| p.void) {
         keys.push(th.glyph("╌ void", "o void").into());
