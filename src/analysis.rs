@@ -105,6 +105,16 @@ impl Analysis {
         Ok(a)
     }
 
+    /// Adds a torsion result solved separately (the workbench solves off the UI
+    /// thread), with its warnings and the member check that depends on it.
+    pub fn set_torsion(&mut self, t: Result<Torsion, String>) {
+        if let Ok(t) = &t {
+            self.warnings.extend(t.warnings.iter().cloned());
+        }
+        self.torsion = Some(t);
+        self.member = self.member_check();
+    }
+
     /// Metres per length unit of the file.
     fn m(&self) -> f64 {
         self.section.units.metres()

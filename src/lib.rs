@@ -16,3 +16,4 @@ pub mod model;
 pub mod numfmt;
 pub mod props;
 pub mod report;
+pub mod tui;

@@ -62,6 +62,8 @@ enum Verb {
         #[arg(long)]
         no_torsion: bool,
     },
+    /// Print the workbench's keys as Markdown (the list in README.md).
+    Keys,
 }
 
 fn parse_unit(s: &str) -> Result<LengthUnit, String> {
@@ -117,11 +119,11 @@ fn main() {
             out,
             no_torsion,
         }) => svg(&file, out.as_deref(), &torsion_options(no_torsion)),
-        None => {
-            println!("kern: the workbench is not built yet; try `kern calc FILE...` (kern --help)");
-            let _ = cli.file;
+        Some(Verb::Keys) => {
+            print!("{}", kern::tui::keys::markdown());
             0
         }
+        None => kern::tui::run(cli.file),
     };
     std::process::exit(status);
 }

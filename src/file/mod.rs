@@ -1,7 +1,9 @@
 //! Section files on disk and in text: reading TOML into a [`crate::model::Document`]
 //! with the place of every value ([`read`]), turning byte offsets into line and
-//! column ([`locate`]), and saving atomically ([`save`]).
+//! column ([`locate`]), editing text in place keeping its layout ([`edit`]), and saving
+//! atomically ([`save`]).
 
+pub mod edit;
 pub mod read;
 pub mod save;
 

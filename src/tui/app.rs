@@ -1,0 +1,331 @@
+//! The workbench's state: the file text being edited, undo and redo, the selection,
+//! the mode (moving, typing, choosing, asking), the current analysis and the baseline it
+//! is compared against, and the message line. Changes go through [`App::apply`], which
+//! refuses an edit whose text does not compute and says why.
+
+use super::columns::{columns, Col};
+use super::config::Config;
+use super::theme::Theme;
+use super::worker::{Poll, Worker, TOLERANCE};
+use crate::analysis::{Analysis, Options};
+use crate::fe::{torsion, TorsionOptions};
+use crate::file::locate;
+use crate::model::Diagnostic;
+use crate::report::out::OutUnits;
+use std::path::PathBuf;
+
+/// Which list has the keyboard.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Focus {
+    Parts,
+    Params,
+}
+
+/// A line being typed, with the cursor as a character index.
+#[derive(Debug, Clone, PartialEq, Eq, Default)]
+pub struct LineEdit {
+    pub text: String,
+    pub cursor: usize,
+}
+
+impl LineEdit {
+    pub fn new(text: &str) -> LineEdit {
+        LineEdit {
+            text: text.to_string(),
+            cursor: text.chars().count(),
+        }
+    }
+
+    fn byte(&self, ch: usize) -> usize {
+        self.text
+            .char_indices()
+            .nth(ch)
+            .map_or(self.text.len(), |(i, _)| i)
+    }
+
+    pub fn insert(&mut self, c: char) {
+        let at = self.byte(self.cursor);
+        self.text.insert(at, c);
+        self.cursor += 1;
+    }
+
+    pub fn backspace(&mut self) {
+        if self.cursor > 0 {
+            self.cursor -= 1;
+            let at = self.byte(self.cursor);
+            self.text.remove(at);
+        }
+    }
+
+    pub fn delete(&mut self) {
+        if self.cursor < self.text.chars().count() {
+            let at = self.byte(self.cursor);
+            self.text.remove(at);
+        }
+    }
+
+    pub fn left(&mut self) {
+        self.cursor = self.cursor.saturating_sub(1);
+    }
+
+    pub fn right(&mut self) {
+        self.cursor = (self.cursor + 1).min(self.text.chars().count());
+    }
+}
+
+/// What a typed line is for.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Target {
+    /// A cell of the parts table.
+    Cell { part: usize, col: Col },
+    /// A param's value.
+    Param(String),
+    /// The file name to save under.
+    SaveAs,
+}
+
+/// What the keys do at the moment.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Mode {
+    Main,
+    Typing {
+        target: Target,
+        line: LineEdit,
+    },
+    /// The shape picker, with the highlighted row.
+    Choosing(usize),
+    /// Quit with unsaved changes?
+    AskQuit,
+    /// The file changed on disk (or exists): overwrite it?
+    AskOverwrite(PathBuf),
+    /// The help overlay, scrolled by so many lines.
+    Help(u16),
+}
+
+/// How torsion is solved.
+pub enum Solver {
+    /// Not at all (tests, snapshots).
+    Off,
+    /// On the calling thread, before the edit returns (deterministic tests).
+    Inline,
+    /// On a background thread.
+    Thread(Worker),
+}
+
+/// The workbench.
+pub struct App {
+    /// Where the section is saved; `None` for the bundled demo.
+    pub path: Option<PathBuf>,
+    pub text: String,
+    /// The file's content as last read or written, to notice changes made by others.
+    pub disk: Option<String>,
+    /// The text as last saved (or opened): differs from `text` when there are changes.
+    pub saved: String,
+    /// The text as opened, the first baseline.
+    pub opened: String,
+    pub undo: Vec<String>,
+    pub redo: Vec<String>,
+    pub analysis: Analysis,
+    pub baseline: Analysis,
+    pub baseline_text: String,
+    /// What the baseline is, in words.
+    pub baseline_label: &'static str,
+    pub focus: Focus,
+    pub part: usize,
+    pub col: usize,
+    pub param: usize,
+    pub mode: Mode,
+    /// The message line: text and whether it is an error.
+    pub message: Option<(String, bool)>,
+    pub config: Config,
+    pub theme: Theme,
+    pub results_scroll: u16,
+    pub show_mesh: bool,
+    pub solver: Solver,
+    /// A background solve for the current text is under way.
+    pub solving: bool,
+    generation: u64,
+    pub quit: bool,
+    /// Quit once the pending save succeeds.
+    pub quit_after_save: bool,
+}
+
+impl App {
+    /// A workbench on `text` (read from `path`, if any). An invalid section is an error.
+    pub fn new(
+        text: String,
+        path: Option<PathBuf>,
+        config: Config,
+        solver: Solver,
+    ) -> Result<App, Diagnostic> {
+        let analysis = Analysis::of_text(&text, &Options::default())?;
+        let mut app = App {
+            disk: path.as_ref().map(|_| text.clone()),
+            path,
+            saved: text.clone(),
+            opened: text.clone(),
+            baseline: analysis.clone(),
+            baseline_text: text.clone(),
+            baseline_label: "file as opened",
+            text,
+            undo: Vec::new(),
+            redo: Vec::new(),
+            analysis,
+            focus: Focus::Parts,
+            part: 0,
+            col: 0,
+            param: 0,
+            mode: Mode::Main,
+            message: None,
+            theme: Theme::from_config(&config),
+            config,
+            results_scroll: 0,
+            show_mesh: false,
+            solver,
+            solving: false,
+            generation: 0,
+            quit: false,
+            quit_after_save: false,
+        };
+        app.start_torsion();
+        Ok(app)
+    }
+
+    /// Are there changes since the last save?
+    pub fn modified(&self) -> bool {
+        self.text != self.saved
+    }
+
+    /// Output units of the results.
+    pub fn units(&self) -> OutUnits {
+        OutUnits::new(self.analysis.section.units, self.config.units)
+    }
+
+    /// The columns of the parts table.
+    pub fn columns(&self) -> Vec<Col> {
+        columns(&self.analysis.document)
+    }
+
+    /// The selected column (clamped).
+    pub fn column(&self) -> Col {
+        let cols = self.columns();
+        cols.get(self.col.min(cols.len().saturating_sub(1)))
+            .copied()
+            .unwrap_or(Col::Name)
+    }
+
+    pub fn note(&mut self, m: impl Into<String>) {
+        self.message = Some((m.into(), false));
+    }
+
+    pub fn error(&mut self, m: impl Into<String>) {
+        self.message = Some((m.into(), true));
+    }
+
+    /// Takes new text if it computes; otherwise shows why and changes nothing.
+    /// Returns whether the edit was taken.
+    pub fn apply(&mut self, new: Result<String, String>) -> bool {
+        let text = match new {
+            Ok(t) => t,
+            Err(m) => {
+                self.error(format!("refused: {m}"));
+                return false;
+            }
+        };
+        match Analysis::of_text(&text, &Options::default()) {
+            Err(d) => {
+                let (l, c) = locate(&text, d.span.start);
+                self.error(format!("refused (line {l}:{c}): {}", d.message));
+                false
+            }
+            Ok(a) => {
+                let old = std::mem::replace(&mut self.text, text);
+                self.undo.push(old);
+                self.redo.clear();
+                self.set_analysis(a);
+                true
+            }
+        }
+    }
+
+    /// Goes back to an earlier (or later) text from the history.
+    pub fn restore(&mut self, text: String) {
+        match Analysis::of_text(&text, &Options::default()) {
+            Ok(a) => {
+                self.text = text;
+                self.set_analysis(a);
+            }
+            Err(d) => self.error(format!("cannot go back to that state: {}", d.message)),
+        }
+    }
+
+    fn set_analysis(&mut self, a: Analysis) {
+        self.analysis = a;
+        let n = self.analysis.document.parts.len();
+        self.part = self.part.min(n.saturating_sub(1));
+        self.param = self
+            .param
+            .min(self.analysis.document.params.len().saturating_sub(1));
+        self.col = self.col.min(self.columns().len().saturating_sub(1));
+        self.start_torsion();
+    }
+
+    /// Starts (or, solving inline, does) the torsion solve for the current text.
+    fn start_torsion(&mut self) {
+        self.generation += 1;
+        match &mut self.solver {
+            Solver::Off => {}
+            Solver::Inline => {
+                let opts = TorsionOptions {
+                    tol: TOLERANCE,
+                    cancel: None,
+                };
+                let r = torsion(&self.analysis.pieces, &opts);
+                self.take_torsion(r);
+            }
+            Solver::Thread(w) => {
+                w.submit(self.generation, self.analysis.pieces.clone());
+                self.solving = true;
+            }
+        }
+    }
+
+    fn take_torsion(&mut self, r: Result<crate::fe::Torsion, String>) {
+        if self.text == self.baseline_text && self.baseline.torsion.is_none() {
+            self.baseline.set_torsion(r.clone());
+        }
+        self.analysis.set_torsion(r);
+        self.solving = false;
+    }
+
+    /// Takes a finished background solve, if any; returns whether anything changed.
+    pub fn poll_solver(&mut self) -> bool {
+        let Solver::Thread(w) = &self.solver else {
+            return false;
+        };
+        match w.poll() {
+            Poll::Nothing => false,
+            Poll::Finished(d) => {
+                if d.generation == self.generation {
+                    self.take_torsion(d.result);
+                    true
+                } else {
+                    false
+                }
+            }
+            Poll::Stopped => {
+                self.solver = Solver::Off;
+                self.solving = false;
+                self.error("the torsion solver stopped; torsion results are not available");
+                true
+            }
+        }
+    }
+
+    /// Makes the current section the baseline.
+    pub fn set_baseline(&mut self, label: &'static str) {
+        self.baseline = self.analysis.clone();
+        self.baseline_text = self.text.clone();
+        self.baseline_label = label;
+    }
+}

@@ -1,0 +1,508 @@
+//! The workbench's commands as plain functions over [`App`], one per named command of
+//! the key table ([`run`] dispatches), so every one of them can be tested without a
+//! terminal.
+
+use super::app::{App, Focus, LineEdit, Mode, Target};
+use super::columns::{number, Col};
+use super::keys::Cmd;
+use crate::analysis::{Analysis, Options};
+use crate::file::edit::{self, number_value, round_sig, Slot};
+use crate::file::save::write_atomic;
+use crate::model::Value;
+use std::path::{Path, PathBuf};
+
+/// Runs a command.
+pub fn run(app: &mut App, cmd: Cmd) {
+    match cmd {
+        Cmd::Left => app.col = app.col.saturating_sub(1),
+        Cmd::Right => app.col = (app.col + 1).min(app.columns().len().saturating_sub(1)),
+        Cmd::Up => move_row(app, -1),
+        Cmd::Down => move_row(app, 1),
+        Cmd::First => move_row(app, i64::MIN / 2),
+        Cmd::Last => move_row(app, i64::MAX / 2),
+        Cmd::SwitchList => switch_list(app),
+        Cmd::ResultsDown => app.results_scroll = app.results_scroll.saturating_add(5),
+        Cmd::ResultsUp => app.results_scroll = app.results_scroll.saturating_sub(5),
+        Cmd::Edit => begin_edit(app),
+        Cmd::StepUp => step(app, 1, 1.0),
+        Cmd::StepDown => step(app, 1, -1.0),
+        Cmd::FineUp => step(app, 0, 1.0),
+        Cmd::FineDown => step(app, 0, -1.0),
+        Cmd::CoarseUp => step(app, 2, 1.0),
+        Cmd::CoarseDown => step(app, 2, -1.0),
+        Cmd::ToggleVoid => toggle(app, "void", false),
+        Cmd::ToggleEnabled => toggle(app, "enabled", true),
+        Cmd::AddPart => app.mode = Mode::Choosing(0),
+        Cmd::CopyPart => copy_part(app),
+        Cmd::DeletePart => delete_part(app),
+        Cmd::MoveUp => move_part(app, false),
+        Cmd::MoveDown => move_part(app, true),
+        Cmd::Undo => undo(app),
+        Cmd::Redo => redo(app),
+        Cmd::SetBaseline => {
+            app.set_baseline("your baseline");
+            app.note("baseline set: changes are now shown against the section as it is now");
+        }
+        Cmd::ResetBaseline => reset_baseline(app),
+        Cmd::Save => save(app),
+        Cmd::SaveAs => begin_save_as(app),
+        Cmd::Quit => quit(app),
+        Cmd::Help => app.mode = Mode::Help(0),
+        Cmd::ToggleMesh => {
+            app.show_mesh = !app.show_mesh;
+            app.note(if app.show_mesh {
+                "torsion mesh shown"
+            } else {
+                "torsion mesh hidden"
+            });
+        }
+        Cmd::ToggleAscii => {
+            app.theme.ascii = !app.theme.ascii;
+            app.config.ascii = app.theme.ascii;
+        }
+        Cmd::Commit => commit(app),
+        Cmd::Cancel => cancel(app),
+        Cmd::CursorLeft => with_line(app, LineEdit::left),
+        Cmd::CursorRight => with_line(app, LineEdit::right),
+        Cmd::CursorHome => with_line(app, |l| l.cursor = 0),
+        Cmd::CursorEnd => with_line(app, |l| l.cursor = l.text.chars().count()),
+        Cmd::Backspace => with_line(app, LineEdit::backspace),
+        Cmd::DeleteChar => with_line(app, LineEdit::delete),
+        Cmd::Yes => answer_yes(app),
+        Cmd::SaveAndQuit => {
+            app.mode = Mode::Main;
+            app.quit_after_save = true;
+            save(app);
+        }
+    }
+}
+
+/// Types a character into the line being edited.
+pub fn type_char(app: &mut App, c: char) {
+    with_line(app, |l| l.insert(c));
+}
+
+fn with_line(app: &mut App, f: impl FnOnce(&mut LineEdit)) {
+    if let Mode::Typing { line, .. } = &mut app.mode {
+        f(line);
+    }
+}
+
+fn move_row(app: &mut App, by: i64) {
+    match app.mode {
+        Mode::Choosing(i) => {
+            let n = edit::shape_names().count() as i64;
+            app.mode = Mode::Choosing((i as i64 + by).clamp(0, n - 1) as usize);
+        }
+        Mode::Help(s) => app.mode = Mode::Help((s as i64 + by).clamp(0, 200) as u16),
+        _ => {
+            let (row, n) = match app.focus {
+                Focus::Parts => (&mut app.part, app.analysis.document.parts.len()),
+                Focus::Params => (&mut app.param, app.analysis.document.params.len()),
+            };
+            *row = (*row as i64 + by).clamp(0, n.saturating_sub(1) as i64) as usize;
+        }
+    }
+}
+
+fn switch_list(app: &mut App) {
+    app.focus = match app.focus {
+        Focus::Parts if !app.analysis.document.params.is_empty() => Focus::Params,
+        Focus::Parts => {
+            app.note("this section has no [params]");
+            Focus::Parts
+        }
+        Focus::Params => Focus::Parts,
+    };
+}
+
+/// Starts typing in the selected cell or param (toggles for on/off cells).
+pub fn begin_edit(app: &mut App) {
+    if app.focus == Focus::Params {
+        let Some((name, _, v)) = app.analysis.document.params.get(app.param) else {
+            return;
+        };
+        app.mode = Mode::Typing {
+            target: Target::Param(name.clone()),
+            line: LineEdit::new(&v.value.text()),
+        };
+        return;
+    }
+    let Some(p) = app.analysis.document.parts.get(app.part) else {
+        app.note("no parts yet: press a to add one");
+        return;
+    };
+    let col = app.column();
+    let start = match col {
+        Col::Name => p.name.clone().unwrap_or_default(),
+        Col::Material => p.material.as_ref().map_or(String::new(), |m| m.0.clone()),
+        Col::Sign => return toggle(app, "void", false),
+        Col::Enabled => return toggle(app, "enabled", true),
+        Col::Shape => return app.note(
+            "the shape of a part stays; add a part of the new shape (a) and delete this one (x)",
+        ),
+        _ if p.shape == "polygon" && matches!(col, Col::Dim(_)) => {
+            return app.note("a polygon's corners are edited in the file (points = [[x, y], …])")
+        }
+        _ => match number(p, col) {
+            Some(v) => v.text(),
+            None => {
+                return app.note(format!(
+                    "a {} has no `{}`; that column belongs to other shapes",
+                    p.shape,
+                    col.heading()
+                ))
+            }
+        },
+    };
+    app.mode = Mode::Typing {
+        target: Target::Cell {
+            part: app.part,
+            col,
+        },
+        line: LineEdit::new(&start),
+    };
+}
+
+/// Keeps what was typed (an invalid entry is refused with the reason, nothing changes).
+pub fn commit(app: &mut App) {
+    match std::mem::replace(&mut app.mode, Mode::Main) {
+        Mode::Typing { target, line } => {
+            let entry = line.text.trim().to_string();
+            let new = match &target {
+                Target::Cell { part, col } => match col {
+                    Col::Name => edit::set_part_text(&app.text, *part, "name", &entry),
+                    Col::Material => edit::set_part_text(&app.text, *part, "material", &entry),
+                    c => match c.slot() {
+                        Some(slot) => edit::set_part_value(&app.text, *part, &slot, &entry),
+                        None => Err("this cell is not typed into".into()),
+                    },
+                },
+                Target::Param(name) => edit::set_param(&app.text, name, &entry),
+                Target::SaveAs => {
+                    if entry.is_empty() {
+                        app.error("type a file name, e.g. girder.toml");
+                        app.mode = Mode::Typing { target, line };
+                        return;
+                    }
+                    return save_to(app, PathBuf::from(entry), false);
+                }
+            };
+            if app.apply(new) {
+                app.note("changed");
+            } else {
+                // Keep the line so the entry can be corrected.
+                app.mode = Mode::Typing { target, line };
+            }
+        }
+        Mode::Choosing(i) => add_part(app, i),
+        other => app.mode = other,
+    }
+}
+
+/// Leaves typing, the picker, a question or the help without changing anything.
+pub fn cancel(app: &mut App) {
+    if matches!(app.mode, Mode::AskQuit | Mode::AskOverwrite(_)) {
+        app.quit_after_save = false;
+    }
+    app.mode = Mode::Main;
+    app.message = None;
+}
+
+/// The size of a step: the largest 1, 2 or 5 × 10ⁿ not above `x` (x > 0).
+///
+/// ```
+/// use kern::tui::commands::nice_step;
+/// assert_eq!(nice_step(15.0), 10.0);
+/// assert_eq!(nice_step(0.8), 0.5);
+/// assert_eq!(nice_step(26.6), 20.0);
+/// ```
+pub fn nice_step(x: f64) -> f64 {
+    if !(x > 0.0 && x.is_finite()) {
+        return 1.0;
+    }
+    let p = 10f64.powf(x.log10().floor());
+    let m = x / p;
+    let k = if m >= 5.0 {
+        5.0
+    } else if m >= 2.0 {
+        2.0
+    } else {
+        1.0
+    };
+    k * p
+}
+
+/// Rotation steps in degrees: fine, normal, coarse.
+const ANGLE_STEPS: [f64; 3] = [1.0, 5.0, 15.0];
+
+/// What kind of number is being stepped, for the size of the step.
+#[derive(Clone, Copy, PartialEq)]
+enum Kind {
+    Size,
+    Position,
+    Angle,
+}
+
+/// Steps the selected number by the fine (0), normal (1) or coarse (2) step, in
+/// direction `dir`: sizes by a percentage of their value, positions by a percentage of
+/// the section's size, rotations by 1°, 5° or 15°; the step is rounded to 1, 2 or 5 × 10ⁿ
+/// and the result to a multiple of it. An expression that is a bare param name steps
+/// that param; any other expression is refused.
+pub fn step(app: &mut App, level: usize, dir: f64) {
+    let doc = &app.analysis.document;
+    let (value, kind, what) = match app.focus {
+        Focus::Params => match doc.params.get(app.param) {
+            Some((name, _, v)) => (v.value.clone(), Kind::Size, Stepped::Param(name.clone())),
+            None => return,
+        },
+        Focus::Parts => {
+            let Some(p) = doc.parts.get(app.part) else {
+                return app.note("no parts yet: press a to add one");
+            };
+            let col = app.column();
+            let (Some(slot), Some(v)) = (col.slot(), number(p, col)) else {
+                return app
+                    .note("only numbers step; move to a dimension, a position or the rotation");
+            };
+            let kind = match col {
+                Col::AtX | Col::AtY => Kind::Position,
+                Col::Rotate => Kind::Angle,
+                _ => Kind::Size,
+            };
+            (v, kind, Stepped::Cell(app.part, slot))
+        }
+    };
+    let (x, what) = match value {
+        Value::Number(x) => (x, what),
+        Value::Expr(e) => match param_behind(app, &e) {
+            Some((name, x)) => (x, Stepped::Param(name)),
+            None => {
+                return app.error(format!(
+                    "`{e}` is an expression; step the param it uses, or type a new value (Enter)"
+                ))
+            }
+        },
+    };
+    let pct = app.config.steps.get(level).copied().unwrap_or(5.0) / 100.0;
+    let b = app.analysis.props.bounds;
+    let size = (b[1] - b[0]).max(b[3] - b[2]).abs();
+    let raw = match kind {
+        Kind::Angle => ANGLE_STEPS.get(level).copied().unwrap_or(5.0),
+        Kind::Position => pct * size,
+        Kind::Size if x != 0.0 => pct * x.abs(),
+        Kind::Size => pct * size,
+    };
+    let s = nice_step(raw);
+    let new = round_sig(((x + dir * s) / s).round() * s, 12);
+    let v = number_value(new);
+    let unit = if kind == Kind::Angle {
+        "°"
+    } else {
+        app.analysis.section.units.name()
+    };
+    let (label, result) = match &what {
+        Stepped::Param(name) => (
+            name.clone(),
+            edit::set_param_value(&app.text, name, v.clone()),
+        ),
+        Stepped::Cell(i, slot) => (
+            app.column().heading().to_string(),
+            edit::set_part_number(&app.text, *i, slot, v.clone()),
+        ),
+    };
+    if app.apply(result) {
+        app.note(format!(
+            "{label}: {} → {v} {unit} (step {s} {unit})",
+            number_value(x)
+        ));
+    }
+}
+
+/// What a step changes.
+enum Stepped {
+    Cell(usize, Slot),
+    Param(String),
+}
+
+/// The param a bare-name expression stands for (following names to names), with its
+/// number; `None` if the expression is anything else.
+fn param_behind(app: &App, expr: &str) -> Option<(String, f64)> {
+    let params = &app.analysis.document.params;
+    let mut name = expr.trim().to_string();
+    for _ in 0..params.len().max(1) {
+        let (_, _, v) = params.iter().find(|(n, _, _)| *n == name)?;
+        match &v.value {
+            Value::Number(x) => return Some((name, *x)),
+            Value::Expr(e) => name = e.trim().to_string(),
+        }
+    }
+    None
+}
+
+fn toggle(app: &mut App, key: &str, default: bool) {
+    if app.focus != Focus::Parts || app.analysis.document.parts.is_empty() {
+        return app.note("select a part first (Tab switches to the parts)");
+    }
+    let r = edit::toggle_part_flag(&app.text, app.part, key, default);
+    if app.apply(r) {
+        let p = app.analysis.document.parts.get(app.part);
+        let state = match (key, p) {
+            ("void", Some(p)) if p.void => "now a void (subtracted)",
+            ("void", _) => "now solid",
+            (_, Some(p)) if p.enabled => "taken back in",
+            _ => "left out (disabled)",
+        };
+        app.note(format!("part {state}"));
+    }
+}
+
+/// Adds a part of the `i`-th shape with default sizes, and selects it.
+pub fn add_part(app: &mut App, i: usize) {
+    app.mode = Mode::Main;
+    let Some(shape) = edit::shape_names().nth(i) else {
+        return;
+    };
+    let n = app.analysis.document.parts.len();
+    let name = format!("{} {}", shape.replace('_', " "), n + 1);
+    let r = edit::add_part(&app.text, shape, &name, app.analysis.section.units);
+    if app.apply(r) {
+        app.focus = Focus::Parts;
+        app.part = n;
+        app.note(format!("added {name} at the origin"));
+    }
+}
+
+fn copy_part(app: &mut App) {
+    let r = edit::duplicate_part(&app.text, app.part);
+    if app.apply(r) {
+        app.part += 1;
+        app.note("copied; the copy sits on the original until you move it");
+    }
+}
+
+fn delete_part(app: &mut App) {
+    if app.analysis.document.parts.len() <= 1 {
+        return app.error("refused: a section needs at least one part");
+    }
+    let r = edit::delete_part(&app.text, app.part);
+    if app.apply(r) {
+        app.note("part deleted (u undoes)");
+    }
+}
+
+fn move_part(app: &mut App, down: bool) {
+    let r = edit::move_part(&app.text, app.part, down);
+    if app.apply(r) {
+        app.part = if down {
+            app.part + 1
+        } else {
+            app.part.saturating_sub(1)
+        };
+    }
+}
+
+pub fn undo(app: &mut App) {
+    match app.undo.pop() {
+        Some(t) => {
+            let now = std::mem::replace(&mut app.text, t.clone());
+            app.redo.push(now);
+            app.restore(t);
+            app.note(format!("undone ({} more)", app.undo.len()));
+        }
+        None => app.note("nothing to undo"),
+    }
+}
+
+pub fn redo(app: &mut App) {
+    match app.redo.pop() {
+        Some(t) => {
+            let now = std::mem::replace(&mut app.text, t.clone());
+            app.undo.push(now);
+            app.restore(t);
+            app.note("redone");
+        }
+        None => app.note("nothing to redo"),
+    }
+}
+
+fn reset_baseline(app: &mut App) {
+    match Analysis::of_text(&app.opened, &Options::default()) {
+        Ok(a) => {
+            app.baseline = a;
+            app.baseline_text = app.opened.clone();
+            app.baseline_label = "file as opened";
+            app.note("changes are shown against the file as opened");
+        }
+        Err(d) => app.error(d.message),
+    }
+}
+
+/// Saves to the file (the demo asks for a name first).
+pub fn save(app: &mut App) {
+    match app.path.clone() {
+        Some(p) => save_to(app, p, false),
+        None => begin_save_as(app),
+    }
+}
+
+fn begin_save_as(app: &mut App) {
+    let start = app
+        .path
+        .as_ref()
+        .map_or(String::new(), |p| p.display().to_string());
+    app.mode = Mode::Typing {
+        target: Target::SaveAs,
+        line: LineEdit::new(&start),
+    };
+}
+
+/// Writes the text to `path` atomically; unless `force`, first checks that the file on
+/// disk is the one that was opened (or does not exist), and asks otherwise.
+pub fn save_to(app: &mut App, path: PathBuf, force: bool) {
+    app.mode = Mode::Main;
+    if !force && changed_on_disk(app, &path) {
+        app.mode = Mode::AskOverwrite(path);
+        return;
+    }
+    match write_atomic(&path, &app.text) {
+        Ok(()) => {
+            app.note(format!("saved {}", path.display()));
+            app.disk = Some(app.text.clone());
+            app.saved = app.text.clone();
+            app.path = Some(path);
+            if app.quit_after_save {
+                app.quit = true;
+            }
+        }
+        Err(e) => {
+            app.quit_after_save = false;
+            app.error(format!("could not save {}: {e}", path.display()));
+        }
+    }
+}
+
+/// Does `path` hold something other than what this workbench last read or wrote there?
+fn changed_on_disk(app: &App, path: &Path) -> bool {
+    let ours = app.path.as_deref() == Some(path);
+    match std::fs::read(path) {
+        Err(_) => false,
+        Ok(bytes) => !ours || app.disk.as_deref().map(str::as_bytes) != Some(&bytes[..]),
+    }
+}
+
+fn quit(app: &mut App) {
+    if app.modified() {
+        app.mode = Mode::AskQuit;
+    } else {
+        app.quit = true;
+    }
+}
+
+fn answer_yes(app: &mut App) {
+    match std::mem::replace(&mut app.mode, Mode::Main) {
+        Mode::AskQuit => app.quit = true,
+        Mode::AskOverwrite(p) => save_to(app, p, true),
+        other => app.mode = other,
+    }
+}

@@ -1,0 +1,126 @@
+//! The terminal workbench: `kern FILE` opens a section for editing with live results.
+//!
+//! State and edits live in [`app`] and [`commands`] (no terminal needed, so tests drive
+//! them directly); keys in one table ([`keys`]); each pane is a pure view ([`views`]) in
+//! the look of [`theme`]; the torsion solve runs on a thread ([`worker`]). This module
+//! only sets up the terminal, runs the event loop and puts the terminal back — on exit,
+//! on error and on panic.
+
+pub mod app;
+pub mod columns;
+pub mod commands;
+pub mod config;
+pub mod keys;
+pub mod raster;
+pub mod sanitize;
+pub mod theme;
+pub mod views;
+pub mod worker;
+
+use app::{App, Mode, Solver};
+use config::Config;
+use crossterm::event::{self, Event, KeyEvent, KeyEventKind};
+use keys::{lookup, Cmd, Ctx};
+use std::path::PathBuf;
+use std::time::Duration;
+use worker::Worker;
+
+/// The bundled demo section (opened by `kern` without a file).
+pub const DEMO: &str = include_str!("../../sections/mezzanine-girder.toml");
+
+/// How often the screen checks on a running torsion solve.
+const SOLVE_POLL: Duration = Duration::from_millis(100);
+
+/// Opens the workbench on `path` (the demo if `None`); returns the exit status.
+pub fn run(path: Option<PathBuf>) -> i32 {
+    let text = match &path {
+        None => DEMO.to_string(),
+        Some(p) => match std::fs::read_to_string(p) {
+            Ok(t) => t,
+            Err(e) => {
+                eprintln!("{}:1:1: cannot read the file: {e}", p.display());
+                return 1;
+            }
+        },
+    };
+    let (config, config_err) = Config::load();
+    let mut app = match App::new(
+        text.clone(),
+        path.clone(),
+        config,
+        Solver::Thread(Worker::spawn()),
+    ) {
+        Ok(a) => a,
+        Err(d) => {
+            let name = path.map_or("demo".into(), |p| p.display().to_string());
+            eprintln!("{}", crate::cli::diagnostic_line(&name, &text, &d));
+            return 2;
+        }
+    };
+    if let Some(e) = config_err {
+        app.error(e);
+    }
+    // ratatui::try_init also installs a panic hook that restores the terminal first.
+    let mut terminal = match ratatui::try_init() {
+        Ok(t) => t,
+        Err(e) => {
+            eprintln!("kern: cannot use this terminal: {e}");
+            return 1;
+        }
+    };
+    let result = event_loop(&mut terminal, &mut app);
+    ratatui::restore();
+    match result {
+        Ok(()) => 0,
+        Err(e) => {
+            eprintln!("kern: terminal error: {e}");
+            1
+        }
+    }
+}
+
+fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io::Result<()> {
+    loop {
+        terminal.draw(|f| views::render(app, f.area(), f.buffer_mut()))?;
+        if app.quit {
+            return Ok(());
+        }
+        // Block on input; only while a solve runs, wake up now and then to collect it.
+        let ev = if app.solving {
+            if event::poll(SOLVE_POLL)? {
+                Some(event::read()?)
+            } else {
+                None
+            }
+        } else {
+            Some(event::read()?)
+        };
+        app.poll_solver();
+        if let Some(Event::Key(k)) = ev {
+            if k.kind != KeyEventKind::Release {
+                handle_key(app, &k);
+            }
+        }
+    }
+}
+
+/// What a key press does in the current mode.
+pub fn handle_key(app: &mut App, k: &KeyEvent) {
+    let ctx = match app.mode {
+        Mode::Main => Ctx::Main,
+        Mode::Typing { .. } => Ctx::Typing,
+        Mode::Choosing(_) => Ctx::Choosing,
+        Mode::AskQuit | Mode::AskOverwrite(_) => Ctx::Asking,
+        Mode::Help(_) => Ctx::Help,
+    };
+    match (lookup(ctx, k), k.code) {
+        (Some(cmd), _) => {
+            if ctx == Ctx::Main && cmd != Cmd::Help {
+                app.message = None;
+            }
+            commands::run(app, cmd);
+        }
+        (None, event::KeyCode::Char(c)) if ctx == Ctx::Typing => commands::type_char(app, c),
+        _ => {}
+    }
+}

@@ -1,0 +1,173 @@
+//! A small rasteriser for the drawing: lines and marks on a grid of terminal cells,
+//! each cell holding 2 × 4 dots (braille) or one dot (plain ASCII). Every cell keeps
+//! the highest [`Ink`] drawn in it, which decides its colour (and its character in
+//! ASCII mode). Pure: the view turns the grid into buffer cells.
+
+use super::theme::Ink;
+
+/// How a line is drawn.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Dash {
+    Solid,
+    /// Runs of four dots with gaps of four.
+    Dashed,
+    /// One dot in three.
+    Dotted,
+}
+
+/// One terminal cell of the grid.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct Cell {
+    /// Braille dot bits (Unicode order), or 1 for a set ASCII cell.
+    pub bits: u8,
+    pub ink: Option<Ink>,
+    /// A character drawn over the dots (markers such as the centroid).
+    pub glyph: Option<char>,
+}
+
+/// A grid of `w × h` cells.
+#[derive(Debug, Clone)]
+pub struct Raster {
+    pub w: usize,
+    pub h: usize,
+    /// Dots per cell across and down: 2 × 4 for braille, 1 × 1 for ASCII.
+    pub kx: usize,
+    pub ky: usize,
+    cells: Vec<Cell>,
+}
+
+/// Braille dot bit for dot column `c` (0–1) and row `r` (0–3) of a cell.
+const BRAILLE: [[u8; 2]; 4] = [[0x01, 0x08], [0x02, 0x10], [0x04, 0x20], [0x40, 0x80]];
+
+impl Raster {
+    pub fn new(w: usize, h: usize, braille: bool) -> Raster {
+        let (kx, ky) = if braille { (2, 4) } else { (1, 1) };
+        Raster {
+            w,
+            h,
+            kx,
+            ky,
+            cells: vec![Cell::default(); w * h],
+        }
+    }
+
+    /// Width and height in dots.
+    pub fn dots(&self) -> (usize, usize) {
+        (self.w * self.kx, self.h * self.ky)
+    }
+
+    pub fn cell(&self, cx: usize, cy: usize) -> Option<&Cell> {
+        if cx < self.w && cy < self.h {
+            self.cells.get(cy * self.w + cx)
+        } else {
+            None
+        }
+    }
+
+    fn cell_mut(&mut self, cx: usize, cy: usize) -> Option<&mut Cell> {
+        if cx < self.w && cy < self.h {
+            self.cells.get_mut(cy * self.w + cx)
+        } else {
+            None
+        }
+    }
+
+    /// Sets the dot at (x, y), dots counted from the top left; outside is ignored.
+    pub fn dot(&mut self, x: i64, y: i64, ink: Ink) {
+        if x < 0 || y < 0 {
+            return;
+        }
+        let (x, y) = (x as usize, y as usize);
+        let (kx, ky) = (self.kx, self.ky);
+        if let Some(c) = self.cell_mut(x / kx, y / ky) {
+            c.bits |= if kx == 2 { BRAILLE[y % 4][x % 2] } else { 1 };
+            if c.ink.is_none_or(|i| i <= ink) {
+                c.ink = Some(ink);
+            }
+        }
+    }
+
+    /// A straight line between two points in dot coordinates (fractions allowed),
+    /// drawn in a [`Dash`] pattern.
+    pub fn line(&mut self, a: (f64, f64), b: (f64, f64), ink: Ink, dash: Dash) {
+        let (dx, dy) = (b.0 - a.0, b.1 - a.1);
+        let n = dx.abs().max(dy.abs()).ceil();
+        // Far-off lines (a zoomed-in view) are clipped by the step count cap.
+        if !n.is_finite() || n > 1e5 {
+            return;
+        }
+        let n = n.max(1.0) as i64;
+        for i in 0..=n {
+            let gap = match dash {
+                Dash::Solid => false,
+                Dash::Dashed => (i / 4) % 2 == 1,
+                Dash::Dotted => i % 3 != 0,
+            };
+            if gap {
+                continue;
+            }
+            let t = i as f64 / n as f64;
+            self.dot(
+                (a.0 + t * dx).round() as i64,
+                (a.1 + t * dy).round() as i64,
+                ink,
+            );
+        }
+    }
+
+    /// A character over the cell holding dot (x, y).
+    pub fn mark(&mut self, x: f64, y: f64, glyph: char) {
+        if !(x.is_finite() && y.is_finite()) || x < 0.0 || y < 0.0 {
+            return;
+        }
+        let (cx, cy) = (x as usize / self.kx, y as usize / self.ky);
+        if let Some(c) = self.cell_mut(cx, cy) {
+            c.glyph = Some(glyph);
+            c.ink = Some(Ink::Marker);
+        }
+    }
+
+    /// The character of a cell: its glyph, its braille pattern, or in ASCII mode the
+    /// ink's character; `None` for an empty cell.
+    pub fn char_at(&self, cx: usize, cy: usize, ascii_of: fn(Ink) -> char) -> Option<char> {
+        let c = self.cell(cx, cy)?;
+        if let Some(g) = c.glyph {
+            return Some(g);
+        }
+        if c.bits == 0 {
+            return None;
+        }
+        if self.kx == 2 {
+            char::from_u32(0x2800 + u32::from(c.bits))
+        } else {
+            c.ink.map(ascii_of)
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn braille_dots_and_ink_priority() {
+        let mut r = Raster::new(2, 1, true);
+        r.dot(0, 0, Ink::Void);
+        r.dot(1, 3, Ink::Solid);
+        let c = r.cell(0, 0).unwrap();
+        assert_eq!(c.bits, 0x01 | 0x80);
+        assert_eq!(c.ink, Some(Ink::Solid));
+        assert_eq!(r.char_at(0, 0, |_| '#'), Some('⢁'));
+        r.dot(99, 99, Ink::Solid);
+        r.line((0.0, 0.0), (1e12, 0.0), Ink::Axes, Dash::Solid);
+        assert_eq!(r.char_at(1, 0, |_| '#'), None);
+    }
+
+    #[test]
+    fn ascii_line_fills_cells() {
+        let mut r = Raster::new(4, 2, false);
+        r.line((0.0, 0.0), (3.0, 0.0), Ink::Solid, Dash::Solid);
+        let row: String = (0..4).filter_map(|x| r.char_at(x, 0, |_| '#')).collect();
+        assert_eq!(row, "####");
+    }
+}

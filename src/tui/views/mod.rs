@@ -1,0 +1,144 @@
+//! The screen, drawn purely from the [`App`]: a title line, the parts table and the
+//! drawing on the left, the params and the results on the right, the edit line, the
+//! message line and the caution at the bottom; the help, the shape picker and the
+//! questions over it. Each pane is a `render(&App, Rect, &mut Buffer)` function.
+
+pub mod drawing;
+pub mod help;
+pub mod panel;
+pub mod params;
+pub mod parts;
+pub mod status;
+
+use super::app::{App, Mode};
+use super::sanitize::clean;
+use super::theme::Theme;
+use ratatui::buffer::Buffer;
+use ratatui::layout::{Constraint, Layout, Rect};
+use ratatui::text::Line;
+use ratatui::widgets::{Block, Borders, Paragraph, Widget, Wrap};
+
+/// The smallest screen the workbench draws on.
+pub const MIN_SIZE: (u16, u16) = (40, 12);
+
+/// Draws the whole screen.
+pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
+    let area = area.intersection(buf.area);
+    if area.width < MIN_SIZE.0 || area.height < MIN_SIZE.1 {
+        let note = format!(
+            "kern needs a terminal of at least {}×{}; this one is {}×{}.",
+            MIN_SIZE.0, MIN_SIZE.1, area.width, area.height
+        );
+        Paragraph::new(note)
+            .wrap(Wrap { trim: true })
+            .render(area, buf);
+        return;
+    }
+    let footer = status::height(area.width);
+    let [title, main, foot] = Layout::vertical([
+        Constraint::Length(1),
+        Constraint::Min(4),
+        Constraint::Length(footer),
+    ])
+    .areas(area);
+    title_line(app, title, buf);
+    let [left, right] =
+        Layout::horizontal([Constraint::Percentage(58), Constraint::Percentage(42)]).areas(main);
+    let n_parts = app.analysis.document.parts.len() as u16;
+    let [parts_area, drawing_area] = Layout::vertical([
+        Constraint::Max(n_parts.saturating_add(3).max(5)),
+        Constraint::Min(3),
+    ])
+    .areas(left);
+    parts::render(app, parts_area, buf);
+    let block = pane(&app.theme, "Section to scale", false);
+    let inner = block.inner(drawing_area);
+    block.render(drawing_area, buf);
+    drawing::render(app, inner, buf);
+    let n_params = app.analysis.document.params.len() as u16;
+    let params_h = if n_params == 0 {
+        0
+    } else {
+        (n_params + 2).min(right.height / 3).max(3)
+    };
+    let [params_area, panel_area] =
+        Layout::vertical([Constraint::Length(params_h), Constraint::Min(3)]).areas(right);
+    if params_h > 0 {
+        params::render(app, params_area, buf);
+    }
+    panel::render(app, panel_area, buf);
+    status::render(app, foot, buf);
+    match &app.mode {
+        Mode::Help(scroll) => help::render(app, *scroll, main, buf),
+        Mode::Choosing(i) => help::picker(app, *i, main, buf),
+        Mode::AskQuit | Mode::AskOverwrite(_) => help::question(app, main, buf),
+        Mode::Main | Mode::Typing { .. } => {}
+    }
+}
+
+/// A bordered pane with a title; the focused one stands out.
+pub fn pane<'a>(th: &Theme, title: &'a str, focused: bool) -> Block<'a> {
+    Block::default()
+        .borders(Borders::ALL)
+        .border_set(th.border_set())
+        .border_style(if focused { th.border_focus } else { th.border })
+        .title(Line::styled(
+            format!(" {title} "),
+            if focused { th.border_focus } else { th.header },
+        ))
+}
+
+fn title_line(app: &App, area: Rect, buf: &mut Buffer) {
+    let th = &app.theme;
+    let title = app
+        .analysis
+        .document
+        .title
+        .as_deref()
+        .map_or_else(|| "untitled section".to_string(), clean);
+    let file = app.path.as_ref().map_or_else(
+        || "bundled demo (s saves a copy)".to_string(),
+        |p| clean(&p.display().to_string()),
+    );
+    let changed = if app.modified() { " [changed]" } else { "" };
+    let sep = th.glyph(" · ", " - ");
+    let text = format!(
+        "kern{sep}{title}{changed}{sep}lengths in {}{sep}{file}",
+        app.units().length.name()
+    );
+    buf.set_stringn(
+        area.x,
+        area.y,
+        th.text(&text),
+        area.width as usize,
+        th.title,
+    );
+}
+
+/// Pads or cuts `s` to exactly `w` columns.
+pub fn fit(s: &str, w: usize) -> String {
+    let mut out = String::new();
+    let mut used = 0;
+    for c in s.chars() {
+        let cw = Line::raw(c.to_string()).width();
+        if used + cw > w {
+            break;
+        }
+        out.push(c);
+        used += cw;
+    }
+    if used < w {
+        out.push_str(&" ".repeat(w - used));
+    }
+    out
+}
+
+/// Pads `s` on the left to `w` columns (cuts it on the right if longer).
+pub fn fit_right(s: &str, w: usize) -> String {
+    let width = Line::raw(s).width();
+    if width >= w {
+        fit(s, w)
+    } else {
+        format!("{}{s}", " ".repeat(w - width))
+    }
+}

@@ -1,0 +1,145 @@
+//! The bottom of the screen: the edit line (what the selected cell holds, or the value
+//! being typed), the message line (the last result, an error in its own style, or the
+//! main keys), and the caution every report carries.
+
+use crate::model::expr::Expr;
+use crate::report::CAUTION;
+use crate::tui::app::{App, Focus, Mode, Target};
+use crate::tui::columns::{cell, number};
+use crate::tui::sanitize::clean;
+use ratatui::buffer::Buffer;
+use ratatui::layout::Rect;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Paragraph, Widget, Wrap};
+
+/// Lines the bottom needs at a screen width: two, plus the caution's.
+pub fn height(width: u16) -> u16 {
+    let w = width.max(1) as usize;
+    2 + CAUTION.chars().count().div_ceil(w).min(2) as u16
+}
+
+pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
+    if area.height < 2 {
+        return;
+    }
+    let th = &app.theme;
+    let w = area.width as usize;
+    edit_line(app, area.x, area.y, w, buf);
+    let msg_y = area.y + 1;
+    match &app.message {
+        Some((m, err)) => {
+            let style = if *err { th.error } else { th.note };
+            buf.set_stringn(area.x, msg_y, th.text(&clean(m)), w, style);
+        }
+        None => {
+            let hint = "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit";
+            buf.set_stringn(area.x, msg_y, hint, w, th.muted);
+        }
+    }
+    let caution = Rect {
+        y: area.y + 2,
+        height: area.height - 2,
+        ..area
+    };
+    Paragraph::new(CAUTION)
+        .style(th.caution)
+        .wrap(Wrap { trim: true })
+        .render(caution, buf);
+}
+
+/// What is being typed, or what the selection holds.
+fn edit_line(app: &App, x: u16, y: u16, w: usize, buf: &mut Buffer) {
+    let th = &app.theme;
+    let line = match &app.mode {
+        Mode::Typing { target, line } => {
+            let what = match target {
+                Target::Cell { part, col } => {
+                    let name = app
+                        .analysis
+                        .document
+                        .parts
+                        .get(*part)
+                        .map_or(String::new(), |p| {
+                            cell(p, *part, crate::tui::columns::Col::Name, th.ascii)
+                        });
+                    format!("{} · {}", clean(&name), col.heading())
+                }
+                Target::Param(n) => format!("param {}", clean(n)),
+                Target::SaveAs => "save as (file name)".into(),
+            };
+            let chars: Vec<char> = line.text.chars().collect();
+            let before: String = chars.iter().take(line.cursor).collect();
+            let at: String = chars.get(line.cursor).map_or(" ".into(), |c| c.to_string());
+            let after: String = chars.iter().skip(line.cursor + 1).collect();
+            Line::from(vec![
+                Span::styled(th.text(&format!("{what}: ")), th.header),
+                Span::styled(th.text(&clean(&before)), th.editing),
+                Span::styled(th.text(&clean(&at)), th.cell_selected),
+                Span::styled(th.text(&clean(&after)), th.editing),
+                Span::styled(th.text("  Enter keep · Esc cancel"), th.muted),
+            ])
+        }
+        _ => Line::from(th.text(&describe(app))),
+    };
+    let area = Rect::new(x, y, w as u16, 1);
+    line.render(area, buf);
+}
+
+/// The selected cell or param in words, with the value an expression comes to.
+fn describe(app: &App) -> String {
+    let a = &app.analysis;
+    let unit = a.section.units.name();
+    let value_of = |e: &str| {
+        Expr::parse(e)
+            .ok()
+            .and_then(|x| x.eval(&|n| a.section.params.get(n).copied()).ok())
+    };
+    match app.focus {
+        Focus::Params => match a.document.params.get(app.param) {
+            Some((name, _, v)) => {
+                let worth = match (&v.value, a.section.params.get(name)) {
+                    (crate::model::Value::Expr(_), Some(x)) => format!(" = {}", short(*x)),
+                    _ => String::new(),
+                };
+                let worth = format!("{worth} {unit}");
+                clean(&format!("param {name} = {}{worth}", v.value.text()))
+            }
+            None => String::new(),
+        },
+        Focus::Parts => {
+            let Some(p) = a.document.parts.get(app.part) else {
+                return String::new();
+            };
+            let col = app.column();
+            let name = cell(p, app.part, crate::tui::columns::Col::Name, app.theme.ascii);
+            let mut s = format!(
+                "{name} · {} {}",
+                p.shape,
+                if p.void { "void" } else { "solid" }
+            );
+            if !p.enabled {
+                s.push_str(" (left out)");
+            }
+            if let Some(v) = number(p, col) {
+                s.push_str(&format!(" · {} = {}", col.heading(), v.text()));
+                if let crate::model::Value::Expr(e) = &v {
+                    if let Some(x) = value_of(e) {
+                        s.push_str(&format!(" = {}", short(x)));
+                    }
+                }
+                let u = if col == crate::tui::columns::Col::Rotate {
+                    "°"
+                } else {
+                    unit
+                };
+                s.push_str(&format!(" {u}"));
+            }
+            clean(&s)
+        }
+    }
+}
+
+/// A number as briefly as it reads exactly enough (6 significant figures at most).
+fn short(x: f64) -> String {
+    crate::file::edit::number_value(x).to_string()
+}

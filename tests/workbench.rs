@@ -1,0 +1,365 @@
+//! The workbench driven without a terminal: commands on the app state (edit, step,
+//! undo and redo, add and delete, save keeping comments), and whole screens drawn on a
+//! `TestBackend` as snapshots. Torsion is not solved here, so every screen is
+//! deterministic.
+
+use crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+use kern::tui::app::{App, Focus, Mode, Solver};
+use kern::tui::commands::{self, run};
+use kern::tui::config::Config;
+use kern::tui::handle_key;
+use kern::tui::keys::{markdown, Cmd};
+use kern::tui::views;
+use ratatui::backend::TestBackend;
+use ratatui::Terminal;
+use std::path::{Path, PathBuf};
+
+const GIRDER: &str = include_str!("../sections/mezzanine-girder.toml");
+
+fn app(text: &str) -> App {
+    App::new(text.to_string(), None, Config::default(), Solver::Off).expect("valid section")
+}
+
+fn section(name: &str) -> String {
+    let p = Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("sections")
+        .join(name);
+    std::fs::read_to_string(p).expect("demo section readable")
+}
+
+fn key(app: &mut App, code: KeyCode) {
+    handle_key(app, &KeyEvent::new(code, KeyModifiers::NONE));
+}
+
+fn typed(app: &mut App, s: &str) {
+    for c in s.chars() {
+        key(app, KeyCode::Char(c));
+    }
+}
+
+/// Lines that differ between two texts of the same length in lines.
+fn diff_lines(a: &str, b: &str) -> Vec<(String, String)> {
+    a.lines()
+        .zip(b.lines())
+        .filter(|(x, y)| x != y)
+        .map(|(x, y)| (x.to_string(), y.to_string()))
+        .collect()
+}
+
+fn screen(app: &App, w: u16, h: u16) -> String {
+    let mut t = Terminal::new(TestBackend::new(w, h)).expect("test terminal");
+    t.draw(|f| views::render(app, f.area(), f.buffer_mut()))
+        .expect("draw");
+    t.backend().to_string()
+}
+
+#[test]
+fn typing_a_param_changes_one_line_and_the_results() {
+    let mut a = app(GIRDER);
+    let ixx = a.analysis.props.ixx;
+    run(&mut a, Cmd::SwitchList);
+    assert_eq!(a.focus, Focus::Params);
+    run(&mut a, Cmd::Edit);
+    for _ in 0..3 {
+        key(&mut a, KeyCode::Backspace);
+    }
+    typed(&mut a, "300");
+    key(&mut a, KeyCode::Enter);
+    // The same value typed again: nothing changes.
+    assert!(diff_lines(GIRDER, &a.text).is_empty());
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::Edit);
+    for _ in 0..3 {
+        key(&mut a, KeyCode::Backspace);
+    }
+    typed(&mut a, "300");
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(
+        diff_lines(GIRDER, &a.text),
+        vec![(
+            "bf_bot = 250   # bottom flange width".to_string(),
+            "bf_bot = 300   # bottom flange width".to_string()
+        )]
+    );
+    assert!(a.analysis.props.ixx > ixx);
+    assert!(a.modified());
+}
+
+#[test]
+fn an_invalid_entry_is_refused_with_the_reason() {
+    let mut a = app(GIRDER);
+    // The web's height (column h) of part 2.
+    run(&mut a, Cmd::Down);
+    for _ in 0..4 {
+        run(&mut a, Cmd::Right);
+    }
+    run(&mut a, Cmd::Edit);
+    key(&mut a, KeyCode::End);
+    typed(&mut a, " - hw");
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.text, GIRDER, "nothing changed");
+    assert!(
+        matches!(a.mode, Mode::Typing { .. }),
+        "the entry stays to be fixed"
+    );
+    let (msg, err) = a.message.clone().unwrap();
+    assert!(err && msg.starts_with("refused"), "{msg}");
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.mode, Mode::Main);
+}
+
+#[test]
+fn steps_numbers_and_bare_params_but_not_expressions() {
+    let mut a = app(GIRDER);
+    // Top flange, column b holds "bf_top": the step goes to the param.
+    run(&mut a, Cmd::Right);
+    run(&mut a, Cmd::Right);
+    run(&mut a, Cmd::Right);
+    run(&mut a, Cmd::StepUp);
+    assert!(
+        a.text.contains("bf_top = 310   # top flange width"),
+        "5 % of 300 is 15, stepped by 10"
+    );
+    run(&mut a, Cmd::CoarseDown);
+    assert!(
+        a.text.contains("bf_top = 250   #"),
+        "25 % of 310 is 77.5: a step of 50, to a multiple of 50"
+    );
+    run(&mut a, Cmd::FineUp);
+    assert!(
+        a.text.contains("bf_top = 252   #"),
+        "1 % of 250 is 2.5: a step of 2"
+    );
+    // at y of the top flange is "hw + tf/2": refused.
+    run(&mut a, Cmd::Right);
+    run(&mut a, Cmd::Right);
+    run(&mut a, Cmd::Right);
+    let before = a.text.clone();
+    run(&mut a, Cmd::StepUp);
+    assert_eq!(a.text, before);
+    assert!(a.message.as_ref().unwrap().1);
+}
+
+#[test]
+fn undo_and_redo_walk_the_history() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::ToggleVoid);
+    run(&mut a, Cmd::ToggleEnabled);
+    let after = a.text.clone();
+    assert!(after.contains("void = true") && after.contains("enabled = false"));
+    run(&mut a, Cmd::Undo);
+    run(&mut a, Cmd::Undo);
+    assert_eq!(a.text, GIRDER);
+    assert!(!a.modified());
+    run(&mut a, Cmd::Redo);
+    run(&mut a, Cmd::Redo);
+    assert_eq!(a.text, after);
+    run(&mut a, Cmd::Undo);
+    run(&mut a, Cmd::ToggleVoid);
+    assert!(a.redo.is_empty(), "a new edit forgets what could be redone");
+}
+
+#[test]
+fn adds_copies_moves_and_deletes_parts() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::AddPart);
+    for _ in 0..11 {
+        run(&mut a, Cmd::Down);
+    }
+    run(&mut a, Cmd::Commit);
+    let parts = &a.analysis.document.parts;
+    assert_eq!(parts.len(), 4);
+    assert_eq!(parts[3].shape, "pipe");
+    assert_eq!(a.part, 3);
+    // A pipe of 100 × 5 mm at the origin: area π/4 (100² − 90²) added.
+    let pipe = std::f64::consts::PI / 4.0 * (100.0f64.powi(2) - 90.0f64.powi(2));
+    assert!((a.analysis.props.area - (13800.0 + pipe)).abs() < 1e-6);
+    run(&mut a, Cmd::ToggleVoid);
+    assert!((a.analysis.props.area - (13800.0 - pipe)).abs() < 1e-6);
+    run(&mut a, Cmd::CopyPart);
+    assert_eq!(a.analysis.document.parts.len(), 5);
+    run(&mut a, Cmd::MoveUp);
+    assert_eq!(a.part, 3);
+    run(&mut a, Cmd::First);
+    run(&mut a, Cmd::DeletePart);
+    let names: Vec<_> = a
+        .analysis
+        .document
+        .parts
+        .iter()
+        .map(|p| p.name.clone().unwrap())
+        .collect();
+    assert_eq!(names, ["web", "bottom flange", "pipe 4", "pipe 4"]);
+    // The comment at the top of the file survives all of it.
+    assert!(a.text.starts_with("# Mezzanine bay 3, edge girder"));
+}
+
+fn temp_dir(tag: &str) -> PathBuf {
+    let d = std::env::temp_dir().join(format!("kern-wb-{tag}-{}", std::process::id()));
+    std::fs::create_dir_all(&d).unwrap();
+    d
+}
+
+#[test]
+fn save_round_trip_keeps_comments_and_notices_changes_on_disk() {
+    let dir = temp_dir("save");
+    let file = dir.join("girder.toml");
+    std::fs::write(&file, GIRDER).unwrap();
+    let mut a = App::new(
+        GIRDER.into(),
+        Some(file.clone()),
+        Config::default(),
+        Solver::Off,
+    )
+    .unwrap();
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::StepUp);
+    run(&mut a, Cmd::Save);
+    let saved = std::fs::read_to_string(&file).unwrap();
+    assert_eq!(saved, a.text);
+    assert_eq!(
+        diff_lines(GIRDER, &saved),
+        vec![(
+            "bf_top = 300   # top flange width".to_string(),
+            "bf_top = 310   # top flange width".to_string()
+        )]
+    );
+    assert!(!a.modified());
+    // Someone else edits the file: the next save asks first.
+    std::fs::write(&file, format!("{saved}\n# edited elsewhere\n")).unwrap();
+    run(&mut a, Cmd::StepUp);
+    run(&mut a, Cmd::Save);
+    assert!(matches!(a.mode, Mode::AskOverwrite(_)));
+    run(&mut a, Cmd::Cancel);
+    assert!(std::fs::read_to_string(&file)
+        .unwrap()
+        .contains("edited elsewhere"));
+    run(&mut a, Cmd::Save);
+    run(&mut a, Cmd::Yes);
+    assert_eq!(std::fs::read_to_string(&file).unwrap(), a.text);
+    std::fs::remove_dir_all(&dir).unwrap();
+}
+
+#[test]
+fn the_demo_saves_under_a_new_name_and_quitting_asks_first() {
+    let dir = temp_dir("demo");
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::ToggleVoid);
+    run(&mut a, Cmd::Quit);
+    assert_eq!(a.mode, Mode::AskQuit);
+    run(&mut a, Cmd::SaveAndQuit);
+    assert!(
+        matches!(a.mode, Mode::Typing { .. }),
+        "the demo asks for a file name"
+    );
+    let name = dir.join("mine.toml");
+    typed(&mut a, &name.display().to_string());
+    key(&mut a, KeyCode::Enter);
+    assert!(a.quit);
+    assert_eq!(std::fs::read_to_string(&name).unwrap(), a.text);
+    std::fs::remove_dir_all(&dir).unwrap();
+}
+
+#[test]
+fn the_baseline_can_be_moved_and_reset() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::StepUp);
+    run(&mut a, Cmd::SetBaseline);
+    assert_eq!(a.baseline.props.ixx, a.analysis.props.ixx);
+    run(&mut a, Cmd::ResetBaseline);
+    assert!(a.baseline.props.ixx < a.analysis.props.ixx);
+}
+
+#[test]
+fn every_size_draws_without_panicking() {
+    let mut a = app(GIRDER);
+    for (w, h) in [
+        (1, 1),
+        (5, 3),
+        (39, 11),
+        (40, 12),
+        (41, 30),
+        (200, 12),
+        (40, 80),
+    ] {
+        let s = screen(&a, w, h);
+        assert_eq!(s.contains("Parts (3)"), w >= 40 && h >= 12, "{w}×{h}");
+    }
+    run(&mut a, Cmd::Help);
+    screen(&a, 40, 12);
+    a.mode = Mode::Choosing(11);
+    screen(&a, 40, 12);
+}
+
+#[test]
+fn names_from_the_file_are_drawn_without_escape_sequences() {
+    let text = GIRDER
+        .replace("Edge girder, mezzanine bay 3", "Edge\\u001b[2J girder")
+        .replace("name = \"web\"", "name = \"we\\u001b]0;x\\u0007b\"");
+    let a = app(&text);
+    let s = screen(&a, 120, 40);
+    assert!(!s.contains('\u{1b}') && s.contains("Edge girder") && s.contains("web"));
+}
+
+#[test]
+fn readme_key_list_is_generated_from_the_key_table() {
+    let readme =
+        std::fs::read_to_string(Path::new(env!("CARGO_MANIFEST_DIR")).join("README.md")).unwrap();
+    let start = "<!-- keys:start -->\n";
+    let (_, rest) = readme
+        .split_once(start)
+        .expect("README has the keys:start marker");
+    let (listed, _) = rest
+        .split_once("<!-- keys:end -->")
+        .expect("keys:end marker");
+    assert_eq!(
+        listed,
+        markdown(),
+        "README key list is stale: paste `kern keys` between the markers"
+    );
+}
+
+/// Sections shown in the snapshots (demo files of `sections/`).
+const SNAP_SECTIONS: [&str; 4] = [
+    "mezzanine-girder",
+    "garage-lintel",
+    "cored-plank",
+    "crane-runway",
+];
+
+#[test]
+fn snapshots_of_the_main_screen() {
+    for name in SNAP_SECTIONS {
+        let a = app(&section(&format!("{name}.toml")));
+        insta::assert_snapshot!(format!("{name}-80x24"), screen(&a, 80, 24));
+        insta::assert_snapshot!(format!("{name}-120x40"), screen(&a, 120, 40));
+    }
+}
+
+#[test]
+fn snapshots_of_help_picker_error_and_ascii() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::Help);
+    insta::assert_snapshot!("help-80x24", screen(&a, 80, 24));
+    insta::assert_snapshot!("help-120x40", screen(&a, 120, 40));
+    run(&mut a, Cmd::Cancel);
+    run(&mut a, Cmd::AddPart);
+    insta::assert_snapshot!("picker-80x24", screen(&a, 80, 24));
+    run(&mut a, Cmd::Cancel);
+    // An error: a web with no height.
+    run(&mut a, Cmd::Down);
+    for _ in 0..4 {
+        run(&mut a, Cmd::Right);
+    }
+    run(&mut a, Cmd::Edit);
+    key(&mut a, KeyCode::End);
+    typed(&mut a, " - hw");
+    key(&mut a, KeyCode::Enter);
+    insta::assert_snapshot!("refused-entry-80x24", screen(&a, 80, 24));
+    commands::cancel(&mut a);
+    run(&mut a, Cmd::ToggleAscii);
+    insta::assert_snapshot!("ascii-80x24", screen(&a, 80, 24));
+    let s = screen(&a, 80, 24);
+    assert!(s.is_ascii(), "ASCII mode draws only ASCII");
+}
