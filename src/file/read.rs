@@ -348,9 +348,21 @@ impl Reader {
     }
 
     fn part(&self, t: &dyn TableLike, sp: Span) -> Result<PartDoc, Diagnostic> {
-        let (shape, shape_span) = self.opt_str(t, "shape", sp.clone())?.ok_or_else(|| {
-            Diagnostic::new(sp.clone(), "a part needs a `shape`, e.g. shape = \"rect\"")
-        })?;
+        let Some((shape, shape_span)) = self.opt_str(t, "shape", sp.clone())? else {
+            // A misspelt `shape` is the likely cause: name it if a key is unknown to
+            // every shape.
+            let mut any: Vec<&str> = PART_KEYS.to_vec();
+            any.push("points");
+            for (_, req, opt) in SHAPES {
+                any.extend(req.iter());
+                any.extend(opt.iter().map(|o| o.0));
+            }
+            self.known_keys(t, &any, "a part", sp.clone())?;
+            return Err(Diagnostic::new(
+                sp,
+                "a part needs a `shape`, e.g. shape = \"rect\"",
+            ));
+        };
         let Some((_, req, opt)) = SHAPES.iter().find(|s| s.0 == shape) else {
             let best = SHAPES
                 .iter()

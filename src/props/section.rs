@@ -73,8 +73,19 @@ impl Properties {
             .fold(Moments::default(), |s, (p, c)| {
                 s.plus(&Moments::of_contours(c), p.sign() * p.n)
             });
+        let finite = [m.a, m.sx, m.sy, m.ixx, m.iyy, m.ixy]
+            .iter()
+            .chain(&b)
+            .all(|v| v.is_finite());
+        if !finite {
+            return Err("the section is too large to compute with (its second moments overflow); draw it in a larger length unit".into());
+        }
         let c = m.centroidal().filter(|c| c.area > 1e-12 * (b[1] - b[0]) * (b[3] - b[2])).ok_or_else(|| {
-            format!("the net area of the section is not positive ({:.6e}); voids remove all the solid material", m.a)
+            if pieces.iter().any(|p| p.void) {
+                format!("the net area of the section is not positive ({:.6e}); voids remove all the solid material", m.a)
+            } else {
+                "the parts have no area at this scale (too small, or too far from the origin for their size); use a smaller length unit or move them nearer the origin".to_string()
+            }
         })?;
         let Centroidal {
             area,
