@@ -65,8 +65,8 @@ impl Shape {
                 return None;
             }
             let t = (p.sub(a).x * d.x + p.sub(a).y * d.y) / len2;
-            let foot = a.add(d.scale(t.clamp(0.0, 1.0)));
-            (foot.dist(p) <= tol).then_some(d)
+            let off = a.add(d.scale(t.clamp(0.0, 1.0))).sub(p);
+            (off.x * off.x + off.y * off.y <= tol * tol).then_some(d)
         })
     }
 }
@@ -79,7 +79,21 @@ fn boxes_overlap(a: [f64; 4], b: [f64; 4]) -> bool {
 /// and running the same way.
 fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
     let mut sum = 0.0;
+    // An edge wholly outside Q's box (widened by `tol`) is neither inside Q nor on ∂Q.
+    let qb = [
+        q.bounds[0] - tol,
+        q.bounds[1] + tol,
+        q.bounds[2] - tol,
+        q.bounds[3] + tol,
+    ];
     for (a, b) in p.edges() {
+        if a.x.max(b.x) < qb[0]
+            || a.x.min(b.x) > qb[1]
+            || a.y.max(b.y) < qb[2]
+            || a.y.min(b.y) > qb[3]
+        {
+            continue;
+        }
         let d = b.sub(a);
         let mut ts = vec![0.0, 1.0];
         for (c, e) in q.edges() {
@@ -90,7 +104,8 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
                 for r in [c, e] {
                     let len2 = d.x * d.x + d.y * d.y;
                     let t = (r.sub(a).x * d.x + r.sub(a).y * d.y) / len2;
-                    if t > 0.0 && t < 1.0 && a.add(d.scale(t)).dist(r) <= tol {
+                    let off = a.add(d.scale(t)).sub(r);
+                    if t > 0.0 && t < 1.0 && off.x * off.x + off.y * off.y <= tol * tol {
                         ts.push(t);
                     }
                 }
@@ -134,6 +149,40 @@ fn common_area(p: &Shape, q: &Shape) -> f64 {
     boundary_inside(p, q, true, tol) + boundary_inside(q, p, false, tol)
 }
 
+/// The pairs `(i, j)`, `i < j`, of shapes whose boxes overlap, in increasing order, by
+/// sort and sweep along the axis on which the parts are most spread out (a stack of
+/// plates is swept vertically): about `n log n` plus the pairs found.
+fn box_pairs(shapes: &[Option<Shape>]) -> Vec<(usize, usize)> {
+    let boxes: Vec<(usize, [f64; 4])> = shapes
+        .iter()
+        .enumerate()
+        .filter_map(|(i, s)| s.as_ref().map(|s| (i, s.bounds)))
+        .collect();
+    let spread = |lo: usize| {
+        let (min, max) = boxes.iter().fold((f64::MAX, f64::MIN), |(a, b), (_, x)| {
+            (a.min(x[lo]), b.max(x[lo + 1]))
+        });
+        let sizes: f64 = boxes.iter().map(|(_, x)| x[lo + 1] - x[lo]).sum();
+        (max - min) / sizes.max(f64::MIN_POSITIVE)
+    };
+    let lo = if spread(2) > spread(0) { 2 } else { 0 };
+    let mut order = boxes;
+    order.sort_by(|a, b| a.1[lo].total_cmp(&b.1[lo]));
+    let mut pairs = Vec::new();
+    for (k, (i, a)) in order.iter().enumerate() {
+        for (j, b) in &order[k + 1..] {
+            if b[lo] >= a[lo + 1] {
+                break;
+            }
+            if boxes_overlap(*a, *b) {
+                pairs.push(((*i).min(*j), (*i).max(*j)));
+            }
+        }
+    }
+    pairs.sort_unstable();
+    pairs
+}
+
 /// Warnings about the arrangement of the pieces, in plain words.
 pub fn warnings(pieces: &[Piece]) -> Vec<String> {
     let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
@@ -147,25 +196,22 @@ pub fn warnings(pieces: &[Piece]) -> Vec<String> {
             ));
         }
     }
-    let n = pieces.len();
-    for i in 0..n {
-        for j in i + 1..n {
-            let (Some(a), Some(b)) = (&shapes[i], &shapes[j]) else {
-                continue;
-            };
-            let (pi, pj) = (&pieces[i], &pieces[j]);
-            if pi.void != pj.void {
-                continue;
-            }
-            let common = common_area(a, b);
-            if common > 1e-6 * a.area.min(b.area) {
-                let pct = 100.0 * common / a.area.min(b.area);
-                out.push(if pi.void {
-                    format!("voids `{}` and `{}` overlap ({}% of the smaller): the shared area is removed twice", pi.name, pj.name, sig(pct, 3))
-                } else {
-                    format!("solid parts `{}` and `{}` overlap ({}% of the smaller): the shared area counts twice; make one of them a void or trim it", pi.name, pj.name, sig(pct, 3))
-                });
-            }
+    for (i, j) in box_pairs(&shapes) {
+        let (Some(a), Some(b)) = (&shapes[i], &shapes[j]) else {
+            continue;
+        };
+        let (pi, pj) = (&pieces[i], &pieces[j]);
+        if pi.void != pj.void {
+            continue;
+        }
+        let common = common_area(a, b);
+        if common > 1e-6 * a.area.min(b.area) {
+            let pct = 100.0 * common / a.area.min(b.area);
+            out.push(if pi.void {
+                format!("voids `{}` and `{}` overlap ({}% of the smaller): the shared area is removed twice", pi.name, pj.name, sig(pct, 3))
+            } else {
+                format!("solid parts `{}` and `{}` overlap ({}% of the smaller): the shared area counts twice; make one of them a void or trim it", pi.name, pj.name, sig(pct, 3))
+            });
         }
     }
     for (i, v) in pieces.iter().enumerate().filter(|(_, p)| p.void) {

@@ -27,11 +27,9 @@ impl TrigPoly {
                 if a == 0.0 {
                     continue;
                 }
-                for (k, orow) in o.0.iter().enumerate() {
-                    for (l, &b) in orow.iter().enumerate() {
-                        if b != 0.0 && i + k < 6 && j + l < 6 {
-                            out.0[i + k][j + l] += a * b;
-                        }
+                for (k, orow) in o.0.iter().take(6 - i).enumerate() {
+                    for (l, &b) in orow.iter().take(6 - j).enumerate() {
+                        out.0[i + k][j + l] += a * b;
                     }
                 }
             }
