@@ -1,0 +1,14 @@
+//! Any bytes as a section file: the reader and the calculation (without torsion) must
+//! refuse or accept them, never panic.
+#![no_main]
+
+use kern::analysis::{Analysis, Options};
+use libfuzzer_sys::fuzz_target;
+
+fuzz_target!(|data: &[u8]| {
+    if let Ok(text) = std::str::from_utf8(data) {
+        if let Err(d) = Analysis::of_text(text, &Options::default()) {
+            let _ = kern::file::locate(text, d.span.start);
+        }
+    }
+});
