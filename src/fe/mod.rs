@@ -86,7 +86,8 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
     let span = extent(&base.mesh);
     let mut mesh = base.mesh;
     let mut levels: Vec<Level> = Vec::new();
-    let mut guess = None;
+    let mut ladder = torsion::Ladder::default();
+    let mut step = None;
     let tol = if opts.tol.is_finite() && opts.tol > 0.0 {
         opts.tol
     } else {
@@ -96,7 +97,7 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
         if cancelled() {
             return Err("cancelled".into());
         }
-        let (level, u) = torsion::solve(&mesh, guess.take(), cancel).map_err(fail)?;
+        let level = ladder.solve(&mesh, step.take(), cancel).map_err(fail)?;
         levels.push(level);
         if let Some(est) = estimate(&levels, span) {
             if est.rel_error <= tol {
@@ -111,7 +112,7 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
             }
         }
         let fine = mesh.refine();
-        guess = Some(mesh.prolong(&fine, &u));
+        step = Some(mesh.prolongation(&fine));
         mesh = fine;
     }
 }

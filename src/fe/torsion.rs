@@ -11,7 +11,7 @@
 
 use super::mesh::Mesh;
 use super::p2::{at, Rule};
-use super::solve::{pcg, Cancelled, Csr};
+use super::solve::{Cancelled, Csr, Multigrid, Prolong};
 use crate::geom::Pt;
 use std::sync::atomic::AtomicBool;
 
@@ -61,13 +61,37 @@ fn moments(m: &Mesh, rule: &Rule) -> Result<[f64; 6], Failure> {
     Ok(s)
 }
 
-/// Solves the warping problem on `m`, starting the iteration from `guess` (nodal
-/// values on `m`) when given. Returns the level's results and the nodal solution.
-pub fn solve(
+/// Relative residual to which the refined levels are solved. J is stationary in ω, so
+/// its error from the solver is of the order of the square of this.
+const RTOL: f64 = 1e-7;
+
+/// What one level hands to the next: the multigrid hierarchy so far and the solution.
+#[derive(Default)]
+pub struct Ladder {
+    mg: Option<Multigrid>,
+    u: Vec<f64>,
+}
+
+impl Ladder {
+    /// Solves the warping problem on `m`: the base mesh when `step` is `None` (a
+    /// direct solve), else the refinement of the previous mesh that `step` prolongs onto
+    /// (multigrid-preconditioned conjugate gradients from the prolonged solution).
+    pub fn solve(
+        &mut self,
+        m: &Mesh,
+        step: Option<Prolong>,
+        cancel: Option<&AtomicBool>,
+    ) -> Result<Level, Failure> {
+        solve(self, m, step, cancel)
+    }
+}
+
+fn solve(
+    ladder: &mut Ladder,
     m: &Mesh,
-    guess: Option<Vec<f64>>,
+    step: Option<Prolong>,
     cancel: Option<&AtomicBool>,
-) -> Result<(Level, Vec<f64>), Failure> {
+) -> Result<Level, Failure> {
     let r4 = Rule::degree4();
     let r2 = Rule::degree2();
     let s = moments(m, &r4)?;
@@ -105,17 +129,34 @@ pub fn solve(
         k.pin(pn as usize);
         f[pn as usize] = 0.0;
     }
-    let mut u = guess
-        .filter(|g| g.len() == nn)
-        .unwrap_or_else(|| vec![0.0; nn]);
-    for &pn in &m.pinned {
-        u[pn as usize] = 0.0;
-    }
-    let iterations = pcg(&k, &f, &mut u, 1e-7, 20 * nn + 100, cancel)?;
+    let mut u = vec![0.0; nn];
+    let mut ku = vec![0.0; nn];
+    let iterations = match step {
+        None => {
+            let mg = Multigrid::new(&k, &m.pinned).ok_or(Failure::Degenerate)?;
+            let it = mg.solve(&f, &mut u, RTOL, cancel)?;
+            k.mul(&u, &mut ku);
+            ladder.mg = Some(mg);
+            it
+        }
+        Some(p) => {
+            let mg = ladder
+                .mg
+                .as_mut()
+                .filter(|_| p.fine() == nn && p.coarse == ladder.u.len())
+                .ok_or(Failure::Degenerate)?;
+            p.apply(&ladder.u, &mut u, false);
+            for &pn in &m.pinned {
+                u[pn as usize] = 0.0;
+            }
+            mg.push(p, k);
+            let it = mg.solve(&f, &mut u, RTOL, cancel)?;
+            mg.finest().ok_or(Failure::Degenerate)?.mul(&u, &mut ku);
+            it
+        }
+    };
     // J = Ip − ∫n(x ∂ω/∂y − y ∂ω/∂x)… written as the stationary value
     // Ip − (2fᵀu − uᵀKu), whose error is second order in the solver's error.
-    let mut ku = vec![0.0; nn];
-    k.mul(&u, &mut ku);
     let fu: f64 = f.iter().zip(&u).map(|(a, b)| a * b).sum();
     let uku: f64 = ku.iter().zip(&u).map(|(a, b)| a * b).sum();
     let j = ip - (2.0 * fu - uku);
@@ -158,18 +199,16 @@ pub fn solve(
         s2 += da * ws * ws;
     })?;
     let cw = s2 - s1 * s1 / s[0];
-    Ok((
-        Level {
-            j,
-            cw,
-            sc: Pt::new(c.x + xs, c.y + ys),
-            area: s[0],
-            ip,
-            elements: m.elems.len(),
-            iterations,
-        },
-        u,
-    ))
+    ladder.u = u;
+    Ok(Level {
+        j,
+        cw,
+        sc: Pt::new(c.x + xs, c.y + ys),
+        area: s[0],
+        ip,
+        elements: m.elems.len(),
+        iterations,
+    })
 }
 
 /// Calls `f(n·dA, x, y, ω)` at every quadrature point, coordinates about `c`.
