@@ -6,8 +6,10 @@
 //! (crossing edges of overlapping parts are split where they cross). A triangle belongs
 //! to the region when its centroid is inside some solid piece and inside no void
 //! (nonzero winding number), so overlapping solids count once. Points are added in
-//! rings about re-entrant corners (where the warping function is singular), then the
-//! triangulation is refined to a minimum angle of 20° and a maximum area.
+//! rings about re-entrant corners (where the warping function is singular), but not
+//! where two facets of one arc meet (a fillet or a hole is smooth: the solution is not
+//! singular there), then the triangulation is refined to a minimum angle of 20° and a
+//! maximum area.
 //!
 //! Refinement splits every triangle into four through its mid-sides, so each mesh
 //! holds the previous one and the element size halves per level. A new node on an edge
@@ -324,7 +326,9 @@ fn grade_corners(
     let mut extra = Vec::new();
     for v in 0..nv {
         // A boundary vertex with more than 200° of region about it.
-        if angle[v] > PI * 200.0 / 180.0 && angle[v] < TAU - 1e-6 && !inside_arc(chords, pos[v], eps)
+        if angle[v] > PI * 200.0 / 180.0
+            && angle[v] < TAU - 1e-6
+            && !inside_arc(chords, pos[v], eps)
         {
             let mut rho = shortest[v] / 2.0;
             for _ in 0..5 {
@@ -677,7 +681,10 @@ impl Mesh {
                 (children[2][3], 8),
             ];
             for (node, k) in set {
-                if let Some(row) = (node as usize).checked_sub(old).and_then(|i| rows.get_mut(i)) {
+                if let Some(row) = (node as usize)
+                    .checked_sub(old)
+                    .and_then(|i| rows.get_mut(i))
+                {
                     *row = [0, 1, 2, 3, 4, 5].map(|i| (e[i], w[k][i]));
                 }
             }

@@ -490,7 +490,10 @@ mod tests {
     fn residual(a: &Csr, x: &[f64], b: &[f64]) -> f64 {
         let mut ax = vec![0.0; b.len()];
         a.mul(x, &mut ax);
-        ax.iter().zip(b).map(|(p, q)| (p - q).abs()).fold(0.0, f64::max)
+        ax.iter()
+            .zip(b)
+            .map(|(p, q)| (p - q).abs())
+            .fold(0.0, f64::max)
     }
 
     #[test]
@@ -512,7 +515,9 @@ mod tests {
     fn envelope_cholesky_solves_directly() {
         let (mut a, b) = small();
         let mut x = vec![0.0; 7];
-        Envelope::factor(&a).expect("positive definite").solve(&b, &mut x);
+        Envelope::factor(&a)
+            .expect("positive definite")
+            .solve(&b, &mut x);
         assert!(residual(&a, &x, &b) < 1e-12);
         // An indefinite matrix is refused.
         let d = a.diag[3];
@@ -527,7 +532,14 @@ mod tests {
             coarse: 3,
             rows: vec![
                 [(0, 0.5), (1, 0.5), (2, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
-                [(0, 0.25), (1, -0.125), (2, 0.875), (0, 0.0), (1, 0.0), (2, 0.0)],
+                [
+                    (0, 0.25),
+                    (1, -0.125),
+                    (2, 0.875),
+                    (0, 0.0),
+                    (1, 0.0),
+                    (2, 0.0),
+                ],
             ],
         };
         let u = [1.0, -2.0, 3.0];
