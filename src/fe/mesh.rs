@@ -6,8 +6,10 @@
 //! (crossing edges of overlapping parts are split where they cross). A triangle belongs
 //! to the region when its centroid is inside some solid piece and inside no void
 //! (nonzero winding number), so overlapping solids count once. Points are added in
-//! rings about re-entrant corners (where the warping function is singular), then the
-//! triangulation is refined to a minimum angle of 20° and a maximum area.
+//! rings about re-entrant corners (where the warping function is singular), but not
+//! where two facets of one arc meet (a fillet or a hole is smooth: the solution is not
+//! singular there), then the triangulation is refined to a minimum angle of 20° and a
+//! maximum area.
 //!
 //! Refinement splits every triangle into four through its mid-sides, so each mesh
 //! holds the previous one and the element size halves per level. A new node on an edge
@@ -15,6 +17,7 @@
 //! mesh instead of staying faceted.
 
 use super::p2::shape;
+use super::solve::Prolong;
 use crate::geom::{Piece, Pt, Seg};
 use spade::{
     AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters, Triangulation,
@@ -201,7 +204,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
     if area <= 0.0 {
         return Err("the region of the section (solids minus voids) is empty".into());
     }
-    grade_corners(&mut cdt, &outlines, &mut snap)?;
+    grade_corners(&mut cdt, &outlines, &chords, eps, &mut snap)?;
     let params = RefinementParameters::<f64>::new()
         .with_angle_limit(AngleLimit::from_deg(20.0))
         .with_max_allowed_area(size * area / 60.0)
@@ -300,7 +303,13 @@ fn region_triangles(cdt: &Cdt, outlines: &[Outline]) -> Vec<Tri> {
 /// where they fall in the region well clear of its boundary. The warping function
 /// behaves like r^(π/α) at a corner of interior angle α > π (Grisvard, Elliptic
 /// Problems in Nonsmooth Domains, §2.7), so small elements there keep the error small.
-fn grade_corners(cdt: &mut Cdt, outlines: &[Outline], snap: &mut Snap) -> Result<(), String> {
+fn grade_corners(
+    cdt: &mut Cdt,
+    outlines: &[Outline],
+    chords: &[(Pt, Pt, u32)],
+    eps: f64,
+    snap: &mut Snap,
+) -> Result<(), String> {
     let tris = region_triangles(cdt, outlines);
     let nv = cdt.num_vertices();
     let mut angle = vec![0.0; nv];
@@ -317,7 +326,10 @@ fn grade_corners(cdt: &mut Cdt, outlines: &[Outline], snap: &mut Snap) -> Result
     let mut extra = Vec::new();
     for v in 0..nv {
         // A boundary vertex with more than 200° of region about it.
-        if angle[v] > PI * 200.0 / 180.0 && angle[v] < TAU - 1e-6 {
+        if angle[v] > PI * 200.0 / 180.0
+            && angle[v] < TAU - 1e-6
+            && !inside_arc(chords, pos[v], eps)
+        {
             let mut rho = shortest[v] / 2.0;
             for _ in 0..5 {
                 for k in 0..8 {
@@ -335,6 +347,14 @@ fn grade_corners(cdt: &mut Cdt, outlines: &[Outline], snap: &mut Snap) -> Result
         snap.insert(cdt, p)?;
     }
     Ok(())
+}
+
+/// Whether `p` joins two facets of the same arc: the boundary there is smooth, and the
+/// angle the facets make is not a corner.
+fn inside_arc(chords: &[(Pt, Pt, u32)], p: Pt, eps: f64) -> bool {
+    chords.iter().any(|&(_, b, id)| {
+        b.dist(p) <= eps && chords.iter().any(|&(a, _, k)| k == id && a.dist(p) <= eps)
+    })
 }
 
 /// Distance from `p` to the nearest boundary edge of any piece.
@@ -640,15 +660,14 @@ impl Mesh {
         }
     }
 
-    /// Carries nodal values of this mesh onto its refinement `fine` (exact for the
-    /// quadratic field: the finer space holds the coarser one).
-    pub fn prolong(&self, fine: &Mesh, u: &[f64]) -> Vec<f64> {
+    /// The prolongation onto this mesh's refinement `fine`: the quadratic field of each
+    /// parent element at its children's new nodes (exact for straight elements, whose
+    /// finer space holds the coarser one).
+    pub fn prolongation(&self, fine: &Mesh) -> Prolong {
         let w = new_weights();
-        let mut out = vec![0.0; fine.nodes.len()];
-        out[..u.len()].copy_from_slice(u);
-        for (ei, e) in self.elems.iter().enumerate() {
-            let children = &fine.elems[4 * ei..4 * ei + 4];
-            let val = |k: usize| (0..6).map(|i| w[k][i] * u[e[i] as usize]).sum::<f64>();
+        let old = self.nodes.len();
+        let mut rows = vec![[(0u32, 0.0); 6]; fine.nodes.len().saturating_sub(old)];
+        for (e, children) in self.elems.iter().zip(fine.elems.chunks_exact(4)) {
             // Children hold the new nodes at known places (see `refine`).
             let set = [
                 (children[0][3], 0),
@@ -662,9 +681,14 @@ impl Mesh {
                 (children[2][3], 8),
             ];
             for (node, k) in set {
-                out[node as usize] = val(k);
+                if let Some(row) = (node as usize)
+                    .checked_sub(old)
+                    .and_then(|i| rows.get_mut(i))
+                {
+                    *row = [0, 1, 2, 3, 4, 5].map(|i| (e[i], w[k][i]));
+                }
             }
         }
-        out
+        Prolong { coarse: old, rows }
     }
 }

@@ -11,7 +11,7 @@
 
 use super::mesh::Mesh;
 use super::p2::{at, Rule};
-use super::solve::{pcg, Cancelled, Csr};
+use super::solve::{Cancelled, Csr, Multigrid, Prolong};
 use crate::geom::Pt;
 use std::sync::atomic::AtomicBool;
 
@@ -42,35 +42,64 @@ impl From<Cancelled> for Failure {
     }
 }
 
-/// Area moments of the mesh: `[A, ∫x, ∫y, ∫x², ∫y², ∫xy]` about the local origin.
-fn moments(m: &Mesh, rule: &Rule) -> Result<[f64; 6], Failure> {
-    let mut s = [0.0; 6];
+/// The degree-4 quadrature points of every element: `[n·dA, x, y]` in the mesh's
+/// local frame, element by element.
+fn points(m: &Mesh, rule: &Rule) -> Result<Vec<[f64; 3]>, Failure> {
+    let mut out = Vec::with_capacity(m.elems.len() * rule.points());
     for (e, &n) in m.elems.iter().zip(&m.weight) {
         let p = e.map(|v| m.nodes[v as usize]);
         for q in 0..rule.points() {
             let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
-            let da = n * g.da;
-            s[0] += da;
-            s[1] += da * g.x;
-            s[2] += da * g.y;
-            s[3] += da * g.x * g.x;
-            s[4] += da * g.y * g.y;
-            s[5] += da * g.x * g.y;
+            out.push([n * g.da, g.x, g.y]);
         }
     }
-    Ok(s)
+    Ok(out)
 }
 
-/// Solves the warping problem on `m`, starting the iteration from `guess` (nodal
-/// values on `m`) when given. Returns the level's results and the nodal solution.
-pub fn solve(
+/// Relative residual to which the refined levels are solved. J is stationary in ω, so
+/// its error from the solver is of the order of the square of this.
+const RTOL: f64 = 1e-7;
+
+/// What one level hands to the next: the multigrid hierarchy so far and the solution.
+#[derive(Default)]
+pub struct Ladder {
+    mg: Option<Multigrid>,
+    u: Vec<f64>,
+}
+
+impl Ladder {
+    /// Solves the warping problem on `m`: the base mesh when `step` is `None` (a
+    /// direct solve), else the refinement of the previous mesh that `step` prolongs onto
+    /// (multigrid-preconditioned conjugate gradients from the prolonged solution).
+    pub fn solve(
+        &mut self,
+        m: &Mesh,
+        step: Option<Prolong>,
+        cancel: Option<&AtomicBool>,
+    ) -> Result<Level, Failure> {
+        solve(self, m, step, cancel)
+    }
+}
+
+fn solve(
+    ladder: &mut Ladder,
     m: &Mesh,
-    guess: Option<Vec<f64>>,
+    step: Option<Prolong>,
     cancel: Option<&AtomicBool>,
-) -> Result<(Level, Vec<f64>), Failure> {
+) -> Result<Level, Failure> {
     let r4 = Rule::degree4();
     let r2 = Rule::degree2();
-    let s = moments(m, &r4)?;
+    let pts = points(m, &r4)?;
+    // Area moments [A, ∫x, ∫y, ∫x², ∫y², ∫xy] about the local origin.
+    let mut s = [0.0; 6];
+    for &[da, x, y] in &pts {
+        s[0] += da;
+        s[1] += da * x;
+        s[2] += da * y;
+        s[3] += da * x * x;
+        s[4] += da * y * y;
+        s[5] += da * x * y;
+    }
     if s[0] <= 0.0 {
         return Err(Failure::Degenerate);
     }
@@ -105,45 +134,67 @@ pub fn solve(
         k.pin(pn as usize);
         f[pn as usize] = 0.0;
     }
-    let mut u = guess
-        .filter(|g| g.len() == nn)
-        .unwrap_or_else(|| vec![0.0; nn]);
-    for &pn in &m.pinned {
-        u[pn as usize] = 0.0;
-    }
-    let iterations = pcg(&k, &f, &mut u, 1e-7, 20 * nn + 100, cancel)?;
+    let mut u = vec![0.0; nn];
+    let mut ku = vec![0.0; nn];
+    let iterations = match step {
+        None => {
+            let mg = Multigrid::new(&k, &m.pinned).ok_or(Failure::Degenerate)?;
+            let it = mg.solve(&f, &mut u, RTOL, cancel)?;
+            k.mul(&u, &mut ku);
+            ladder.mg = Some(mg);
+            it
+        }
+        Some(p) => {
+            let mg = ladder
+                .mg
+                .as_mut()
+                .filter(|_| p.fine() == nn && p.coarse == ladder.u.len())
+                .ok_or(Failure::Degenerate)?;
+            p.apply(&ladder.u, &mut u, false);
+            for &pn in &m.pinned {
+                u[pn as usize] = 0.0;
+            }
+            mg.push(p, k);
+            let it = mg.solve(&f, &mut u, RTOL, cancel)?;
+            mg.finest().ok_or(Failure::Degenerate)?.mul(&u, &mut ku);
+            it
+        }
+    };
     // J = Ip − ∫n(x ∂ω/∂y − y ∂ω/∂x)… written as the stationary value
     // Ip − (2fᵀu − uᵀKu), whose error is second order in the solver's error.
-    let mut ku = vec![0.0; nn];
-    k.mul(&u, &mut ku);
     let fu: f64 = f.iter().zip(&u).map(|(a, b)| a * b).sum();
     let uku: f64 = ku.iter().zip(&u).map(|(a, b)| a * b).sum();
     let j = ip - (2.0 * fu - uku);
-    // Each component's warping made zero-mean (the constant is arbitrary).
-    let ncomp = m.pinned.len();
-    let mut mean = vec![[0.0; 2]; ncomp];
-    for (e, &n) in m.elems.iter().zip(&m.weight) {
-        let p = e.map(|v| m.nodes[v as usize]);
+    // ω at the quadrature points; each component's warping made zero-mean (the
+    // constant is arbitrary).
+    let nq = r4.points();
+    let mut w = Vec::with_capacity(pts.len());
+    let mut mean = vec![[0.0; 2]; m.pinned.len()];
+    for (e, pe) in m.elems.iter().zip(pts.chunks_exact(nq)) {
         let comp = m.component[e[0] as usize] as usize;
-        for q in 0..r4.points() {
-            let g = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
-            let w: f64 = (0..6).map(|i| r4.n[q][i] * u[e[i] as usize]).sum();
-            mean[comp][0] += n * g.da * w;
-            mean[comp][1] += n * g.da;
+        for (q, &[da, ..]) in pe.iter().enumerate() {
+            let wq: f64 = (0..6).map(|i| r4.n[q][i] * u[e[i] as usize]).sum();
+            w.push(wq);
+            if let Some(mc) = mean.get_mut(comp) {
+                mc[0] += da * wq;
+                mc[1] += da;
+            }
         }
     }
-    let uc: Vec<f64> = (0..nn)
-        .map(|i| {
-            let mc = mean[m.component[i] as usize];
-            u[i] - if mc[1] > 0.0 { mc[0] / mc[1] } else { 0.0 }
-        })
+    let mean: Vec<f64> = mean
+        .iter()
+        .map(|mc| if mc[1] > 0.0 { mc[0] / mc[1] } else { 0.0 })
         .collect();
+    for (k, wq) in w.iter_mut().enumerate() {
+        let e = m.elems[k / nq];
+        *wq -= mean[m.component[e[0] as usize] as usize];
+    }
     // Trefftz: I_ωx = ∫xω, I_ωy = ∫yω about the centroid.
     let (mut iwx, mut iwy) = (0.0, 0.0);
-    integrate(m, &r4, c, &uc, |da, x, y, w| {
-        iwx += da * x * w;
-        iwy += da * y * w;
-    })?;
+    for (&[da, x, y], &wq) in pts.iter().zip(&w) {
+        iwx += da * (x - c.x) * wq;
+        iwy += da * (y - c.y) * wq;
+    }
     let d = ixx * iyy - ixy * ixy;
     let (xs, ys) = if d > 0.0 {
         ((ixy * iwx - iyy * iwy) / d, (ixx * iwx - ixy * iwy) / d)
@@ -152,41 +203,20 @@ pub fn solve(
     };
     // Cw = ∫ω_S² − (∫ω_S)²/A with ω_S = ω − y_s·x + x_s·y.
     let (mut s1, mut s2) = (0.0, 0.0);
-    integrate(m, &r4, c, &uc, |da, x, y, w| {
-        let ws = w - ys * x + xs * y;
+    for (&[da, x, y], &wq) in pts.iter().zip(&w) {
+        let ws = wq - ys * (x - c.x) + xs * (y - c.y);
         s1 += da * ws;
         s2 += da * ws * ws;
-    })?;
-    let cw = s2 - s1 * s1 / s[0];
-    Ok((
-        Level {
-            j,
-            cw,
-            sc: Pt::new(c.x + xs, c.y + ys),
-            area: s[0],
-            ip,
-            elements: m.elems.len(),
-            iterations,
-        },
-        u,
-    ))
-}
-
-/// Calls `f(n·dA, x, y, ω)` at every quadrature point, coordinates about `c`.
-fn integrate(
-    m: &Mesh,
-    rule: &Rule,
-    c: Pt,
-    u: &[f64],
-    mut f: impl FnMut(f64, f64, f64, f64),
-) -> Result<(), Failure> {
-    for (e, &n) in m.elems.iter().zip(&m.weight) {
-        let p = e.map(|v| m.nodes[v as usize].sub(c));
-        for q in 0..rule.points() {
-            let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
-            let w: f64 = (0..6).map(|i| rule.n[q][i] * u[e[i] as usize]).sum();
-            f(n * g.da, g.x, g.y, w);
-        }
     }
-    Ok(())
+    let cw = s2 - s1 * s1 / s[0];
+    ladder.u = u;
+    Ok(Level {
+        j,
+        cw,
+        sc: Pt::new(c.x + xs, c.y + ys),
+        area: s[0],
+        ip,
+        elements: m.elems.len(),
+        iterations,
+    })
 }
