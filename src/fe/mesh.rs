@@ -222,6 +222,13 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
     let mut pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
     snap_to_arcs(&cdt, &mut pos, &chords, &arcs, eps);
     let mesh = build(&pos, &tris, origin, arcs, &arc_sweeps, eps);
+    if mesh.pinned.len() > 1 {
+        warnings.push(format!(
+            "the section is in {} separate pieces: torsion takes them as twisting together \
+             but unconnected (J is the sum of theirs); battens or lacing would make it stiffer",
+            mesh.pinned.len()
+        ));
+    }
     Ok(Base { mesh, warnings })
 }
 

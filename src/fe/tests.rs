@@ -354,3 +354,21 @@ fn built_up_plates_equal_the_same_section_as_one_polygon() {
     assert!((a.cw - p.cw).abs() / p.cw <= tol, "Cw {} vs {}", a.cw, p.cw);
     assert!(a.shear_centre.dist(p.shear_centre) < 1e-6 * d);
 }
+
+#[test]
+fn separate_pieces_add_their_torsion_constants_and_say_so() {
+    // Two unconnected 60 × 20 bars: each twists freely, so J is twice the
+    // Saint-Venant value of one (Timoshenko & Goodier §109), and the user is told.
+    let bar = || Shape::Rect { b: 60.0, h: 20.0 };
+    let p = vec![
+        piece(bar(), Pt::new(-50.0, 0.0), 0.0, false),
+        piece(bar(), Pt::new(50.0, 0.0), 0.0, false),
+    ];
+    let t = run(&p);
+    check_j("two bars", &t, 2.0 * rect_series(60.0, 20.0));
+    assert!(
+        t.warnings.iter().any(|w| w.contains("2 separate pieces")),
+        "{:?}",
+        t.warnings
+    );
+}
