@@ -87,21 +87,7 @@ struct Outline {
 impl Outline {
     /// Winding number of the piece's loops about `p` (nonzero: inside).
     fn winding(&self, p: Pt) -> i32 {
-        let mut w = 0;
-        for l in &self.loops {
-            for (i, &a) in l.iter().enumerate() {
-                let b = l[(i + 1) % l.len()];
-                let side = b.sub(a).cross(p.sub(a));
-                if a.y <= p.y {
-                    if b.y > p.y && side > 0.0 {
-                        w += 1;
-                    }
-                } else if b.y <= p.y && side < 0.0 {
-                    w -= 1;
-                }
-            }
-        }
-        w
+        crate::geom::simple::winding(&self.loops, p)
     }
 }
 

@@ -20,6 +20,27 @@ pub fn signed_area(p: &[Pt]) -> f64 {
         / 2.0
 }
 
+/// The winding number of closed polygons `loops` about `p` (a counter-clockwise loop
+/// around `p` counts +1, a clockwise one −1): the crossing test of Sunday, "Inclusion
+/// of a point in a polygon" (2001). Nonzero means inside.
+pub fn winding(loops: &[Vec<Pt>], p: Pt) -> i32 {
+    let mut w = 0;
+    for l in loops {
+        for (i, &a) in l.iter().enumerate() {
+            let b = l[(i + 1) % l.len()];
+            let side = b.sub(a).cross(p.sub(a));
+            if a.y <= p.y {
+                if b.y > p.y && side > 0.0 {
+                    w += 1;
+                }
+            } else if b.y <= p.y && side < 0.0 {
+                w -= 1;
+            }
+        }
+    }
+    w
+}
+
 /// The first pair of edges `(i, j)` that cross or touch other than at a shared vertex of
 /// neighbours (edge `i` runs from point `i` to point `i + 1`), or a repeated point, or
 /// `None` if the polygon is simple.

@@ -42,18 +42,7 @@ impl Shape {
 
     /// Winding number of the region about `p` (outline +1, hole −1).
     fn winding(&self, p: Pt) -> i32 {
-        let mut w = 0;
-        for (a, b) in self.edges() {
-            let side = b.sub(a).cross(p.sub(a));
-            if a.y <= p.y {
-                if b.y > p.y && side > 0.0 {
-                    w += 1;
-                }
-            } else if b.y <= p.y && side < 0.0 {
-                w -= 1;
-            }
-        }
-        w
+        crate::geom::simple::winding(&self.loops, p)
     }
 
     /// The direction of the edge `p` lies on, if any (within `tol`).
