@@ -362,6 +362,20 @@ fn fillet(c: Pt, r: f64, a0: f64) -> Seg {
     Seg::arc(c, r, a0, a0 - FRAC_PI_2)
 }
 
+/// The right-hand side of a web between two flanges, as seen from inside the web:
+/// from the tip of the bottom flange's outstand at `x_tip`, along its top face, round
+/// the lower root fillet, up the web face at `x_web`, round the upper fillet and out
+/// along the top flange's underside to `x_tip` again.
+fn web_face(c: &mut Builder, x_web: f64, x_tip: f64, yb: f64, yt: f64, r: f64) {
+    let p = Pt::new;
+    c.line(p(x_tip, yb));
+    c.line(p(x_web + r, yb));
+    c.seg(fillet(p(x_web + r, yb + r), r, -FRAC_PI_2));
+    c.line(p(x_web, yt - r));
+    c.seg(fillet(p(x_web + r, yt - r), r, PI));
+    c.line(p(x_tip, yt));
+}
+
 /// Doubly symmetric I: web centred, flanges `tf` thick, four root fillets.
 fn ibeam(d: f64, b: f64, tf: f64, tw: f64, r: f64) -> Contour {
     let p = Pt::new;
@@ -369,12 +383,7 @@ fn ibeam(d: f64, b: f64, tf: f64, tw: f64, r: f64) -> Contour {
     let (yb, yt) = (tf, d - tf);
     let mut c = Builder::start(p(0.0, 0.0));
     c.line(p(b, 0.0));
-    c.line(p(b, yb));
-    c.line(p(x2 + r, yb));
-    c.seg(fillet(p(x2 + r, yb + r), r, -FRAC_PI_2));
-    c.line(p(x2, yt - r));
-    c.seg(fillet(p(x2 + r, yt - r), r, PI));
-    c.line(p(b, yt));
+    web_face(&mut c, x2, b, yb, yt, r);
     c.line(p(b, d));
     c.line(p(0.0, d));
     c.line(p(0.0, yt));
@@ -389,15 +398,9 @@ fn ibeam(d: f64, b: f64, tf: f64, tw: f64, r: f64) -> Contour {
 /// Channel: back of the web on x = 0, parallel flanges toward +x, two root fillets.
 fn channel(d: f64, b: f64, tf: f64, tw: f64, r: f64) -> Contour {
     let p = Pt::new;
-    let (yb, yt) = (tf, d - tf);
     let mut c = Builder::start(p(0.0, 0.0));
     c.line(p(b, 0.0));
-    c.line(p(b, yb));
-    c.line(p(tw + r, yb));
-    c.seg(fillet(p(tw + r, yb + r), r, -FRAC_PI_2));
-    c.line(p(tw, yt - r));
-    c.seg(fillet(p(tw + r, yt - r), r, PI));
-    c.line(p(b, yt));
+    web_face(&mut c, tw, b, tf, d - tf, r);
     c.line(p(b, d));
     c.line(p(0.0, d));
     c.close()
