@@ -134,7 +134,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
         for c in &p.contours {
             let mut pts: Vec<Pt> = Vec::new();
             for s in &c.segs {
-                let s = s.moved(0.0, origin.scale(-1.0));
+                let s = s.shifted(origin.scale(-1.0));
                 let first = pts.len();
                 s.facet_points(ARC_FACET, &mut pts);
                 if let Seg::Arc { c, r, a0, a1 } = s {

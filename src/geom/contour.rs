@@ -52,6 +52,53 @@ impl std::ops::Sub for Pt {
     }
 }
 
+/// A rotation about the origin with its sine and cosine worked out once; quarter turns
+/// are exact (a part rotated by 90° has no rounding in its coordinates).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Turn {
+    /// Radians, counter-clockwise.
+    pub angle: f64,
+    sin: f64,
+    cos: f64,
+}
+
+impl Turn {
+    /// No rotation.
+    pub const NONE: Turn = Turn {
+        angle: 0.0,
+        sin: 0.0,
+        cos: 1.0,
+    };
+
+    /// A rotation by `deg` degrees, counter-clockwise.
+    pub fn degrees(deg: f64) -> Turn {
+        let quarter = deg / 90.0;
+        let (sin, cos) = if quarter.fract() == 0.0 && quarter.abs() < 1e15 {
+            match quarter.rem_euclid(4.0) as i64 {
+                0 => (0.0, 1.0),
+                1 => (1.0, 0.0),
+                2 => (0.0, -1.0),
+                _ => (-1.0, 0.0),
+            }
+        } else {
+            deg.to_radians().sin_cos()
+        };
+        Turn {
+            angle: deg.to_radians(),
+            sin,
+            cos,
+        }
+    }
+
+    /// `p` turned about the origin.
+    pub fn apply(self, p: Pt) -> Pt {
+        Pt::new(
+            self.cos * p.x - self.sin * p.y,
+            self.sin * p.x + self.cos * p.y,
+        )
+    }
+}
+
 /// One piece of a boundary: a straight line or a circular arc.
 ///
 /// An arc runs from angle `a0` to `a1` (radians, measured from +x about the centre
@@ -96,17 +143,22 @@ impl Seg {
     }
 
     /// The image under `p ↦ origin + R(angle)·p` (rotation, then translation).
-    pub fn moved(&self, angle: f64, origin: Pt) -> Seg {
-        let f = |p: Pt| p.rotated(angle).add(origin);
+    pub fn moved(&self, turn: Turn, origin: Pt) -> Seg {
+        let f = |p: Pt| turn.apply(p).add(origin);
         match *self {
             Seg::Line(a, b) => Seg::Line(f(a), f(b)),
             Seg::Arc { c, r, a0, a1 } => Seg::Arc {
                 c: f(c),
                 r,
-                a0: a0 + angle,
-                a1: a1 + angle,
+                a0: a0 + turn.angle,
+                a1: a1 + turn.angle,
             },
         }
+    }
+
+    /// The segment shifted by `d`.
+    pub fn shifted(&self, d: Pt) -> Seg {
+        self.moved(Turn::NONE, d)
     }
 
     /// The mirror image under `x ↦ −x` (if `mx`) and `y ↦ −y` (if `my`), same direction of travel.

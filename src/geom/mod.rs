@@ -12,7 +12,7 @@ pub mod region;
 pub mod shapes;
 pub mod simple;
 
-pub use contour::{Contour, Pt, Seg};
+pub use contour::{Contour, Pt, Seg, Turn};
 pub use place::{Anchor, Placement};
 pub use region::{solid_bounds, Piece};
 pub use shapes::Shape;

@@ -1,7 +1,7 @@
 //! Placing a shape in the section: flip in its own frame, put its anchor point at `at`,
 //! then rotate about `at` (FORMAT.md, "Placement").
 
-use super::contour::{union_bounds, Contour, Pt};
+use super::contour::{union_bounds, Contour, Pt, Turn};
 
 /// The point of a shape that is put at `at`.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -82,43 +82,37 @@ impl Placement {
     /// A single mirror reverses the direction of travel, so those loops are reversed to
     /// keep outlines counter-clockwise.
     pub fn apply(&self, own: &[Contour]) -> Vec<Contour> {
-        let mirrored: Vec<Contour> = own
-            .iter()
-            .map(|c| {
-                let m = Contour {
-                    segs: c
-                        .segs
-                        .iter()
-                        .map(|s| s.mirrored(self.flip_x, self.flip_y))
-                        .collect(),
-                };
-                if self.flip_x != self.flip_y {
-                    m.reversed()
-                } else {
-                    m
+        let mut placed: Vec<Contour> = own.to_vec();
+        if self.flip_x || self.flip_y {
+            for c in &mut placed {
+                for s in &mut c.segs {
+                    *s = s.mirrored(self.flip_x, self.flip_y);
                 }
-            })
-            .collect();
-        let bounds = mirrored
+                if self.flip_x != self.flip_y {
+                    *c = c.reversed();
+                }
+            }
+        }
+        let bounds = placed
             .iter()
             .filter_map(Contour::bounds)
             .reduce(union_bounds)
             .unwrap_or([0.0; 4]);
         let centroid = if self.anchor == Anchor::Centroid {
-            crate::props::moments::Moments::of_contours(&mirrored)
+            crate::props::moments::Moments::of_contours(&placed)
                 .centroid()
                 .unwrap_or_default()
         } else {
             Pt::default()
         };
         let anchor = self.anchor.point(bounds, centroid);
-        let angle = self.rotate.to_radians();
-        let shift = self.at.sub(anchor.rotated(angle));
-        mirrored
-            .into_iter()
-            .map(|c| Contour {
-                segs: c.segs.iter().map(|s| s.moved(angle, shift)).collect(),
-            })
-            .collect()
+        let turn = Turn::degrees(self.rotate);
+        let shift = self.at.sub(turn.apply(anchor));
+        for c in &mut placed {
+            for s in &mut c.segs {
+                *s = s.moved(turn, shift);
+            }
+        }
+        placed
     }
 }

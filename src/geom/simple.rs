@@ -44,49 +44,69 @@ pub fn winding(loops: &[Vec<Pt>], p: Pt) -> i32 {
 /// The first pair of edges `(i, j)` that cross or touch other than at a shared vertex of
 /// neighbours (edge `i` runs from point `i` to point `i + 1`), or a repeated point, or
 /// `None` if the polygon is simple.
+///
+/// Edges are hashed into square cells about twice the mean edge length; only edges
+/// sharing a cell are compared, so ordinary outlines cost O(n log n) (the sort of the
+/// cell keys). The few edges that span many cells are compared with every edge whose
+/// box they meet.
 pub fn first_crossing(p: &[Pt]) -> Option<(usize, usize)> {
     let n = p.len();
     if n < 3 {
         return None;
     }
-    let (mut x0, mut x1, mut y0, mut y1) = (f64::MAX, f64::MIN, f64::MAX, f64::MIN);
-    for q in p {
-        x0 = x0.min(q.x);
-        x1 = x1.max(q.x);
-        y0 = y0.min(q.y);
-        y1 = y1.max(q.y);
-    }
-    let cells = ((n as f64).sqrt().ceil() as usize).clamp(1, 1024);
-    let (w, h) = (
-        (x1 - x0).max(f64::MIN_POSITIVE),
-        (y1 - y0).max(f64::MIN_POSITIVE),
-    );
-    let cell = |x: f64, y: f64| {
-        let cx = (((x - x0) / w * cells as f64) as usize).min(cells - 1);
-        let cy = (((y - y0) / h * cells as f64) as usize).min(cells - 1);
-        (cx, cy)
-    };
-    let mut grid: Vec<Vec<u32>> = vec![Vec::new(); cells * cells];
+    let edge = |i: usize| (p[i], p[(i + 1) % n]);
+    let (mut x0, mut y0) = (f64::MAX, f64::MAX);
+    let mut total = 0.0;
     for i in 0..n {
-        let (a, b) = (p[i], p[(i + 1) % n]);
-        let (ca, cb) = (
-            cell(a.x.min(b.x), a.y.min(b.y)),
-            cell(a.x.max(b.x), a.y.max(b.y)),
-        );
-        for cx in ca.0..=cb.0 {
-            for cy in ca.1..=cb.1 {
-                grid[cy * cells + cx].push(i as u32);
+        let (a, b) = edge(i);
+        x0 = x0.min(a.x);
+        y0 = y0.min(a.y);
+        total += a.dist(b);
+    }
+    let size = (2.0 * total / n as f64).max(f64::MIN_POSITIVE);
+    let cell = |v: f64, o: f64| (((v - o) / size).floor()).clamp(0.0, u32::MAX as f64) as u64;
+    let mut keys: Vec<(u64, u32)> = Vec::with_capacity(2 * n);
+    let mut long: Vec<usize> = Vec::new();
+    for i in 0..n {
+        let (a, b) = edge(i);
+        let (cx0, cx1) = (cell(a.x.min(b.x), x0), cell(a.x.max(b.x), x0));
+        let (cy0, cy1) = (cell(a.y.min(b.y), y0), cell(a.y.max(b.y), y0));
+        if (cx1 - cx0 + 1).saturating_mul(cy1 - cy0 + 1) > 64 {
+            long.push(i);
+            continue;
+        }
+        for cx in cx0..=cx1 {
+            for cy in cy0..=cy1 {
+                keys.push(((cx << 32) | cy, i as u32));
             }
         }
     }
+    keys.sort_unstable();
     let mut best: Option<(usize, usize)> = None;
-    for bucket in &grid {
-        for (k, &i) in bucket.iter().enumerate() {
-            for &j in &bucket[k + 1..] {
-                let (i, j) = (i.min(j) as usize, i.max(j) as usize);
-                if edges_conflict(p, i, j) && best.is_none_or(|b| (i, j) < b) {
-                    best = Some((i, j));
-                }
+    let mut consider = |i: usize, j: usize| {
+        let (i, j) = (i.min(j), i.max(j));
+        if i != j && best.is_none_or(|b| (i, j) < b) && edges_conflict(p, i, j) {
+            best = Some((i, j));
+        }
+    };
+    for run in keys.chunk_by(|a, b| a.0 == b.0) {
+        for (k, &(_, i)) in run.iter().enumerate() {
+            for &(_, j) in &run[k + 1..] {
+                consider(i as usize, j as usize);
+            }
+        }
+    }
+    for &i in &long {
+        let (a, b) = edge(i);
+        let bx = [a.x.min(b.x), a.x.max(b.x), a.y.min(b.y), a.y.max(b.y)];
+        for j in 0..n {
+            let (c, d) = edge(j);
+            if c.x.max(d.x) >= bx[0]
+                && c.x.min(d.x) <= bx[1]
+                && c.y.max(d.y) >= bx[2]
+                && c.y.min(d.y) <= bx[3]
+            {
+                consider(i, j);
             }
         }
     }

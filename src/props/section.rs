@@ -188,7 +188,7 @@ pub fn shifted(cs: &[Contour], origin: Pt) -> Vec<Contour> {
     let back = Pt::new(-origin.x, -origin.y);
     cs.iter()
         .map(|c| Contour {
-            segs: c.segs.iter().map(|s| s.moved(0.0, back)).collect(),
+            segs: c.segs.iter().map(|s| s.shifted(back)).collect(),
         })
         .collect()
 }
