@@ -332,3 +332,44 @@ fn unequal_angle_principal_axes_match_the_table() {
     close(alpha.tan(), 0.440, 1.5e-2);
     close(p.gyration.min, 0.864, 1.5e-2);
 }
+
+// --- Torsion of rolled sections -------------------------------------------------------
+// It and Iw from the European section tables (ArcelorMittal sales programme), quoted
+// from memory. The tables take It from an approximate fillet formula and Iw from thin-
+// walled theory, Iz·(h − tf)²/4; kern solves the real region by finite elements, which
+// lands within about 3% of both.
+
+fn torsion_of(body: &str) -> kern::fe::Torsion {
+    let text = format!("format = 1\nunits = \"mm\"\n{body}");
+    let opts = Options {
+        torsion: Some(kern::fe::TorsionOptions::default()),
+    };
+    match Analysis::of_text(&text, &opts).map(|a| a.torsion) {
+        Ok(Some(Ok(t))) => t,
+        other => panic!("no torsion: {other:?}"),
+    }
+}
+
+#[test]
+fn rolled_i_sections_torsion_and_warping_constants() {
+    // (d, b, tf, tw, r, It cm⁴, Iw 10³ cm⁶)
+    let table = [
+        ("IPE 200", 200.0, 100.0, 8.5, 5.6, 12.0, 6.98, 12.99),
+        ("IPE 300", 300.0, 150.0, 10.7, 7.1, 15.0, 20.12, 125.9),
+        ("HEA 200", 190.0, 200.0, 10.0, 6.5, 18.0, 20.98, 108.0),
+    ];
+    for (name, d, b, tf, tw, r, it, iw) in table {
+        let t = torsion_of(&format!(
+            "[[parts]]\nshape = \"ibeam\"\nd = {d}\nb = {b}\ntf = {tf}\ntw = {tw}\nr = {r}"
+        ));
+        assert!(t.rel_error <= 1e-3, "{name}: {}", t.rel_error);
+        let (j, cw) = (t.j / 1e4, t.cw / 1e9);
+        assert!((j - it).abs() / it < 0.03, "{name}: J = {j} cm⁴ vs {it}");
+        assert!(
+            (cw - iw).abs() / iw < 0.03,
+            "{name}: Cw = {cw}e3 cm⁶ vs {iw}e3"
+        );
+        // Doubly symmetric: the shear centre is the centroid.
+        assert!(t.shear_centre.x.abs() < 1e-4 * d && t.shear_centre.y.abs() < 1e-4 * d);
+    }
+}
