@@ -13,16 +13,7 @@ fn piece(shape: Shape, at: Pt) -> Piece {
         flip_x: false,
         flip_y: false,
     };
-    Piece {
-        part: 0,
-        name: "plate".into(),
-        contours: pl.apply(&shape.contours()),
-        void: false,
-        n: 1.0,
-        strength: 1.0,
-        density: None,
-        material: None,
-    }
+    Piece::plain("plate", pl.apply(&shape.contours()), false)
 }
 
 /// A plate girder built from 20 plates: five side by side in each flange, ten stacked

@@ -11,16 +11,7 @@ fn piece(shape: Shape, at: Pt, rotate: f64, flip_x: bool) -> Piece {
         flip_x,
         flip_y: false,
     };
-    Piece {
-        part: 0,
-        name: "p".into(),
-        contours: pl.apply(&shape.contours()),
-        void: false,
-        n: 1.0,
-        strength: 1.0,
-        density: None,
-        material: None,
-    }
+    Piece::plain("p", pl.apply(&shape.contours()), false)
 }
 
 fn solid(shape: Shape) -> Vec<Piece> {

@@ -23,6 +23,20 @@ pub struct Piece {
 }
 
 impl Piece {
+    /// A part of the reference material (n = 1, no density), solid or void.
+    pub fn plain(name: &str, contours: Vec<Contour>, void: bool) -> Piece {
+        Piece {
+            part: 0,
+            name: name.to_string(),
+            contours,
+            void,
+            n: 1.0,
+            strength: 1.0,
+            density: None,
+            material: None,
+        }
+    }
+
     /// +1 for a solid, −1 for a void.
     pub fn sign(&self) -> f64 {
         if self.void {

@@ -230,16 +230,7 @@ mod tests {
     use crate::geom::Contour;
 
     fn piece(name: &str, c: Contour, void: bool) -> Piece {
-        Piece {
-            part: 0,
-            name: name.into(),
-            contours: vec![c],
-            void,
-            n: 1.0,
-            strength: 1.0,
-            density: None,
-            material: None,
-        }
+        Piece::plain(name, vec![c], void)
     }
 
     #[test]
