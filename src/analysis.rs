@@ -81,7 +81,15 @@ impl Analysis {
     pub fn of_document(document: Document, opts: &Options) -> Result<Analysis, Diagnostic> {
         let section = Resolved::resolve(&document)?;
         let pieces = section.pieces();
-        let props = Properties::compute(&pieces).map_err(|m| Diagnostic::new(0..1, m))?;
+        let props = Properties::compute(&pieces).map_err(|m| {
+            // Point at the first void: that is where the area went (else the top).
+            let span = pieces
+                .iter()
+                .find(|p| p.void)
+                .and_then(|p| document.parts.get(p.part))
+                .map_or(0..1, |p| p.span.clone());
+            Diagnostic::new(span, m)
+        })?;
         let mut warns = warnings(&pieces);
         let torsion = opts.torsion.as_ref().map(|o| torsion(&pieces, o));
         if let Some(Ok(t)) = &torsion {
