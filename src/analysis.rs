@@ -90,34 +90,32 @@ impl Analysis {
                 .map_or(0..1, |p| p.span.clone());
             Diagnostic::new(span, m)
         })?;
-        let mut warns = warnings(&pieces);
-        let torsion = opts.torsion.as_ref().map(|o| torsion(&pieces, o));
-        if let Some(Ok(t)) = &torsion {
-            warns.extend(t.warnings.iter().cloned());
-        }
         let mut a = Analysis {
+            warnings: warnings(&pieces),
+            kern: kern_polygon(&props.centroidal(), &outline_points(&pieces)),
             document,
             section,
             pieces,
             props,
-            torsion,
+            torsion: None,
             stress: None,
             member: None,
-            kern: Vec::new(),
-            warnings: warns,
         };
-        a.kern = kern_polygon(&a.props.centroidal(), &outline_points(&a.pieces));
         a.stress = a.stresses();
         a.member = a.member_check();
         a.warnings.extend(a.member_notes());
+        if let Some(o) = &opts.torsion {
+            a.set_torsion(torsion(&a.pieces, o));
+        }
         Ok(a)
     }
 
     /// Adds a torsion result solved separately (the workbench solves off the UI
     /// thread), with its warnings and the member check that depends on it.
     pub fn set_torsion(&mut self, t: Result<Torsion, String>) {
-        if let Ok(t) = &t {
-            self.warnings.extend(t.warnings.iter().cloned());
+        match &t {
+            Ok(t) => self.warnings.extend(t.warnings.iter().cloned()),
+            Err(e) => self.warnings.push(format!("torsion not computed: {e}")),
         }
         self.torsion = Some(t);
         self.member = self.member_check();

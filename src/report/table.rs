@@ -53,9 +53,6 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
             unit = r.unit
         ));
     }
-    if let Some(Err(e)) = &a.torsion {
-        s.push_str(&format!("  torsion not available: {e}\n"));
-    }
     for w in &a.warnings {
         s.push_str(&format!("  warning: {w}\n"));
     }
