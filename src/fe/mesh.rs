@@ -91,11 +91,10 @@ impl Outline {
     }
 }
 
-/// What the region holds at a point: `None` outside, else the modular ratio and the
-/// number of solid pieces there.
-fn classify(outlines: &[Outline], p: Pt) -> Option<(f64, usize)> {
+/// What the region holds at a point: `None` outside, else the modular ratio of the
+/// part on top there.
+fn classify(outlines: &[Outline], p: Pt) -> Option<f64> {
     let mut solid = None;
-    let mut count = 0;
     for o in outlines {
         if o.winding(p) != 0 {
             if o.void {
@@ -103,10 +102,9 @@ fn classify(outlines: &[Outline], p: Pt) -> Option<(f64, usize)> {
             }
             // Later parts lie on top of earlier ones.
             solid = Some(o.n);
-            count += 1;
         }
     }
-    solid.map(|n| (n, count))
+    solid
 }
 
 type Cdt = ConstrainedDelaunayTriangulation<Point2<f64>>;
@@ -199,12 +197,6 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
     cdt.refine(params);
     let tris = region_triangles(&cdt, &outlines);
     let mut warnings = Vec::new();
-    if tris.iter().any(|t| t.solids > 1) {
-        warnings.push(
-            "torsion uses the region (union of solids minus voids); overlapping solids counted once"
-                .to_string(),
-        );
-    }
     let mut pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
     snap_to_arcs(&cdt, &mut pos, &chords, &arcs, eps);
     let mesh = build(&pos, &tris, origin, arcs, &arc_sweeps, eps);
@@ -264,7 +256,6 @@ struct Tri {
     /// Whether each edge (0–1, 1–2, 2–0) is a constraint edge.
     constraint: [bool; 3],
     n: f64,
-    solids: usize,
     area: f64,
 }
 
@@ -277,13 +268,12 @@ fn region_triangles(cdt: &Cdt, outlines: &[Outline]) -> Vec<Tri> {
     for f in cdt.inner_faces() {
         let [a, b, c] = f.positions().map(pt);
         let g = a.add(b).add(c).scale(1.0 / 3.0);
-        if let Some((n, solids)) = classify(outlines, g) {
+        if let Some(n) = classify(outlines, g) {
             let e = f.adjacent_edges();
             out.push(Tri {
                 v: f.vertices().map(|v| v.fix().index()),
                 constraint: e.map(|e| cdt.is_constraint_edge(e.as_undirected().fix())),
                 n,
-                solids,
                 area: 0.5 * b.sub(a).cross(c.sub(a)),
             });
         }

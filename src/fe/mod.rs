@@ -114,6 +114,9 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
             return Err("cancelled".into());
         }
         let level = ladder.solve(&mesh, step.take(), cancel).map_err(fail)?;
+        if levels.is_empty() {
+            warnings.extend(region_note(pieces, level.area));
+        }
         levels.push(level);
         if let Some(est) = estimate(&levels, span) {
             if est.rel_error <= tol {
@@ -131,6 +134,25 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
         step = Some(mesh.prolongation(&fine));
         mesh = fine;
     }
+}
+
+/// A note when the region (solids united, voids removed once) has another area than
+/// the composite-area method's signed sum — overlapping solids, voids that overlap or
+/// stick out — since torsion and the other properties then describe different
+/// sections (FORMAT.md, Composition).
+fn region_note(pieces: &[Piece], region_area: f64) -> Option<String> {
+    let signed: f64 = pieces
+        .iter()
+        .map(|p| p.sign() * p.n * crate::props::Moments::of_contours(&p.contours).a)
+        .sum();
+    let diff = (region_area - signed).abs() / signed.abs().max(f64::MIN_POSITIVE);
+    (diff > 1e-4).then(|| {
+        format!(
+            "torsion uses the region itself (solids united, voids removed once), whose area \
+             differs from the signed sum of the parts by {}%",
+            crate::numfmt::sig(100.0 * diff, 2)
+        )
+    })
 }
 
 /// A mesh of the region for drawing: the corners of each triangle in the file frame,
