@@ -363,3 +363,32 @@ fn separate_pieces_add_their_torsion_constants_and_say_so() {
         t.warnings
     );
 }
+
+#[test]
+fn says_when_the_region_differs_from_the_signed_sum() {
+    // FORMAT.md, Composition: a void half outside the plate removes area the plate
+    // does not have; torsion sees the plate with a notch, and says so.
+    let plate = piece(
+        Shape::Rect { b: 100.0, h: 100.0 },
+        Pt::default(),
+        0.0,
+        false,
+    );
+    let mut stray = piece(
+        Shape::Rect { b: 40.0, h: 40.0 },
+        Pt::new(50.0, 0.0),
+        0.0,
+        false,
+    );
+    stray.void = true;
+    let t = run(&[plate.clone(), stray]);
+    assert!(
+        t.warnings
+            .iter()
+            .any(|w| w.contains("differs from the signed sum")),
+        "{:?}",
+        t.warnings
+    );
+    let t = run(&[plate]);
+    assert!(t.warnings.is_empty(), "{:?}", t.warnings);
+}
