@@ -27,6 +27,8 @@ const TOP: f64 = 50.0;
 const DIM_GAP: f64 = 34.0;
 /// How far the axes reach beyond the section, px.
 const PAD: f64 = 14.0;
+/// Characters a legend line holds across the drawing's width (11 px sans-serif).
+const LEGEND_CHARS: usize = 115;
 
 /// Maps the file frame to the image.
 struct View {
@@ -111,7 +113,9 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         b,
     };
     let bottom = v.y(b[2]);
-    let height = bottom + DIM_GAP + 90.0;
+    // Room below the drawing for the dimension line, three lines of legend and the
+    // caution.
+    let height = bottom + DIM_GAP + 120.0;
     let l = u.length.name();
     let val = |x: f64| sig(u.geo(x, 1), FIGURES);
     let mut s = String::new();
@@ -285,19 +289,44 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         val(c.y)
     ));
     legend.push("C: centroid");
-    let foot = yd + 46.0;
-    s.push_str(&format!(
-        "<text x=\"{}\" y=\"{}\" font-size=\"11\">{}; lengths in {l}, drawn to scale.</text>\n",
-        n(LEFT - 50.0),
-        n(foot),
-        esc(&legend.join("; "))
-    ));
-    s.push_str(&format!(
-        "<text x=\"{}\" y=\"{}\" font-size=\"10\" fill=\"#555555\">{}</text>\n",
-        n(LEFT - 50.0),
-        n(foot + 18.0),
-        esc(CAUTION)
-    ));
+    legend.push("drawn to scale");
+    let mut foot = yd + 46.0;
+    for line in wrap(
+        &format!("{}; lengths in {l}.", legend.join("; ")),
+        LEGEND_CHARS,
+    ) {
+        s.push_str(&format!(
+            "<text x=\"{}\" y=\"{}\" font-size=\"11\">{}</text>\n",
+            n(LEFT - 50.0),
+            n(foot),
+            esc(&line)
+        ));
+        foot += 15.0;
+    }
+    for line in wrap(CAUTION, LEGEND_CHARS + 10) {
+        s.push_str(&format!(
+            "<text x=\"{}\" y=\"{}\" font-size=\"10\" fill=\"#555555\">{}</text>\n",
+            n(LEFT - 50.0),
+            n(foot + 3.0),
+            esc(&line)
+        ));
+        foot += 13.0;
+    }
     s.push_str("</svg>\n");
     s
+}
+
+/// `text` broken at spaces into lines of at most `width` characters.
+fn wrap(text: &str, width: usize) -> Vec<String> {
+    let mut lines: Vec<String> = Vec::new();
+    for word in text.split(' ') {
+        match lines.last_mut() {
+            Some(l) if l.chars().count() + 1 + word.chars().count() <= width => {
+                l.push(' ');
+                l.push_str(word);
+            }
+            _ => lines.push(word.to_string()),
+        }
+    }
+    lines
 }
