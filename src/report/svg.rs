@@ -113,8 +113,8 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         b,
     };
     let bottom = v.y(b[2]);
-    // Room below the drawing for the dimension line, three lines of legend and the
-    // caution.
+    // Room below the drawing for the dimension line, up to three lines of legend and
+    // the caution.
     let height = bottom + DIM_GAP + 120.0;
     let l = u.length.name();
     let val = |x: f64| sig(u.geo(x, 1), FIGURES);
@@ -303,15 +303,13 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         ));
         foot += 15.0;
     }
-    for line in wrap(CAUTION, LEGEND_CHARS + 10) {
-        s.push_str(&format!(
-            "<text x=\"{}\" y=\"{}\" font-size=\"10\" fill=\"#555555\">{}</text>\n",
-            n(LEFT - 50.0),
-            n(foot + 3.0),
-            esc(&line)
-        ));
-        foot += 13.0;
-    }
+    // The caution stays whole on one line (10 px type fits it across the page).
+    s.push_str(&format!(
+        "<text x=\"{}\" y=\"{}\" font-size=\"10\" fill=\"#555555\">{}</text>\n",
+        n(LEFT - 50.0),
+        n(foot + 3.0),
+        esc(CAUTION)
+    ));
     s.push_str("</svg>\n");
     s
 }
