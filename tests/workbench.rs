@@ -4,14 +4,17 @@
 //! deterministic.
 
 use crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
-use kern::tui::app::{App, Focus, Mode, Solver};
+use kern::tui::app::{App, Focus, Mode, Picker, Solver};
+use kern::tui::columns::Col;
 use kern::tui::commands::{self, run};
 use kern::tui::config::Config;
 use kern::tui::handle_key;
 use kern::tui::keys::{markdown, Cmd};
 use kern::tui::views;
 use ratatui::backend::TestBackend;
+use ratatui::layout::Rect;
 use ratatui::Terminal;
+use std::f64::consts::PI;
 use std::path::{Path, PathBuf};
 
 const GIRDER: &str = include_str!("../sections/mezzanine-girder.toml");
@@ -172,7 +175,7 @@ fn adds_copies_moves_and_deletes_parts() {
     assert_eq!(parts[3].shape, "pipe");
     assert_eq!(a.part, 3);
     // A pipe of 100 × 5 mm at the origin: area π/4 (100² − 90²) added.
-    let pipe = std::f64::consts::PI / 4.0 * (100.0f64.powi(2) - 90.0f64.powi(2));
+    let pipe = PI / 4.0 * (100.0f64.powi(2) - 90.0f64.powi(2));
     assert!((a.analysis.props.area - (13800.0 + pipe)).abs() < 1e-6);
     run(&mut a, Cmd::ToggleVoid);
     assert!((a.analysis.props.area - (13800.0 - pipe)).abs() < 1e-6);
@@ -192,6 +195,231 @@ fn adds_copies_moves_and_deletes_parts() {
     assert_eq!(names, ["web", "bottom flange", "pipe 4", "pipe 4"]);
     // The comment at the top of the file survives all of it.
     assert!(a.text.starts_with("# Mezzanine bay 3, edge girder"));
+}
+
+/// Selects the column `col` of the parts table.
+fn to_column(a: &mut App, col: Col) {
+    a.col = a
+        .columns()
+        .iter()
+        .position(|c| *c == col)
+        .expect("the table has that column");
+}
+
+/// The last message, which must be an error.
+fn refusal(a: &App) -> String {
+    let (msg, err) = a.message.clone().expect("a message");
+    assert!(err && msg.starts_with("refused"), "{msg}");
+    msg
+}
+
+#[test]
+fn changing_a_shape_keeps_the_part_in_place_in_one_undoable_edit() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::FlipX);
+    let flipped = a.text.clone();
+    // The top flange (300 × 16) becomes a pipe: nothing to share, so the pipe comes at
+    // the add-part sizes (100 × 5), where the flange was.
+    run(&mut a, Cmd::ChangeShape);
+    assert_eq!(
+        a.mode,
+        Mode::Choosing(Picker {
+            row: 0,
+            change: Some(0)
+        }),
+        "the picker opens on the part's own shape"
+    );
+    insta::assert_snapshot!("picker-change-80x24", screen(&a, 80, 24));
+    run(&mut a, Cmd::Last);
+    run(&mut a, Cmd::Commit);
+    let p = &a.analysis.document.parts[0];
+    assert_eq!(
+        (p.shape.as_str(), p.name.as_deref()),
+        ("pipe", Some("top flange"))
+    );
+    assert!(p.flip_x && p.at.as_ref().unwrap()[1].value.text() == "hw + tf/2");
+    assert!(a
+        .text
+        .contains("shape = \"pipe\"\nd = 100\nt = 5\nat = [0, \"hw + tf/2\"]"));
+    // Annulus: A = π/4 (D² − d²).
+    let pipe = PI / 4.0 * (100.0f64.powi(2) - 90.0f64.powi(2));
+    assert!((a.analysis.props.area - (13800.0 - 4800.0 + pipe)).abs() < 1e-6);
+    run(&mut a, Cmd::Undo);
+    assert_eq!(a.text, flipped, "one undo takes the whole change back");
+
+    // The bottom flange (250 × 16) becomes an angle: b and h stay, t comes at 10.
+    run(&mut a, Cmd::Last);
+    to_column(&mut a, Col::Shape);
+    run(&mut a, Cmd::Edit);
+    assert!(matches!(
+        a.mode,
+        Mode::Choosing(Picker {
+            change: Some(2),
+            ..
+        })
+    ));
+    for _ in 0..8 {
+        run(&mut a, Cmd::Down);
+    }
+    run(&mut a, Cmd::Commit);
+    let p = &a.analysis.document.parts[2];
+    assert_eq!(p.shape, "angle");
+    assert!(a
+        .text
+        .contains("shape = \"angle\"\nh = \"tf\"\nb = \"bf_bot\"\nt = 10\nat"));
+    // Equal-thickness angle without root radius: A = t (b + h − t).
+    let angle = 10.0 * (250.0 + 16.0 - 10.0);
+    assert!((a.analysis.props.area - (13800.0 - 4000.0 + angle)).abs() < 1e-6);
+
+    // The web (10 wide) as a box with 8 mm walls has no hollow: refused, nothing changes.
+    let before = a.text.clone();
+    a.part = 1;
+    run(&mut a, Cmd::ChangeShape);
+    run(&mut a, Cmd::Down);
+    for _ in 0..9 {
+        run(&mut a, Cmd::Down);
+    }
+    run(&mut a, Cmd::Commit);
+    assert_eq!(a.text, before);
+    assert!(refusal(&a).contains("hollow"));
+    assert_eq!(a.mode, Mode::Main);
+}
+
+const NOSING: &str = include_str!("../sections/dock-nosing.toml");
+
+#[test]
+fn polygon_points_are_typed_as_a_list_and_written_in_place() {
+    let mut a = app(NOSING);
+    let area = a.analysis.props.area;
+    to_column(&mut a, Col::Points);
+    run(&mut a, Cmd::Edit);
+    let Mode::Typing { line, .. } = &a.mode else {
+        panic!("typing the points")
+    };
+    assert_eq!(
+        line.text,
+        "[[0, 0], [200, 0], [200, \"t\"], [\"t\", \"t\"], [\"t\", 150], [0, 150]]"
+    );
+    // Nonsense first: an unquoted name, then two points only. Each is refused with the
+    // reason, and the line stays to be fixed.
+    let set = |a: &mut App, s: &str| {
+        if let Mode::Typing { line, .. } = &mut a.mode {
+            *line = kern::tui::app::LineEdit::new(s);
+        }
+        key(a, KeyCode::Enter);
+    };
+    set(&mut a, "[[0, 0], [200, 0], [200, t]]");
+    assert!(
+        refusal(&a).contains("column 26: invalid string"),
+        "{:?}",
+        a.message
+    );
+    set(&mut a, "[[0, 0], [200, 0]]");
+    assert!(
+        refusal(&a).contains("line 14:10): part `bent plate`: a polygon needs 3 or more points"),
+        "{:?}",
+        a.message
+    );
+    assert_eq!(a.text, NOSING);
+    assert!(matches!(a.mode, Mode::Typing { .. }));
+    // The plate without its upstand: a 200 × t strip.
+    set(&mut a, "[[0, 0], [200, 0], [200, \"t\"], [0, \"t\"]]");
+    assert_eq!(
+        diff_lines(NOSING, &a.text),
+        vec![(
+            "points = [[0, 0], [200, 0], [200, \"t\"], [\"t\", \"t\"], [\"t\", 150], [0, 150]]"
+                .to_string(),
+            "points = [[0, 0], [200, 0], [200, \"t\"], [0, \"t\"]]".to_string()
+        )]
+    );
+    // Shoelace area of the L it was: 200·12 + 12·138; of the strip: 200·12.
+    assert!((area - a.analysis.props.area - 12.0 * 138.0).abs() < 1e-6);
+}
+
+#[test]
+fn anchors_cycle_or_are_typed_and_flips_toggle() {
+    let tri = "format = 1\nunits = \"mm\"\n\n[[parts]]\nshape = \"triangle\"\nb = 60\nh = 60\nanchor = \"origin\"\n";
+    let mut a = app(tri);
+    let c = |a: &App| (a.analysis.props.centroid.x, a.analysis.props.centroid.y);
+    // Right triangle (0,0) (60,0) (0,60): centroid at the mean of the corners, (20, 20).
+    assert!((c(&a).0 - 20.0).abs() < 1e-9 && (c(&a).1 - 20.0).abs() < 1e-9);
+    run(&mut a, Cmd::FlipX);
+    assert!((c(&a).0 + 20.0).abs() < 1e-9, "mirrored in x: {:?}", c(&a));
+    run(&mut a, Cmd::FlipY);
+    assert!((c(&a).1 + 20.0).abs() < 1e-9, "mirrored in y: {:?}", c(&a));
+    to_column(&mut a, Col::Flip);
+    assert!(screen(&a, 100, 20).contains("xy"));
+    run(&mut a, Cmd::FlipX);
+    assert!(a.text.contains("flip_x = false\nflip_y = true"));
+    // Next after origin is bottom_left: the mirrored box (−60…0)×(−60…0) moves up by 60.
+    run(&mut a, Cmd::FlipX);
+    run(&mut a, Cmd::NextAnchor);
+    assert!(a.text.contains("anchor = \"bottom_left\"\n"));
+    assert!((c(&a).0 - 40.0).abs() < 1e-9 && (c(&a).1 - 40.0).abs() < 1e-9);
+    run(&mut a, Cmd::PrevAnchor);
+    run(&mut a, Cmd::PrevAnchor);
+    assert!(a.text.contains("anchor = \"centroid\"\n"));
+    assert!(c(&a).0.abs() < 1e-9 && c(&a).1.abs() < 1e-9);
+    // Typed: a name from the list, or a wrong one refused with the list.
+    to_column(&mut a, Col::Anchor);
+    run(&mut a, Cmd::Edit);
+    for _ in 0.."centroid".len() {
+        key(&mut a, KeyCode::Backspace);
+    }
+    typed(&mut a, "middle");
+    key(&mut a, KeyCode::Enter);
+    assert!(refusal(&a).contains("top_right"));
+    key(&mut a, KeyCode::Esc);
+    run(&mut a, Cmd::Edit);
+    for _ in 0.."centroid".len() {
+        key(&mut a, KeyCode::Backspace);
+    }
+    typed(&mut a, "top_right");
+    key(&mut a, KeyCode::Enter);
+    assert!(a.text.contains("anchor = \"top_right\"\n"), "{}", a.text);
+    // The same cell steps through the anchors with + and -.
+    run(&mut a, Cmd::StepDown);
+    assert!(a.text.contains("anchor = \"top\"\n"));
+}
+
+#[test]
+fn help_descriptions_wrap_in_their_own_column_and_scroll() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::Help);
+    let s = screen(&a, 120, 40);
+    let rows: Vec<Vec<char>> = s.lines().map(|l| l.chars().collect()).collect();
+    let (r, c) = rows
+        .iter()
+        .enumerate()
+        .find_map(|(r, l)| {
+            let t: String = l.iter().collect();
+            t.find("quit (asks").map(|b| (r, t[..b].chars().count()))
+        })
+        .expect("the quit key in the help");
+    let next = &rows[r + 1];
+    assert!(
+        next[c - 16..c].iter().all(|ch| *ch == ' ') && next[c].is_alphabetic(),
+        "the rest of the line stands under the description: {:?}",
+        next.iter().collect::<String>()
+    );
+    // 80 × 24 holds one column: it scrolls, to the end and no further.
+    a.screen = Rect::new(0, 0, 80, 24);
+    run(&mut a, Cmd::Last);
+    let Mode::Help(end) = a.mode else {
+        panic!("help open")
+    };
+    assert!(end > 0);
+    insta::assert_snapshot!("help-end-80x24", screen(&a, 80, 24));
+    run(&mut a, Cmd::Up);
+    assert_eq!(
+        a.mode,
+        Mode::Help(end - 1),
+        "one line back from the end shows"
+    );
+    run(&mut a, Cmd::First);
+    run(&mut a, Cmd::PageDown);
+    let page = views::help::page_height(a.screen);
+    assert_eq!(a.mode, Mode::Help(page.min(end)));
 }
 
 fn temp_dir(tag: &str) -> PathBuf {
@@ -288,7 +516,10 @@ fn every_size_draws_without_panicking() {
     }
     run(&mut a, Cmd::Help);
     screen(&a, 40, 12);
-    a.mode = Mode::Choosing(11);
+    a.mode = Mode::Choosing(Picker {
+        row: 11,
+        change: Some(2),
+    });
     screen(&a, 40, 12);
 }
 

@@ -7,8 +7,10 @@
 //! What lives elsewhere: reading with spans is [`super::read`], saving is [`super::save`].
 
 use crate::geom::shapes::SHAPES;
+use crate::geom::Anchor;
 use crate::model::units::LengthUnit;
-use toml_edit::{Array, ArrayOfTables, DocumentMut, Item, Table, TableLike, Value};
+use crate::model::Val;
+use toml_edit::{Array, ArrayOfTables, DocumentMut, Item, Key, Table, TableLike, Value};
 
 /// A number-valued place in a part: a named key (`b`, `tf`, `rotate`…) or one
 /// coordinate of `at` (0 for x, 1 for y).
@@ -254,30 +256,172 @@ fn sized(mm: f64, unit: LengthUnit) -> Value {
     number_value(round_sig(mm * 0.001 / unit.metres(), 3))
 }
 
-/// Appends a part of `shape` with default sizes (converted to `unit`), named
-/// `name`, placed at the origin.
-pub fn add_part(text: &str, shape: &str, name: &str, unit: LengthUnit) -> Result<String, String> {
+/// The keys a new part of `shape` is written with, after `name` and `shape`: its
+/// required dimensions at their default sizes (converted to `unit`), and a polygon's
+/// default corners.
+fn default_keys(shape: &str, unit: LengthUnit) -> Result<Vec<(&'static str, Value)>, String> {
     let dims = DEFAULT_MM
         .iter()
         .find(|(s, _)| *s == shape)
         .map(|(_, d)| *d)
         .ok_or_else(|| format!("unknown shape `{shape}`"))?;
+    let mut keys: Vec<(&str, Value)> = dims.iter().map(|&(k, mm)| (k, sized(mm, unit))).collect();
+    if shape == "polygon" {
+        let pts = DEFAULT_POLYGON_MM
+            .iter()
+            .map(|p| Value::Array(Array::from_iter(p.iter().map(|&c| sized(c, unit)))));
+        keys.push(("points", Value::Array(Array::from_iter(pts))));
+    }
+    Ok(keys)
+}
+
+/// Appends a part of `shape` with default sizes (converted to `unit`), named
+/// `name`, placed at the origin.
+pub fn add_part(text: &str, shape: &str, name: &str, unit: LengthUnit) -> Result<String, String> {
+    let keys = default_keys(shape, unit)?;
     with_parts(text, |tables| {
         let mut t = Table::new();
         t.insert("name", Item::Value(Value::from(name)));
         t.insert("shape", Item::Value(Value::from(shape)));
-        for &(k, mm) in dims {
-            t.insert(k, Item::Value(sized(mm, unit)));
-        }
-        if shape == "polygon" {
-            let pts = DEFAULT_POLYGON_MM
-                .iter()
-                .map(|p| Value::Array(Array::from_iter(p.iter().map(|&c| sized(c, unit)))));
-            t.insert("points", Item::Value(Value::Array(Array::from_iter(pts))));
+        for (k, v) in keys {
+            t.insert(k, Item::Value(v));
         }
         tables.push(t);
         Ok(())
     })
+}
+
+/// The keys that describe a shape rather than place it: the dimension keys of every
+/// shape, and `points`.
+fn is_shape_key(key: &str) -> bool {
+    key == "points"
+        || SHAPES
+            .iter()
+            .any(|(_, req, opt)| req.contains(&key) || opt.iter().any(|o| o.0 == key))
+}
+
+/// Changes part `i` to `shape`. What places the part stays as written — `name`, `at`,
+/// `anchor`, `rotate`, the flips, `void`, `enabled`, `material` — and so do the
+/// dimension keys the new shape shares (with their comments); the keys it does not have
+/// go, and its missing required dimensions come in at the default sizes of a new part
+/// (converted to `unit`). The dimensions stand where the old ones stood (right after
+/// `shape` if there were none), in the new shape's order. An anchor left to its default
+/// is written out when the two shapes' defaults differ, so the part stays where it was.
+pub fn change_shape(text: &str, i: usize, shape: &str, unit: LengthUnit) -> Result<String, String> {
+    let (_, req, opt) = SHAPES
+        .iter()
+        .find(|s| s.0 == shape)
+        .ok_or_else(|| format!("unknown shape `{shape}`"))?;
+    let defaults = default_keys(shape, unit)?;
+    let mut doc = open(text)?;
+    let t = part_mut(&mut doc, i)?;
+    let old = t
+        .get("shape")
+        .and_then(Item::as_str)
+        .unwrap_or_default()
+        .to_string();
+    let entries: Vec<(Key, Item)> = t
+        .iter()
+        .filter_map(|(k, _)| t.get_key_value(k))
+        .map(|(k, v)| (k.clone(), v.clone()))
+        .collect();
+    let wanted = req
+        .iter()
+        .copied()
+        .chain(opt.iter().map(|o| o.0))
+        .chain((shape == "polygon").then_some("points"));
+    let mut block: Vec<(Key, Item)> = Vec::new();
+    for k in wanted {
+        match entries.iter().find(|(e, _)| e.get() == k) {
+            Some(kept) => block.push(kept.clone()),
+            None => {
+                if let Some((_, v)) = defaults.iter().find(|d| d.0 == k) {
+                    block.push((Key::new(k), Item::Value(v.clone())));
+                }
+            }
+        }
+    }
+    let had_dims = entries.iter().any(|(k, _)| is_shape_key(k.get()));
+    let mut block = Some(block);
+    let mut out: Vec<(Key, Item)> = Vec::new();
+    for (k, item) in entries {
+        let (shape_key, dim) = (k.get() == "shape", is_shape_key(k.get()));
+        if !dim {
+            out.push((k, item));
+        }
+        if (dim || (shape_key && !had_dims)) && block.is_some() {
+            out.extend(block.take().unwrap_or_default());
+        }
+    }
+    out.extend(block.unwrap_or_default());
+    t.clear();
+    for (k, item) in out {
+        t.entry_format(&k).or_insert(item);
+    }
+    set_key(t, "shape", Value::from(shape));
+    let (was, will) = (Anchor::default_for(&old), Anchor::default_for(shape));
+    if t.get("anchor").is_none() && was != will {
+        t.insert("anchor", Item::Value(Value::from(was.name())));
+    }
+    Ok(doc.to_string())
+}
+
+/// Sets the `points` of part `i` to what the user typed: a TOML array of `[x, y]`
+/// pairs, each a number or an expression in quotes. The new list stands where the old
+/// one stood; the reader then checks the pairs and the polygon.
+pub fn set_part_points(text: &str, i: usize, entry: &str) -> Result<String, String> {
+    let v = points_value(entry)?;
+    let mut doc = open(text)?;
+    set_key(part_mut(&mut doc, i)?, "points", v);
+    Ok(doc.to_string())
+}
+
+/// A typed point list as a TOML value; a syntax error names the column of the entry.
+fn points_value(entry: &str) -> Result<Value, String> {
+    const LEAD: &str = "points = ";
+    const EXAMPLE: &str = "e.g. [[0, 0], [\"b\", 0], [0, \"h\"]]";
+    let src = format!("{LEAD}{}", entry.trim());
+    let doc = src.parse::<DocumentMut>().map_err(|e| {
+        let col = e.span().map_or(1, |s| {
+            src.get(..s.start)
+                .map_or(0, |b| b.chars().count())
+                .saturating_sub(LEAD.len())
+                + 1
+        });
+        let why: Vec<&str> = e.message().lines().map(str::trim).collect();
+        format!(
+            "column {col}: {}; type a list of [x, y] pairs, expressions in quotes, {EXAMPLE}",
+            why.join("; ")
+        )
+    })?;
+    match doc.get("points").and_then(Item::as_value) {
+        Some(Value::Array(a)) if doc.len() == 1 => Ok(Value::Array(a.clone())),
+        _ => Err(format!("type a list of [x, y] pairs, {EXAMPLE}")),
+    }
+}
+
+/// Points as the user would type them: `[[0, 0], [200, "t"]]`.
+///
+/// ```
+/// use kern::file::edit::points_entry;
+/// use kern::model::{Val, Value};
+/// let v = |x: Value| Val { value: x, span: 0..0 };
+/// let pts = [[v(Value::Number(0.0)), v(Value::Expr("t".into()))]];
+/// assert_eq!(points_entry(&pts), "[[0, \"t\"]]");
+/// ```
+pub fn points_entry(points: &[[Val; 2]]) -> String {
+    let one = |v: &Val| match &v.value {
+        crate::model::Value::Number(x) if x.fract() == 0.0 && x.abs() < 1e15 => {
+            format!("{}", *x as i64)
+        }
+        crate::model::Value::Number(x) => Value::from(*x).to_string(),
+        crate::model::Value::Expr(e) => Value::from(e.as_str()).to_string(),
+    };
+    let pairs: Vec<String> = points
+        .iter()
+        .map(|[x, y]| format!("[{}, {}]", one(x), one(y)))
+        .collect();
+    format!("[{}]", pairs.join(", "))
 }
 
 /// Inserts a copy of part `i` right after it.
@@ -365,6 +509,38 @@ mod tests {
         let t = duplicate_part(SRC, 0).unwrap();
         assert_eq!(t.matches("name = \"a\"").count(), 2);
         assert!(move_part(SRC, 1, true).is_err());
+    }
+
+    #[test]
+    fn changing_the_shape_keeps_placement_and_shared_sizes() {
+        let src = "format = 1\nunits = \"mm\"\n\n[[parts]]\nname = \"a\"\nshape = \"rect\"\nb = 10   # wide\nh = 100\nat = [0, -55]\nrotate = 30\nflip_x = true\nvoid = false\n";
+        let t = change_shape(src, 0, "ibeam", LengthUnit::Mm).unwrap();
+        assert!(
+            t.contains("shape = \"ibeam\"\nd = 300\nb = 10   # wide\ntf = 10\ntw = 7\nat = [0, -55]\nrotate = 30\nflip_x = true\nvoid = false\n"),
+            "{t}"
+        );
+        assert!(!t.contains("h = 100") && !t.contains("anchor"));
+        // To a polygon: the dimensions go, default corners come, and the anchor that
+        // was the default (center) is written out.
+        let t = change_shape(src, 0, "polygon", LengthUnit::Mm).unwrap();
+        assert!(t.contains("shape = \"polygon\"\npoints = [[0, 0], [100, 0], [0, 100]]\nat"));
+        assert!(t.contains("anchor = \"center\"") && !t.contains("b = 10"));
+        let back = change_shape(&t, 0, "rect", LengthUnit::Mm).unwrap();
+        assert!(back.contains("shape = \"rect\"\nb = 100\nh = 50\nat") && !back.contains("points"));
+        assert!(change_shape(src, 0, "hexagon", LengthUnit::Mm).is_err());
+        assert!(change_shape(src, 3, "pipe", LengthUnit::Mm).is_err());
+    }
+
+    #[test]
+    fn points_are_typed_as_a_toml_array() {
+        let src = "format = 1\nunits = \"mm\"\n[[parts]]\nshape = \"polygon\"\npoints = [[0, 0], [1, 0], [0, 1]]   # corners\nat = [5, 5]\n";
+        let t = set_part_points(src, 0, "[[0, 0], [\"b\", 0], [0, 2.5]]").unwrap();
+        assert_eq!(changed_lines(src, &t), 1);
+        assert!(t.contains("points = [[0, 0], [\"b\", 0], [0, 2.5]]   # corners\n"));
+        let e = set_part_points(src, 0, "[[0, 0], [b, 0]]").unwrap_err();
+        assert!(e.starts_with("column 11:"), "{e}");
+        assert!(set_part_points(src, 0, "3").is_err());
+        assert!(set_part_points(src, 0, "[[0, 0]] x = 1").is_err());
     }
 
     #[test]

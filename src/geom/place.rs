@@ -39,6 +39,16 @@ impl Anchor {
         Anchor::ALL.iter().find(|a| a.1 == s).map(|a| a.0)
     }
 
+    /// The anchor of a part that names none: `origin` for a polygon (its points are
+    /// where they are meant to be), `center` for every other shape.
+    pub fn default_for(shape: &str) -> Anchor {
+        if shape == "polygon" {
+            Anchor::Origin
+        } else {
+            Anchor::Center
+        }
+    }
+
     pub fn name(self) -> &'static str {
         Anchor::ALL
             .iter()

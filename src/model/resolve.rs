@@ -391,11 +391,7 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
         Some([x, y]) => Pt::new(ctx.number(x, "at")?, ctx.number(y, "at")?),
         None => Pt::default(),
     };
-    let anchor = p.anchor.unwrap_or(if p.shape == "polygon" {
-        Anchor::Origin
-    } else {
-        Anchor::Center
-    });
+    let anchor = p.anchor.unwrap_or(Anchor::default_for(&p.shape));
     let rotate = p
         .rotate
         .as_ref()

@@ -12,6 +12,7 @@ use crate::fe::{torsion, TorsionOptions};
 use crate::file::locate;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
+use ratatui::layout::Rect;
 use std::path::PathBuf;
 
 /// Which list has the keyboard.
@@ -84,6 +85,14 @@ pub enum Target {
     SaveAs,
 }
 
+/// The shape picker: the highlighted row, and what the chosen shape is for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Picker {
+    pub row: usize,
+    /// The part whose shape changes; `None` adds a new part.
+    pub change: Option<usize>,
+}
+
 /// What the keys do at the moment.
 #[derive(Debug, Clone, PartialEq)]
 pub enum Mode {
@@ -92,8 +101,8 @@ pub enum Mode {
         target: Target,
         line: LineEdit,
     },
-    /// The shape picker, with the highlighted row.
-    Choosing(usize),
+    /// The shape picker.
+    Choosing(Picker),
     /// Quit with unsaved changes?
     AskQuit,
     /// The file changed on disk (or exists): overwrite it?
@@ -140,6 +149,8 @@ pub struct App {
     pub config: Config,
     pub theme: Theme,
     pub results_scroll: u16,
+    /// The size of the screen last drawn on (the help scrolls within it).
+    pub screen: Rect,
     pub show_mesh: bool,
     pub solver: Solver,
     /// A background solve for the current text is under way.
@@ -180,6 +191,7 @@ impl App {
             theme: Theme::from_config(&config),
             config,
             results_scroll: 0,
+            screen: Rect::new(0, 0, 80, 24),
             show_mesh: false,
             solver,
             solving: false,

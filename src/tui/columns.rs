@@ -1,10 +1,14 @@
 //! The columns of the parts table: which there are for a document (the dimension keys
-//! of the shapes in use, in the order of [`SHAPES`]), what each cell shows, and which
-//! file value a cell edits.
+//! of the shapes in use, in the order of [`SHAPES`], and a polygon's points), what each
+//! cell shows, and which file value a cell edits.
 
 use crate::file::edit::Slot;
 use crate::geom::shapes::SHAPES;
+use crate::geom::Anchor;
 use crate::model::{Document, PartDoc, Val, Value};
+
+/// Width of the points column.
+const POINTS_WIDTH: u16 = 24;
 
 /// A column of the parts table.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -14,9 +18,14 @@ pub enum Col {
     /// `+` solid, `−` void.
     Sign,
     Dim(&'static str),
+    /// A polygon's corners.
+    Points,
     AtX,
     AtY,
+    Anchor,
     Rotate,
+    /// `flip_x` and `flip_y`.
+    Flip,
     Material,
     Enabled,
 }
@@ -35,7 +44,10 @@ pub fn columns(doc: &Document) -> Vec<Col> {
         }
     }
     cols.extend(dims.into_iter().map(Col::Dim));
-    cols.extend([Col::AtX, Col::AtY, Col::Rotate]);
+    if doc.parts.iter().any(|p| p.shape == "polygon") {
+        cols.push(Col::Points);
+    }
+    cols.extend([Col::AtX, Col::AtY, Col::Anchor, Col::Rotate, Col::Flip]);
     if !doc.materials.is_empty() {
         cols.push(Col::Material);
     }
@@ -51,23 +63,35 @@ impl Col {
             Col::Shape => "shape",
             Col::Sign => "±",
             Col::Dim(k) => k,
+            Col::Points => "points",
             Col::AtX => "at x",
             Col::AtY => "at y",
+            Col::Anchor => "anchor",
             Col::Rotate => "rot°",
+            Col::Flip => "flip",
             Col::Material => "material",
             Col::Enabled => "on",
         }
     }
 
-    /// Width in cells.
-    pub fn width(&self) -> u16 {
+    /// Width in cells; the shape column is as wide as the longest shape name in `doc`.
+    pub fn width(&self, doc: &Document) -> u16 {
         match self {
             Col::Name => 14,
-            Col::Shape => 8,
+            Col::Shape => doc
+                .parts
+                .iter()
+                .map(|p| p.shape.chars().count())
+                .max()
+                .unwrap_or(0)
+                .clamp(5, 14) as u16,
             Col::Sign => 3,
             Col::Dim(_) => 9,
+            Col::Points => POINTS_WIDTH,
             Col::AtX | Col::AtY => 11,
+            Col::Anchor => 12,
             Col::Rotate => 5,
+            Col::Flip => 4,
             Col::Material => 9,
             Col::Enabled => 3,
         }
@@ -126,6 +150,15 @@ pub fn cell(p: &PartDoc, index: usize, col: Col, ascii: bool) -> String {
         },
         Col::Material => p.material.as_ref().map_or(String::new(), |m| m.0.clone()),
         Col::Enabled => if p.enabled { "yes" } else { "no" }.into(),
+        Col::Points => p.points.as_deref().map_or(String::new(), points_cell),
+        Col::Anchor => anchor(p).name().into(),
+        Col::Flip => match (p.flip_x, p.flip_y) {
+            (false, false) => "-",
+            (true, false) => "x",
+            (false, true) => "y",
+            (true, true) => "xy",
+        }
+        .into(),
         Col::Dim(_) | Col::AtX | Col::AtY | Col::Rotate => {
             if p.shape == "polygon" && matches!(col, Col::Dim(_)) {
                 return String::new();
@@ -133,4 +166,34 @@ pub fn cell(p: &PartDoc, index: usize, col: Col, ascii: bool) -> String {
             number(p, col).map_or(String::new(), |v| v.text())
         }
     }
+}
+
+/// The anchor of a part, written or by default.
+pub fn anchor(p: &PartDoc) -> Anchor {
+    p.anchor.unwrap_or(Anchor::default_for(&p.shape))
+}
+
+/// Points in brief, as many whole pairs as fit the column: `(0,0) (200,0) (200,t) …`.
+fn points_cell(points: &[[Val; 2]]) -> String {
+    let room = POINTS_WIDTH as usize;
+    let mut out = String::new();
+    for (i, [x, y]) in points.iter().enumerate() {
+        let pair = format!("({},{})", x.value.text(), y.value.text());
+        let sep = usize::from(!out.is_empty());
+        // Room for " …" unless this is the last pair.
+        let limit = if i + 1 == points.len() {
+            room
+        } else {
+            room - 2
+        };
+        if out.chars().count() + sep + pair.chars().count() > limit {
+            out.push_str(if out.is_empty() { "…" } else { " …" });
+            break;
+        }
+        if sep == 1 {
+            out.push(' ');
+        }
+        out.push_str(&pair);
+    }
+    out
 }

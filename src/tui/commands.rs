@@ -1,10 +1,14 @@
 //! The workbench's commands as plain functions over [`App`], one per named command of
 //! the key table ([`run`] dispatches), so every one of them can be tested without a
-//! terminal.
+//! terminal: moving, typing and stepping values, history, baseline and saving here;
+//! commands on whole parts in [`parts`].
+
+pub mod parts;
 
 use super::app::{App, Focus, LineEdit, Mode, Target};
-use super::columns::{number, Col};
+use super::columns::{anchor, number, Col};
 use super::keys::Cmd;
+use super::views::help;
 use crate::analysis::{Analysis, Options};
 use crate::file::edit::{self, number_value, round_sig, Slot};
 use crate::file::save::write_atomic;
@@ -21,8 +25,8 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::First => move_row(app, i64::MIN / 2),
         Cmd::Last => move_row(app, i64::MAX / 2),
         Cmd::SwitchList => switch_list(app),
-        Cmd::ResultsDown => app.results_scroll = app.results_scroll.saturating_add(5),
-        Cmd::ResultsUp => app.results_scroll = app.results_scroll.saturating_sub(5),
+        Cmd::PageDown => page(app, 1),
+        Cmd::PageUp => page(app, -1),
         Cmd::Edit => begin_edit(app),
         Cmd::StepUp => step(app, 1, 1.0),
         Cmd::StepDown => step(app, 1, -1.0),
@@ -30,13 +34,18 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::FineDown => step(app, 0, -1.0),
         Cmd::CoarseUp => step(app, 2, 1.0),
         Cmd::CoarseDown => step(app, 2, -1.0),
-        Cmd::ToggleVoid => toggle(app, "void", false),
-        Cmd::ToggleEnabled => toggle(app, "enabled", true),
-        Cmd::AddPart => app.mode = Mode::Choosing(0),
-        Cmd::CopyPart => copy_part(app),
-        Cmd::DeletePart => delete_part(app),
-        Cmd::MoveUp => move_part(app, false),
-        Cmd::MoveDown => move_part(app, true),
+        Cmd::ToggleVoid => parts::toggle(app, "void", false),
+        Cmd::ToggleEnabled => parts::toggle(app, "enabled", true),
+        Cmd::AddPart => parts::open_picker(app, false),
+        Cmd::ChangeShape => parts::open_picker(app, true),
+        Cmd::NextAnchor => parts::cycle_anchor(app, 1),
+        Cmd::PrevAnchor => parts::cycle_anchor(app, -1),
+        Cmd::FlipX => parts::toggle(app, "flip_x", false),
+        Cmd::FlipY => parts::toggle(app, "flip_y", false),
+        Cmd::CopyPart => parts::copy_part(app),
+        Cmd::DeletePart => parts::delete_part(app),
+        Cmd::MoveUp => parts::move_part(app, false),
+        Cmd::MoveDown => parts::move_part(app, true),
         Cmd::Undo => undo(app),
         Cmd::Redo => redo(app),
         Cmd::SetBaseline => {
@@ -89,12 +98,15 @@ fn with_line(app: &mut App, f: impl FnOnce(&mut LineEdit)) {
 }
 
 fn move_row(app: &mut App, by: i64) {
-    match app.mode {
-        Mode::Choosing(i) => {
+    match &mut app.mode {
+        Mode::Choosing(pick) => {
             let n = edit::shape_names().count() as i64;
-            app.mode = Mode::Choosing((i as i64 + by).clamp(0, n - 1) as usize);
+            pick.row = (pick.row as i64 + by).clamp(0, n - 1) as usize;
         }
-        Mode::Help(s) => app.mode = Mode::Help((s as i64 + by).clamp(0, 200) as u16),
+        Mode::Help(s) => {
+            let max = help::max_scroll(&app.theme, app.screen);
+            *s = (*s as i64 + by).clamp(0, max as i64) as u16;
+        }
         _ => {
             let (row, n) = match app.focus {
                 Focus::Parts => (&mut app.part, app.analysis.document.parts.len()),
@@ -102,6 +114,18 @@ fn move_row(app: &mut App, by: i64) {
             };
             *row = (*row as i64 + by).clamp(0, n.saturating_sub(1) as i64) as usize;
         }
+    }
+}
+
+/// Scrolls the help by a page, or the results by a few lines.
+fn page(app: &mut App, dir: i64) {
+    match app.mode {
+        Mode::Help(_) => {
+            let page = help::page_height(app.screen).max(1) as i64;
+            move_row(app, dir * page);
+        }
+        _ if dir > 0 => app.results_scroll = app.results_scroll.saturating_add(5),
+        _ => app.results_scroll = app.results_scroll.saturating_sub(5),
     }
 }
 
@@ -116,7 +140,8 @@ fn switch_list(app: &mut App) {
     };
 }
 
-/// Starts typing in the selected cell or param (toggles for on/off cells).
+/// Starts typing in the selected cell or param (on/off cells toggle, the shape cell
+/// opens the shape picker).
 pub fn begin_edit(app: &mut App) {
     if app.focus == Focus::Params {
         let Some((name, _, v)) = app.analysis.document.params.get(app.param) else {
@@ -136,13 +161,19 @@ pub fn begin_edit(app: &mut App) {
     let start = match col {
         Col::Name => p.name.clone().unwrap_or_default(),
         Col::Material => p.material.as_ref().map_or(String::new(), |m| m.0.clone()),
-        Col::Sign => return toggle(app, "void", false),
-        Col::Enabled => return toggle(app, "enabled", true),
-        Col::Shape => return app.note(
-            "the shape of a part stays; add a part of the new shape (a) and delete this one (x)",
-        ),
-        _ if p.shape == "polygon" && matches!(col, Col::Dim(_)) => {
-            return app.note("a polygon's corners are edited in the file (points = [[x, y], …])")
+        Col::Sign => return parts::toggle(app, "void", false),
+        Col::Enabled => return parts::toggle(app, "enabled", true),
+        Col::Shape => return parts::open_picker(app, true),
+        Col::Flip => return app.note("f mirrors the part left to right, F top to bottom"),
+        Col::Anchor => anchor(p).name().to_string(),
+        Col::Points => match &p.points {
+            Some(pts) => edit::points_entry(pts),
+            None => return app.note(format!("a {} has no points; only a polygon has", p.shape)),
+        },
+        Col::Dim(k) if p.shape == "polygon" => {
+            return app.note(format!(
+                "a polygon has no `{k}`; its corners are in the points column"
+            ))
         }
         _ => match number(p, col) {
             Some(v) => v.text(),
@@ -173,6 +204,8 @@ pub fn commit(app: &mut App) {
                 Target::Cell { part, col } => match col {
                     Col::Name => edit::set_part_text(&app.text, *part, "name", &entry),
                     Col::Material => edit::set_part_text(&app.text, *part, "material", &entry),
+                    Col::Anchor => edit::set_part_text(&app.text, *part, "anchor", &entry),
+                    Col::Points => edit::set_part_points(&app.text, *part, &entry),
                     c => match c.slot() {
                         Some(slot) => edit::set_part_value(&app.text, *part, &slot, &entry),
                         None => Err("this cell is not typed into".into()),
@@ -195,7 +228,7 @@ pub fn commit(app: &mut App) {
                 app.mode = Mode::Typing { target, line };
             }
         }
-        Mode::Choosing(i) => add_part(app, i),
+        Mode::Choosing(pick) => parts::choose(app, pick),
         other => app.mode = other,
     }
 }
@@ -261,6 +294,9 @@ pub fn step(app: &mut App, level: usize, dir: f64) {
                 return app.note("no parts yet: press a to add one");
             };
             let col = app.column();
+            if col == Col::Anchor {
+                return parts::cycle_anchor(app, dir as i64);
+            }
             let (Some(slot), Some(v)) = (col.slot(), number(p, col)) else {
                 return app
                     .note("only numbers step; move to a dimension, a position or the rotation");
@@ -338,68 +374,6 @@ fn param_behind(app: &App, expr: &str) -> Option<(String, f64)> {
         }
     }
     None
-}
-
-fn toggle(app: &mut App, key: &str, default: bool) {
-    if app.focus != Focus::Parts || app.analysis.document.parts.is_empty() {
-        return app.note("select a part first (Tab switches to the parts)");
-    }
-    let r = edit::toggle_part_flag(&app.text, app.part, key, default);
-    if app.apply(r) {
-        let p = app.analysis.document.parts.get(app.part);
-        let state = match (key, p) {
-            ("void", Some(p)) if p.void => "now a void (subtracted)",
-            ("void", _) => "now solid",
-            (_, Some(p)) if p.enabled => "taken back in",
-            _ => "left out (disabled)",
-        };
-        app.note(format!("part {state}"));
-    }
-}
-
-/// Adds a part of the `i`-th shape with default sizes, and selects it.
-pub fn add_part(app: &mut App, i: usize) {
-    app.mode = Mode::Main;
-    let Some(shape) = edit::shape_names().nth(i) else {
-        return;
-    };
-    let n = app.analysis.document.parts.len();
-    let name = format!("{} {}", shape.replace('_', " "), n + 1);
-    let r = edit::add_part(&app.text, shape, &name, app.analysis.section.units);
-    if app.apply(r) {
-        app.focus = Focus::Parts;
-        app.part = n;
-        app.note(format!("added {name} at the origin"));
-    }
-}
-
-fn copy_part(app: &mut App) {
-    let r = edit::duplicate_part(&app.text, app.part);
-    if app.apply(r) {
-        app.part += 1;
-        app.note("copied; the copy sits on the original until you move it");
-    }
-}
-
-fn delete_part(app: &mut App) {
-    if app.analysis.document.parts.len() <= 1 {
-        return app.error("refused: a section needs at least one part");
-    }
-    let r = edit::delete_part(&app.text, app.part);
-    if app.apply(r) {
-        app.note("part deleted (u undoes)");
-    }
-}
-
-fn move_part(app: &mut App, down: bool) {
-    let r = edit::move_part(&app.text, app.part, down);
-    if app.apply(r) {
-        app.part = if down {
-            app.part + 1
-        } else {
-            app.part.saturating_sub(1)
-        };
-    }
 }
 
 pub fn undo(app: &mut App) {

@@ -81,7 +81,8 @@ pub fn run(path: Option<PathBuf>) -> i32 {
 
 fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io::Result<()> {
     loop {
-        terminal.draw(|f| views::render(app, f.area(), f.buffer_mut()))?;
+        let frame = terminal.draw(|f| views::render(app, f.area(), f.buffer_mut()))?;
+        app.screen = frame.area;
         if app.quit {
             return Ok(());
         }

@@ -1,15 +1,17 @@
 //! Windows over the screen: the help (generated from the key table), the shape picker
-//! for a new part, and the questions before quitting or overwriting.
+//! for a new part or a new shape, and the questions before quitting or overwriting.
 
-use super::{fit, pane};
+use super::{fit, pane, rows};
 use crate::geom::shapes::SHAPES;
-use crate::tui::app::{App, Mode};
+use crate::tui::app::{App, Mode, Picker};
+use crate::tui::columns::{cell, Col};
 use crate::tui::keys::{groups, keys_label};
 use crate::tui::sanitize::clean;
+use crate::tui::theme::Theme;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block as Frame, Clear, Paragraph, Widget, Wrap};
 
 /// A window of at most `w × h` centred in `area`.
 fn centred(area: Rect, w: u16, h: u16) -> Rect {
@@ -23,58 +25,184 @@ fn centred(area: Rect, w: u16, h: u16) -> Rect {
     )
 }
 
-/// The help: every key of the table by group, flowed into as many columns as fit.
+/// Width of the keys at the left of a help line.
+const KEY_W: usize = 16;
+/// The narrowest column of the help; a wider window takes more columns.
+const COL_W: u16 = 58;
+
+/// A piece of the help that stays together in one column: a group's heading with its
+/// first key, each other key, the note on steps; `gap` puts a blank line before it,
+/// unless it tops a column.
+struct Block {
+    gap: bool,
+    lines: Vec<Line<'static>>,
+}
+
+/// `text` broken at spaces into lines of at most `width` characters (a longer word is
+/// cut).
+fn wrap(text: &str, width: usize) -> Vec<String> {
+    let width = width.max(1);
+    let mut out: Vec<String> = Vec::new();
+    let mut line = String::new();
+    for word in text.split(' ').filter(|w| !w.is_empty()) {
+        let mut word: Vec<char> = word.chars().collect();
+        loop {
+            let used = line.chars().count();
+            let room = if used == 0 {
+                width
+            } else {
+                width.saturating_sub(used + 1)
+            };
+            if word.len() <= room {
+                if used > 0 {
+                    line.push(' ');
+                }
+                line.extend(word);
+                break;
+            }
+            if used > 0 {
+                out.push(std::mem::take(&mut line));
+                continue;
+            }
+            let rest = word.split_off(width);
+            out.push(word.into_iter().collect());
+            word = rest;
+        }
+    }
+    if !line.is_empty() || out.is_empty() {
+        out.push(line);
+    }
+    out
+}
+
+/// The help for columns `width` wide: every key of the table by group, each
+/// description wrapped in its own column, under itself.
+fn blocks(th: &Theme, width: usize) -> Vec<Block> {
+    let desc_w = width.saturating_sub(KEY_W).max(10);
+    let mut out: Vec<Block> = Vec::new();
+    for (group, binds) in groups() {
+        let mut heading = Some(Line::styled(group, th.header));
+        for bd in binds {
+            let gap = heading.is_some() && !out.is_empty();
+            let mut lines: Vec<Line> = heading.take().into_iter().collect();
+            for (i, part) in wrap(&th.text(bd.help), desc_w).into_iter().enumerate() {
+                let keys = if i == 0 {
+                    keys_label(bd)
+                } else {
+                    String::new()
+                };
+                lines.push(Line::from(vec![
+                    Span::styled(fit(&th.text(&keys), KEY_W), th.border_focus),
+                    Span::raw(part),
+                ]));
+            }
+            out.push(Block { gap, lines });
+        }
+    }
+    let note = th.text("Steps: sizes by a share of their value, positions by a share of the section's size, rotations by 1°, 5°, 15°; set the shares in the config file.");
+    out.push(Block {
+        gap: true,
+        lines: wrap(&note, width)
+            .into_iter()
+            .map(|l| Line::styled(l, th.muted))
+            .collect(),
+    });
+    out
+}
+
+/// The help laid out in the columns that fit `inner`: the lines of each column.
+fn columns(th: &Theme, inner: Rect) -> Vec<Vec<Line<'static>>> {
+    let ncols = (inner.width / COL_W).max(1) as usize;
+    let width = (inner.width as usize / ncols).saturating_sub(1);
+    let blocks = blocks(th, width);
+    let total: usize = blocks
+        .iter()
+        .map(|b| b.lines.len() + usize::from(b.gap))
+        .sum();
+    let target = total.div_ceil(ncols).max(inner.height as usize);
+    let mut cols: Vec<Vec<Line>> = vec![Vec::new()];
+    for b in blocks {
+        let used = cols.last().map_or(0, Vec::len);
+        if used > 0 && used + usize::from(b.gap) + b.lines.len() > target && cols.len() < ncols {
+            cols.push(Vec::new());
+        }
+        if let Some(col) = cols.last_mut() {
+            if b.gap && !col.is_empty() {
+                col.push(Line::raw(""));
+            }
+            col.extend(b.lines);
+        }
+    }
+    cols
+}
+
+/// Where the help's text goes on a screen of `screen`'s size.
+fn text_area(screen: Rect) -> Rect {
+    let [_, main, _] = rows(screen);
+    Frame::bordered().inner(main)
+}
+
+/// How far the help scrolls on a screen of `screen`'s size.
+pub fn max_scroll(th: &Theme, screen: Rect) -> u16 {
+    let inner = text_area(screen);
+    let longest = columns(th, inner).iter().map(Vec::len).max().unwrap_or(0);
+    (longest as u16).saturating_sub(inner.height)
+}
+
+/// The lines of help in view at once on a screen of `screen`'s size.
+pub fn page_height(screen: Rect) -> u16 {
+    text_area(screen).height
+}
+
+/// The help: every key of the table by group, in as many columns as fit; it scrolls
+/// when it does not fit, and says so at the bottom.
 pub fn render(app: &App, scroll: u16, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
-    let win = area;
-    Clear.render(win, buf);
-    let block = pane(th, "Keys  (Esc closes, j/k scroll)", true);
-    let inner = block.inner(win);
-    block.render(win, buf);
+    Clear.render(area, buf);
+    let block = pane(th, "Keys  (Esc closes, j/k/PgDn scroll)", true);
+    let inner = block.inner(area);
+    block.render(area, buf);
     if inner.width < 10 || inner.height == 0 {
         return;
     }
-    let key_w = 16;
-    let mut lines: Vec<Line> = Vec::new();
-    for (group, binds) in groups() {
-        if !lines.is_empty() {
-            lines.push(Line::raw(""));
-        }
-        lines.push(Line::styled(group, th.header));
-        for bd in binds {
-            lines.push(Line::from(vec![
-                Span::styled(fit(&keys_label(bd), key_w), th.border_focus),
-                Span::raw(th.text(bd.help)),
-            ]));
-        }
+    let cols = columns(th, inner);
+    let longest = cols.iter().map(Vec::len).max().unwrap_or(0) as u16;
+    let max = longest.saturating_sub(inner.height);
+    let scroll = scroll.min(max);
+    let width = inner.width / cols.len().max(1) as u16;
+    for (c, lines) in cols.into_iter().enumerate() {
+        let r = Rect::new(inner.x + c as u16 * width, inner.y, width, inner.height);
+        Paragraph::new(lines).scroll((scroll, 0)).render(r, buf);
     }
-    lines.push(Line::raw(""));
-    lines.push(Line::styled(
-        th.text("Steps: sizes by a share of their value, positions by a share of the section's size, rotations by 1°, 5°, 15°; set the shares in the config file."),
-        th.muted,
-    ));
-    let col_w: u16 = 58;
-    let ncols = (inner.width / col_w).max(1);
-    let per_col = (lines.len() as u16).div_ceil(ncols).max(inner.height);
-    let scroll = scroll.min(per_col.saturating_sub(inner.height));
-    let width = inner.width / ncols;
-    let mut chunks = lines.chunks(per_col as usize);
-    for c in 0..ncols {
-        let Some(chunk) = chunks.next() else { break };
-        let r = Rect::new(inner.x + c * width, inner.y, width, inner.height);
-        Paragraph::new(chunk.to_vec())
-            .wrap(Wrap { trim: false })
-            .scroll((scroll, 0))
-            .render(r, buf);
+    if scroll < max {
+        let more = th.glyph(" more ▾ ", " more v ");
+        let w = Line::raw(more).width() as u16;
+        let x = inner.right().saturating_sub(w + 1);
+        buf.set_stringn(
+            x,
+            area.bottom().saturating_sub(1),
+            more,
+            w as usize,
+            th.border,
+        );
     }
 }
 
 /// The shape picker: each shape with the dimensions it asks for.
-pub fn picker(app: &App, sel: usize, area: Rect, buf: &mut Buffer) {
+pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
+    let sel = pick.row;
     let win = centred(area, 44, SHAPES.len() as u16 + 2);
     Clear.render(win, buf);
-    let block = pane(th, "Add a part: shape", true);
+    let title = match pick
+        .change
+        .and_then(|i| app.analysis.document.parts.get(i).map(|p| (i, p)))
+    {
+        Some((i, p)) => format!("New shape for {}", clean(&cell(p, i, Col::Name, th.ascii))),
+        None => "Add a part: shape".to_string(),
+    };
+    let title = th.text(&title);
+    let block = pane(th, &title, true);
     let inner = block.inner(win);
     block.render(win, buf);
     let top = sel.saturating_sub((inner.height as usize).saturating_sub(1));
@@ -123,4 +251,19 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
     Paragraph::new(text)
         .wrap(Wrap { trim: false })
         .render(inner, buf);
+}
+
+#[cfg(test)]
+mod tests {
+    use super::wrap;
+
+    #[test]
+    fn wraps_at_spaces_and_cuts_only_words_longer_than_a_line() {
+        assert_eq!(
+            wrap("quit (asks first if there are unsaved changes)", 20),
+            ["quit (asks first if", "there are unsaved", "changes)"]
+        );
+        assert_eq!(wrap("abcdefgh ij", 3), ["abc", "def", "gh", "ij"]);
+        assert_eq!(wrap("", 5), [""]);
+    }
 }

@@ -34,13 +34,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
             .render(area, buf);
         return;
     }
-    let footer = status::height(area.width);
-    let [title, main, foot] = Layout::vertical([
-        Constraint::Length(1),
-        Constraint::Min(4),
-        Constraint::Length(footer),
-    ])
-    .areas(area);
+    let [title, main, foot] = rows(area);
     title_line(app, title, buf);
     let [left, right] =
         Layout::horizontal([Constraint::Percentage(58), Constraint::Percentage(42)]).areas(main);
@@ -70,10 +64,21 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     status::render(app, foot, buf);
     match &app.mode {
         Mode::Help(scroll) => help::render(app, *scroll, main, buf),
-        Mode::Choosing(i) => help::picker(app, *i, main, buf),
+        Mode::Choosing(pick) => help::picker(app, *pick, main, buf),
         Mode::AskQuit | Mode::AskOverwrite(_) => help::question(app, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
+}
+
+/// The screen's rows: the title line, the panes (where the windows open too) and the
+/// bottom lines.
+pub fn rows(area: Rect) -> [Rect; 3] {
+    Layout::vertical([
+        Constraint::Length(1),
+        Constraint::Min(4),
+        Constraint::Length(status::height(area.width)),
+    ])
+    .areas(area)
 }
 
 /// A bordered pane with a title; the focused one stands out.

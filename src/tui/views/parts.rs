@@ -1,5 +1,5 @@
 //! The parts table: one row a part, one column a key (name, shape, sign, each
-//! dimension, position, rotation, material, on/off). The name stays in view while the
+//! dimension, a polygon's points, position, anchor, rotation, flips, material, on/off). The name stays in view while the
 //! other columns scroll sideways to the selected one; rows scroll to the selected part.
 
 use super::{fit, pane};
@@ -21,13 +21,14 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     if inner.width == 0 || inner.height < 2 {
         return;
     }
+    let doc = &app.analysis.document;
     let cols = app.columns();
     let sel_col = app.col.min(cols.len().saturating_sub(1));
     // The first scrolled column: as far left as possible with the selected one in view.
-    let room = inner.width.saturating_sub(Col::Name.width());
+    let room = inner.width.saturating_sub(Col::Name.width(doc));
     let mut first = 1.min(cols.len());
     while first < sel_col {
-        let w: u16 = cols[first..=sel_col].iter().map(|c| c.width() + 1).sum();
+        let w: u16 = cols[first..=sel_col].iter().map(|c| c.width(doc) + 1).sum();
         if w <= room {
             break;
         }
@@ -44,22 +45,14 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         if x >= right {
             break;
         }
-        let w = col.width().min(right - x) as usize;
+        let w = col.width(doc).min(right - x) as usize;
         let head = if ci == 0 && first > 1 {
             format!("{}{}", col.heading(), th.glyph(" ‹", " <"))
         } else {
             col.heading().to_string()
         };
         buf.set_stringn(x, inner.y, fit(&th.text(&head), w), w, th.header);
-        for (row, p) in app
-            .analysis
-            .document
-            .parts
-            .iter()
-            .enumerate()
-            .skip(top)
-            .take(rows)
-        {
+        for (row, p) in doc.parts.iter().enumerate().skip(top).take(rows) {
             let y = inner.y + 1 + (row - top) as u16;
             let text = th.text(&clean(&cell(p, row, col, th.ascii)));
             let selected = row == app.part;
@@ -76,7 +69,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
             }
             buf.set_stringn(x, y, fit(&text, w), w, style);
         }
-        x = x.saturating_add(col.width() + 1);
+        x = x.saturating_add(col.width(doc) + 1);
     }
     if n == 0 {
         buf.set_stringn(

@@ -5,7 +5,7 @@
 use crate::model::expr::Expr;
 use crate::report::CAUTION;
 use crate::tui::app::{App, Focus, Mode, Target};
-use crate::tui::columns::{cell, number};
+use crate::tui::columns::{anchor, cell, number, Col};
 use crate::tui::sanitize::clean;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
@@ -59,20 +59,32 @@ fn edit_line(app: &App, x: u16, y: u16, w: usize, buf: &mut Buffer) {
                         .document
                         .parts
                         .get(*part)
-                        .map_or(String::new(), |p| {
-                            cell(p, *part, crate::tui::columns::Col::Name, th.ascii)
-                        });
+                        .map_or(String::new(), |p| cell(p, *part, Col::Name, th.ascii));
                     format!("{} · {}", clean(&name), col.heading())
                 }
                 Target::Param(n) => format!("param {}", clean(n)),
                 Target::SaveAs => "save as (file name)".into(),
             };
             let chars: Vec<char> = line.text.chars().collect();
-            let before: String = chars.iter().take(line.cursor).collect();
+            // A long entry scrolls so the cursor stays in view.
+            let head = format!("{what}: ");
+            let room = w.saturating_sub(head.chars().count() + 2).max(1);
+            let skip = line.cursor.saturating_sub(room);
+            let mut before: String = if skip > 0 {
+                "…".into()
+            } else {
+                String::new()
+            };
+            before.extend(
+                chars
+                    .iter()
+                    .take(line.cursor)
+                    .skip(skip + usize::from(skip > 0)),
+            );
             let at: String = chars.get(line.cursor).map_or(" ".into(), |c| c.to_string());
             let after: String = chars.iter().skip(line.cursor + 1).collect();
             Line::from(vec![
-                Span::styled(th.text(&format!("{what}: ")), th.header),
+                Span::styled(th.text(&head), th.header),
                 Span::styled(th.text(&clean(&before)), th.editing),
                 Span::styled(th.text(&clean(&at)), th.cell_selected),
                 Span::styled(th.text(&clean(&after)), th.editing),
@@ -111,7 +123,7 @@ fn describe(app: &App) -> String {
                 return String::new();
             };
             let col = app.column();
-            let name = cell(p, app.part, crate::tui::columns::Col::Name, app.theme.ascii);
+            let name = cell(p, app.part, Col::Name, app.theme.ascii);
             let mut s = format!(
                 "{name} · {} {}",
                 p.shape,
@@ -127,12 +139,24 @@ fn describe(app: &App) -> String {
                         s.push_str(&format!(" = {}", short(x)));
                     }
                 }
-                let u = if col == crate::tui::columns::Col::Rotate {
-                    "°"
-                } else {
-                    unit
-                };
+                let u = if col == Col::Rotate { "°" } else { unit };
                 s.push_str(&format!(" {u}"));
+            }
+            match (col, &p.points) {
+                (Col::Points, Some(pts)) => s.push_str(&format!(
+                    " · {} corners: {}",
+                    pts.len(),
+                    crate::file::edit::points_entry(pts)
+                )),
+                (Col::Anchor, _) => s.push_str(&format!(
+                    " · anchor {} sits at `at` (n/N cycle)",
+                    anchor(p).name()
+                )),
+                (Col::Flip, _) => s.push_str(&format!(
+                    " · flip_x = {}, flip_y = {} (f, F)",
+                    p.flip_x, p.flip_y
+                )),
+                _ => {}
             }
             clean(&s)
         }
