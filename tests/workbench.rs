@@ -594,3 +594,18 @@ fn snapshots_of_help_picker_error_and_ascii() {
     let s = screen(&a, 80, 24);
     assert!(s.is_ascii(), "ASCII mode draws only ASCII");
 }
+
+#[test]
+fn scrolling_the_results_back_up_answers_at_once() {
+    let mut a = app(GIRDER);
+    for _ in 0..50 {
+        run(&mut a, Cmd::PageDown);
+    }
+    let far = a.results_scroll;
+    assert!(
+        far < 100,
+        "scrolling stops near the end of the results, not at {far}"
+    );
+    run(&mut a, Cmd::PageUp);
+    assert!(a.results_scroll < far);
+}

@@ -124,8 +124,15 @@ fn page(app: &mut App, dir: i64) {
             let page = help::page_height(app.screen).max(1) as i64;
             move_row(app, dir * page);
         }
-        _ if dir > 0 => app.results_scroll = app.results_scroll.saturating_add(5),
-        _ => app.results_scroll = app.results_scroll.saturating_sub(5),
+        _ => {
+            // No further than the results could run (rows, group headings, a few lines
+            // a warning), so scrolling back up answers at once.
+            let rows = crate::report::rows::rows(&app.analysis, &app.units());
+            let groups = rows.windows(2).filter(|w| w[0].group != w[1].group).count() + 1;
+            let most = rows.len() + groups + 3 * app.analysis.warnings.len() + 2;
+            let next = app.results_scroll as i64 + 5 * dir;
+            app.results_scroll = next.clamp(0, most as i64) as u16;
+        }
     }
 }
 
