@@ -30,6 +30,12 @@ use std::f64::consts::{PI, TAU};
 pub const ARC_FACET: f64 = PI / 8.0;
 /// No arc on this edge.
 pub const NO_ARC: u32 = u32::MAX;
+/// Straight-edged outlines with more corners than this are simplified for meshing …
+const SIMPLIFY_ABOVE: usize = 256;
+/// … dropping corners within this fraction of the section's size of the outline …
+const SIMPLIFY: f64 = 1e-5;
+/// … and, for rough outlines, a wider tolerance until at most this many corners stay.
+const MAX_CORNERS: usize = 4000;
 
 /// A circle that boundary edges follow.
 #[derive(Debug, Clone, Copy)]
@@ -75,6 +81,8 @@ pub struct Mesh {
 pub struct Base {
     pub mesh: Mesh,
     pub warnings: Vec<String>,
+    /// Relative error in J and Cw from simplifying long straight-edged outlines.
+    pub geometry_error: f64,
 }
 
 /// Faceted boundaries of one piece, in the local frame.
@@ -123,6 +131,8 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
         return Err("the section has no extent to mesh for torsion".into());
     }
     let eps = 1e-9 * span;
+    let mut simplified = (0usize, 0usize);
+    let mut tol = SIMPLIFY * span;
     let mut outlines = Vec::new();
     let mut arcs = Vec::new();
     let mut arc_sweeps = Vec::new();
@@ -149,6 +159,21 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
             pts.dedup_by(|a, b| a.dist(*b) <= eps);
             while pts.len() > 1 && pts[0].dist(pts[pts.len() - 1]) <= eps {
                 pts.pop();
+            }
+            // A traced outline of thousands of straight edges would make thousands of
+            // slivers; corners closer than SIMPLIFY·span to the line are left out.
+            let straight = c.segs.iter().all(|s| matches!(s, Seg::Line(..)));
+            if straight && pts.len() > SIMPLIFY_ABOVE {
+                let before = pts.len();
+                let mut kept = crate::geom::simple::simplify_closed(&pts, tol);
+                // A rough outline keeps too many corners: widen the tolerance (up to
+                // 1e-3 of the section) rather than mesh tens of thousands of slivers.
+                while kept.len() > MAX_CORNERS && tol < 1e-3 * span {
+                    tol *= 4.0;
+                    kept = crate::geom::simple::simplify_closed(&pts, tol);
+                }
+                pts = kept;
+                simplified = (simplified.0 + before, simplified.1 + pts.len());
             }
             if pts.len() >= 3 {
                 loops.push(pts);
@@ -197,6 +222,27 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
     cdt.refine(params);
     let tris = region_triangles(&cdt, &outlines);
     let mut warnings = Vec::new();
+    let mut geometry_error = 0.0;
+    if simplified.0 > 0 {
+        // The region moved by at most `tol` along the simplified edges; J and Cw
+        // change by about twice the relative area so moved (conservative).
+        let perimeter: f64 = outlines
+            .iter()
+            .flat_map(|o| o.loops.iter())
+            .map(|l| {
+                (0..l.len())
+                    .map(|i| l[i].dist(l[(i + 1) % l.len()]))
+                    .sum::<f64>()
+            })
+            .sum();
+        geometry_error = 2.0 * tol * perimeter / area;
+        warnings.push(format!(
+            "torsion meshed the straight-edged outlines with {} of their {} corners (the rest lie within {} of them); the error estimate includes this",
+            simplified.1,
+            simplified.0,
+            crate::numfmt::sig(tol, 2)
+        ));
+    }
     let mut pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
     snap_to_arcs(&cdt, &mut pos, &chords, &arcs, eps);
     let mesh = build(&pos, &tris, origin, arcs, &arc_sweeps, eps);
@@ -207,7 +253,11 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
             mesh.pinned.len()
         ));
     }
-    Ok(Base { mesh, warnings })
+    Ok(Base {
+        mesh,
+        warnings,
+        geometry_error,
+    })
 }
 
 /// Merges input points closer than `eps` so that parts meeting at a corner share it.

@@ -99,6 +99,7 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
     }
     let base = mesh::base(pieces, 1.0)?;
     let mut warnings = base.warnings;
+    let geometry_error = base.geometry_error;
     let span = extent(&base.mesh);
     let mut mesh = base.mesh;
     let mut levels: Vec<Level> = Vec::new();
@@ -119,6 +120,10 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
         }
         levels.push(level);
         if let Some(est) = estimate(&levels, span) {
+            let est = Estimate {
+                rel_error: est.rel_error + geometry_error,
+                ..est
+            };
             if est.rel_error <= tol {
                 return Ok(finish(est, &mesh, warnings));
             }

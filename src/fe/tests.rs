@@ -392,3 +392,33 @@ fn says_when_the_region_differs_from_the_signed_sum() {
     let t = run(&[plate]);
     assert!(t.warnings.is_empty(), "{:?}", t.warnings);
 }
+
+#[test]
+fn a_traced_outline_of_many_corners_is_simplified_honestly() {
+    // A disc traced by 20,000 straight edges: J = πr⁴/2 for the polygon's own disc
+    // (Timoshenko & Goodier §109, circular shaft), reached within the reported error,
+    // which includes the simplification of the outline.
+    let n = 20_000;
+    let r = 50.0;
+    let pts: Vec<Pt> = (0..n)
+        .map(|i| {
+            let t = i as f64 / n as f64 * std::f64::consts::TAU;
+            Pt::new(r * t.cos(), r * t.sin())
+        })
+        .collect();
+    let t = run(&solid(Shape::Polygon { points: pts }));
+    let exact = PI * r.powi(4) / 2.0;
+    let err = (t.j - exact).abs() / exact;
+    assert!(
+        err <= t.rel_error && t.rel_error <= 1e-3,
+        "error {err:.2e}, estimate {:.2e}",
+        t.rel_error
+    );
+    assert!(
+        t.warnings
+            .iter()
+            .any(|w| w.contains("of their 20000 corners")),
+        "{:?}",
+        t.warnings
+    );
+}

@@ -20,6 +20,52 @@ pub fn signed_area(p: &[Pt]) -> f64 {
         / 2.0
 }
 
+/// A closed polygon with the corners that matter: every corner farther than `tol` from
+/// the simplified outline is kept (Douglas & Peucker, "Algorithms for the reduction of
+/// the number of points required to represent a digitized line", 1973), applied to the
+/// two chains between corner 0 and the corner farthest from it. Iterative, so long
+/// outlines cannot exhaust the stack.
+pub fn simplify_closed(p: &[Pt], tol: f64) -> Vec<Pt> {
+    let n = p.len();
+    if n <= 4 || tol <= 0.0 {
+        return p.to_vec();
+    }
+    let far = (1..n)
+        .max_by(|&i, &j| p[0].dist(p[i]).total_cmp(&p[0].dist(p[j])))
+        .unwrap_or(n / 2);
+    let mut keep = vec![false; n];
+    keep[0] = true;
+    keep[far] = true;
+    let mut stack = vec![(0, far), (far, n)];
+    while let Some((a, b)) = stack.pop() {
+        let (pa, pb) = (p[a], p[b % n]);
+        let d = pb.sub(pa);
+        let len = d.x.hypot(d.y);
+        let dist = |q: Pt| {
+            if len == 0.0 {
+                q.dist(pa)
+            } else {
+                d.cross(q.sub(pa)).abs() / len
+            }
+        };
+        let worst = ((a + 1)..b)
+            .map(|i| (dist(p[i]), i))
+            .max_by(|x, y| x.0.total_cmp(&y.0));
+        if let Some((e, i)) = worst {
+            if e > tol {
+                keep[i] = true;
+                stack.push((a, i));
+                stack.push((i, b));
+            }
+        }
+    }
+    p.iter()
+        .zip(&keep)
+        .filter(|(_, &k)| k)
+        .map(|(q, _)| *q)
+        .collect()
+}
+
 /// The winding number of closed polygons `loops` about `p` (a counter-clockwise loop
 /// around `p` counts +1, a clockwise one −1): the crossing test of Sunday, "Inclusion
 /// of a point in a polygon" (2001). Nonzero means inside.
@@ -174,6 +220,39 @@ mod tests {
         assert!(first_crossing(&rep).is_some());
         let spike = pts(&[(0.0, 0.0), (2.0, 0.0), (1.0, 0.0), (0.0, 1.0)]);
         assert!(first_crossing(&spike).is_some());
+    }
+
+    #[test]
+    fn simplifying_keeps_corners_and_drops_what_lies_on_the_line() {
+        // A square with 99 extra points along each side comes back as its 4 corners;
+        // a fine circle keeps more points the smaller the tolerance.
+        let mut sq = Vec::new();
+        for (a, b) in [
+            ((0.0, 0.0), (1.0, 0.0)),
+            ((1.0, 0.0), (1.0, 1.0)),
+            ((1.0, 1.0), (0.0, 1.0)),
+            ((0.0, 1.0), (0.0, 0.0)),
+        ] {
+            for k in 0..100 {
+                let t = k as f64 / 100.0;
+                sq.push(Pt::new(a.0 + t * (b.0 - a.0), a.1 + t * (b.1 - a.1)));
+            }
+        }
+        let s = simplify_closed(&sq, 1e-9);
+        assert_eq!(s.len(), 4, "{s:?}");
+        let circle: Vec<Pt> = (0..10_000)
+            .map(|i| {
+                let t = i as f64 / 10_000.0 * std::f64::consts::TAU;
+                Pt::new(t.cos(), t.sin())
+            })
+            .collect();
+        let coarse = simplify_closed(&circle, 1e-3).len();
+        let fine = simplify_closed(&circle, 1e-5).len();
+        // Chord sagitta r(1 − cos(θ/2)) ≤ tol gives about π/√(2·tol) points.
+        assert!(
+            coarse > 40 && coarse < 200 && fine > coarse * 5,
+            "{coarse} {fine}"
+        );
     }
 
     #[test]
