@@ -208,6 +208,38 @@ fn parallel_axis_theorem_for_a_tee_of_two_plates() {
 }
 
 #[test]
+fn tee_shape_matches_its_plates_and_fillets() {
+    // The `tee` shape equals the flange and stem plates it is made of (Gere & Goodno
+    // §12.5); with root fillets it gains two spandrels of (1 − π/4)r² each, whose
+    // centroid lies (10 − 3π)r/(12 − 3π) from the square's corner along each leg (the
+    // complement of App. E case 12 within its square).
+    let plates = calc(
+        "[[parts]]\nshape = \"rect\"\nb = 200\nh = 20\nanchor = \"bottom\"\nat = [0, 180]\n\
+         [[parts]]\nshape = \"rect\"\nb = 10\nh = 180\nanchor = \"bottom\"",
+    );
+    let tee =
+        calc("[[parts]]\nshape = \"tee\"\nd = 200\nb = 200\ntf = 20\ntw = 10\nanchor = \"bottom\"");
+    close(tee.props.area, plates.props.area, 1e-14);
+    close(tee.props.centroid.y, plates.props.centroid.y, 1e-13);
+    close(tee.props.ixx, plates.props.ixx, 1e-12);
+    close(tee.props.iyy, plates.props.iyy, 1e-12);
+    close(
+        tee.props.plastic.unwrap().zx,
+        plates.props.plastic.unwrap().zx,
+        1e-10,
+    );
+    let r: f64 = 12.0;
+    let f = calc("[[parts]]\nshape = \"tee\"\nd = 200\nb = 200\ntf = 20\ntw = 10\nr = 12\nanchor = \"bottom\"");
+    let spandrel = (1.0 - PI / 4.0) * r * r;
+    close(f.props.area, plates.props.area + 2.0 * spandrel, 1e-13);
+    // First moment about the base: the spandrels sit under the flange, their centroid
+    // e = (10 − 3π)r/(12 − 3π) below its underside.
+    let e = (10.0 - 3.0 * PI) * r / (12.0 - 3.0 * PI);
+    let q = plates.props.area * plates.props.centroid.y + 2.0 * spandrel * (180.0 - e);
+    close(f.props.centroid.y, q / f.props.area, 1e-12);
+}
+
+#[test]
 fn transformed_section_with_modular_ratio() {
     // Flitch beam: timber 2×(75×300) with a 10×300 steel plate, n = 210/11; the
     // transformed area is A_t + n·A_s and I = I_t + n·I_s (Gere & Goodno §6.3).
