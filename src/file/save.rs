@@ -7,6 +7,12 @@ use std::path::Path;
 
 /// Writes `text` to `path` atomically (temp file, fsync, rename, fsync of the folder).
 pub fn write_atomic(path: &Path, text: &str) -> std::io::Result<()> {
+    // Through a symbolic link, replace the file it points to, not the link.
+    let target = match fs::symlink_metadata(path) {
+        Ok(m) if m.file_type().is_symlink() => fs::canonicalize(path)?,
+        _ => path.to_path_buf(),
+    };
+    let path = target.as_path();
     let dir = match path.parent() {
         Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
         _ => std::path::PathBuf::from("."),
@@ -49,6 +55,24 @@ mod tests {
         assert_eq!(fs::read_to_string(&p).unwrap(), "two");
         let leftovers = fs::read_dir(&dir).unwrap().count();
         assert_eq!(leftovers, 1);
+        fs::remove_dir_all(&dir).unwrap();
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_link_stays_a_link() {
+        let dir = std::env::temp_dir().join(format!("kern-link-{}", std::process::id()));
+        fs::create_dir_all(&dir).unwrap();
+        let real = dir.join("real.toml");
+        let link = dir.join("link.toml");
+        fs::write(&real, "old").unwrap();
+        std::os::unix::fs::symlink(&real, &link).unwrap();
+        write_atomic(&link, "new").unwrap();
+        assert!(fs::symlink_metadata(&link)
+            .unwrap()
+            .file_type()
+            .is_symlink());
+        assert_eq!(fs::read_to_string(&real).unwrap(), "new");
         fs::remove_dir_all(&dir).unwrap();
     }
 }
