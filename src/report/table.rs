@@ -53,6 +53,12 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
             unit = r.unit
         ));
     }
+    if let Some(Ok(t)) = &a.torsion {
+        s.push_str(&format!(
+            "  torsion: {}, {} elements\n",
+            t.method, t.elements
+        ));
+    }
     for w in &a.warnings {
         s.push_str(&format!("  warning: {w}\n"));
     }
