@@ -609,3 +609,24 @@ fn scrolling_the_results_back_up_answers_at_once() {
     run(&mut a, Cmd::PageUp);
     assert!(a.results_scroll < far);
 }
+
+#[test]
+fn a_file_that_does_not_exist_starts_a_new_section() {
+    let dir = temp_dir("new");
+    let file = dir.join("cap-plate.toml");
+    let text = kern::tui::starter(&file);
+    let mut a = App::new(
+        text.clone(),
+        Some(file.clone()),
+        Config::default(),
+        Solver::Off,
+    )
+    .expect("the starter computes");
+    assert_eq!(a.analysis.section.title.as_deref(), Some("cap-plate"));
+    // A 200 × 20 plate: A = bh (Gere & Goodno, App. E case 1).
+    assert_eq!(a.analysis.props.area, 4000.0);
+    assert!(!file.exists(), "nothing is written before a save");
+    run(&mut a, Cmd::Save);
+    assert_eq!(std::fs::read_to_string(&file).unwrap(), text);
+    std::fs::remove_dir_all(&dir).unwrap();
+}

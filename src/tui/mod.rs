@@ -28,15 +28,46 @@ use worker::Worker;
 /// The bundled demo section (opened by `kern` without a file).
 pub const DEMO: &str = include_str!("../../sections/mezzanine-girder.toml");
 
+/// The text of a new section for a file that does not exist yet: one plate to start
+/// from, titled after the file.
+pub fn starter(path: &std::path::Path) -> String {
+    let stem = path
+        .file_stem()
+        .map_or("new section".into(), |s| s.to_string_lossy().into_owned());
+    let title: String = stem
+        .chars()
+        .filter(|c| !c.is_control() && *c != '"' && *c != '\\')
+        .collect();
+    format!(
+        "# {title}: say here what this section models.\n\
+         format = 1\n\
+         title = \"{title}\"\n\
+         units = \"mm\"\n\
+         \n\
+         [params]\n\
+         \n\
+         [[parts]]\n\
+         name = \"plate\"\n\
+         shape = \"rect\"\n\
+         b = 200\n\
+         h = 20\n"
+    )
+}
+
 /// How often the screen checks on a running torsion solve.
 const SOLVE_POLL: Duration = Duration::from_millis(100);
 
 /// Opens the workbench on `path` (the demo if `None`); returns the exit status.
 pub fn run(path: Option<PathBuf>) -> i32 {
+    let mut new_file = false;
     let text = match &path {
         None => DEMO.to_string(),
         Some(p) => match std::fs::read_to_string(p) {
             Ok(t) => t,
+            Err(e) if e.kind() == std::io::ErrorKind::NotFound => {
+                new_file = true;
+                starter(p)
+            }
             Err(e) => {
                 eprintln!("{}:1:1: cannot read the file: {e}", p.display());
                 return 1;
@@ -57,6 +88,9 @@ pub fn run(path: Option<PathBuf>) -> i32 {
             return 2;
         }
     };
+    if new_file {
+        app.note("a new section: nothing is written until you save (s)");
+    }
     if let Some(e) = config_err {
         app.error(e);
     }
