@@ -4,6 +4,7 @@
 //! atomically ([`save`]).
 
 pub mod edit;
+pub mod fast_points;
 pub mod read;
 pub mod save;
 

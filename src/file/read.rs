@@ -2,6 +2,7 @@
 //! range of every value so that each error can say `line:column`. Unknown keys are
 //! errors, so a typo never silently changes a result.
 
+use super::fast_points::{self, Scanned};
 use crate::geom::shapes::SHAPES;
 use crate::geom::Anchor;
 use crate::model::document::ActionsDoc;
@@ -9,6 +10,7 @@ use crate::model::units::LengthUnit;
 use crate::model::{
     Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, Val, Value,
 };
+use std::cell::Cell;
 use toml_edit::{ImDocument, Item, TableLike};
 
 const TOP_KEYS: &[&str] = &[
@@ -37,12 +39,28 @@ const MEMBER_KEYS: &[&str] = &[
 
 /// Parses the text of a section file.
 pub fn parse(text: &str) -> Result<Document, Diagnostic> {
+    let found = fast_points::scan(text);
+    if !found.is_empty() {
+        let masked = fast_points::mask(text, &found);
+        let used = Cell::new(0);
+        if let Ok(doc) = parse_with(&masked, &found, &used) {
+            if used.get() == found.len() {
+                return Ok(doc);
+            }
+        }
+    }
+    parse_with(text, &[], &Cell::new(0))
+}
+
+/// Parses `text`, taking the points of polygon parts from `fast` where a scanned array
+/// stood (and counting them in `used`).
+fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Document, Diagnostic> {
     let doc = ImDocument::parse(text).map_err(|e| {
         let span = e.span().unwrap_or(0..1);
         Diagnostic::new(span, format!("not valid TOML: {}", e.message().trim()))
     })?;
     let root = doc.as_table();
-    let r = Reader;
+    let r = Reader { fast, used };
     r.known_keys(root, TOP_KEYS, "the top level", 0..1)?;
     match root.get("format") {
         None => return Err(Diagnostic::new(0..1, "missing `format = 1` at the top of the file")),
@@ -154,9 +172,20 @@ fn distance(a: &str, b: &str) -> usize {
     row[b.len()]
 }
 
-struct Reader;
+struct Reader<'a> {
+    fast: &'a [Scanned],
+    used: &'a Cell<usize>,
+}
 
-impl Reader {
+impl Reader<'_> {
+    /// The scanned points for an (emptied) array standing where a scanned one stood.
+    fn scanned(&self, item: &Item) -> Option<&Scanned> {
+        let empty = item.as_array().is_some_and(|a| a.is_empty());
+        let at = item.span()?.start;
+        let s = self.fast.iter().find(|s| s.open == at).filter(|_| empty)?;
+        Some(s)
+    }
+
     fn known_keys(
         &self,
         t: &dyn TableLike,
@@ -393,6 +422,11 @@ impl Reader {
         }
         let (points, points_span) = match t.get("points") {
             None => (None, sp.clone()),
+            Some(item) if self.scanned(item).is_some() => {
+                self.used.set(self.used.get() + 1);
+                let psp = span(item, sp.clone());
+                (self.scanned(item).map(|s| s.points.clone()), psp)
+            }
             Some(item) => {
                 let psp = span(item, sp.clone());
                 let arr = item.as_array().ok_or_else(|| {
@@ -485,5 +519,43 @@ impl Reader {
             self_weight: self.opt_bool(t, "self_weight", false, sp.clone())?,
             span: sp,
         })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn outline(n: usize) -> String {
+        (0..n)
+            .map(|i| {
+                let t = i as f64 / n as f64 * std::f64::consts::TAU;
+                format!("[{:.6}, {:.6}]", 100.0 * t.cos(), 60.0 * t.sin())
+            })
+            .collect::<Vec<_>>()
+            .join(",\n  ")
+    }
+
+    #[test]
+    fn the_quick_path_for_long_outlines_reads_what_the_toml_parser_reads() {
+        let text = format!(
+            "format = 1\nunits = \"mm\"\n[[parts]]\nshape = \"polygon\"\npoints = [ # traced\n  {},\n]\n[[parts]]\nshape = \"circle\"\nd = 10\nvoid = true\n",
+            outline(2000)
+        );
+        assert_eq!(fast_points::scan(&text).len(), 1);
+        let quick = parse(&text).unwrap();
+        let full = parse_with(&text, &[], &Cell::new(0)).unwrap();
+        assert_eq!(quick, full);
+    }
+
+    #[test]
+    fn an_outline_inside_a_string_is_left_alone() {
+        let text = format!(
+            "format = 1\nunits = \"mm\"\ntitle = \"\"\"\npoints = [{}]\n\"\"\"\n[[parts]]\nshape = \"rect\"\nb = 1\nh = 1\n",
+            outline(2000)
+        );
+        assert_eq!(fast_points::scan(&text).len(), 1);
+        let doc = parse(&text).unwrap();
+        assert!(doc.title.unwrap().contains("[100.000000, 0.000000]"));
     }
 }
