@@ -23,6 +23,13 @@ fn app(text: &str) -> App {
     App::new(text.to_string(), None, Config::default(), Solver::Off).expect("valid section")
 }
 
+/// Runs `cmd` `n` times, as a user pressing its key.
+fn repeat(a: &mut App, cmd: Cmd, n: usize) {
+    for _ in 0..n {
+        run(a, cmd);
+    }
+}
+
 fn section(name: &str) -> String {
     let p = Path::new(env!("CARGO_MANIFEST_DIR"))
         .join("sections")
@@ -93,9 +100,7 @@ fn an_invalid_entry_is_refused_with_the_reason() {
     let mut a = app(GIRDER);
     // The web's height (column h) of part 2.
     run(&mut a, Cmd::Down);
-    for _ in 0..4 {
-        run(&mut a, Cmd::Right);
-    }
+    repeat(&mut a, Cmd::Right, 4);
     run(&mut a, Cmd::Edit);
     key(&mut a, KeyCode::End);
     typed(&mut a, " - hw");
@@ -166,9 +171,7 @@ fn undo_and_redo_walk_the_history() {
 fn adds_copies_moves_and_deletes_parts() {
     let mut a = app(GIRDER);
     run(&mut a, Cmd::AddPart);
-    for _ in 0..11 {
-        run(&mut a, Cmd::Down);
-    }
+    repeat(&mut a, Cmd::Down, 11);
     run(&mut a, Cmd::Commit);
     let parts = &a.analysis.document.parts;
     assert_eq!(parts.len(), 4);
@@ -258,9 +261,7 @@ fn changing_a_shape_keeps_the_part_in_place_in_one_undoable_edit() {
             ..
         })
     ));
-    for _ in 0..8 {
-        run(&mut a, Cmd::Down);
-    }
+    repeat(&mut a, Cmd::Down, 8);
     run(&mut a, Cmd::Commit);
     let p = &a.analysis.document.parts[2];
     assert_eq!(p.shape, "angle");
@@ -276,9 +277,7 @@ fn changing_a_shape_keeps_the_part_in_place_in_one_undoable_edit() {
     a.part = 1;
     run(&mut a, Cmd::ChangeShape);
     run(&mut a, Cmd::Down);
-    for _ in 0..9 {
-        run(&mut a, Cmd::Down);
-    }
+    repeat(&mut a, Cmd::Down, 9);
     run(&mut a, Cmd::Commit);
     assert_eq!(a.text, before);
     assert!(refusal(&a).contains("hollow"));
@@ -580,9 +579,7 @@ fn snapshots_of_help_picker_error_and_ascii() {
     run(&mut a, Cmd::Cancel);
     // An error: a web with no height.
     run(&mut a, Cmd::Down);
-    for _ in 0..4 {
-        run(&mut a, Cmd::Right);
-    }
+    repeat(&mut a, Cmd::Right, 4);
     run(&mut a, Cmd::Edit);
     key(&mut a, KeyCode::End);
     typed(&mut a, " - hw");
@@ -598,9 +595,7 @@ fn snapshots_of_help_picker_error_and_ascii() {
 #[test]
 fn scrolling_the_results_back_up_answers_at_once() {
     let mut a = app(GIRDER);
-    for _ in 0..50 {
-        run(&mut a, Cmd::PageDown);
-    }
+    repeat(&mut a, Cmd::PageDown, 50);
     let far = a.results_scroll;
     assert!(
         far < 100,

@@ -438,34 +438,20 @@ mod tests {
     fn neutral_axis_angle_of_rotated_rectangle() {
         // A rectangle turned by 30° bent about its own major axis: the neutral axis is that axis
         // (flexure formula in the rectangle's principal frame), so it lies at 30°.
-        let pts = rectangle(200.0, 500.0, 0.0, 0.0, 30.0);
-        let sec = polygon_centroidal(&pts);
-        let (s, c) = 30f64.to_radians().sin_cos();
-        // Moment conjugate to the rectangle's own v axis: (My, Mx) = M·(−sin, cos).
-        let m = 1e7;
-        let f = StressField::new(
-            &sec,
-            &Actions {
+        // Also turned by −60°: the same bending about its own long axis, now at −60°.
+        for turn in [30.0, -60.0] {
+            let sec = polygon_centroidal(&rectangle(200.0, 500.0, 0.0, 0.0, turn));
+            let (s, c) = f64::to_radians(turn).sin_cos();
+            // Moment conjugate to the rectangle's own v axis: (My, Mx) = M·(−sin, cos).
+            let m = 1e7;
+            let act = Actions {
                 n: 0.0,
                 mx: m * c,
                 my: -m * s,
-            },
-        )
-        .unwrap();
-        assert!(close(f.neutral_axis_angle_deg().unwrap(), 30.0, 1e-10));
-        // Turned by −60°: the same bending about its own long axis, now at −60°.
-        let sec = polygon_centroidal(&rectangle(200.0, 500.0, 0.0, 0.0, -60.0));
-        let (s, c) = (-60f64).to_radians().sin_cos();
-        let f = StressField::new(
-            &sec,
-            &Actions {
-                n: 0.0,
-                mx: m * c,
-                my: -m * s,
-            },
-        )
-        .unwrap();
-        assert!(close(f.neutral_axis_angle_deg().unwrap(), -60.0, 1e-10));
+            };
+            let f = StressField::new(&sec, &act).unwrap();
+            assert!(close(f.neutral_axis_angle_deg().unwrap(), turn, 1e-10));
+        }
     }
 
     #[test]
