@@ -29,7 +29,7 @@ pub fn keep(app: &App) {
 
 /// Writes the recovery copy of the unsaved text, if any; the line to print says where
 /// it went (or why it could not be written).
-fn write_copy() -> Option<String> {
+pub fn write_copy() -> Option<String> {
     let slot = match UNSAVED.try_lock() {
         Ok(s) => s,
         Err(TryLockError::Poisoned(e)) => e.into_inner(),
