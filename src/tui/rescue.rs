@@ -49,13 +49,17 @@ pub fn write_copy() -> Option<String> {
     })
 }
 
-/// Installs the panic hook (the recovery copy first, then the hook already set, which
+/// Installs the panic hook (for a panic on the main thread, the recovery copy first;
+/// then the hook already set, which
 /// puts the terminal back) and a thread that, on a signal, writes the copy, puts the
 /// terminal back and ends the process with status 128 + the signal's number.
 pub fn install() -> std::io::Result<()> {
     let previous = std::panic::take_hook();
     std::panic::set_hook(Box::new(move |info| {
-        let said = write_copy();
+        // Only the event loop's own panic stops the workbench: a panic on the torsion
+        // thread is reported on the screen and editing goes on.
+        let main = std::thread::current().name() == Some("main");
+        let said = if main { write_copy() } else { None };
         previous(info);
         if let Some(line) = said {
             crate::cli::say(&line);
