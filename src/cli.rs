@@ -3,11 +3,14 @@
 //! section file, 1 any other failure).
 
 use crate::analysis::{Analysis, Options};
+use crate::file::input::read_text;
 use crate::file::locate;
 use crate::model::units::LengthUnit;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
+use std::io::{ErrorKind, Write};
+use std::panic::{catch_unwind, AssertUnwindSafe};
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicUsize, Ordering};
 
@@ -22,17 +25,9 @@ pub struct CalcArgs {
 
 /// Reads and analyses one file; the error is the line to print on stderr.
 pub fn load(path: &Path, opts: &Options) -> Result<Analysis, String> {
-    let name = path.display();
-    let bytes =
-        std::fs::read(path).map_err(|e| format!("{name}:1:1: cannot read the file: {e}"))?;
-    let text = String::from_utf8(bytes).map_err(|e| {
-        let (l, c) = locate(
-            &String::from_utf8_lossy(e.as_bytes()),
-            e.utf8_error().valid_up_to(),
-        );
-        format!("{name}:{l}:{c}: the file is not UTF-8 text; save it as UTF-8")
-    })?;
-    Analysis::of_text(&text, opts).map_err(|d| diagnostic_line(&name.to_string(), &text, &d))
+    let text = read_text(path).map_err(|e| e.line(path))?;
+    Analysis::of_text(&text, opts)
+        .map_err(|d| diagnostic_line(&path.display().to_string(), &text, &d))
 }
 
 /// `FILE:LINE:COLUMN: message`.
@@ -41,15 +36,19 @@ pub fn diagnostic_line(file: &str, text: &str, d: &Diagnostic) -> String {
     format!("{file}:{l}:{c}: {}", d.message)
 }
 
-/// Runs `f` over `items` on every core, keeping the input order of the results.
-pub fn parallel_map<T: Sync, R: Send>(items: &[T], f: impl Fn(&T) -> R + Sync) -> Vec<R> {
+/// Runs `f` over `items` on every core, keeping the input order of the results. A
+/// panic in `f` is caught for its item alone: that slot holds the panic's message.
+pub fn parallel_map<T: Sync, R: Send>(
+    items: &[T],
+    f: impl Fn(&T) -> R + Sync,
+) -> Vec<Result<R, String>> {
     let workers = std::thread::available_parallelism()
         .map_or(1, |n| n.get())
         .min(items.len().max(1));
     let next = AtomicUsize::new(0);
-    let mut slots: Vec<Option<R>> = Vec::new();
+    let mut slots: Vec<Option<Result<R, String>>> = Vec::new();
     slots.resize_with(items.len(), || None);
-    let done: Vec<Vec<(usize, R)>> = std::thread::scope(|s| {
+    let done: Vec<Vec<(usize, Result<R, String>)>> = std::thread::scope(|s| {
         let handles: Vec<_> = (0..workers)
             .map(|_| {
                 s.spawn(|| {
@@ -57,29 +56,99 @@ pub fn parallel_map<T: Sync, R: Send>(items: &[T], f: impl Fn(&T) -> R + Sync) -
                     loop {
                         let i = next.fetch_add(1, Ordering::Relaxed);
                         let Some(item) = items.get(i) else { break };
-                        mine.push((i, f(item)));
+                        let r = catch_unwind(AssertUnwindSafe(|| f(item)));
+                        mine.push((i, r.map_err(|p| panic_message(p.as_ref()))));
                     }
                     mine
                 })
             })
             .collect();
+        // Every panic is caught above, so a worker always returns its results.
         handles.into_iter().filter_map(|h| h.join().ok()).collect()
     });
     for (i, r) in done.into_iter().flatten() {
         slots[i] = Some(r);
     }
-    slots.into_iter().flatten().collect()
+    slots
+        .into_iter()
+        .map(|s| s.unwrap_or_else(|| Err("the worker thread stopped".into())))
+        .collect()
+}
+
+/// The text of a panic's payload.
+fn panic_message(payload: &(dyn std::any::Any + Send)) -> String {
+    payload
+        .downcast_ref::<&str>()
+        .map(|s| s.to_string())
+        .or_else(|| payload.downcast_ref::<String>().cloned())
+        .unwrap_or_else(|| "a panic".into())
+}
+
+/// Writes `text` to stdout: status 0, also when the reader has gone (a closed pipe, as
+/// with `| head`: the rest is not wanted); any other failure to write is a message on
+/// stderr and status 1.
+pub fn print_out(text: &str) -> i32 {
+    let mut out = std::io::stdout().lock();
+    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
+        Ok(()) => 0,
+        Err(e) if e.kind() == ErrorKind::BrokenPipe => 0,
+        Err(e) => {
+            say(&format!("kern: cannot write the output: {e}"));
+            1
+        }
+    }
+}
+
+/// Prints a line on stderr; a stderr that cannot be written to is ignored (there is
+/// nowhere left to say so).
+pub fn say(line: &str) {
+    let _ = writeln!(std::io::stderr().lock(), "{line}");
 }
 
 /// `kern calc`: prints a table (or one JSON line) per file, in input order; invalid
-/// files print `FILE:LINE:COLUMN: message` on stderr and make the status 2.
+/// files print `FILE:LINE:COLUMN: message` on stderr and make the status 2; a file whose
+/// analysis failed inside kern prints `FILE: internal error: …` and makes the status 1
+/// (which wins over 2: it is kern's fault, not the file's).
 pub fn calc(args: &CalcArgs) -> i32 {
     let results = parallel_map(&args.files, |p| load(p, &args.options));
-    let mut status = 0;
-    let mut out = String::new();
+    let done = calc_output(args, results);
+    for line in &done.errors {
+        say(line);
+    }
+    match print_out(&done.out) {
+        0 => done.status,
+        failed => failed,
+    }
+}
+
+/// What `kern calc` prints and returns.
+struct CalcOutput {
+    out: String,
+    errors: Vec<String>,
+    status: i32,
+}
+
+/// Lays out the results of `kern calc`, one per file of `args.files` in order.
+fn calc_output(
+    args: &CalcArgs,
+    results: Vec<Result<Result<Analysis, String>, String>>,
+) -> CalcOutput {
+    let mut done = CalcOutput {
+        out: String::new(),
+        errors: Vec::new(),
+        status: 0,
+    };
+    let out = &mut done.out;
     for (path, r) in args.files.iter().zip(results) {
         match r {
-            Ok(a) => {
+            Err(panic) => {
+                done.errors.push(format!(
+                    "{}: internal error: {panic}; please report it with this file",
+                    path.display()
+                ));
+                done.status = 1;
+            }
+            Ok(Ok(a)) => {
                 let u = OutUnits::new(a.section.units, args.units);
                 let name = path.display().to_string();
                 if args.json {
@@ -92,9 +161,11 @@ pub fn calc(args: &CalcArgs) -> i32 {
                     out.push_str(&to_table(&name, &a, &u));
                 }
             }
-            Err(line) => {
-                eprintln!("{line}");
-                status = 2;
+            Ok(Err(line)) => {
+                done.errors.push(line);
+                if done.status == 0 {
+                    done.status = 2;
+                }
             }
         }
     }
@@ -103,8 +174,7 @@ pub fn calc(args: &CalcArgs) -> i32 {
         out.push_str(CAUTION);
         out.push('\n');
     }
-    print!("{out}");
-    status
+    done
 }
 
 /// Options of `kern report`.
@@ -124,7 +194,7 @@ pub fn report(args: &ReportArgs) -> i32 {
     let a = match load(&args.file, &args.options) {
         Ok(a) => a,
         Err(line) => {
-            eprintln!("{line}");
+            say(&line);
             return 2;
         }
     };
@@ -147,7 +217,7 @@ pub fn svg(file: &Path, out: Option<&Path>, options: &Options) -> i32 {
             emit(out, &drawing::drawing(&a, &u))
         }
         Err(line) => {
-            eprintln!("{line}");
+            say(&line);
             2
         }
     }
@@ -156,16 +226,95 @@ pub fn svg(file: &Path, out: Option<&Path>, options: &Options) -> i32 {
 /// Writes `text` to the file `out`, or to stdout; a failure to write is status 1.
 fn emit(out: Option<&Path>, text: &str) -> i32 {
     match out {
-        None => {
-            print!("{text}");
-            0
-        }
+        None => print_out(text),
         Some(p) => match std::fs::write(p, text) {
             Ok(()) => 0,
             Err(e) => {
-                eprintln!("{}: cannot write the file: {e}", p.display());
+                say(&format!("{}: cannot write the file: {e}", p.display()));
                 1
             }
         },
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// A panic on one item is that item's error alone: every other result keeps its place.
+    #[test]
+    fn a_panicking_item_keeps_every_result_in_place() {
+        let items: Vec<usize> = (0..40).collect();
+        let r = parallel_map(&items, |&i| {
+            if i == 2 || i == 17 {
+                panic!("injected on item {i}");
+            }
+            i * 10
+        });
+        assert_eq!(r.len(), items.len());
+        for (i, x) in r.iter().enumerate() {
+            match x {
+                Ok(v) => assert_eq!(*v, i * 10),
+                Err(m) => {
+                    assert!(i == 2 || i == 17, "item {i} failed: {m}");
+                    assert_eq!(m, &format!("injected on item {i}"));
+                }
+            }
+        }
+        assert_eq!(r.iter().filter(|x| x.is_err()).count(), 2);
+    }
+
+    /// `kern calc` over five files whose analysis panics on the third: the others print
+    /// under their own names, the third says `FILE: internal error`, and the status is 1.
+    #[test]
+    fn calc_names_every_result_right_after_a_panic() {
+        let dir = std::env::temp_dir().join(format!("kern-batch-{}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        let files: Vec<PathBuf> = (0..5)
+            .map(|i| dir.join(format!("plate-{i}.toml")))
+            .collect();
+        for (i, f) in files.iter().enumerate() {
+            let b = 100 * (i + 1);
+            let text = format!(
+                "format = 1\nunits = \"mm\"\n[[parts]]\nshape = \"rect\"\nb = {b}\nh = 10\n"
+            );
+            std::fs::write(f, text).unwrap();
+        }
+        let args = CalcArgs {
+            files: files.clone(),
+            json: true,
+            ..CalcArgs::default()
+        };
+        let results = parallel_map(&files, |p| {
+            if p == &files[2] {
+                panic!("injected");
+            }
+            load(p, &args.options)
+        });
+        let done = calc_output(&args, results);
+        assert_eq!(done.status, 1);
+        assert_eq!(
+            done.errors,
+            vec![format!(
+                "{}: internal error: injected; please report it with this file",
+                files[2].display()
+            )]
+        );
+        let lines: Vec<serde_json::Value> = done
+            .out
+            .lines()
+            .map(|l| serde_json::from_str(l).unwrap())
+            .collect();
+        assert_eq!(lines.len(), 4);
+        for (v, i) in lines.iter().zip([0, 1, 3, 4]) {
+            assert_eq!(v["file"], files[i].display().to_string());
+            // A = b·h of a rectangle (Gere & Goodno, App. E case 1).
+            assert_eq!(
+                v["area"].as_f64(),
+                Some(100.0 * (i as f64 + 1.0) * 10.0),
+                "{v}"
+            );
+        }
+        std::fs::remove_dir_all(&dir).unwrap();
     }
 }

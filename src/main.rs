@@ -2,7 +2,7 @@
 
 use clap::{Parser, Subcommand};
 use kern::analysis::Options;
-use kern::cli::{calc, report, svg, CalcArgs, ReportArgs};
+use kern::cli::{calc, print_out, report, svg, CalcArgs, ReportArgs};
 use kern::fe::TorsionOptions;
 use kern::model::units::LengthUnit;
 use std::path::PathBuf;
@@ -119,10 +119,7 @@ fn main() {
             out,
             no_torsion,
         }) => svg(&file, out.as_deref(), &torsion_options(no_torsion)),
-        Some(Verb::Keys) => {
-            print!("{}", kern::tui::keys::markdown());
-            0
-        }
+        Some(Verb::Keys) => print_out(&kern::tui::keys::markdown()),
         None => kern::tui::run(cli.file),
     };
     std::process::exit(status);

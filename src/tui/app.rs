@@ -9,11 +9,12 @@ use super::theme::Theme;
 use super::worker::{Poll, Worker, TOLERANCE};
 use crate::analysis::{Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
-use crate::file::locate;
+use crate::file::input::read_text;
+use crate::file::{locate, recover};
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use ratatui::layout::Rect;
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 
 /// Which list has the keyboard.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -107,6 +108,10 @@ pub enum Mode {
     AskQuit,
     /// The file changed on disk (or exists): overwrite it?
     AskOverwrite(PathBuf),
+    /// The file is read-only: replace it anyway?
+    AskReadOnly(PathBuf),
+    /// A recovery copy of unsaved edits is at this place: take it?
+    AskRecover(PathBuf),
     /// The help overlay, scrolled by so many lines.
     Help(u16),
 }
@@ -330,6 +335,33 @@ impl App {
                 self.solving = false;
                 self.error("the torsion solver stopped; torsion results are not available");
                 true
+            }
+        }
+    }
+
+    /// Asks whether to take the recovery copy of unsaved edits left by a workbench that
+    /// was stopped, if there is one (never taken without asking).
+    pub fn offer_recovery(&mut self) {
+        if let Some(at) = recover::find(self.path.as_deref()) {
+            self.mode = Mode::AskRecover(at);
+        }
+    }
+
+    /// Takes the recovery copy at `at` as unsaved edits (an undoable change), and removes
+    /// the copy once its text is in the workbench.
+    pub fn take_recovery(&mut self, at: &Path) {
+        let name = at.display();
+        match read_text(at) {
+            Err(e) => self.error(e.line(at)),
+            Ok(text) => {
+                if self.apply(Ok(text)) {
+                    match std::fs::remove_file(at) {
+                        Ok(()) => self.note("took the unsaved edits; save (s) to keep them"),
+                        Err(e) => self.error(format!(
+                            "took the unsaved edits, but could not remove {name}: {e}"
+                        )),
+                    }
+                }
             }
         }
     }

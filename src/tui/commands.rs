@@ -11,7 +11,8 @@ use super::keys::Cmd;
 use super::views::help;
 use crate::analysis::{Analysis, Options};
 use crate::file::edit::{self, number_value, round_sig, Slot};
-use crate::file::save::write_atomic;
+use crate::file::input::read_text;
+use crate::file::save::{self as disk, Overwrite, SaveError};
 use crate::model::Value;
 use std::path::{Path, PathBuf};
 
@@ -78,11 +79,12 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::Backspace => with_line(app, LineEdit::backspace),
         Cmd::DeleteChar => with_line(app, LineEdit::delete),
         Cmd::Yes => answer_yes(app),
-        Cmd::SaveAndQuit => {
+        Cmd::SaveAndQuit if app.mode == Mode::AskQuit => {
             app.mode = Mode::Main;
             app.quit_after_save = true;
             save(app);
         }
+        Cmd::SaveAndQuit => {}
     }
 }
 
@@ -242,7 +244,10 @@ pub fn commit(app: &mut App) {
 
 /// Leaves typing, the picker, a question or the help without changing anything.
 pub fn cancel(app: &mut App) {
-    if matches!(app.mode, Mode::AskQuit | Mode::AskOverwrite(_)) {
+    if matches!(
+        app.mode,
+        Mode::AskQuit | Mode::AskOverwrite(_) | Mode::AskReadOnly(_)
+    ) {
         app.quit_after_save = false;
     }
     app.mode = Mode::Main;
@@ -441,14 +446,22 @@ fn begin_save_as(app: &mut App) {
 /// Writes the text to `path` atomically; unless `force`, first checks that the file on
 /// disk is the one that was opened (or does not exist), and asks otherwise.
 pub fn save_to(app: &mut App, path: PathBuf, force: bool) {
+    write_to(app, path, force, Overwrite::Writable);
+}
+
+/// [`save_to`], asking before replacing a read-only file unless `overwrite` says so.
+fn write_to(app: &mut App, path: PathBuf, force: bool, overwrite: Overwrite) {
     app.mode = Mode::Main;
     if !force && changed_on_disk(app, &path) {
         app.mode = Mode::AskOverwrite(path);
         return;
     }
-    match write_atomic(&path, &app.text) {
-        Ok(()) => {
-            app.note(format!("saved {}", path.display()));
+    match disk::save(&path, &app.text, overwrite) {
+        Ok(saved) => {
+            match saved.warning {
+                Some(w) => app.error(format!("saved {}, but {w}", path.display())),
+                None => app.note(format!("saved {}", path.display())),
+            }
             app.disk = Some(app.text.clone());
             app.saved = app.text.clone();
             app.path = Some(path);
@@ -456,6 +469,7 @@ pub fn save_to(app: &mut App, path: PathBuf, force: bool) {
                 app.quit = true;
             }
         }
+        Err(SaveError::ReadOnly(_)) => app.mode = Mode::AskReadOnly(path),
         Err(e) => {
             app.quit_after_save = false;
             app.error(format!("could not save {}: {e}", path.display()));
@@ -466,9 +480,9 @@ pub fn save_to(app: &mut App, path: PathBuf, force: bool) {
 /// Does `path` hold something other than what this workbench last read or wrote there?
 fn changed_on_disk(app: &App, path: &Path) -> bool {
     let ours = app.path.as_deref() == Some(path);
-    match std::fs::read(path) {
+    match read_text(path) {
         Err(_) => false,
-        Ok(bytes) => !ours || app.disk.as_deref().map(str::as_bytes) != Some(&bytes[..]),
+        Ok(text) => !ours || app.disk.as_deref() != Some(text.as_str()),
     }
 }
 
@@ -484,6 +498,8 @@ fn answer_yes(app: &mut App) {
     match std::mem::replace(&mut app.mode, Mode::Main) {
         Mode::AskQuit => app.quit = true,
         Mode::AskOverwrite(p) => save_to(app, p, true),
+        Mode::AskReadOnly(p) => write_to(app, p, true, Overwrite::ReadOnly),
+        Mode::AskRecover(p) => app.take_recovery(&p),
         other => app.mode = other,
     }
 }

@@ -4,7 +4,7 @@
 //! them directly); keys in one table ([`keys`]); each pane is a pure view ([`views`]) in
 //! the look of [`theme`]; the torsion solve runs on a thread ([`worker`]). This module
 //! only sets up the terminal, runs the event loop and puts the terminal back — on exit,
-//! on error and on panic.
+//! on error, on panic and on a signal ([`rescue`], which also keeps unsaved edits).
 
 pub mod app;
 pub mod columns;
@@ -12,11 +12,13 @@ pub mod commands;
 pub mod config;
 pub mod keys;
 pub mod raster;
+pub mod rescue;
 pub mod sanitize;
 pub mod theme;
 pub mod views;
 pub mod worker;
 
+use crate::file::input::{read_text, ReadError};
 use app::{App, Mode, Solver};
 use config::Config;
 use crossterm::event::{self, Event, KeyEvent, KeyEventKind};
@@ -57,20 +59,21 @@ pub fn starter(path: &std::path::Path) -> String {
 /// How often the screen checks on a running torsion solve.
 const SOLVE_POLL: Duration = Duration::from_millis(100);
 
-/// Opens the workbench on `path` (the demo if `None`); returns the exit status.
+/// Opens the workbench on `path` (the demo if `None`); returns the exit status: 2 for a
+/// file that cannot be read or is not a valid section, as `kern calc` says it.
 pub fn run(path: Option<PathBuf>) -> i32 {
-    let mut new_file = false;
+    let mut new_file = None;
     let text = match &path {
         None => DEMO.to_string(),
-        Some(p) => match std::fs::read_to_string(p) {
+        Some(p) => match read_text(p) {
             Ok(t) => t,
-            Err(e) if e.kind() == std::io::ErrorKind::NotFound => {
-                new_file = true;
+            Err(ReadError::Missing) => {
+                new_file = Some(new_file_note(p));
                 starter(p)
             }
             Err(e) => {
-                eprintln!("{}:1:1: cannot read the file: {e}", p.display());
-                return 1;
+                crate::cli::say(&e.line(p));
+                return 2;
             }
         },
     };
@@ -84,32 +87,51 @@ pub fn run(path: Option<PathBuf>) -> i32 {
         Ok(a) => a,
         Err(d) => {
             let name = path.map_or("demo".into(), |p| p.display().to_string());
-            eprintln!("{}", crate::cli::diagnostic_line(&name, &text, &d));
+            crate::cli::say(&crate::cli::diagnostic_line(&name, &text, &d));
             return 2;
         }
     };
-    if new_file {
-        app.note("a new section: nothing is written until you save (s)");
+    if let Some(note) = new_file {
+        app.note(note);
     }
     if let Some(e) = config_err {
         app.error(e);
     }
+    app.offer_recovery();
     // ratatui::try_init also installs a panic hook that restores the terminal first.
     let mut terminal = match ratatui::try_init() {
         Ok(t) => t,
         Err(e) => {
-            eprintln!("kern: cannot use this terminal: {e}");
+            crate::cli::say(&format!("kern: cannot use this terminal: {e}"));
             return 1;
         }
     };
+    if let Err(e) = rescue::install() {
+        app.error(format!(
+            "cannot watch for signals ({e}): unsaved edits are not kept if kern is killed"
+        ));
+    }
     let result = event_loop(&mut terminal, &mut app);
     ratatui::restore();
     match result {
         Ok(()) => 0,
         Err(e) => {
-            eprintln!("kern: terminal error: {e}");
+            crate::cli::say(&format!("kern: terminal error: {e}"));
             1
         }
+    }
+}
+
+/// What the message line says about a section that does not exist yet; a dangling
+/// symbolic link is named as such, with the file a save creates.
+fn new_file_note(p: &std::path::Path) -> String {
+    match std::fs::read_link(p) {
+        Ok(to) => format!(
+            "{} is a link to {}, which does not exist: saving (s) creates it",
+            p.display(),
+            to.display()
+        ),
+        Err(_) => "a new section: nothing is written until you save (s)".into(),
     }
 }
 
@@ -134,6 +156,7 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
         if let Some(Event::Key(k)) = ev {
             if k.kind != KeyEventKind::Release {
                 handle_key(app, &k);
+                rescue::keep(app);
             }
         }
     }
@@ -145,7 +168,9 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         Mode::Main => Ctx::Main,
         Mode::Typing { .. } => Ctx::Typing,
         Mode::Choosing(_) => Ctx::Choosing,
-        Mode::AskQuit | Mode::AskOverwrite(_) => Ctx::Asking,
+        Mode::AskQuit | Mode::AskOverwrite(_) | Mode::AskReadOnly(_) | Mode::AskRecover(_) => {
+            Ctx::Asking
+        }
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

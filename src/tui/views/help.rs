@@ -241,6 +241,14 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
             "{} has changed on disk since it was opened (or it is another file).\n\ny  overwrite it\nn  go back (S saves under another name)",
             clean(&p.display().to_string())
         ),
+        Mode::AskReadOnly(p) => format!(
+            "{} is read-only (no one may write to it).\n\ny  replace it anyway (its mode is kept)\nn  go back (S saves under another name)",
+            clean(&p.display().to_string())
+        ),
+        Mode::AskRecover(p) => format!(
+            "Unsaved edits were kept in {} when kern last stopped.\n\ny  take them (as unsaved edits; s saves)\nn  open as saved, keep the copy",
+            clean(&p.display().to_string())
+        ),
         _ => return,
     };
     let win = centred(area, 56, 8);

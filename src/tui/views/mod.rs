@@ -65,7 +65,9 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     match &app.mode {
         Mode::Help(scroll) => help::render(app, *scroll, main, buf),
         Mode::Choosing(pick) => help::picker(app, *pick, main, buf),
-        Mode::AskQuit | Mode::AskOverwrite(_) => help::question(app, main, buf),
+        Mode::AskQuit | Mode::AskOverwrite(_) | Mode::AskReadOnly(_) | Mode::AskRecover(_) => {
+            help::question(app, main, buf)
+        }
         Mode::Main | Mode::Typing { .. } => {}
     }
 }
