@@ -54,10 +54,7 @@ impl OutUnits {
     /// Deflections: the output length unit for metric files, inches for US customary.
     pub fn deflection(&self) -> DisplayUnit {
         match self.system {
-            System::Si => DisplayUnit {
-                name: self.length.name(),
-                si_per_unit: self.length.metres(),
-            },
+            System::Si => self.length.display(),
             System::Us => display_unit(Kind::Length, System::Us),
         }
     }
