@@ -500,6 +500,28 @@ mod tests {
     }
 
     #[test]
+    fn si_actions_on_a_section_in_any_unit() {
+        // 100 × 200 mm rectangle under Mx = 10 kN·m and N = 20 kN, written in mm, cm, m and
+        // in: σ = N/A − Mx·y/Ixx gives at the top fibre 1 MPa − 6·Mx/(b·h²) = 1 − 15 MPa
+        // (flexure formula, Gere & Goodno, "normal stresses in beams"). The same Pa from
+        // every unit: a wrong power of the unit would scale it by 10 to 10⁹.
+        let act = Actions {
+            n: 2e4,
+            mx: 1e4,
+            my: 0.0,
+        };
+        for unit_m in [0.001, 0.01, 1.0, 0.0254] {
+            let k = 0.001 / unit_m;
+            let (b, h) = (100.0 * k, 200.0 * k);
+            let sec = polygon_centroidal(&rectangle(b, h, 0.0, 0.0, 0.0));
+            let f = StressField::new(&sec, &act, unit_m).unwrap();
+            assert!(close(f.at(0.0, h / 2.0), -14e6, 1e-12), "{unit_m}");
+            assert!(close(f.at(0.0, -h / 2.0), 16e6, 1e-12), "{unit_m}");
+            assert!(close(f.at(b / 2.0, 0.0), 1e6, 1e-12), "{unit_m}");
+        }
+    }
+
+    #[test]
     fn hull_of_awkward_point_sets() {
         let square = [(0.0, 0.0), (1.0, 0.0), (1.0, 1.0), (0.0, 1.0)];
         let mut pts = square.to_vec();

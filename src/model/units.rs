@@ -766,6 +766,72 @@ mod tests {
         assert_eq!(mass_per_length_unit(System::Si).name, "kg/m");
     }
 
+    // A 100 × 200 mm rectangle, written in each length unit: A = b·h = 2e4 mm² = 0.02 m²,
+    // S = b·h²/6 = 6.667e5 mm³ = 6.667e-4 m³, Ixx = b·h³/12 = 6.667e7 mm⁴ = 6.667e-5 m⁴
+    // (Gere & Goodno, Mechanics of Materials, App. E case 1). An I of two 200 × 10 flanges
+    // 400 apart (centre to centre): Iy ≈ 2·tf·b³/12 = 1.333e7 mm⁴ and Cw = Iy·h0²/4 =
+    // 5.333e11 mm⁶ = 5.333e-7 m⁶ (AISC Design Guide 9, doubly symmetric I). Each SI value is
+    // the same from every unit; a wrong power would be off by the unit's size to that power.
+    #[test]
+    fn to_si_of_every_dimension() {
+        for u in LengthUnit::ALL {
+            let k = 0.001 / u.metres(); // this unit's figures per mm
+            let (b, h) = (100.0 * k, 200.0 * k);
+            let cases = [
+                (h, Dim::Length, 0.2),
+                (b * h, Dim::Area, 0.02),
+                (b * h * h / 6.0, Dim::Modulus, 0.1 * 0.04 / 6.0),
+                (
+                    b * h.powi(3) / 12.0,
+                    Dim::SecondMoment,
+                    6.666_666_666_666_667e-5,
+                ),
+            ];
+            for (value, dim, want) in cases {
+                assert!(close(u.to_si(value, dim), want, 1e-12), "{u:?} {dim:?}");
+            }
+            let (bf, tf, h0) = (200.0 * k, 10.0 * k, 400.0 * k);
+            let cw = 2.0 * tf * bf.powi(3) / 12.0 * h0 * h0 / 4.0;
+            assert!(close(
+                u.to_si(cw, Dim::Warping),
+                5.333_333_333_333_333e-7,
+                1e-12
+            ));
+        }
+        let powers = [
+            Dim::Length,
+            Dim::Area,
+            Dim::Modulus,
+            Dim::SecondMoment,
+            Dim::Warping,
+        ]
+        .map(Dim::power);
+        assert_eq!(powers, [1, 2, 3, 4, 6]);
+        assert_eq!(LengthUnit::In.display().name, "in");
+        assert_eq!(LengthUnit::Cm.display().from_si(0.2), 20.0);
+    }
+
+    #[test]
+    fn one_table_of_examples() {
+        // Each example parses as its own kind, so messages never suggest a wrong unit.
+        for kind in [
+            Kind::Length,
+            Kind::Stress,
+            Kind::Density,
+            Kind::Force,
+            Kind::Moment,
+            Kind::LineLoad,
+        ] {
+            for ex in kind.examples() {
+                assert!(
+                    matches!(parse_quantity(ex, kind), Ok(Quantity::Si(_))),
+                    "{ex}"
+                );
+            }
+            assert!(err("", kind).message.contains(kind.examples()[0]));
+        }
+    }
+
     #[test]
     fn never_panics_on_odd_text() {
         for src in [
