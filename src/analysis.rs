@@ -18,8 +18,8 @@ use crate::model::{Diagnostic, Document, Resolved};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
 
-/// Standard acceleration of gravity, m/s² (NIST SP 811), for self-weight.
-pub const GRAVITY: f64 = 9.80665;
+/// Standard acceleration of gravity, m/s², for self-weight (defined with the units).
+pub use crate::model::units::GRAVITY;
 /// Poisson's ratio assumed for the shear modulus `G = E/(2(1+ν))` in the
 /// lateral-torsional buckling estimate (structural steel; stated in every output).
 pub const POISSON: f64 = 0.3;

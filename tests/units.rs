@@ -123,3 +123,40 @@ fn lateral_torsional_buckling_is_the_same_in_every_unit() {
         close(mcr, first, 1e-4);
     }
 }
+
+#[test]
+fn format_doc_lists_the_parsers_units() {
+    // docs/format.md lists the accepted units once more for readers; it must be the
+    // parser's table (model::units), not a copy that drifts from it.
+    use kern::model::units::{accepted_units, parse_quantity, Kind, Quantity};
+    let doc = std::fs::read_to_string("docs/format.md").unwrap();
+    let flat = doc.replace('\n', " ");
+    for (label, kind) in [
+        ("Stresses: ", Kind::Stress),
+        ("densities: ", Kind::Density),
+        ("Forces: ", Kind::Force),
+        ("moments: ", Kind::Moment),
+        ("line loads: ", Kind::LineLoad),
+    ] {
+        let at = flat
+            .find(label)
+            .unwrap_or_else(|| panic!("{label} not in format.md"));
+        let listed: Vec<&str> = flat[at + label.len()..]
+            .trim_start_matches('`')
+            .split('`')
+            .next()
+            .unwrap()
+            .split(' ')
+            .collect();
+        for unit in accepted_units(kind).split(' ') {
+            assert!(
+                listed.contains(&unit),
+                "format.md misses `{unit}` in {label}"
+            );
+        }
+        for unit in listed {
+            let q = parse_quantity(&format!("1 {unit}"), kind);
+            assert!(matches!(q, Ok(Quantity::Si(_))), "format.md lists `{unit}`");
+        }
+    }
+}

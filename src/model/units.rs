@@ -24,7 +24,11 @@ const INCH: f64 = 0.0254;
 const FOOT: f64 = 0.3048;
 /// One pound (mass) in kilograms (exact).
 const POUND: f64 = 0.45359237;
-/// One pound-force in newtons: 0.45359237 kg × 9.80665 m/s² (exact).
+/// Standard acceleration of gravity, m/s² (exact by definition, NIST SP 811): the weight
+/// of a mass, here and for self-weight.
+pub const GRAVITY: f64 = 9.80665;
+/// One pound-force in newtons: 0.45359237 kg × [`GRAVITY`] (exact; the `exact_definitions`
+/// test checks the product).
 const LBF: f64 = 4.4482216152605;
 /// One kip (1000 lbf) in newtons.
 const KIP: f64 = 1000.0 * LBF;
@@ -560,7 +564,8 @@ mod tests {
             12.0,
             1e-15
         ));
-        assert!(close(LBF, 0.45359237 * 9.80665, 1e-15));
+        assert!(close(LBF, POUND * GRAVITY, 1e-15));
+        assert_eq!(GRAVITY, 9.80665);
         assert_eq!(KIP, 1000.0 * LBF);
         assert!(close(PSI, 6894.757293168361, 1e-15));
         assert!(close(
