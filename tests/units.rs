@@ -36,7 +36,7 @@ fn calc(text: &str, opts: &Options) -> Analysis {
     }
 }
 
-/// A 100 × 200 mm timber-like rectangle on a 6 m simple span (span written as a bare
+/// A 100 × 200 mm steel rectangle on a 6 m simple span (span written as a bare
 /// number in the file's unit), 10 kN/m, E = 200 GPa, ρ = 7850 kg/m³, Mx = 10 kN·m.
 fn rectangle(unit: &str) -> String {
     let k = per_mm(unit);
