@@ -1,18 +1,25 @@
 //! The whole calculation for one section: text → document → resolved section →
 //! placed pieces → properties, torsion and checks. Everything a view shows comes from
 //! an [`Analysis`]; nothing here prints or touches files.
+//!
+//! Units: this is where the section meets SI. Geometry, properties and torsion results
+//! stay in the file's length unit; actions, materials and the member are SI from
+//! [`crate::model::resolve`]. The member check takes each property into SI with
+//! [`to_si`](crate::model::units::LengthUnit::to_si) and its [`Dim`]; the stresses are formed by
+//! [`StressField::new`], which takes the file unit's size in metres and gives Pa.
 
 use crate::checks::kern::kern_polygon;
 use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
-use crate::checks::stress::{extremes, Actions as StressActions, Extremes, StressField};
+use crate::checks::stress::{extremes, Extremes, StressField};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{Piece, Pt, Seg};
+use crate::model::units::Dim;
 use crate::model::{Diagnostic, Document, Resolved};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
 
-/// Standard acceleration of gravity, m/s² (NIST SP 811), for self-weight.
-pub const GRAVITY: f64 = 9.80665;
+/// Standard acceleration of gravity, m/s², for self-weight (defined with the units).
+pub use crate::model::units::GRAVITY;
 /// Poisson's ratio assumed for the shear modulus `G = E/(2(1+ν))` in the
 /// lateral-torsional buckling estimate (structural steel; stated in every output).
 pub const POISSON: f64 = 0.3;
@@ -121,21 +128,14 @@ impl Analysis {
         self.member = self.member_check();
     }
 
-    /// Metres per length unit of the file.
-    fn m(&self) -> f64 {
-        self.section.units.metres()
+    /// A property of dimension `dim` in the file's unit, in SI.
+    fn si(&self, value: f64, dim: Dim) -> f64 {
+        self.section.units.to_si(value, dim)
     }
 
     fn stresses(&self) -> Option<StressResult> {
         let act = self.section.actions?;
-        let m = self.m();
-        // Consistent units: N and file lengths; then N/unit² → Pa.
-        let sa = StressActions {
-            n: act.n,
-            mx: act.mx / m,
-            my: act.my / m,
-        };
-        let field = StressField::new(&self.props.centroidal(), &sa)?.scaled(1.0 / (m * m));
+        let field = StressField::new(&self.props.centroidal(), &act, self.section.units.metres())?;
         let candidates = extreme_candidates(&self.pieces, &field, None);
         let ext = extremes(&field, &candidates)?;
         let mats: Vec<usize> = {
@@ -169,7 +169,10 @@ impl Analysis {
 
     /// Mass per metre in kg/m, when every part has a density.
     pub fn mass_per_metre(&self) -> Option<f64> {
-        self.props.mass_area.map(|ma| ma * self.m() * self.m())
+        // Σ A·ρ in unit²·kg/m³ into kg/m: the area's two lengths taken to metres one at a
+        // time, (ΣAρ·m)·m, the order these figures have always been computed in.
+        let length = |x| self.si(x, Dim::Length);
+        self.props.mass_area.map(|ma| length(length(ma)))
     }
 
     /// What the member check had to leave out, in words.
@@ -189,7 +192,6 @@ impl Analysis {
 
     fn member_check(&self) -> Option<MemberResult> {
         let mb = self.section.member.as_ref()?;
-        let m = self.m();
         let e = self.section.materials.first().map(|mat| mat.e);
         let fy = self.section.materials.first().and_then(|mat| mat.fy);
         let self_weight = if mb.self_weight {
@@ -197,7 +199,7 @@ impl Analysis {
         } else {
             0.0
         };
-        let i = self.props.ixx * m.powi(4);
+        let i = self.si(self.props.ixx, Dim::SecondMoment);
         let beam = Beam {
             span: mb.length,
             support: mb.support,
@@ -213,7 +215,10 @@ impl Analysis {
             .map_or((f64::NAN, f64::NAN), |r| (r.m_max, r.v_max));
         let deflection_max = e.and(result.as_ref().map(|r| r.deflection_max));
         let deflection_allowed = mb.length / mb.deflection_limit;
-        let s_min = self.props.elastic.x_top.min(self.props.elastic.x_bottom) * m.powi(3);
+        let s_min = self.si(
+            self.props.elastic.x_top.min(self.props.elastic.x_bottom),
+            Dim::Modulus,
+        );
         let stress_max = m_max / s_min;
         let ratios = [
             fy.map(|f| stress_max / f),
@@ -224,9 +229,9 @@ impl Analysis {
             (Support::Simple, Some(e), Some(Ok(t))) => member::mcr_uniform_moment(
                 e,
                 e / (2.0 * (1.0 + POISSON)),
-                self.props.iyy * m.powi(4),
-                t.j * m.powi(4),
-                t.cw * m.powi(6),
+                self.si(self.props.iyy, Dim::SecondMoment),
+                self.si(t.j, Dim::SecondMoment),
+                self.si(t.cw, Dim::Warping),
                 mb.length,
             ),
             _ => None,

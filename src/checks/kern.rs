@@ -83,7 +83,7 @@ mod tests {
                 mx: p * (e.1 - sec.cy),
                 my: p * (e.0 - sec.cx),
             };
-            StressField::new(sec, &act).unwrap().at(v.0, v.1)
+            StressField::new(sec, &act, 1.0).unwrap().at(v.0, v.1)
         };
         let tol = 1e-9 * p / sec.area;
         for &e in kern {

@@ -4,8 +4,12 @@
 //!
 //! Sign conventions (the section file's `[actions]`): σ positive is tension, `n` positive is
 //! tension, positive `mx` compresses the fibres on the +y side, positive `my` compresses the
-//! fibres on the +x side. All values are in whatever consistent units the caller supplies
-//! (e.g. N, mm, N·mm and MPa); nothing here converts units.
+//! fibres on the +x side.
+//!
+//! Units: the section stays in its file's length unit (one unit = `unit_m` metres) and the
+//! [`Actions`] are SI (N, N·m). [`StressField::new`] is the one place the two meet: it
+//! works in N and the section's unit (moments N·m / `unit_m`) and turns N/unit² into Pa,
+//! so a field gives Pa at points written in the section's unit.
 
 /// Centroidal properties the stress calculation needs (the section's own, from
 /// [`crate::props`]): area, centroid in the file frame, `ixx = ∫(y−cy)² dA`,
@@ -20,8 +24,9 @@ pub(crate) fn det(sec: &Centroidal) -> f64 {
     sec.ixx * sec.iyy - sec.ixy * sec.ixy
 }
 
-/// Internal forces on the section: `n` tension positive; positive `mx` compresses the fibres
-/// on the +y side; positive `my` compresses the fibres on the +x side.
+/// Internal forces on the section in SI, `n` in N, `mx` and `my` in N·m (the file's
+/// `[actions]`): `n` tension positive; positive `mx` compresses the fibres on the +y side;
+/// positive `my` compresses the fibres on the +x side.
 #[derive(Debug, Clone, Copy, Default, PartialEq)]
 pub struct Actions {
     pub n: f64,
@@ -29,7 +34,8 @@ pub struct Actions {
     pub my: f64,
 }
 
-/// A linear normal-stress field `σ(x, y) = σ0 + a·(x − cx) + b·(y − cy)`.
+/// A linear normal-stress field `σ(x, y) = σ0 + a·(x − cx) + b·(y − cy)`: σ in Pa, `a` and
+/// `b` in Pa per length unit of the section, `cx`, `cy` in that unit.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct StressField {
     pub sigma0: f64,
@@ -50,28 +56,35 @@ impl StressField {
     ///
     /// For a doubly symmetric section this is `σ = N/A − Mx·y/Ixx − My·x/Iyy` (Gere & Goodno,
     /// Mechanics of Materials, "doubly symmetric beams with inclined loads"; "unsymmetric beams").
-    /// `None` when `area ≤ 0`, `D ≤ 0` or a value is not finite.
+    ///
+    /// `sec` is in a length unit of `unit_m` metres and `act` in N and N·m; the formula runs
+    /// in N and the section's unit (`M / unit_m` in N·unit) and the result is scaled by
+    /// `1/unit_m²` from N/unit² to Pa. With `unit_m = 1` every value is taken as it is (any
+    /// consistent units). `None` when `area ≤ 0`, `D ≤ 0` or a value is not finite.
     ///
     /// ```
     /// use kern::checks::stress::{Actions, Centroidal, StressField};
-    /// // 100 × 200 rectangle centred on the origin, Mx = 1e6: σ_top = −6·Mx/(b·h²) = −1.5
+    /// // 100 × 200 mm rectangle centred on the origin, Mx = 1 kN·m:
+    /// // σ_top = −6·Mx/(b·h²) = −6·1e3 N·m / (0.1 m · 0.04 m²) = −1.5 MPa
     /// let sec = Centroidal { area: 20_000.0, cx: 0.0, cy: 0.0,
     ///                        ixx: 100.0 * 200f64.powi(3) / 12.0, iyy: 200.0 * 100f64.powi(3) / 12.0, ixy: 0.0 };
-    /// let f = StressField::new(&sec, &Actions { n: 0.0, mx: 1e6, my: 0.0 }).unwrap();
-    /// assert!((f.at(0.0, 100.0) + 1.5).abs() < 1e-12);
+    /// let f = StressField::new(&sec, &Actions { n: 0.0, mx: 1e3, my: 0.0 }, 0.001).unwrap();
+    /// assert!((f.at(0.0, 100.0) + 1.5e6).abs() < 1e-6);
     /// ```
-    pub fn new(sec: &Centroidal, act: &Actions) -> Option<StressField> {
+    pub fn new(sec: &Centroidal, act: &Actions, unit_m: f64) -> Option<StressField> {
         let d = det(sec);
         if !(sec.area > 0.0 && d > 0.0) {
             return None;
         }
+        let (mx, my) = (act.mx / unit_m, act.my / unit_m);
         let field = StressField {
             sigma0: act.n / sec.area,
-            a: (act.mx * sec.ixy - act.my * sec.ixx) / d,
-            b: (act.my * sec.ixy - act.mx * sec.iyy) / d,
+            a: (mx * sec.ixy - my * sec.ixx) / d,
+            b: (my * sec.ixy - mx * sec.iyy) / d,
             cx: sec.cx,
             cy: sec.cy,
-        };
+        }
+        .scaled(1.0 / (unit_m * unit_m));
         let values = [field.sigma0, field.a, field.b, field.cx, field.cy];
         values.iter().all(|v| v.is_finite()).then_some(field)
     }
@@ -298,6 +311,7 @@ mod tests {
                 mx: 2e8,
                 my: 0.0,
             },
+            1.0,
         )
         .unwrap();
         let top = mx.at(40.0, -20.0 + h / 2.0);
@@ -310,6 +324,7 @@ mod tests {
                 mx: 0.0,
                 my: 5e7,
             },
+            1.0,
         )
         .unwrap();
         let right = my.at(40.0 + b / 2.0, -20.0);
@@ -331,7 +346,7 @@ mod tests {
             mx: 9e7,
             my: -3e7,
         };
-        let f = StressField::new(&sec, &act).unwrap();
+        let f = StressField::new(&sec, &act, 1.0).unwrap();
         let (area, sx, sy) = (b * h, b * h * h / 6.0, h * b * b / 6.0);
         let e = extremes(&f, &pts).unwrap();
         // Mx > 0 puts tension at −y; My < 0 puts compression at −x, tension at +x.
@@ -366,7 +381,7 @@ mod tests {
             mx: 3e6,
             my: -1e6,
         };
-        let f = StressField::new(&sec, &act).unwrap();
+        let f = StressField::new(&sec, &act, 1.0).unwrap();
 
         // Principal axes (Mohr's circle): u at θ from +x.
         let theta = 0.5 * (-2.0 * sec.ixy).atan2(sec.ixx - sec.iyy);
@@ -395,7 +410,7 @@ mod tests {
             mx: 1e8,
             my: 0.0,
         };
-        let f = StressField::new(&sec, &act).unwrap();
+        let f = StressField::new(&sec, &act, 1.0).unwrap();
         let y0 = act.n * sec.ixx / (sec.area * act.mx);
         let [p, q] = f.neutral_axis_in_box(-100.0, 100.0, -200.0, 200.0).unwrap();
         assert!(close(p.1, y0, 1e-12) && close(q.1, y0, 1e-12));
@@ -410,6 +425,7 @@ mod tests {
                 mx: 1e8,
                 my: 2e7,
             },
+            1.0,
         )
         .unwrap();
         let ends = g.neutral_axis_in_box(-100.0, 100.0, -200.0, 200.0).unwrap();
@@ -426,6 +442,7 @@ mod tests {
                 n: 1e5,
                 ..Actions::default()
             },
+            1.0,
         )
         .unwrap();
         assert!(pure.neutral_axis_angle_deg().is_none());
@@ -449,7 +466,7 @@ mod tests {
                 mx: m * c,
                 my: -m * s,
             };
-            let f = StressField::new(&sec, &act).unwrap();
+            let f = StressField::new(&sec, &act, 1.0).unwrap();
             assert!(close(f.neutral_axis_angle_deg().unwrap(), turn, 1e-10));
         }
     }
@@ -464,21 +481,44 @@ mod tests {
                 mx: 1e6,
                 my: 2e6,
             },
+            1.0,
         )
         .unwrap();
         // Transformed section: stress in a material with modular ratio n is n·σ.
         let g = f.scaled(15.0);
         assert!(close(g.at(30.0, -10.0), 15.0 * f.at(30.0, -10.0), 1e-14));
         let bad = Centroidal { ixy: 1e9, ..sec };
-        assert!(StressField::new(&bad, &Actions::default()).is_none());
+        assert!(StressField::new(&bad, &Actions::default(), 1.0).is_none());
         let bad = Centroidal { area: 0.0, ..sec };
-        assert!(StressField::new(&bad, &Actions::default()).is_none());
+        assert!(StressField::new(&bad, &Actions::default(), 1.0).is_none());
         let bad = Centroidal {
             ixx: f64::NAN,
             ..sec
         };
-        assert!(StressField::new(&bad, &Actions::default()).is_none());
+        assert!(StressField::new(&bad, &Actions::default(), 1.0).is_none());
         assert!(extremes(&f, &[]).is_none());
+    }
+
+    #[test]
+    fn si_actions_on_a_section_in_any_unit() {
+        // 100 × 200 mm rectangle under Mx = 10 kN·m and N = 20 kN, written in mm, cm, m and
+        // in: σ = N/A − Mx·y/Ixx gives at the top fibre 1 MPa − 6·Mx/(b·h²) = 1 − 15 MPa
+        // (flexure formula, Gere & Goodno, "normal stresses in beams"). The same Pa from
+        // every unit: a wrong power of the unit would scale it by 10 to 10⁹.
+        let act = Actions {
+            n: 2e4,
+            mx: 1e4,
+            my: 0.0,
+        };
+        for unit_m in [0.001, 0.01, 1.0, 0.0254] {
+            let k = 0.001 / unit_m;
+            let (b, h) = (100.0 * k, 200.0 * k);
+            let sec = polygon_centroidal(&rectangle(b, h, 0.0, 0.0, 0.0));
+            let f = StressField::new(&sec, &act, unit_m).unwrap();
+            assert!(close(f.at(0.0, h / 2.0), -14e6, 1e-12), "{unit_m}");
+            assert!(close(f.at(0.0, -h / 2.0), 16e6, 1e-12), "{unit_m}");
+            assert!(close(f.at(b / 2.0, 0.0), 1e6, 1e-12), "{unit_m}");
+        }
     }
 
     #[test]

@@ -5,22 +5,7 @@ use super::diag::Span;
 use super::units::LengthUnit;
 use crate::geom::Anchor;
 
-/// A number as written in the file: a literal, or an expression in a string.
-#[derive(Debug, Clone, PartialEq)]
-pub enum Value {
-    Number(f64),
-    Expr(String),
-}
-
-impl Value {
-    /// The value as the user would type it.
-    pub fn text(&self) -> String {
-        match self {
-            Value::Number(x) => format!("{x}"),
-            Value::Expr(s) => s.clone(),
-        }
-    }
-}
+pub use super::expr::Value;
 
 /// A value with its place in the file.
 #[derive(Debug, Clone, PartialEq)]

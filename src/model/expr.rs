@@ -37,7 +37,8 @@ const FUNCS: [(&str, Func); 7] = [
 ];
 const KNOWN_FUNCS: &str = "sqrt sin cos tan abs min max";
 
-/// An error in an expression: what is wrong and the byte offset in the expression text where it is.
+/// An error in an expression or in a quantity with a unit ([`super::units`]): what is
+/// wrong and the byte offset in the text where it is.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ExprError {
     pub message: String,
@@ -45,7 +46,7 @@ pub struct ExprError {
 }
 
 impl ExprError {
-    fn new(message: impl Into<String>, offset: usize) -> ExprError {
+    pub(crate) fn new(message: impl Into<String>, offset: usize) -> ExprError {
         ExprError {
             message: message.into(),
             offset,
@@ -661,11 +662,22 @@ fn tan_deg(deg: f64) -> Option<f64> {
     }
 }
 
-/// The value of one `[params]` entry: a number, or an expression string.
+/// A number as written in the file: a literal, or an expression in a string (a `[params]`
+/// entry, a dimension, a quantity with its unit).
 #[derive(Debug, Clone, PartialEq)]
-pub enum ParamValue {
+pub enum Value {
     Number(f64),
     Expr(String),
+}
+
+impl Value {
+    /// The value as the user would type it.
+    pub fn text(&self) -> String {
+        match self {
+            Value::Number(x) => format!("{x}"),
+            Value::Expr(s) => s.clone(),
+        }
+    }
 }
 
 /// Why a name cannot be a param, if it cannot.
@@ -698,7 +710,7 @@ fn check_param_name(name: &str) -> Result<(), ExprError> {
 /// an unknown name, a division by zero or a non-finite result. Offsets are in that param's
 /// expression text.
 pub fn resolve_params(
-    params: &[(String, ParamValue)],
+    params: &[(String, Value)],
 ) -> Result<BTreeMap<String, f64>, (usize, ExprError)> {
     let mut index: BTreeMap<&str, usize> = BTreeMap::new();
     for (i, (name, _)) in params.iter().enumerate() {
@@ -715,10 +727,10 @@ pub fn resolve_params(
         .iter()
         .enumerate()
         .map(|(i, (_, value))| match value {
-            ParamValue::Number(v) => finite(*v, 0)
+            Value::Number(v) => finite(*v, 0)
                 .map(|v| Expr { root: Node::Num(v) })
                 .map_err(|e| (i, e)),
-            ParamValue::Expr(src) => Expr::parse(src).map_err(|e| (i, e)),
+            Value::Expr(src) => Expr::parse(src).map_err(|e| (i, e)),
         })
         .collect::<Result<Vec<Expr>, _>>()?;
     // deps[i]: (param index, offset of the reference) for each param that param i uses.
@@ -797,7 +809,7 @@ fn dependency_order(deps: &[Vec<(usize, usize)>]) -> Result<Vec<usize>, Vec<(usi
 fn cycle_error(
     cycle: &[(usize, usize)],
     deps: &[Vec<(usize, usize)>],
-    params: &[(String, ParamValue)],
+    params: &[(String, Value)],
 ) -> (usize, ExprError) {
     let first = (0..cycle.len())
         .min_by_key(|&k| cycle.get(k).map(|c| c.0))
@@ -837,12 +849,12 @@ mod tests {
         eval_str(src).expect_err(src)
     }
 
-    fn params(list: &[(&str, &str)]) -> Vec<(String, ParamValue)> {
+    fn params(list: &[(&str, &str)]) -> Vec<(String, Value)> {
         list.iter()
             .map(|&(n, v)| {
                 let value = match v.parse::<f64>() {
-                    Ok(x) => ParamValue::Number(x),
-                    Err(_) => ParamValue::Expr(v.to_string()),
+                    Ok(x) => Value::Number(x),
+                    Err(_) => Value::Expr(v.to_string()),
                 };
                 (n.to_string(), value)
             })
@@ -1042,12 +1054,12 @@ mod tests {
         assert_eq!(v["bf"], 250.0);
         assert_eq!(v["tf"], 16.0);
         assert_eq!(v["d"], 532.0);
-        let chain: Vec<(String, ParamValue)> = (0..500)
+        let chain: Vec<(String, Value)> = (0..500)
             .map(|i| {
                 let value = if i == 499 {
-                    ParamValue::Number(1.0)
+                    Value::Number(1.0)
                 } else {
-                    ParamValue::Expr(format!("p{} + 1", i + 1))
+                    Value::Expr(format!("p{} + 1", i + 1))
                 };
                 (format!("p{i}"), value)
             })
@@ -1080,13 +1092,8 @@ mod tests {
             e.message
         );
         // A long cycle is found without deep recursion.
-        let ring: Vec<(String, ParamValue)> = (0..5000)
-            .map(|i| {
-                (
-                    format!("q{i}"),
-                    ParamValue::Expr(format!("q{}", (i + 1) % 5000)),
-                )
-            })
+        let ring: Vec<(String, Value)> = (0..5000)
+            .map(|i| (format!("q{i}"), Value::Expr(format!("q{}", (i + 1) % 5000))))
             .collect();
         assert_eq!(resolve_params(&ring).unwrap_err().0, 0);
     }
@@ -1103,7 +1110,7 @@ mod tests {
         let (i, e) = resolve_params(&params(&[("a", "10^300"), ("b", "a*a")])).unwrap_err();
         assert_eq!(i, 1);
         assert!(e.message.contains("not a finite number"));
-        let nan = vec![("a".to_string(), ParamValue::Number(f64::NAN))];
+        let nan = vec![("a".to_string(), Value::Number(f64::NAN))];
         assert!(resolve_params(&nan)
             .unwrap_err()
             .1

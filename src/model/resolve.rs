@@ -2,12 +2,13 @@
 //! applied, dimensions checked, parts placed.
 //!
 //! Lengths of the section stay in the file's unit; forces, moments, stresses and the
-//! member's lengths are converted to SI base units (N, N·m, Pa, m).
+//! member's lengths are converted to SI base units (N, N·m, Pa, m) here, the member's
+//! lengths written as bare numbers by [`LengthUnit::to_si`] (see [`super::units`]).
 
 use super::diag::{Diagnostic, Span};
 use super::document::{Document, PartDoc, Val, Value};
-use super::expr::{resolve_params, Expr, ExprError, ParamValue};
-use super::units::{parse_quantity, Kind, LengthUnit, Quantity};
+use super::expr::{resolve_params, Expr, ExprError};
+use super::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
 use crate::checks::member::Support;
 use crate::geom::{Anchor, Piece, Placement, Pt, Shape};
 use std::collections::BTreeMap;
@@ -32,14 +33,8 @@ pub struct Part {
     pub material: Option<usize>,
 }
 
-/// Internal forces in N and N·m (tension positive; positive `mx` compresses +y fibres,
-/// positive `my` compresses +x fibres).
-#[derive(Debug, Clone, Copy, PartialEq, Default)]
-pub struct Actions {
-    pub n: f64,
-    pub mx: f64,
-    pub my: f64,
-}
+/// `[actions]` in SI (N, N·m): the one actions type, the stress code's own.
+pub use crate::checks::stress::Actions;
 
 /// The single-span member, SI: lengths in m, loads in N and N/m.
 #[derive(Debug, Clone, PartialEq)]
@@ -127,11 +122,14 @@ impl Ctx<'_> {
         file_unit: Option<LengthUnit>,
     ) -> Result<f64, Diagnostic> {
         let bare = |x: f64| match file_unit {
-            Some(u) => Ok(x * u.metres()),
-            None => Err(Diagnostic::new(
-                v.span.clone(),
-                format!("`{key}` needs a unit, e.g. {}", example(kind)),
-            )),
+            Some(u) => Ok(u.to_si(x, Dim::Length)),
+            None => {
+                let [metric, us] = kind.examples();
+                Err(Diagnostic::new(
+                    v.span.clone(),
+                    format!("`{key}` needs a unit, e.g. \"{metric}\" or \"{us}\""),
+                ))
+            }
         };
         let x = match &v.value {
             Value::Number(x) => bare(*x)?,
@@ -141,17 +139,8 @@ impl Ctx<'_> {
                 Err(e) => {
                     // A length may also be an expression of params, in the file's unit.
                     match file_unit {
-                        Some(u) => self.number(v, key)? * u.metres(),
-                        None => {
-                            return Err(expr_diag(
-                                v,
-                                ExprError {
-                                    message: e.message,
-                                    offset: e.offset,
-                                },
-                                key,
-                            ))
-                        }
+                        Some(u) => u.to_si(self.number(v, key)?, Dim::Length),
+                        None => return Err(expr_diag(v, e, key)),
                     }
                 }
             },
@@ -164,17 +153,6 @@ impl Ctx<'_> {
                 format!("`{key}` is not finite"),
             ))
         }
-    }
-}
-
-fn example(kind: Kind) -> &'static str {
-    match kind {
-        Kind::Length => "\"6 m\"",
-        Kind::Stress => "\"355 MPa\" or \"50 ksi\"",
-        Kind::Density => "\"7850 kg/m3\" or \"490 lb/ft3\"",
-        Kind::Force => "\"30 kN\" or \"6.5 kip\"",
-        Kind::Moment => "\"85 kN*m\" or \"60 kip*ft\"",
-        Kind::LineLoad => "\"15 kN/m\" or \"1.2 kip/ft\"",
     }
 }
 
@@ -305,16 +283,10 @@ fn positive_q(ctx: &Ctx, v: &Val, key: &str, kind: Kind) -> Result<f64, Diagnost
 }
 
 fn resolve_doc_params(doc: &Document) -> Result<BTreeMap<String, f64>, Diagnostic> {
-    let list: Vec<(String, ParamValue)> = doc
+    let list: Vec<(String, Value)> = doc
         .params
         .iter()
-        .map(|(k, _, v)| {
-            let pv = match &v.value {
-                Value::Number(x) => ParamValue::Number(*x),
-                Value::Expr(s) => ParamValue::Expr(s.clone()),
-            };
-            (k.clone(), pv)
-        })
+        .map(|(k, _, v)| (k.clone(), v.value.clone()))
         .collect();
     resolve_params(&list).map_err(|(i, e)| match doc.params.get(i) {
         Some((k, _, v)) => expr_diag(v, e, &format!("params.{k}")),

@@ -1,13 +1,20 @@
 //! Units: the file's length unit, quantities written with a unit ("200 GPa", "85 kN*m")
 //! converted to SI base units, and the units results are shown in for each unit system.
 //!
+//! The rule (also in DEVELOPERS.md, "Units"): geometry and section properties stay in the
+//! file's length unit (exact, and what users see); everything else is SI from the moment it
+//! is read: [`parse_quantity`] gives forces, moments, stresses, densities and the member's
+//! lengths in N, N·m, Pa, kg/m³, m. A geometric quantity becomes SI in one way only,
+//! [`LengthUnit::to_si`] with its [`Dim`] (the power of length it carries), and only where a
+//! section meets SI values (the stresses and the member check in `crate::analysis`).
+//! Results are shown in the units of [`display_unit`], read from the same table the parser
+//! uses.
+//!
 //! Conversion factors are exact by definition: 1 in = 0.0254 m, 1 ft = 0.3048 m,
 //! 1 lb = 0.45359237 kg, 1 lbf = 1 lb × 9.80665 m/s² (standard gravity) = 4.4482216152605 N,
 //! 1 kip = 1000 lbf (NIST Special Publication 811, 2008 ed., Appendix B).
 //!
 //! Not here: expressions (see [`super::expr`]), which lengths a file holds.
-
-use std::fmt;
 
 use super::expr::{Expr, ExprError};
 
@@ -17,7 +24,11 @@ const INCH: f64 = 0.0254;
 const FOOT: f64 = 0.3048;
 /// One pound (mass) in kilograms (exact).
 const POUND: f64 = 0.45359237;
-/// One pound-force in newtons: 0.45359237 kg × 9.80665 m/s² (exact).
+/// Standard acceleration of gravity, m/s² (exact by definition, NIST SP 811): the weight
+/// of a mass, here and for self-weight.
+pub const GRAVITY: f64 = 9.80665;
+/// One pound-force in newtons: 0.45359237 kg × [`GRAVITY`] (exact; the `exact_definitions`
+/// test checks the product).
 const LBF: f64 = 4.4482216152605;
 /// One kip (1000 lbf) in newtons.
 const KIP: f64 = 1000.0 * LBF;
@@ -69,9 +80,59 @@ impl LengthUnit {
         }
     }
 
+    /// A geometric quantity of dimension `dim` written in this unit, in SI (m, m², m³, m⁴,
+    /// m⁶): `value × (metres per unit)^power`. The one conversion of file lengths to SI.
+    ///
+    /// ```
+    /// use kern::model::units::{Dim, LengthUnit};
+    /// // 100 × 200 mm rectangle: Ixx = b·h³/12 = 6.667e7 mm⁴ = 6.667e-5 m⁴.
+    /// let ixx = 100.0 * 200f64.powi(3) / 12.0;
+    /// let si = LengthUnit::Mm.to_si(ixx, Dim::SecondMoment);
+    /// assert!((si - 6.666_666_7e-5).abs() < 1e-12);
+    /// ```
+    pub fn to_si(self, value: f64, dim: Dim) -> f64 {
+        value * self.metres().powi(dim.power())
+    }
+
+    /// How values of this length are shown: its name and size (from the parser's table).
+    pub fn display(self) -> DisplayUnit {
+        DisplayUnit {
+            name: self.name(),
+            si_per_unit: self.metres(),
+        }
+    }
+
     /// Whether this is a US customary unit (in, ft).
     pub fn is_us(self) -> bool {
         matches!(self, LengthUnit::In | LengthUnit::Ft)
+    }
+}
+
+/// The length dimension of a geometric quantity: the power of length it carries.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Dim {
+    /// Coordinates, dimensions, radii of gyration (m).
+    Length,
+    /// Area (m²).
+    Area,
+    /// Elastic and plastic section moduli (m³).
+    Modulus,
+    /// Second moments of area and the torsion constant J (m⁴).
+    SecondMoment,
+    /// The warping constant Cw (m⁶).
+    Warping,
+}
+
+impl Dim {
+    /// The power of length: 1, 2, 3, 4 or 6.
+    pub fn power(self) -> i32 {
+        match self {
+            Dim::Length => 1,
+            Dim::Area => 2,
+            Dim::Modulus => 3,
+            Dim::SecondMoment => 4,
+            Dim::Warping => 6,
+        }
     }
 }
 
@@ -99,16 +160,22 @@ impl Kind {
         }
     }
 
-    /// A value written as an example in messages.
-    fn example(self) -> &'static str {
+    /// Values written as examples in messages, a metric one and a US customary one: the
+    /// one table of examples (`parse_quantity`'s messages use the first).
+    pub fn examples(self) -> [&'static str; 2] {
         match self {
-            Kind::Length => "6 m",
-            Kind::Stress => "200 GPa",
-            Kind::Density => "7850 kg/m3",
-            Kind::Force => "120 kN",
-            Kind::Moment => "85 kN*m",
-            Kind::LineLoad => "15 kN/m",
+            Kind::Length => ["6 m", "20 ft"],
+            Kind::Stress => ["200 GPa", "50 ksi"],
+            Kind::Density => ["7850 kg/m3", "490 lb/ft3"],
+            Kind::Force => ["120 kN", "6.5 kip"],
+            Kind::Moment => ["85 kN*m", "60 kip*ft"],
+            Kind::LineLoad => ["15 kN/m", "1.2 kip/ft"],
         }
+    }
+
+    /// The metric example.
+    fn example(self) -> &'static str {
+        self.examples()[0]
     }
 }
 
@@ -218,40 +285,11 @@ pub enum Quantity {
     Bare(f64),
 }
 
-/// An error in a quantity: what is wrong and the byte offset in the text where it is.
-#[derive(Debug, Clone, PartialEq)]
-pub struct UnitError {
-    pub message: String,
-    pub offset: usize,
-}
-
-impl UnitError {
-    fn new(message: impl Into<String>, offset: usize) -> UnitError {
-        UnitError {
-            message: message.into(),
-            offset,
-        }
-    }
-}
-
-impl From<ExprError> for UnitError {
-    fn from(e: ExprError) -> UnitError {
-        UnitError::new(e.message, e.offset)
-    }
-}
-
-impl fmt::Display for UnitError {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(&self.message)
-    }
-}
-
-impl std::error::Error for UnitError {}
-
 /// Parse a number or arithmetic expression followed by a unit ("200 GPa", "2*15 kN",
 /// "7850 kg/m3") into SI base units. The unit is the longest known spelling at the end of
 /// the text (case-sensitive) that does not continue a word. A number without a unit is
-/// `Quantity::Bare` for a length and an error for every other kind.
+/// `Quantity::Bare` for a length and an error for every other kind. Errors are
+/// [`ExprError`]s, like those of the number part: what is wrong and the byte offset in `src`.
 ///
 /// ```
 /// use kern::model::units::{parse_quantity, Kind, Quantity};
@@ -260,10 +298,10 @@ impl std::error::Error for UnitError {}
 /// assert_eq!(parse_quantity("12", Kind::Length), Ok(Quantity::Bare(12.0)));
 /// assert!(parse_quantity("350 mpa", Kind::Stress).unwrap_err().message.contains("`MPa`"));
 /// ```
-pub fn parse_quantity(src: &str, kind: Kind) -> Result<Quantity, UnitError> {
+pub fn parse_quantity(src: &str, kind: Kind) -> Result<Quantity, ExprError> {
     let text = src.trim_end();
     if text.trim_start().is_empty() {
-        return Err(UnitError::new(
+        return Err(ExprError::new(
             format!("empty value; write e.g. `{}`", kind.example()),
             0,
         ));
@@ -272,7 +310,7 @@ pub fn parse_quantity(src: &str, kind: Kind) -> Result<Quantity, UnitError> {
     if let Some(hint) = find_unit(text, Some(kind)) {
         if exact.as_ref().is_none_or(|e| hint.start < e.start) {
             let written = text.get(hint.start..).unwrap_or("");
-            return Err(UnitError::new(
+            return Err(ExprError::new(
                 format!(
                     "unknown unit `{written}`; did you mean `{}`?",
                     hint.spelling
@@ -285,7 +323,7 @@ pub fn parse_quantity(src: &str, kind: Kind) -> Result<Quantity, UnitError> {
         return no_known_unit(text, kind);
     };
     if found.def.kind != kind {
-        return Err(UnitError::new(
+        return Err(ExprError::new(
             format!(
                 "`{}` is a {} unit, but a {} is needed here; use one of: {}",
                 found.spelling,
@@ -298,7 +336,7 @@ pub fn parse_quantity(src: &str, kind: Kind) -> Result<Quantity, UnitError> {
     }
     let number = text.get(..found.start).unwrap_or("");
     if number.trim().is_empty() {
-        return Err(UnitError::new(
+        return Err(ExprError::new(
             format!(
                 "missing number before `{}`; write e.g. `{}`",
                 found.spelling,
@@ -309,7 +347,7 @@ pub fn parse_quantity(src: &str, kind: Kind) -> Result<Quantity, UnitError> {
     }
     let si = number_value(number)? * found.def.si;
     if !si.is_finite() {
-        return Err(UnitError::new(
+        return Err(ExprError::new(
             "value is too large once converted to SI units",
             0,
         ));
@@ -363,20 +401,20 @@ fn find_unit(text: &str, fold_case_for: Option<Kind>) -> Option<Found> {
 }
 
 /// The number part: an arithmetic expression without names.
-fn number_value(number: &str) -> Result<f64, UnitError> {
+fn number_value(number: &str) -> Result<f64, ExprError> {
     let expr = Expr::parse(number)?;
     if let Some(name) = expr.names().first() {
         let offset = number.find(name.as_str()).unwrap_or(0);
-        return Err(UnitError::new(
+        return Err(ExprError::new(
             format!("`{name}` is not a number; a value with a unit cannot use params"),
             offset,
         ));
     }
-    Ok(expr.eval(&|_| None)?)
+    expr.eval(&|_| None)
 }
 
 /// No known unit ends the text: a bare number, or an unknown unit.
-fn no_known_unit(text: &str, kind: Kind) -> Result<Quantity, UnitError> {
+fn no_known_unit(text: &str, kind: Kind) -> Result<Quantity, ExprError> {
     let parsed = Expr::parse(text);
     if let Ok(expr) = &parsed {
         if expr.names().is_empty() {
@@ -384,7 +422,7 @@ fn no_known_unit(text: &str, kind: Kind) -> Result<Quantity, UnitError> {
             if kind == Kind::Length {
                 return Ok(Quantity::Bare(value));
             }
-            return Err(UnitError::new(
+            return Err(ExprError::new(
                 format!(
                     "missing unit; write it after the number, e.g. `{}` (a {} takes one of: {})",
                     kind.example(),
@@ -403,13 +441,12 @@ fn no_known_unit(text: &str, kind: Kind) -> Result<Quantity, UnitError> {
         .map_or(0, |(i, c)| i + c.len_utf8());
     let word = text.get(word_start..).unwrap_or("");
     let Some(letter) = word.find(char::is_alphabetic) else {
-        return Err(parsed.err().map_or_else(
-            || UnitError::new("not a number; write e.g. `6 m`", 0),
-            UnitError::from,
-        ));
+        return Err(parsed
+            .err()
+            .unwrap_or_else(|| ExprError::new("not a number; write e.g. `6 m`", 0)));
     };
     let written = word.get(letter..).unwrap_or("");
-    Err(UnitError::new(
+    Err(ExprError::new(
         format!(
             "unknown unit `{written}`; a {} takes one of: {}",
             kind.name(),
@@ -457,26 +494,32 @@ impl DisplayUnit {
 }
 
 /// The unit results of a kind are shown in: for SI kN, kN*m, MPa, kN/m, kg/m3 (lengths in
-/// mm); for US kip, kip*ft, ksi, kip/ft, lb/ft3 (lengths in in).
+/// mm); for US kip, kip*ft, ksi, kip/ft, lb/ft3 (lengths in in). The size of each is read
+/// from the parser's table, so a value shown in a unit reads back as the same value.
 pub fn display_unit(kind: Kind, system: System) -> DisplayUnit {
-    let (name, si_per_unit) = match (kind, system) {
-        (Kind::Length, System::Si) => ("mm", 0.001),
-        (Kind::Length, System::Us) => ("in", INCH),
-        (Kind::Stress, System::Si) => ("MPa", 1e6),
-        (Kind::Stress, System::Us) => ("ksi", 1000.0 * PSI),
-        (Kind::Density, System::Si) => ("kg/m3", 1.0),
-        (Kind::Density, System::Us) => ("lb/ft3", POUND / (FOOT * FOOT * FOOT)),
-        (Kind::Force, System::Si) => ("kN", 1e3),
-        (Kind::Force, System::Us) => ("kip", KIP),
-        (Kind::Moment, System::Si) => ("kN*m", 1e3),
-        (Kind::Moment, System::Us) => ("kip*ft", KIP * FOOT),
-        (Kind::LineLoad, System::Si) => ("kN/m", 1e3),
-        (Kind::LineLoad, System::Us) => ("kip/ft", KIP / FOOT),
+    let name = match (kind, system) {
+        (Kind::Length, System::Si) => "mm",
+        (Kind::Length, System::Us) => "in",
+        (Kind::Stress, System::Si) => "MPa",
+        (Kind::Stress, System::Us) => "ksi",
+        (Kind::Density, System::Si) => "kg/m3",
+        (Kind::Density, System::Us) => "lb/ft3",
+        (Kind::Force, System::Si) => "kN",
+        (Kind::Force, System::Us) => "kip",
+        (Kind::Moment, System::Si) => "kN*m",
+        (Kind::Moment, System::Us) => "kip*ft",
+        (Kind::LineLoad, System::Si) => "kN/m",
+        (Kind::LineLoad, System::Us) => "kip/ft",
     };
+    // Every name above is in the table (the `round_trips` test); NaN would show as no value.
+    let si_per_unit = all_units()
+        .find(|u| u.kind == kind && u.name == name)
+        .map_or(f64::NAN, |u| u.si);
     DisplayUnit { name, si_per_unit }
 }
 
-/// The unit mass per length is shown in: kg/m, or lb/ft.
+/// The unit mass per length is shown in: kg/m, or lb/ft. The only units not in the
+/// parser's table: no value in a file is a mass per length.
 pub fn mass_per_length_unit(system: System) -> DisplayUnit {
     match system {
         System::Si => DisplayUnit {
@@ -501,7 +544,7 @@ mod tests {
         }
     }
 
-    fn err(src: &str, kind: Kind) -> UnitError {
+    fn err(src: &str, kind: Kind) -> ExprError {
         parse_quantity(src, kind).expect_err(src)
     }
 
@@ -521,7 +564,8 @@ mod tests {
             12.0,
             1e-15
         ));
-        assert!(close(LBF, 0.45359237 * 9.80665, 1e-15));
+        assert!(close(LBF, POUND * GRAVITY, 1e-15));
+        assert_eq!(GRAVITY, 9.80665);
         assert_eq!(KIP, 1000.0 * LBF);
         assert!(close(PSI, 6894.757293168361, 1e-15));
         assert!(close(
@@ -725,6 +769,72 @@ mod tests {
         assert_eq!(System::of(LengthUnit::Cm), System::Si);
         assert_eq!(display_unit(Kind::Moment, System::Us).name, "kip*ft");
         assert_eq!(mass_per_length_unit(System::Si).name, "kg/m");
+    }
+
+    // A 100 × 200 mm rectangle, written in each length unit: A = b·h = 2e4 mm² = 0.02 m²,
+    // S = b·h²/6 = 6.667e5 mm³ = 6.667e-4 m³, Ixx = b·h³/12 = 6.667e7 mm⁴ = 6.667e-5 m⁴
+    // (Gere & Goodno, Mechanics of Materials, App. E case 1). An I of two 200 × 10 flanges
+    // 400 apart (centre to centre): Iy ≈ 2·tf·b³/12 = 1.333e7 mm⁴ and Cw = Iy·h0²/4 =
+    // 5.333e11 mm⁶ = 5.333e-7 m⁶ (AISC Design Guide 9, doubly symmetric I). Each SI value is
+    // the same from every unit; a wrong power would be off by the unit's size to that power.
+    #[test]
+    fn to_si_of_every_dimension() {
+        for u in LengthUnit::ALL {
+            let k = 0.001 / u.metres(); // this unit's figures per mm
+            let (b, h) = (100.0 * k, 200.0 * k);
+            let cases = [
+                (h, Dim::Length, 0.2),
+                (b * h, Dim::Area, 0.02),
+                (b * h * h / 6.0, Dim::Modulus, 0.1 * 0.04 / 6.0),
+                (
+                    b * h.powi(3) / 12.0,
+                    Dim::SecondMoment,
+                    6.666_666_666_666_667e-5,
+                ),
+            ];
+            for (value, dim, want) in cases {
+                assert!(close(u.to_si(value, dim), want, 1e-12), "{u:?} {dim:?}");
+            }
+            let (bf, tf, h0) = (200.0 * k, 10.0 * k, 400.0 * k);
+            let cw = 2.0 * tf * bf.powi(3) / 12.0 * h0 * h0 / 4.0;
+            assert!(close(
+                u.to_si(cw, Dim::Warping),
+                5.333_333_333_333_333e-7,
+                1e-12
+            ));
+        }
+        let powers = [
+            Dim::Length,
+            Dim::Area,
+            Dim::Modulus,
+            Dim::SecondMoment,
+            Dim::Warping,
+        ]
+        .map(Dim::power);
+        assert_eq!(powers, [1, 2, 3, 4, 6]);
+        assert_eq!(LengthUnit::In.display().name, "in");
+        assert_eq!(LengthUnit::Cm.display().from_si(0.2), 20.0);
+    }
+
+    #[test]
+    fn one_table_of_examples() {
+        // Each example parses as its own kind, so messages never suggest a wrong unit.
+        for kind in [
+            Kind::Length,
+            Kind::Stress,
+            Kind::Density,
+            Kind::Force,
+            Kind::Moment,
+            Kind::LineLoad,
+        ] {
+            for ex in kind.examples() {
+                assert!(
+                    matches!(parse_quantity(ex, kind), Ok(Quantity::Si(_))),
+                    "{ex}"
+                );
+            }
+            assert!(err("", kind).message.contains(kind.examples()[0]));
+        }
     }
 
     #[test]

@@ -54,10 +54,7 @@ impl OutUnits {
     /// Deflections: the output length unit for metric files, inches for US customary.
     pub fn deflection(&self) -> DisplayUnit {
         match self.system {
-            System::Si => DisplayUnit {
-                name: self.length.name(),
-                si_per_unit: self.length.metres(),
-            },
+            System::Si => self.length.display(),
             System::Us => display_unit(Kind::Length, System::Us),
         }
     }
@@ -72,5 +69,30 @@ impl OutUnits {
             _ => "",
         };
         format!("{}{sup}", self.length.name())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::units::Dim;
+
+    #[test]
+    fn output_lengths_agree_with_the_si_conversion() {
+        // A second moment of 6.667e7 mm⁴ (100 × 200 mm rectangle, b·h³/12) shown in inches:
+        // 6.667e-5 m⁴ / 0.0254⁴ m⁴/in⁴ = 160.2 in⁴ (1 in = 0.0254 m, NIST SP 811).
+        let u = OutUnits::new(LengthUnit::Mm, Some(LengthUnit::In));
+        let ixx = 100.0 * 200f64.powi(3) / 12.0;
+        let si = LengthUnit::Mm.to_si(ixx, Dim::SecondMoment);
+        let shown = u.geo(ixx, Dim::SecondMoment.power());
+        assert!((shown - si / 0.0254f64.powi(4)).abs() <= 1e-12 * shown);
+        assert!((shown - 160.2).abs() < 0.05);
+        assert_eq!(u.label(Dim::SecondMoment.power()), "in⁴");
+        assert_eq!(u.deflection().name, "in");
+        let cm = OutUnits::new(LengthUnit::M, Some(LengthUnit::Cm));
+        assert_eq!(
+            (cm.deflection().name, cm.deflection().si_per_unit),
+            ("cm", 0.01)
+        );
     }
 }
