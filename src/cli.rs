@@ -8,6 +8,7 @@ use crate::model::units::LengthUnit;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
+use crate::text::clean;
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicUsize, Ordering};
 
@@ -22,7 +23,7 @@ pub struct CalcArgs {
 
 /// Reads and analyses one file; the error is the line to print on stderr.
 pub fn load(path: &Path, opts: &Options) -> Result<Analysis, String> {
-    let name = path.display();
+    let name = clean(&path.display().to_string());
     let bytes =
         std::fs::read(path).map_err(|e| format!("{name}:1:1: cannot read the file: {e}"))?;
     let text = String::from_utf8(bytes).map_err(|e| {
@@ -32,13 +33,13 @@ pub fn load(path: &Path, opts: &Options) -> Result<Analysis, String> {
         );
         format!("{name}:{l}:{c}: the file is not UTF-8 text; save it as UTF-8")
     })?;
-    Analysis::of_text(&text, opts).map_err(|d| diagnostic_line(&name.to_string(), &text, &d))
+    Analysis::of_text(&text, opts).map_err(|d| diagnostic_line(&name, &text, &d))
 }
 
-/// `FILE:LINE:COLUMN: message`.
+/// `FILE:LINE:COLUMN: message`, cleaned for a terminal.
 pub fn diagnostic_line(file: &str, text: &str, d: &Diagnostic) -> String {
     let (l, c) = locate(text, d.span.start);
-    format!("{file}:{l}:{c}: {}", d.message)
+    clean(&format!("{file}:{l}:{c}: {}", d.message))
 }
 
 /// Runs `f` over `items` on every core, keeping the input order of the results.
@@ -163,7 +164,10 @@ fn emit(out: Option<&Path>, text: &str) -> i32 {
         Some(p) => match std::fs::write(p, text) {
             Ok(()) => 0,
             Err(e) => {
-                eprintln!("{}: cannot write the file: {e}", p.display());
+                eprintln!(
+                    "{}: cannot write the file: {e}",
+                    clean(&p.display().to_string())
+                );
                 1
             }
         },

@@ -12,7 +12,6 @@ pub mod commands;
 pub mod config;
 pub mod keys;
 pub mod raster;
-pub mod sanitize;
 pub mod theme;
 pub mod views;
 pub mod worker;
