@@ -156,14 +156,74 @@ impl Ctx<'_> {
                 }
             },
         };
-        if x.is_finite() {
-            Ok(x)
-        } else {
+        let (low, high, sensible) = range(kind);
+        if !x.is_finite() {
             Err(Diagnostic::new(
                 v.span.clone(),
-                format!("`{key}` is not finite"),
+                format!("`{key}` is not a finite number; {sensible}"),
             ))
+        } else if x.abs() > high || (x != 0.0 && x.abs() < low) {
+            Err(Diagnostic::new(
+                v.span.clone(),
+                format!(
+                    "`{key}` = {} is out of range: {sensible}; check the unit and the exponent",
+                    written(&v.value)
+                ),
+            ))
+        } else {
+            Ok(x)
         }
+    }
+}
+
+/// A value as a message quotes it: an expression as written, a large or small number
+/// in exponent form (`1e300`, not 301 digits).
+fn written(v: &Value) -> String {
+    match v {
+        Value::Number(x) if x.abs() >= 1e6 || (*x != 0.0 && x.abs() < 1e-4) => format!("{x:e}"),
+        v => v.text(),
+    }
+}
+
+/// The magnitudes (SI) a quantity of `kind` may have, and the sentence that says so.
+///
+/// The bounds are far outside anything built (common practice, chosen here, no
+/// source): they exist so that the products the checks form (M·c/I, w·L⁴/(E·I),
+/// π²·E·I/L², ρ·A·g) stay finite in double precision (about 1.8e308), and a value
+/// written with a wrong unit or exponent is refused at its key instead of silently
+/// turning a result into nothing.
+fn range(kind: Kind) -> (f64, f64, &'static str) {
+    match kind {
+        Kind::Length => (
+            1e-6,
+            1e5,
+            "a length between 1 µm and 100 km is sensible (e.g. \"6 m\")",
+        ),
+        Kind::Stress => (
+            1e3,
+            1e13,
+            "a stress or modulus between 1 kPa and 10 000 GPa is sensible (steel: E = \"200 GPa\")",
+        ),
+        Kind::Density => (
+            1e-2,
+            1e5,
+            "a density between 0.01 and 100 000 kg/m3 is sensible (steel: \"7850 kg/m3\")",
+        ),
+        Kind::Force => (
+            0.0,
+            1e12,
+            "a force up to 1e9 kN is sensible (e.g. \"30 kN\")",
+        ),
+        Kind::Moment => (
+            0.0,
+            1e13,
+            "a moment up to 1e10 kN*m is sensible (e.g. \"85 kN*m\")",
+        ),
+        Kind::LineLoad => (
+            0.0,
+            1e12,
+            "a line load up to 1e9 kN/m is sensible (e.g. \"15 kN/m\")",
+        ),
     }
 }
 
