@@ -5,7 +5,7 @@
 //! member's lengths are converted to SI base units (N, N·m, Pa, m).
 
 use super::diag::{Diagnostic, Span};
-use super::document::{Document, PartDoc, Val, Value};
+use super::document::{Document, PartDoc, StringMaps, Val, Value};
 use super::expr::{resolve_params, Expr, ExprError, ParamValue};
 use super::units::{parse_quantity, Kind, LengthUnit, Quantity};
 use crate::checks::member::Support;
@@ -73,15 +73,23 @@ pub const SUPPORTS: [(&str, Support); 4] = [
     ("propped", Support::Propped),
 ];
 
-/// Turns an expression error inside a string value into a diagnostic at the right
-/// column (one past the opening quote).
-fn expr_diag(v: &Val, e: ExprError, key: &str) -> Diagnostic {
-    let at = (v.span.start + 1 + e.offset).min(v.span.end.saturating_sub(1).max(v.span.start));
+/// Turns an expression error inside a string value into a diagnostic where the
+/// offending character stands in the file: through `maps` for strings with escapes or
+/// line breaks, otherwise one past the opening quote.
+fn expr_diag(v: &Val, maps: &StringMaps, e: ExprError, key: &str) -> Diagnostic {
+    let (from_value, from_file) = maps
+        .iter()
+        .find(|(start, _)| *start == v.span.start)
+        .and_then(|(_, m)| m.iter().rev().find(|(at, _)| *at <= e.offset).copied())
+        .unwrap_or((0, v.span.start + 1));
+    let at =
+        (from_file + (e.offset - from_value)).min(v.span.end.saturating_sub(1).max(v.span.start));
     Diagnostic::new(at..at + 1, format!("`{key}`: {}", e.message))
 }
 
 struct Ctx<'a> {
     params: &'a BTreeMap<String, f64>,
+    maps: &'a StringMaps,
 }
 
 impl Ctx<'_> {
@@ -90,9 +98,9 @@ impl Ctx<'_> {
         let x = match &v.value {
             Value::Number(x) => *x,
             Value::Expr(s) => {
-                let e = Expr::parse(s).map_err(|e| expr_diag(v, e, key))?;
+                let e = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
                 e.eval(&|n| self.params.get(n).copied())
-                    .map_err(|e| expr_diag(v, e, key))?
+                    .map_err(|e| expr_diag(v, self.maps, e, key))?
             }
         };
         if x.is_finite() {
@@ -145,6 +153,7 @@ impl Ctx<'_> {
                         None => {
                             return Err(expr_diag(
                                 v,
+                                self.maps,
                                 ExprError {
                                     message: e.message,
                                     offset: e.offset,
@@ -242,7 +251,10 @@ impl Resolved {
     /// Evaluates every value of the document; the first problem found is returned.
     pub fn resolve(doc: &Document) -> Result<Resolved, Diagnostic> {
         let params = resolve_doc_params(doc)?;
-        let ctx = Ctx { params: &params };
+        let ctx = Ctx {
+            params: &params,
+            maps: &doc.string_maps,
+        };
         let materials = doc
             .materials
             .iter()
@@ -377,7 +389,7 @@ fn resolve_doc_params(doc: &Document) -> Result<BTreeMap<String, f64>, Diagnosti
         })
         .collect();
     resolve_params(&list).map_err(|(i, e)| match doc.params.get(i) {
-        Some((k, _, v)) => expr_diag(v, e, &format!("params.{k}")),
+        Some((k, _, v)) => expr_diag(v, &doc.string_maps, e, &format!("params.{k}")),
         None => Diagnostic::new(0..1, e.message),
     })
 }
