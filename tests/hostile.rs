@@ -302,3 +302,29 @@ fn on_two_cores(check: fn(&Path) -> Result<(), String>) {
     });
     assert!(failures.is_empty(), "{}", failures.join("\n\n"));
 }
+
+/// A cycle through 10,000 params once printed a 90 KB line: the message shows the first
+/// few names and the count. The file (about 200 KB) is written to a temporary folder.
+#[test]
+fn a_long_param_cycle_gives_a_short_message() {
+    let n = 10_000;
+    let mut text = String::from("format = 1\nunits = \"mm\"\n[params]\n");
+    for i in 0..n {
+        text.push_str(&format!("p{i} = \"p{} + 1\"\n", (i + 1) % n));
+    }
+    text.push_str("[[parts]]\nshape = \"rect\"\nb = \"p0\"\nh = 10\n");
+    let dir = std::env::temp_dir().join(format!("kern-hostile-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).expect("temporary folder");
+    let path = dir.join("long-cycle.toml");
+    std::fs::write(&path, text).expect("write the file");
+    let run = run_kern(&["calc".as_ref(), path.as_os_str()]);
+    let _ = std::fs::remove_dir_all(&dir);
+    let run = run.expect("kern calc runs");
+    assert_eq!(run.code, 2, "{}", run.err);
+    assert!(
+        run.err.contains("(10000 params in the cycle)"),
+        "{}",
+        run.err
+    );
+    assert!(run.err.len() < 300, "{} bytes: {}", run.err.len(), run.err);
+}

@@ -57,7 +57,18 @@ pub fn parse(text: &str) -> Result<Document, Diagnostic> {
 fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Document, Diagnostic> {
     let doc = ImDocument::parse(text).map_err(|e| {
         let span = e.span().unwrap_or(0..1);
-        Diagnostic::new(span, format!("not valid TOML: {}", e.message().trim()))
+        let lone_cr = text
+            .get(span.start..)
+            .is_some_and(|r| r.starts_with('\r') && !r.starts_with("\r\n"));
+        let message = match e.message().trim() {
+            m if m.is_empty() || lone_cr => toml_fallback(text, span.start),
+            m if m.contains("recursion limit") => {
+                "tables or arrays nested too deeply; a section file needs at most a few levels"
+                    .to_string()
+            }
+            m => m.lines().map(str::trim).collect::<Vec<_>>().join("; "),
+        };
+        Diagnostic::new(span, format!("not valid TOML: {message}"))
     })?;
     let root = doc.as_table();
     let r = Reader {
@@ -219,6 +230,22 @@ fn string_map(raw: &str, start: usize) -> Vec<(usize, usize)> {
         Vec::new()
     } else {
         map
+    }
+}
+
+/// What is wrong at byte `at` when the TOML parser gives no words for it.
+fn toml_fallback(text: &str, at: usize) -> String {
+    let rest = text.get(at..).unwrap_or("");
+    match rest.chars().next() {
+        Some('\r') if !rest.starts_with("\r\n") => "a carriage return without a line feed; \
+TOML lines end in LF or CR LF: save the file with Unix (LF) or Windows (CR LF) line ends"
+            .to_string(),
+        Some(c) if c.is_control() => format!(
+            "control character U+{:04X} here; remove it (only tab, LF and CR LF may stand in the file)",
+            c as u32
+        ),
+        Some(c) => format!("unexpected `{c}` here"),
+        None => "the file ends too early (an unclosed bracket or quote?)".to_string(),
     }
 }
 
