@@ -223,7 +223,7 @@ fn well_formed(x: &str) -> Result<(), String> {
         let self_closing = tag.ends_with('/');
         let tag = tag.trim_end_matches('/');
         let name = tag.split_whitespace().next().ok_or("empty tag")?;
-        if tag.contains('<') || tag.matches('"').count() % 2 != 0 {
+        if tag.contains('<') || !tag.matches('"').count().is_multiple_of(2) {
             return Err(format!("bad attributes in <{tag}>"));
         }
         // HTML void elements the page writes.
