@@ -9,6 +9,7 @@ use crate::model::units::LengthUnit;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
+use crate::text::clean;
 use std::io::{ErrorKind, Write};
 use std::panic::{catch_unwind, AssertUnwindSafe};
 use std::path::{Path, PathBuf};
@@ -25,15 +26,15 @@ pub struct CalcArgs {
 
 /// Reads and analyses one file; the error is the line to print on stderr.
 pub fn load(path: &Path, opts: &Options) -> Result<Analysis, String> {
-    let text = read_text(path).map_err(|e| e.line(path))?;
+    let text = read_text(path).map_err(|e| clean(&e.line(path)))?;
     Analysis::of_text(&text, opts)
         .map_err(|d| diagnostic_line(&path.display().to_string(), &text, &d))
 }
 
-/// `FILE:LINE:COLUMN: message`.
+/// `FILE:LINE:COLUMN: message`, cleaned for a terminal.
 pub fn diagnostic_line(file: &str, text: &str, d: &Diagnostic) -> String {
     let (l, c) = locate(text, d.span.start);
-    format!("{file}:{l}:{c}: {}", d.message)
+    clean(&format!("{file}:{l}:{c}: {}", d.message))
 }
 
 /// Runs `f` over `items` on every core, keeping the input order of the results. A
@@ -230,7 +231,10 @@ fn emit(out: Option<&Path>, text: &str) -> i32 {
         Some(p) => match std::fs::write(p, text) {
             Ok(()) => 0,
             Err(e) => {
-                say(&format!("{}: cannot write the file: {e}", p.display()));
+                say(&clean(&format!(
+                    "{}: cannot write the file: {e}",
+                    p.display()
+                )));
                 1
             }
         },

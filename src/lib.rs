@@ -16,4 +16,5 @@ pub mod model;
 pub mod numfmt;
 pub mod props;
 pub mod report;
+pub mod text;
 pub mod tui;

@@ -116,3 +116,41 @@ fn the_caution_is_in_every_output() {
         assert!(page.contains("<svg") && !page.contains(markdown::DRAWING_MARK));
     }
 }
+
+/// Raw HTML in names and the title (tests/hostile/html-in-names.toml) stays text: the
+/// sheet has no tag from the file, and the page shows the names escaped.
+#[test]
+fn names_cannot_inject_html() {
+    let file = "tests/hostile/html-in-names.toml";
+    let a = analyse(file);
+    let u = units(&a);
+    let md = markdown::sheet(file, &a, &u);
+    for tag in ["<script", "<img"] {
+        assert!(!md.contains(tag), "sheet holds {tag}:\n{md}");
+    }
+    assert!(md.contains("&lt;script&gt;alert(3)&lt;/script&gt;"), "{md}");
+    // A `|` in a name is escaped, so table rows keep their column count.
+    assert!(md.contains("a \\| b \\*\\* c"), "{md}");
+    let page = html::page("t", &md, &svg::drawing(&a, &u));
+    assert!(
+        !page.contains("<script") && !page.contains("<img"),
+        "{page}"
+    );
+    assert!(page.contains("&lt;script&gt;alert(3)&lt;/script&gt;"));
+    assert!(
+        page.contains("a | b ** c"),
+        "the page shows the name as written"
+    );
+}
+
+/// XML 1.0 (W3C, 5th edition, section 2.2) allows no C0 control but tab, LF and CR,
+/// not even as a reference: the drawing of tests/hostile/control-chars-in-names.toml
+/// holds none.
+#[test]
+fn the_drawing_has_no_control_characters() {
+    let a = analyse("tests/hostile/control-chars-in-names.toml");
+    let s = svg::drawing(&a, &units(&a));
+    assert!(!s.chars().any(|c| c.is_control() && c != '\n' && c != '\t'));
+    assert!(!s.contains("&#1;") && !s.contains("&#x1;"));
+    assert!(s.contains("mezzanine  edge"), "the title is kept, cleaned");
+}

@@ -8,9 +8,9 @@ use crate::geom::Anchor;
 use crate::model::document::ActionsDoc;
 use crate::model::units::LengthUnit;
 use crate::model::{
-    Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, Val, Value,
+    Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, StringMaps, Val, Value,
 };
-use std::cell::Cell;
+use std::cell::{Cell, RefCell};
 use toml_edit::{ImDocument, Item, TableLike};
 
 const TOP_KEYS: &[&str] = &[
@@ -57,10 +57,26 @@ pub fn parse(text: &str) -> Result<Document, Diagnostic> {
 fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Document, Diagnostic> {
     let doc = ImDocument::parse(text).map_err(|e| {
         let span = e.span().unwrap_or(0..1);
-        Diagnostic::new(span, format!("not valid TOML: {}", e.message().trim()))
+        let lone_cr = text
+            .get(span.start..)
+            .is_some_and(|r| r.starts_with('\r') && !r.starts_with("\r\n"));
+        let message = match e.message().trim() {
+            m if m.is_empty() || lone_cr => toml_fallback(text, span.start),
+            m if m.contains("recursion limit") => {
+                "tables or arrays nested too deeply; a section file needs at most a few levels"
+                    .to_string()
+            }
+            m => m.lines().map(str::trim).collect::<Vec<_>>().join("; "),
+        };
+        Diagnostic::new(span, format!("not valid TOML: {message}"))
     })?;
     let root = doc.as_table();
-    let r = Reader { fast, used };
+    let r = Reader {
+        text,
+        fast,
+        used,
+        maps: RefCell::new(Vec::new()),
+    };
     r.known_keys(root, TOP_KEYS, "the top level", 0..1)?;
     match root.get("format") {
         None => return Err(Diagnostic::new(0..1, "missing `format = 1` at the top of the file")),
@@ -149,7 +165,88 @@ fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Docume
         parts,
         actions,
         member,
+        string_maps: r.maps.into_inner(),
     })
+}
+
+/// The checkpoints of [`crate::model::StringMaps`] for the string token `raw` that
+/// starts at byte `start` of the file; empty for a plain one-line string, whose value
+/// starts one past the quote. Follows the TOML 1.0 string rules: basic strings take
+/// escapes (`\uXXXX`, `\UXXXXXXXX`, one-letter ones), multi-line strings drop a newline
+/// right after the opening quotes and, when basic, a backslash at a line end with the
+/// whitespace after it; literal strings take none.
+fn string_map(raw: &str, start: usize) -> Vec<(usize, usize)> {
+    let (delim, multi) = if raw.starts_with("\"\"\"") || raw.starts_with("'''") {
+        (3, true)
+    } else if raw.starts_with('"') || raw.starts_with('\'') {
+        (1, false)
+    } else {
+        return Vec::new();
+    };
+    let basic = raw.starts_with('"');
+    let b = raw.as_bytes();
+    let mut i = delim;
+    if multi {
+        if raw[i..].starts_with("\r\n") {
+            i += 2;
+        } else if raw[i..].starts_with('\n') {
+            i += 1;
+        }
+    }
+    let mut map = vec![(0, start + i)];
+    let end = raw.len().saturating_sub(delim).max(i);
+    let mut v = 0;
+    while basic && i < end {
+        let (raw_len, val_len) = match (b[i], b.get(i + 1)) {
+            (b'\\', Some(&e)) if e == b'u' || e == b'U' => {
+                let n = if e == b'u' { 4 } else { 8 };
+                let c = raw
+                    .get(i + 2..i + 2 + n)
+                    .and_then(|h| u32::from_str_radix(h, 16).ok())
+                    .and_then(char::from_u32);
+                (2 + n, c.map_or(1, char::len_utf8))
+            }
+            (b'\\', Some(b' ' | b'\t' | b'\n' | b'\r')) if multi => {
+                let mut j = i + 1;
+                while j < end && matches!(b[j], b' ' | b'\t' | b'\n' | b'\r') {
+                    j += 1;
+                }
+                (j - i, 0)
+            }
+            (b'\\', Some(_)) => (2, 1),
+            (b'\r', Some(b'\n')) if multi => (2, 1),
+            _ => {
+                let n = raw[i..].chars().next().map_or(1, char::len_utf8);
+                i += n;
+                v += n;
+                continue;
+            }
+        };
+        i += raw_len;
+        v += val_len;
+        map.push((v, start + i));
+    }
+    if map == [(0, start + 1)] {
+        Vec::new()
+    } else {
+        map
+    }
+}
+
+/// What is wrong at byte `at` when the TOML parser gives no words for it.
+fn toml_fallback(text: &str, at: usize) -> String {
+    let rest = text.get(at..).unwrap_or("");
+    match rest.chars().next() {
+        Some('\r') if !rest.starts_with("\r\n") => "a carriage return without a line feed; \
+TOML lines end in LF or CR LF: save the file with Unix (LF) or Windows (CR LF) line ends"
+            .to_string(),
+        Some(c) if c.is_control() => format!(
+            "control character U+{:04X} here; remove it (only tab, LF and CR LF may stand in the file)",
+            c as u32
+        ),
+        Some(c) => format!("unexpected `{c}` here"),
+        None => "the file ends too early (an unclosed bracket or quote?)".to_string(),
+    }
 }
 
 fn span(item: &Item, fallback: Span) -> Span {
@@ -173,8 +270,11 @@ fn distance(a: &str, b: &str) -> usize {
 }
 
 struct Reader<'a> {
+    text: &'a str,
     fast: &'a [Scanned],
     used: &'a Cell<usize>,
+    /// Filled by [`Reader::val`] for strings with escapes or line breaks.
+    maps: RefCell<StringMaps>,
 }
 
 impl Reader<'_> {
@@ -268,7 +368,16 @@ impl Reader<'_> {
         let value = match item.as_value() {
             Some(v) if v.as_integer().is_some() => Value::Number(v.as_integer().unwrap_or(0) as f64),
             Some(v) if v.as_float().is_some() => Value::Number(v.as_float().unwrap_or(f64::NAN)),
-            Some(v) if v.as_str().is_some() => Value::Expr(v.as_str().unwrap_or("").to_string()),
+            Some(v) if v.as_str().is_some() => {
+                let map = self
+                    .text
+                    .get(sp.clone())
+                    .map_or_else(Vec::new, |raw| string_map(raw, sp.start));
+                if !map.is_empty() {
+                    self.maps.borrow_mut().push((sp.start, map));
+                }
+                Value::Expr(v.as_str().unwrap_or("").to_string())
+            }
             _ => {
                 return Err(Diagnostic::new(
                     sp,
@@ -524,6 +633,20 @@ impl Reader<'_> {
 
 #[cfg(test)]
 mod tests {
+
+    /// TOML 1.0 string rules (toml.io/en/v1.0.0#string): checkpoints fall after each
+    /// escape, and after the newline a multi-line string drops.
+    #[test]
+    fn string_maps_follow_escapes_and_line_breaks() {
+        assert!(string_map("\"a + b\"", 10).is_empty());
+        // "\t+x": `+` is at 1 in the value and at 10 + 3 in the file.
+        assert_eq!(string_map("\"\\t+x\"", 10), [(0, 11), (1, 13)]);
+        // \u00e9 is 6 bytes in the file and 2 in the value.
+        assert_eq!(string_map("\"\\u00e9)\"", 0), [(0, 1), (2, 7)]);
+        assert_eq!(string_map("\"\"\"\n1 +\"\"\"", 0), [(0, 4)]);
+        assert_eq!(string_map("'''\n1 +'''", 0), [(0, 4)]);
+        assert!(string_map("'a\\t'", 0).is_empty());
+    }
     use super::*;
 
     fn outline(n: usize) -> String {

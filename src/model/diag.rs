@@ -12,10 +12,12 @@ pub struct Diagnostic {
 }
 
 impl Diagnostic {
+    /// The message is cleaned ([`crate::text::clean`]): it quotes names and keys from
+    /// the file, and must not carry their escape sequences to a terminal.
     pub fn new(span: Span, message: impl Into<String>) -> Diagnostic {
         Diagnostic {
             span,
-            message: message.into(),
+            message: crate::text::clean(&message.into()),
         }
     }
 }

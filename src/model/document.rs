@@ -82,6 +82,13 @@ pub struct ActionsDoc {
     pub my: Option<Val>,
 }
 
+/// Where the text of string values stands in the file, for each string whose value is
+/// not simply the bytes between one pair of quotes (escapes such as `\t` or `\u00e9`,
+/// multi-line strings): keyed by the start of the string's span, checkpoints
+/// `(byte offset in the value, byte offset in the file)` from which both advance
+/// together. Plain strings are not listed: their value starts one past the quote.
+pub type StringMaps = Vec<(usize, Vec<(usize, usize)>)>;
+
 /// A whole section file.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Document {
@@ -94,4 +101,6 @@ pub struct Document {
     pub parts: Vec<PartDoc>,
     pub actions: Option<ActionsDoc>,
     pub member: Option<MemberDoc>,
+    /// Positions of the strings with escapes or line breaks, for error columns.
+    pub string_maps: StringMaps,
 }

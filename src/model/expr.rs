@@ -804,8 +804,12 @@ fn dependency_order(deps: &[Vec<(usize, usize)>]) -> Result<Vec<usize>, Vec<(usi
     Ok(order)
 }
 
+/// How many names of a long cycle its message shows before "…" and the count.
+const CYCLE_NAMES: usize = 6;
+
 /// "cycle: a → b → a", told from the member that comes first in the file, at its reference
-/// to the next member.
+/// to the next member; a long cycle shows its first [`CYCLE_NAMES`] names, the last one
+/// and how many params it holds.
 fn cycle_error(
     cycle: &[(usize, usize)],
     deps: &[Vec<(usize, usize)>],
@@ -832,7 +836,17 @@ fn cycle_error(
     } else {
         "give one of these params a number"
     };
-    let message = format!("cycle: {}; {hint}", names.join(" → "));
+    let shown = if names.len() > CYCLE_NAMES + 1 {
+        let head = names[..CYCLE_NAMES].join(" → ");
+        format!(
+            "{head} → … → {} ({} params in the cycle)",
+            names[names.len() - 1],
+            cycle.len()
+        )
+    } else {
+        names.join(" → ")
+    };
+    let message = format!("cycle: {shown}; {hint}");
     (param, ExprError::new(message, offset))
 }
 

@@ -13,5 +13,7 @@ pub mod resolve;
 pub mod units;
 
 pub use diag::{Diagnostic, Span};
-pub use document::{ActionsDoc, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Val, Value};
+pub use document::{
+    ActionsDoc, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, StringMaps, Val, Value,
+};
 pub use resolve::{Actions, Material, Member, Part, Resolved};

@@ -6,7 +6,7 @@
 //! lengths written as bare numbers by [`LengthUnit::to_si`] (see [`super::units`]).
 
 use super::diag::{Diagnostic, Span};
-use super::document::{Document, PartDoc, Val, Value};
+use super::document::{Document, PartDoc, StringMaps, Val, Value};
 use super::expr::{resolve_params, Expr, ExprError};
 use super::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
 use crate::checks::member::Support;
@@ -68,15 +68,23 @@ pub const SUPPORTS: [(&str, Support); 4] = [
     ("propped", Support::Propped),
 ];
 
-/// Turns an expression error inside a string value into a diagnostic at the right
-/// column (one past the opening quote).
-fn expr_diag(v: &Val, e: ExprError, key: &str) -> Diagnostic {
-    let at = (v.span.start + 1 + e.offset).min(v.span.end.saturating_sub(1).max(v.span.start));
+/// Turns an expression error inside a string value into a diagnostic where the
+/// offending character stands in the file: through `maps` for strings with escapes or
+/// line breaks, otherwise one past the opening quote.
+fn expr_diag(v: &Val, maps: &StringMaps, e: ExprError, key: &str) -> Diagnostic {
+    let (from_value, from_file) = maps
+        .iter()
+        .find(|(start, _)| *start == v.span.start)
+        .and_then(|(_, m)| m.iter().rev().find(|(at, _)| *at <= e.offset).copied())
+        .unwrap_or((0, v.span.start + 1));
+    let at =
+        (from_file + (e.offset - from_value)).min(v.span.end.saturating_sub(1).max(v.span.start));
     Diagnostic::new(at..at + 1, format!("`{key}`: {}", e.message))
 }
 
 struct Ctx<'a> {
     params: &'a BTreeMap<String, f64>,
+    maps: &'a StringMaps,
 }
 
 impl Ctx<'_> {
@@ -85,9 +93,9 @@ impl Ctx<'_> {
         let x = match &v.value {
             Value::Number(x) => *x,
             Value::Expr(s) => {
-                let e = Expr::parse(s).map_err(|e| expr_diag(v, e, key))?;
+                let e = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
                 e.eval(&|n| self.params.get(n).copied())
-                    .map_err(|e| expr_diag(v, e, key))?
+                    .map_err(|e| expr_diag(v, self.maps, e, key))?
             }
         };
         if x.is_finite() {
@@ -140,27 +148,89 @@ impl Ctx<'_> {
                     // A length may also be an expression of params, in the file's unit.
                     match file_unit {
                         Some(u) => u.to_si(self.number(v, key)?, Dim::Length),
-                        None => return Err(expr_diag(v, e, key)),
+                        None => return Err(expr_diag(v, self.maps, e, key)),
                     }
                 }
             },
         };
-        if x.is_finite() {
-            Ok(x)
-        } else {
+        let (low, high, sensible) = range(kind);
+        if !x.is_finite() {
             Err(Diagnostic::new(
                 v.span.clone(),
-                format!("`{key}` is not finite"),
+                format!("`{key}` is not a finite number; {sensible}"),
             ))
+        } else if x.abs() > high || (x != 0.0 && x.abs() < low) {
+            Err(Diagnostic::new(
+                v.span.clone(),
+                format!(
+                    "`{key}` = {} is out of range: {sensible}; check the unit and the exponent",
+                    written(&v.value)
+                ),
+            ))
+        } else {
+            Ok(x)
         }
     }
 }
 
+/// A value as a message quotes it: an expression as written, a large or small number
+/// in exponent form (`1e300`, not 301 digits).
+fn written(v: &Value) -> String {
+    match v {
+        Value::Number(x) if x.abs() >= 1e6 || (*x != 0.0 && x.abs() < 1e-4) => format!("{x:e}"),
+        v => v.text(),
+    }
+}
+
+/// The magnitudes (SI) a quantity of `kind` may have, and the sentence that says so.
+///
+/// The bounds are far outside anything built (common practice, chosen here, no
+/// source): they exist so that the products the checks form (M·c/I, w·L⁴/(E·I),
+/// π²·E·I/L², ρ·A·g) stay finite in double precision (about 1.8e308), and a value
+/// written with a wrong unit or exponent is refused at its key instead of silently
+/// turning a result into nothing.
+fn range(kind: Kind) -> (f64, f64, &'static str) {
+    match kind {
+        Kind::Length => (
+            1e-6,
+            1e5,
+            "a length between 1 µm and 100 km is sensible (e.g. \"6 m\")",
+        ),
+        Kind::Stress => (
+            1e3,
+            1e13,
+            "a stress or modulus between 1 kPa and 10 000 GPa is sensible (steel: E = \"200 GPa\")",
+        ),
+        Kind::Density => (
+            1e-2,
+            1e5,
+            "a density between 0.01 and 100 000 kg/m3 is sensible (steel: \"7850 kg/m3\")",
+        ),
+        Kind::Force => (
+            0.0,
+            1e12,
+            "a force up to 1e9 kN is sensible (e.g. \"30 kN\")",
+        ),
+        Kind::Moment => (
+            0.0,
+            1e13,
+            "a moment up to 1e10 kN*m is sensible (e.g. \"85 kN*m\")",
+        ),
+        Kind::LineLoad => (
+            0.0,
+            1e12,
+            "a line load up to 1e9 kN/m is sensible (e.g. \"15 kN/m\")",
+        ),
+    }
+}
 impl Resolved {
     /// Evaluates every value of the document; the first problem found is returned.
     pub fn resolve(doc: &Document) -> Result<Resolved, Diagnostic> {
         let params = resolve_doc_params(doc)?;
-        let ctx = Ctx { params: &params };
+        let ctx = Ctx {
+            params: &params,
+            maps: &doc.string_maps,
+        };
         let materials = doc
             .materials
             .iter()
@@ -289,7 +359,7 @@ fn resolve_doc_params(doc: &Document) -> Result<BTreeMap<String, f64>, Diagnosti
         .map(|(k, _, v)| (k.clone(), v.value.clone()))
         .collect();
     resolve_params(&list).map_err(|(i, e)| match doc.params.get(i) {
-        Some((k, _, v)) => expr_diag(v, e, &format!("params.{k}")),
+        Some((k, _, v)) => expr_diag(v, &doc.string_maps, e, &format!("params.{k}")),
         None => Diagnostic::new(0..1, e.message),
     })
 }

@@ -2,10 +2,12 @@
 //! drawing inline where the sheet marks it.
 //!
 //! The renderer knows only what [`super::markdown`] writes: `#`–`###` headings,
-//! paragraphs, `>` quotes, `-` lists, pipe tables, and inline `code`, `**bold**` and
-//! `\|`. It is not a general Markdown reader.
+//! paragraphs, `>` quotes, `-` lists, pipe tables, and inline `code`, `**bold**`,
+//! backslash escapes and the entities [`crate::text::markdown`] writes. It is not a
+//! general Markdown reader. All text goes out through [`xml`], the one escaper.
 
 use super::markdown::DRAWING_MARK;
+use crate::text::xml;
 
 const STYLE: &str = "body{font-family:sans-serif;max-width:60em;margin:2em auto;padding:0 1em;color:#222}\
 table{border-collapse:collapse;margin:0.5em 0 1em}th,td{border:1px solid #bbb;padding:0.2em 0.5em;text-align:left}\
@@ -16,7 +18,7 @@ code{background:#f2f2f2;padding:0 0.2em}figure{margin:1em 0}";
 pub fn page(title: &str, md: &str, svg: &str) -> String {
     let mut out = format!(
         "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>{}</title>\n<style>{STYLE}</style>\n</head>\n<body>\n",
-        escape(title)
+        xml(title)
     );
     let lines: Vec<&str> = md.lines().collect();
     let mut i = 0;
@@ -110,23 +112,27 @@ fn table(out: &mut String, rows: &[&str]) {
     out.push_str("</table>\n");
 }
 
-fn escape(t: &str) -> String {
-    t.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
-        .replace('"', "&quot;")
-}
+/// The entities [`crate::text::markdown`] writes, passed through as they stand.
+const ENTITIES: [&str; 3] = ["&amp;", "&lt;", "&gt;"];
 
-/// Inline Markdown: `code`, **bold** and `\|`; everything else is text.
+/// Inline Markdown: `code`, **bold**, backslash escapes of punctuation and the
+/// entities of [`ENTITIES`]; everything else is text, escaped by [`xml`].
 fn inline(t: &str) -> String {
     let mut out = String::new();
     let mut code = false;
     let mut bold = false;
     let mut rest = t;
     while let Some(c) = rest.chars().next() {
-        if rest.starts_with("\\|") {
-            out.push('|');
-            rest = &rest[2..];
+        let escaped = rest[c.len_utf8()..]
+            .chars()
+            .next()
+            .filter(|e| c == '\\' && e.is_ascii_punctuation() && (!code || *e == '|'));
+        if let Some(e) = escaped {
+            out.push_str(&xml(&e.to_string()));
+            rest = &rest[1 + e.len_utf8()..];
+        } else if let Some(ent) = ENTITIES.iter().find(|x| !code && rest.starts_with(**x)) {
+            out.push_str(ent);
+            rest = &rest[ent.len()..];
         } else if !code && rest.starts_with("**") {
             out.push_str(if bold { "</strong>" } else { "<strong>" });
             bold = !bold;
@@ -136,7 +142,7 @@ fn inline(t: &str) -> String {
             code = !code;
             rest = &rest[1..];
         } else {
-            out.push_str(&escape(&c.to_string()));
+            out.push_str(&xml(&c.to_string()));
             rest = &rest[c.len_utf8()..];
         }
     }

@@ -1,10 +1,13 @@
 //! `kern calc --json`: one object per section, keys and conventions exactly as in
 //! FORMAT.md. Values that cannot be formed (a modulus with no fibre beyond the
-//! centroid) are `null`.
+//! centroid) are `null`. Text from the file (title, names, warnings) is cleaned
+//! ([`clean`]): serde escapes control characters, but a `\u001b` read back by another
+//! tool must not become a live escape either.
 
 use super::out::OutUnits;
 use crate::analysis::Analysis;
 use crate::checks::stress::StressPoint;
+use crate::text::clean;
 use serde_json::{json, Value};
 
 /// The JSON object for one analysed file.
@@ -12,8 +15,8 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
     let p = &a.props;
     let g = |x: f64, pw: i32| u.geo(x, pw);
     let mut o = json!({
-        "file": file,
-        "title": a.section.title.clone().unwrap_or_default(),
+        "file": clean(file),
+        "title": clean(a.section.title.as_deref().unwrap_or_default()),
         "units": u.length.name(),
         "area": g(p.area, 2),
         "centroid": { "x": g(p.centroid.x, 1), "y": g(p.centroid.y, 1) },
@@ -62,7 +65,7 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
             st["per_material"] = s
                 .per_material
                 .iter()
-                .map(|(name, e)| json!({ "material": name, "max_tension": pt(&e.max_tension), "max_compression": pt(&e.max_compression) }))
+                .map(|(name, e)| json!({ "material": clean(name), "max_tension": pt(&e.max_tension), "max_compression": pt(&e.max_compression) }))
                 .collect();
         }
         obj.insert("stress".into(), st);
@@ -86,6 +89,9 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
         "quantity_units".into(),
         json!({ "force": u.force().name, "moment": u.moment().name, "stress": stress_unit.name, "deflection": u.deflection().name }),
     );
-    obj.insert("warnings".into(), json!(a.warnings));
+    obj.insert(
+        "warnings".into(),
+        json!(a.warnings.iter().map(|w| clean(w)).collect::<Vec<_>>()),
+    );
     o
 }

@@ -25,9 +25,9 @@ pub fn sheet(file: &str, a: &Analysis, u: &OutUnits) -> String {
     let title = a.section.title.as_deref().unwrap_or("(untitled section)");
     s.push_str(&format!("# {}\n\n", inline(title)));
     s.push_str(&format!(
-        "Calculation sheet for `{}`, prepared by kern {}. Lengths in {}, forces in {}, \
+        "Calculation sheet for {}, prepared by kern {}. Lengths in {}, forces in {}, \
 moments in {}, stresses in {}.\n\n",
-        inline(file),
+        code(file),
         env!("CARGO_PKG_VERSION"),
         u.length.name(),
         u.force().name,
@@ -71,9 +71,19 @@ fn fig(x: f64) -> String {
     sig(x, FIGURES)
 }
 
-/// User text made safe for one table cell or line.
+/// User text made literal for one table cell or line.
 fn inline(t: &str) -> String {
-    t.replace('|', "\\|").replace(['\n', '\r'], " ")
+    crate::text::markdown(t)
+}
+
+/// User text in a code span: cleaned, with no backtick to end the span early and `|`
+/// escaped for table cells (GitHub tables read `\|` inside code too). Inside a span
+/// `<` is literal text to Markdown, and the HTML sheet escapes it.
+fn code(t: &str) -> String {
+    format!(
+        "`{}`",
+        crate::text::clean(t).replace('`', "'").replace('|', "\\|")
+    )
 }
 
 /// A Markdown table from a header and rows.
@@ -139,11 +149,7 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                     .params
                     .get(name)
                     .map_or("—".into(), |x| plain(u.geo(*x, 1)));
-                vec![
-                    format!("`{}`", inline(name)),
-                    value,
-                    format!("`{}`", inline(&v.value.text())),
-                ]
+                vec![code(name), value, code(&v.value.text())]
             })
             .collect();
         table(

@@ -14,6 +14,7 @@ use crate::analysis::Analysis;
 use crate::geom::contour::clip_line;
 use crate::geom::{Contour, Pt, Seg};
 use crate::numfmt::sig;
+use crate::text::xml;
 use std::f64::consts::FRAC_PI_2;
 
 /// Width of the image in px.
@@ -59,13 +60,6 @@ fn n(v: f64) -> String {
     } else {
         s
     }
-}
-
-/// Text made safe inside an XML element.
-fn esc(t: &str) -> String {
-    t.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
 }
 
 /// The SVG path data of one closed contour: lines as `L`, each arc as SVG `A` pieces of
@@ -137,7 +131,7 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
     s.push_str(&format!(
         "<text x=\"{}\" y=\"24\" font-size=\"15\" font-weight=\"bold\">{}</text>\n",
         n(LEFT),
-        esc(title)
+        xml(title)
     ));
     // Parts: solids first, then voids over them.
     for void in [false, true] {
@@ -151,7 +145,7 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
             s.push_str(&format!(
                 "<path d=\"{}\" fill-rule=\"evenodd\" {style}><title>{}</title></path>\n",
                 d.join(" "),
-                esc(&piece.name)
+                xml(&piece.name)
             ));
         }
     }
@@ -299,7 +293,7 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
             "<text x=\"{}\" y=\"{}\" font-size=\"11\">{}</text>\n",
             n(LEFT - 50.0),
             n(foot),
-            esc(&line)
+            xml(&line)
         ));
         foot += 15.0;
     }
@@ -308,7 +302,7 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         "<text x=\"{}\" y=\"{}\" font-size=\"10\" fill=\"#555555\">{}</text>\n",
         n(LEFT - 50.0),
         n(foot + 3.0),
-        esc(CAUTION)
+        xml(CAUTION)
     ));
     s.push_str("</svg>\n");
     s

@@ -4,6 +4,7 @@ use super::out::OutUnits;
 use super::rows::rows;
 use crate::analysis::Analysis;
 use crate::numfmt::sig;
+use crate::text::clean;
 
 /// Significant figures shown in tables.
 pub const FIGURES: usize = 4;
@@ -12,7 +13,8 @@ pub const FIGURES: usize = 4;
 /// then the warnings.
 pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
     let mut s = String::new();
-    let title = a.section.title.as_deref().unwrap_or("(untitled section)");
+    let title = clean(a.section.title.as_deref().unwrap_or("(untitled section)"));
+    let file = clean(file);
     let n = a.section.parts.len();
     let voids = a
         .section
@@ -60,7 +62,7 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
         ));
     }
     for w in &a.warnings {
-        s.push_str(&format!("  warning: {w}\n"));
+        s.push_str(&format!("  warning: {}\n", clean(w)));
     }
     s
 }

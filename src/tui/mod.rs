@@ -13,7 +13,6 @@ pub mod config;
 pub mod keys;
 pub mod raster;
 pub mod rescue;
-pub mod sanitize;
 pub mod theme;
 pub mod views;
 pub mod worker;

@@ -3,10 +3,10 @@
 
 use super::{fit, pane, rows};
 use crate::geom::shapes::SHAPES;
+use crate::text::clean;
 use crate::tui::app::{App, Mode, Picker};
 use crate::tui::columns::{cell, Col};
 use crate::tui::keys::{groups, keys_label};
-use crate::tui::sanitize::clean;
 use crate::tui::theme::Theme;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;

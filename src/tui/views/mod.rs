@@ -11,8 +11,8 @@ pub mod parts;
 pub mod status;
 
 use super::app::{App, Mode};
-use super::sanitize::clean;
 use super::theme::Theme;
+use crate::text::clean;
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::Line;

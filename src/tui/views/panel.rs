@@ -5,8 +5,8 @@
 use super::{fit, fit_right, pane};
 use crate::numfmt::{change, sig};
 use crate::report::rows::{rows, Row};
+use crate::text::clean;
 use crate::tui::app::App;
-use crate::tui::sanitize::clean;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};

@@ -2,8 +2,8 @@
 
 use super::{fit, fit_right, pane};
 use crate::numfmt::sig;
+use crate::text::clean;
 use crate::tui::app::{App, Focus};
-use crate::tui::sanitize::clean;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::style::Style;

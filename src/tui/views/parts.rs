@@ -3,9 +3,9 @@
 //! other columns scroll sideways to the selected one; rows scroll to the selected part.
 
 use super::{fit, pane};
+use crate::text::clean;
 use crate::tui::app::{App, Focus};
 use crate::tui::columns::{cell, Col};
-use crate::tui::sanitize::clean;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::widgets::Widget;

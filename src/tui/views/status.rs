@@ -4,9 +4,9 @@
 
 use crate::model::expr::Expr;
 use crate::report::CAUTION;
+use crate::text::clean;
 use crate::tui::app::{App, Focus, Mode, Target};
 use crate::tui::columns::{anchor, cell, number, Col};
-use crate::tui::sanitize::clean;
 use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
