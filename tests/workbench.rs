@@ -233,7 +233,7 @@ fn changing_a_shape_keeps_the_part_in_place_in_one_undoable_edit() {
         "the picker opens on the part's own shape"
     );
     insta::assert_snapshot!("picker-change-80x24", screen(&a, 80, 24));
-    run(&mut a, Cmd::Last);
+    repeat(&mut a, Cmd::Down, 11);
     run(&mut a, Cmd::Commit);
     let p = &a.analysis.document.parts[0];
     assert_eq!(

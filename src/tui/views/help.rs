@@ -2,7 +2,7 @@
 //! for a new part or a new shape, and the questions before quitting or overwriting.
 
 use super::{fit, pane, rows};
-use crate::geom::shapes::SHAPES;
+use crate::model::schema::SPECS;
 use crate::tui::app::{App, Mode, Picker};
 use crate::tui::columns::{cell, Col};
 use crate::tui::keys::{groups, keys_label};
@@ -192,7 +192,7 @@ pub fn render(app: &App, scroll: u16, area: Rect, buf: &mut Buffer) {
 pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
     let sel = pick.row;
-    let win = centred(area, 44, SHAPES.len() as u16 + 2);
+    let win = centred(area, 44, SPECS.len() as u16 + 2);
     Clear.render(win, buf);
     let title = match pick
         .change
@@ -206,17 +206,23 @@ pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     let inner = block.inner(win);
     block.render(win, buf);
     let top = sel.saturating_sub((inner.height as usize).saturating_sub(1));
-    for (i, (name, req, opt)) in SHAPES.iter().enumerate().skip(top) {
+    for (i, spec) in SPECS.iter().enumerate().skip(top) {
         let y = inner.y + (i - top) as u16;
         if y >= inner.bottom() {
             break;
         }
-        let mut dims: Vec<String> = req.iter().map(|k| k.to_string()).collect();
-        dims.extend(opt.iter().map(|o| format!("({})", o.0)));
-        if *name == "polygon" {
+        let mut dims: Vec<String> = spec
+            .keys
+            .iter()
+            .map(|k| match k.default {
+                None => k.key.to_string(),
+                Some(_) => format!("({})", k.key),
+            })
+            .collect();
+        if spec.points {
             dims.push("points".into());
         }
-        let text = format!("{} {}", fit(name, 15), dims.join(" "));
+        let text = format!("{} {}", fit(spec.name, 15), dims.join(" "));
         let style = if i == sel {
             th.cell_selected
         } else {
