@@ -110,7 +110,47 @@ fn blocks(th: &Theme, width: usize) -> Vec<Block> {
     out
 }
 
-/// The help laid out in the columns that fit `inner`: the lines of each column.
+/// The shapes, each with its keys and what they measure (optional ones with their
+/// default), from the schema.
+fn shapes(th: &Theme, width: usize) -> Vec<Block> {
+    let desc_w = width.saturating_sub(KEY_W).max(10);
+    let mut heading = Some(Line::styled(
+        "Shapes (a adds a part, t changes one)",
+        th.header,
+    ));
+    SPECS
+        .iter()
+        .map(|spec| {
+            let mut keys: Vec<String> = spec
+                .keys
+                .iter()
+                .map(|k| match k.default {
+                    None => format!("{} {}", k.key, k.meaning),
+                    Some(d) => format!("{} {} (default {d})", k.key, k.meaning),
+                })
+                .collect();
+            if spec.points {
+                keys.push("points [[x, y], ...], 3 or more".into());
+            }
+            let mut lines: Vec<Line> = heading.take().into_iter().collect();
+            let gap = !lines.is_empty();
+            for (i, part) in wrap(&th.text(&keys.join(", ")), desc_w)
+                .into_iter()
+                .enumerate()
+            {
+                let name = if i == 0 { spec.name } else { "" };
+                lines.push(Line::from(vec![
+                    Span::styled(fit(name, KEY_W), th.border_focus),
+                    Span::raw(part),
+                ]));
+            }
+            Block { gap, lines }
+        })
+        .collect()
+}
+
+/// The help laid out in the columns that fit `inner`: the lines of each column. The
+/// keys are balanced over the columns; the shapes follow at the foot of the last.
 fn columns(th: &Theme, inner: Rect) -> Vec<Vec<Line<'static>>> {
     let ncols = (inner.width / COL_W).max(1) as usize;
     let width = (inner.width as usize / ncols).saturating_sub(1);
@@ -128,6 +168,14 @@ fn columns(th: &Theme, inner: Rect) -> Vec<Vec<Line<'static>>> {
         }
         if let Some(col) = cols.last_mut() {
             if b.gap && !col.is_empty() {
+                col.push(Line::raw(""));
+            }
+            col.extend(b.lines);
+        }
+    }
+    if let Some(col) = cols.last_mut() {
+        for b in shapes(th, width) {
+            if b.gap {
                 col.push(Line::raw(""));
             }
             col.extend(b.lines);
