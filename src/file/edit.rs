@@ -203,9 +203,6 @@ impl Edit {
     }
 }
 
-/// The corners of a new polygon part, in millimetres (a right triangle).
-const DEFAULT_POLYGON_MM: [[f64; 2]; 3] = [[0.0, 0.0], [100.0, 0.0], [0.0, 100.0]];
-
 /// The document of a file's text.
 pub fn open(text: &str) -> Result<DocumentMut, String> {
     text.parse::<DocumentMut>()
@@ -390,7 +387,7 @@ fn sized(mm: f64, unit: LengthUnit) -> Value {
 
 /// The keys a new part of `shape` is written with, after `name` and `shape`: its
 /// required dimensions at the sizes of its spec (converted to `unit`), and a polygon's
-/// default corners.
+/// corners from its spec.
 fn default_keys(shape: ShapeKind, unit: LengthUnit) -> Vec<(&'static str, Value)> {
     let spec = shape.spec();
     let mut keys: Vec<(&str, Value)> = spec
@@ -400,7 +397,8 @@ fn default_keys(shape: ShapeKind, unit: LengthUnit) -> Vec<(&'static str, Value)
         .map(|k| (k.key, sized(k.new_mm, unit)))
         .collect();
     if spec.points {
-        let pts = DEFAULT_POLYGON_MM
+        let pts = spec
+            .new_points_mm
             .iter()
             .map(|p| Value::Array(Array::from_iter(p.iter().map(|&c| sized(c, unit)))));
         keys.push(("points", Value::Array(Array::from_iter(pts))));

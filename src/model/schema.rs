@@ -1,6 +1,6 @@
 //! The shapes of format 1 as data: for each shape its file name, its dimension keys
-//! with their meaning, rule and default, the sizes a new part gets, its default anchor
-//! and whether it is drawn from `points`. The reader, the resolver, the editor, the
+//! with their meaning, rule and default, the sizes (or corners) a new part gets, its
+//! default anchor and whether it is drawn from `points`. The reader, the resolver, the editor, the
 //! workbench's columns, picker and help, and the reports all take the shapes from
 //! [`SPECS`]; [`crate::geom::shapes`] draws the boundary of each kind.
 //!
@@ -62,6 +62,8 @@ pub struct ShapeSpec {
     pub keys: &'static [KeySpec],
     /// Drawn from `points = [[x, y], ...]` rather than from dimensions.
     pub points: bool,
+    /// The corners, in millimetres, a new part of a shape drawn from points gets.
+    pub new_points_mm: &'static [[f64; 2]],
     /// The anchor of a part that names none.
     pub anchor: Anchor,
     /// Where the shape lies in its own frame.
@@ -100,6 +102,7 @@ const fn shape(
         name,
         keys,
         points: false,
+        new_points_mm: &[],
         anchor: Anchor::Center,
         frame,
     }
@@ -152,6 +155,8 @@ pub const SPECS: &[ShapeSpec] = &[
         name: "polygon",
         keys: &[],
         points: true,
+        // A right triangle.
+        new_points_mm: &[[0.0, 0.0], [100.0, 0.0], [0.0, 100.0]],
         anchor: Anchor::Origin,
         frame: "as given",
     },
@@ -336,6 +341,7 @@ mod tests {
                 );
             }
             assert_eq!(s.points, s.keys.is_empty(), "{}", s.name);
+            assert_eq!(s.points, s.new_points_mm.len() >= 3, "{}", s.name);
         }
     }
 }
