@@ -114,10 +114,7 @@ fn blocks(th: &Theme, width: usize) -> Vec<Block> {
 /// default), from the schema.
 fn shapes(th: &Theme, width: usize) -> Vec<Block> {
     let desc_w = width.saturating_sub(KEY_W).max(10);
-    let mut heading = Some(Line::styled(
-        "Shapes (a adds a part, t changes one)",
-        th.header,
-    ));
+    let mut heading = Some(Line::styled("Shapes and their keys", th.header));
     SPECS
         .iter()
         .map(|spec| {
