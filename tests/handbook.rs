@@ -405,3 +405,73 @@ fn rolled_i_sections_torsion_and_warping_constants() {
         assert!(t.shear_centre.x.abs() < 1e-4 * d && t.shear_centre.y.abs() < 1e-4 * d);
     }
 }
+
+#[test]
+fn zed_against_its_three_rectangles_and_fillet_spandrels() {
+    // Sharp zed, d × b with flanges tf and web tw, in its own frame: the web over the
+    // full depth and two flange outstands o = b − tw wide. The centroid is the centre of
+    // symmetry (b − tw/2, d/2); each outstand's centroid sits (±b/2, ±(d − tf)/2) from
+    // it (the top one up and to +x, the bottom one down and to −x). Parallel axis
+    // theorem over the three rectangles (Gere & Goodno, Mechanics of Materials, §12.5
+    // and §12.7 for the product of inertia):
+    //   A   = tw·d + 2·o·tf
+    //   Ixx = tw·d³/12 + 2·(o·tf³/12 + o·tf·((d − tf)/2)²)
+    //   Iyy = d·tw³/12 + 2·(tf·o³/12 + o·tf·(b/2)²)
+    //   Ixy = 2·o·tf·(b/2)·((d − tf)/2)      (the web adds nothing)
+    // and the principal axis from tan 2θ = −2Ixy/(Ixx − Iyy) (ibid. §12.8).
+    let (d, b, tf, tw): (f64, f64, f64, f64) = (200.0, 75.0, 8.0, 6.0);
+    let o = b - tw;
+    let z = calc(&format!(
+        "[[parts]]\nshape = \"zed\"\nd = {d}\nb = {b}\ntf = {tf}\ntw = {tw}\nanchor = \"origin\""
+    ));
+    let p = &z.props;
+    let area = tw * d + 2.0 * o * tf;
+    let (dy, dx) = ((d - tf) / 2.0, b / 2.0);
+    let ixx = tw * d.powi(3) / 12.0 + 2.0 * (o * tf.powi(3) / 12.0 + o * tf * dy * dy);
+    let iyy = d * tw.powi(3) / 12.0 + 2.0 * (tf * o.powi(3) / 12.0 + o * tf * dx * dx);
+    let ixy = 2.0 * o * tf * dx * dy;
+    close(p.area, area, 1e-14);
+    close(p.centroid.x, b - tw / 2.0, 1e-13);
+    close(p.centroid.y, d / 2.0, 1e-13);
+    close(p.ixx, ixx, 1e-12);
+    close(p.iyy, iyy, 1e-12);
+    close(p.ixy, ixy, 1e-12);
+    let theta = (-2.0 * ixy).atan2(ixx - iyy).to_degrees() / 2.0;
+    assert!(
+        theta < 0.0,
+        "the top flange points to +x, so the major axis turns clockwise"
+    );
+    close(p.principal.angle_deg, theta, 1e-11);
+
+    // With root fillets r the zed gains a spandrel (a square r × r less a quarter
+    // circle) in each inside corner; the two are symmetric through the centroid, so it
+    // stays put and each adds the same to Ixx, Iyy and Ixy. In a spandrel's own
+    // coordinates u, v ≥ 0 measured from its corner away from the flange and the web
+    // (square minus quarter disc; quarter-disc moments from Gere & Goodno App. E
+    // case 10): ∫dA = (1 − π/4)r², ∫u dA = ∫v dA = (5/6 − π/4)r³,
+    // ∫u² dA = ∫v² dA = (1 − 5π/16)r⁴, ∫uv dA = (19/24 − π/4)r⁴. The top corner is
+    // at (b, d − tf), with u along +x and v along −y.
+    let r: f64 = 10.0;
+    let f = calc(&format!(
+        "[[parts]]\nshape = \"zed\"\nd = {d}\nb = {b}\ntf = {tf}\ntw = {tw}\nr = {r}\nanchor = \"origin\""
+    ));
+    let (a_s, s1) = ((1.0 - PI / 4.0) * r * r, (5.0 / 6.0 - PI / 4.0) * r.powi(3));
+    let (s2, suv) = (
+        (1.0 - 5.0 * PI / 16.0) * r.powi(4),
+        (19.0 / 24.0 - PI / 4.0) * r.powi(4),
+    );
+    let (cx, cy) = (b - tw / 2.0, d / 2.0);
+    let (ex, ey) = (b - cx, d - tf - cy);
+    let sxx = a_s * ey * ey - 2.0 * ey * s1 + s2;
+    let syy = a_s * ex * ex + 2.0 * ex * s1 + s2;
+    let sxy = a_s * ex * ey + ey * s1 - ex * s1 - suv;
+    let q = &f.props;
+    close(q.area, area + 2.0 * a_s, 1e-13);
+    close(q.centroid.x, cx, 1e-13);
+    close(q.centroid.y, cy, 1e-13);
+    close(q.ixx, ixx + 2.0 * sxx, 1e-12);
+    close(q.iyy, iyy + 2.0 * syy, 1e-12);
+    close(q.ixy, ixy + 2.0 * sxy, 1e-12);
+    let theta = (-2.0 * q.ixy).atan2(q.ixx - q.iyy).to_degrees() / 2.0;
+    close(q.principal.angle_deg, theta, 1e-11);
+}

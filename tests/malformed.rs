@@ -4,6 +4,7 @@
 
 use kern::analysis::{Analysis, Options};
 use kern::file::locate;
+use kern::model::schema::SPECS;
 use proptest::prelude::*;
 
 const HEAD: &str = "format = 1\nunits = \"mm\"\n";
@@ -313,6 +314,33 @@ fn sizes_must_be_positive() {
         9,
         None,
         &["root radius"],
+    );
+    // A zed: the web thinner than the flange width, both flanges leaving a web, each
+    // root fillet within its outstand and the web.
+    let zed = |dims: &str| with(&format!("[[parts]]\nshape = \"zed\"\n{dims}"));
+    expect(
+        &zed("d = 200\nb = 6\ntf = 8\ntw = 6\n"),
+        8,
+        Some(6),
+        &["tw", "flange width"],
+    );
+    expect(
+        &zed("d = 16\nb = 75\ntf = 8\ntw = 6\n"),
+        7,
+        Some(6),
+        &["tf", "no web"],
+    );
+    expect(
+        &zed("d = 200\nb = 75\ntf = 8\ntw = 6\nr = 70\n"),
+        9,
+        Some(5),
+        &["root radius"],
+    );
+    expect(
+        &zed("d = 200\nb = 75\ntf = 8\ntw = 6\nr = -1\n"),
+        9,
+        Some(5),
+        &["negative"],
     );
 }
 
@@ -814,19 +842,14 @@ fn wild_number() -> impl Strategy<Value = String> {
 }
 
 fn wild_part() -> impl Strategy<Value = String> {
-    let shape = prop::sample::select(vec![
-        ("rect", vec!["b", "h"]),
-        ("triangle", vec!["b", "h", "apex"]),
-        ("circle", vec!["d"]),
-        ("half_circle", vec!["d"]),
-        ("quarter_circle", vec!["r"]),
-        ("ibeam", vec!["d", "b", "tf", "tw", "r"]),
-        ("channel", vec!["d", "b", "tf", "tw", "r"]),
-        ("angle", vec!["h", "b", "t", "r"]),
-        ("tee", vec!["d", "b", "tf", "tw", "r"]),
-        ("box", vec!["h", "b", "t", "ro"]),
-        ("pipe", vec!["d", "t"]),
-    ]);
+    // Every shape drawn from dimensions, with its keys, from the schema.
+    let shape = prop::sample::select(
+        SPECS
+            .iter()
+            .filter(|s| !s.points)
+            .map(|s| (s.name, s.keys.iter().map(|k| k.key).collect::<Vec<_>>()))
+            .collect::<Vec<_>>(),
+    );
     (
         shape,
         prop::collection::vec(wild_number(), 5),

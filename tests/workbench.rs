@@ -233,7 +233,7 @@ fn changing_a_shape_keeps_the_part_in_place_in_one_undoable_edit() {
         "the picker opens on the part's own shape"
     );
     insta::assert_snapshot!("picker-change-80x24", screen(&a, 80, 24));
-    run(&mut a, Cmd::Last);
+    repeat(&mut a, Cmd::Down, 11);
     run(&mut a, Cmd::Commit);
     let p = &a.analysis.document.parts[0];
     assert_eq!(
@@ -624,4 +624,28 @@ fn a_file_that_does_not_exist_starts_a_new_section() {
     run(&mut a, Cmd::Save);
     assert_eq!(std::fs::read_to_string(&file).unwrap(), text);
     std::fs::remove_dir_all(&dir).unwrap();
+}
+
+#[test]
+fn a_refused_edit_leaves_the_kept_document_as_the_text() {
+    use kern::file::edit::{Edit, Flag, Slot};
+    let mut a = app(GIRDER);
+    let before = a.text.clone();
+    let bad = Edit::SetValue {
+        part: 0,
+        slot: Slot::Key("b".into()),
+        entry: "no_such_param".into(),
+    };
+    assert!(!a.edit(bad), "an unknown param does not compute");
+    assert_eq!(a.text, before);
+    assert!(a.message.as_ref().is_some_and(|m| m.1));
+    // The next edit starts from the text as it was, not from the refused one.
+    let flip = Edit::Toggle {
+        part: 1,
+        flag: Flag::FlipY,
+    };
+    let want = flip.apply_to_text(&before).unwrap();
+    assert!(a.edit(flip));
+    assert_eq!(a.text, want);
+    assert!(!a.text.contains("no_such_param"));
 }

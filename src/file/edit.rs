@@ -1,15 +1,15 @@
-//! Editing a section file in place: every operation takes the file text and returns
-//! new text in which only what was asked for changed — comments, key order, spacing
-//! and untouched lines stay as written (a one-value edit is a one-line diff).
+//! Editing a section file in place: an [`Edit`] says what to change, and
+//! [`Edit::apply`] changes only that in a `toml_edit` document the caller keeps —
+//! comments, key order, spacing and untouched lines stay as written (a one-value edit
+//! is a one-line diff).
 //!
-//! The operations do not check that the result is a valid section; the caller
-//! re-reads the text (`Analysis::of_text`) and refuses an edit that does not compute.
+//! The edits do not check that the result is a valid section; the caller re-reads
+//! the text (`Analysis::of_text`) and refuses an edit that does not compute.
 //! What lives elsewhere: reading with spans is [`super::read`], saving is [`super::save`].
 
-use crate::geom::shapes::SHAPES;
-use crate::geom::Anchor;
+use crate::model::schema::{is_shape_key, ShapeKind};
 use crate::model::units::LengthUnit;
-use crate::model::Val;
+use crate::model::{Anchor, Val};
 use toml_edit::{Array, ArrayOfTables, DocumentMut, Item, Key, Table, TableLike, Value};
 
 /// A number-valued place in a part: a named key (`b`, `tf`, `rotate`…) or one
@@ -20,36 +20,191 @@ pub enum Slot {
     At(usize),
 }
 
-/// Default sizes in millimetres for a newly added part of each shape (common practice:
-/// round sizes of the order of a rolled section); converted to the file's unit.
-const DEFAULT_MM: &[(&str, &[(&str, f64)])] = &[
-    ("rect", &[("b", 100.0), ("h", 50.0)]),
-    ("triangle", &[("b", 100.0), ("h", 100.0)]),
-    ("circle", &[("d", 100.0)]),
-    ("half_circle", &[("d", 100.0)]),
-    ("quarter_circle", &[("r", 50.0)]),
-    ("polygon", &[]),
-    (
-        "ibeam",
-        &[("d", 300.0), ("b", 150.0), ("tf", 10.0), ("tw", 7.0)],
-    ),
-    (
-        "channel",
-        &[("d", 200.0), ("b", 75.0), ("tf", 10.0), ("tw", 6.0)],
-    ),
-    ("angle", &[("h", 100.0), ("b", 100.0), ("t", 10.0)]),
-    (
-        "tee",
-        &[("d", 150.0), ("b", 150.0), ("tf", 10.0), ("tw", 8.0)],
-    ),
-    ("box", &[("h", 200.0), ("b", 100.0), ("t", 8.0)]),
-    ("pipe", &[("d", 100.0), ("t", 5.0)]),
-];
+/// A true/false key of a part.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Flag {
+    Void,
+    Enabled,
+    FlipX,
+    FlipY,
+}
 
-/// The corners of a new polygon part, in millimetres (a right triangle).
-const DEFAULT_POLYGON_MM: [[f64; 2]; 3] = [[0.0, 0.0], [100.0, 0.0], [0.0, 100.0]];
+impl Flag {
+    /// The key in the file.
+    pub fn key(self) -> &'static str {
+        match self {
+            Flag::Void => "void",
+            Flag::Enabled => "enabled",
+            Flag::FlipX => "flip_x",
+            Flag::FlipY => "flip_y",
+        }
+    }
 
-fn open(text: &str) -> Result<DocumentMut, String> {
+    /// The value when the key is not written.
+    pub fn default(self) -> bool {
+        self == Flag::Enabled
+    }
+}
+
+/// A text key of a part.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum TextKey {
+    Name,
+    Material,
+    Anchor,
+}
+
+impl TextKey {
+    /// The key in the file.
+    pub fn key(self) -> &'static str {
+        match self {
+            TextKey::Name => "name",
+            TextKey::Material => "material",
+            TextKey::Anchor => "anchor",
+        }
+    }
+}
+
+/// One change to a section file; parts are counted from 0.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Edit {
+    /// A number slot set to what the user typed: a number stays a number, anything
+    /// else becomes an expression.
+    SetValue {
+        part: usize,
+        slot: Slot,
+        entry: String,
+    },
+    /// A number slot set to a computed number (rounded as [`number_value`] does).
+    SetNumber {
+        part: usize,
+        slot: Slot,
+        value: f64,
+    },
+    /// A text key set; an empty text removes the key.
+    SetText {
+        part: usize,
+        key: TextKey,
+        text: String,
+    },
+    /// A polygon's points set to what the user typed, a TOML array of `[x, y]` pairs.
+    SetPoints {
+        part: usize,
+        entry: String,
+    },
+    /// The part changed to another shape (see [`change_shape`]); new sizes in `unit`.
+    SetShape {
+        part: usize,
+        shape: ShapeKind,
+        unit: LengthUnit,
+    },
+    /// A true/false key flipped.
+    Toggle {
+        part: usize,
+        flag: Flag,
+    },
+    /// A part of `shape` appended with default sizes (in `unit`), at the origin.
+    AddPart {
+        shape: ShapeKind,
+        name: String,
+        unit: LengthUnit,
+    },
+    /// A copy of the part inserted right after it.
+    CopyPart {
+        part: usize,
+    },
+    DeletePart {
+        part: usize,
+    },
+    /// The part swapped with the next one (`down`) or the previous one.
+    MovePart {
+        part: usize,
+        down: bool,
+    },
+    /// A param set to what the user typed.
+    SetParam {
+        name: String,
+        entry: String,
+    },
+    /// A param set to a computed number.
+    SetParamNumber {
+        name: String,
+        value: f64,
+    },
+}
+
+impl Edit {
+    /// Makes the change in `doc`. On an error `doc` is unchanged.
+    pub fn apply(&self, doc: &mut DocumentMut) -> Result<(), String> {
+        match self {
+            Edit::SetValue { part, slot, entry } => {
+                set_part_number(doc, *part, slot, entry_value(entry)?)
+            }
+            Edit::SetNumber { part, slot, value } => {
+                set_part_number(doc, *part, slot, number_value(*value))
+            }
+            Edit::SetText { part, key, text } => set_part_text(doc, *part, key.key(), text),
+            Edit::SetPoints { part, entry } => {
+                let v = points_value(entry)?;
+                set_key(part_mut(doc, *part)?, "points", v);
+                Ok(())
+            }
+            Edit::SetShape { part, shape, unit } => change_shape(doc, *part, *shape, *unit),
+            Edit::Toggle { part, flag } => {
+                let t = part_mut(doc, *part)?;
+                let now = t
+                    .get(flag.key())
+                    .and_then(Item::as_bool)
+                    .unwrap_or(flag.default());
+                set_key(t, flag.key(), Value::from(!now));
+                Ok(())
+            }
+            Edit::AddPart { shape, name, unit } => add_part(doc, *shape, name, *unit),
+            Edit::CopyPart { part } => with_parts(doc, |tables| {
+                let t = tables
+                    .get(*part)
+                    .cloned()
+                    .ok_or_else(|| format!("there is no part {}", part + 1))?;
+                tables.insert(part + 1, t);
+                Ok(())
+            }),
+            Edit::DeletePart { part } => with_parts(doc, |tables| {
+                if *part >= tables.len() {
+                    return Err(format!("there is no part {}", part + 1));
+                }
+                tables.remove(*part);
+                Ok(())
+            }),
+            Edit::MovePart { part, down } => with_parts(doc, |tables| {
+                let (i, j) = (
+                    *part,
+                    if *down {
+                        part + 1
+                    } else {
+                        part.wrapping_sub(1)
+                    },
+                );
+                if i >= tables.len() || j >= tables.len() {
+                    return Err("the part is already at that end of the list".into());
+                }
+                tables.swap(i, j);
+                Ok(())
+            }),
+            Edit::SetParam { name, entry } => set_param(doc, name, entry_value(entry)?),
+            Edit::SetParamNumber { name, value } => set_param(doc, name, number_value(*value)),
+        }
+    }
+
+    /// The edit applied to a file's text, for a caller that keeps no document.
+    pub fn apply_to_text(&self, text: &str) -> Result<String, String> {
+        let mut doc = open(text)?;
+        self.apply(&mut doc)?;
+        Ok(doc.to_string())
+    }
+}
+
+/// The document of a file's text.
+pub fn open(text: &str) -> Result<DocumentMut, String> {
     text.parse::<DocumentMut>()
         .map_err(|e| format!("not valid TOML: {}", e.message().trim()))
 }
@@ -151,15 +306,9 @@ fn part_mut(doc: &mut DocumentMut, i: usize) -> Result<&mut dyn TableLike, Strin
     }
 }
 
-/// Sets a number-valued slot of part `i` (0-based) to what the user typed.
-pub fn set_part_value(text: &str, i: usize, slot: &Slot, entry: &str) -> Result<String, String> {
-    set_part_number(text, i, slot, entry_value(entry)?)
-}
-
 /// Sets a number-valued slot of part `i` to a value.
-pub fn set_part_number(text: &str, i: usize, slot: &Slot, v: Value) -> Result<String, String> {
-    let mut doc = open(text)?;
-    let t = part_mut(&mut doc, i)?;
+fn set_part_number(doc: &mut DocumentMut, i: usize, slot: &Slot, v: Value) -> Result<(), String> {
+    let t = part_mut(doc, i)?;
     match slot {
         Slot::Key(k) => set_key(t, k, v),
         Slot::At(c) => {
@@ -176,38 +325,22 @@ pub fn set_part_number(text: &str, i: usize, slot: &Slot, v: Value) -> Result<St
             }
         }
     }
-    Ok(doc.to_string())
+    Ok(())
 }
 
 /// Sets a text key of part `i` (`name`, `material`); an empty text removes the key.
-pub fn set_part_text(text: &str, i: usize, key: &str, value: &str) -> Result<String, String> {
-    let mut doc = open(text)?;
-    let t = part_mut(&mut doc, i)?;
+fn set_part_text(doc: &mut DocumentMut, i: usize, key: &str, value: &str) -> Result<(), String> {
+    let t = part_mut(doc, i)?;
     if value.is_empty() {
         t.remove(key);
     } else {
         set_key(t, key, Value::from(value));
     }
-    Ok(doc.to_string())
-}
-
-/// Flips a true/false key of part `i`; `default` is its value when not written.
-pub fn toggle_part_flag(text: &str, i: usize, key: &str, default: bool) -> Result<String, String> {
-    let mut doc = open(text)?;
-    let t = part_mut(&mut doc, i)?;
-    let now = t.get(key).and_then(Item::as_bool).unwrap_or(default);
-    set_key(t, key, Value::from(!now));
-    Ok(doc.to_string())
-}
-
-/// Sets param `name` to what the user typed.
-pub fn set_param(text: &str, name: &str, entry: &str) -> Result<String, String> {
-    set_param_value(text, name, entry_value(entry)?)
+    Ok(())
 }
 
 /// Sets param `name` to a value.
-pub fn set_param_value(text: &str, name: &str, v: Value) -> Result<String, String> {
-    let mut doc = open(text)?;
+fn set_param(doc: &mut DocumentMut, name: &str, v: Value) -> Result<(), String> {
     let t = doc
         .get_mut("params")
         .and_then(Item::as_table_like_mut)
@@ -216,32 +349,28 @@ pub fn set_param_value(text: &str, name: &str, v: Value) -> Result<String, Strin
         return Err(format!("there is no param `{name}`"));
     }
     set_key(t, name, v);
-    Ok(doc.to_string())
-}
-
-/// The `[[parts]]` tables, for operations that reorder them; inline arrays are refused.
-fn parts_tables(doc: &mut DocumentMut) -> Result<&mut ArrayOfTables, String> {
-    if doc.get("parts").is_none() {
-        doc.insert("parts", Item::ArrayOfTables(ArrayOfTables::new()));
-    }
-    doc.get_mut("parts")
-        .and_then(Item::as_array_of_tables_mut)
-        .ok_or_else(|| {
-            "the parts are written as an inline array; write them as [[parts]] tables to add, copy, delete or move parts".into()
-        })
+    Ok(())
 }
 
 /// Rebuilds the `[[parts]]` array from `f` applied to its tables, keeping each slot's
 /// place among the file's other tables (a table's place is its document position).
+/// Inline arrays of parts are refused.
 fn with_parts(
-    text: &str,
+    doc: &mut DocumentMut,
     f: impl FnOnce(&mut Vec<Table>) -> Result<(), String>,
-) -> Result<String, String> {
-    let mut doc = open(text)?;
-    let aot = parts_tables(&mut doc)?;
-    let positions: Vec<usize> = aot.iter().filter_map(Table::position).collect();
-    let mut tables: Vec<Table> = aot.iter().cloned().collect();
+) -> Result<(), String> {
+    let mut tables: Vec<Table> = match doc.get("parts") {
+        None => Vec::new(),
+        Some(Item::ArrayOfTables(a)) => a.iter().cloned().collect(),
+        Some(_) => return Err("the parts are written as an inline array; write them as [[parts]] tables to add, copy, delete or move parts".into()),
+    };
     f(&mut tables)?;
+    let aot = doc
+        .entry("parts")
+        .or_insert(Item::ArrayOfTables(ArrayOfTables::new()))
+        .as_array_of_tables_mut()
+        .ok_or("the parts are not [[parts]] tables")?;
+    let positions: Vec<usize> = aot.iter().filter_map(Table::position).collect();
     aot.clear();
     for (k, mut t) in tables.into_iter().enumerate() {
         if let Some(&p) = positions.get(k).or(positions.last()) {
@@ -249,7 +378,7 @@ fn with_parts(
         }
         aot.push(t);
     }
-    Ok(doc.to_string())
+    Ok(())
 }
 
 fn sized(mm: f64, unit: LengthUnit) -> Value {
@@ -257,47 +386,45 @@ fn sized(mm: f64, unit: LengthUnit) -> Value {
 }
 
 /// The keys a new part of `shape` is written with, after `name` and `shape`: its
-/// required dimensions at their default sizes (converted to `unit`), and a polygon's
-/// default corners.
-fn default_keys(shape: &str, unit: LengthUnit) -> Result<Vec<(&'static str, Value)>, String> {
-    let dims = DEFAULT_MM
+/// required dimensions at the sizes of its spec (converted to `unit`), and a polygon's
+/// corners from its spec.
+fn default_keys(shape: ShapeKind, unit: LengthUnit) -> Vec<(&'static str, Value)> {
+    let spec = shape.spec();
+    let mut keys: Vec<(&str, Value)> = spec
+        .keys
         .iter()
-        .find(|(s, _)| *s == shape)
-        .map(|(_, d)| *d)
-        .ok_or_else(|| format!("unknown shape `{shape}`"))?;
-    let mut keys: Vec<(&str, Value)> = dims.iter().map(|&(k, mm)| (k, sized(mm, unit))).collect();
-    if shape == "polygon" {
-        let pts = DEFAULT_POLYGON_MM
+        .filter(|k| k.default.is_none())
+        .map(|k| (k.key, sized(k.new_mm, unit)))
+        .collect();
+    if spec.points {
+        let pts = spec
+            .new_points_mm
             .iter()
             .map(|p| Value::Array(Array::from_iter(p.iter().map(|&c| sized(c, unit)))));
         keys.push(("points", Value::Array(Array::from_iter(pts))));
     }
-    Ok(keys)
+    keys
 }
 
 /// Appends a part of `shape` with default sizes (converted to `unit`), named
 /// `name`, placed at the origin.
-pub fn add_part(text: &str, shape: &str, name: &str, unit: LengthUnit) -> Result<String, String> {
-    let keys = default_keys(shape, unit)?;
-    with_parts(text, |tables| {
+fn add_part(
+    doc: &mut DocumentMut,
+    shape: ShapeKind,
+    name: &str,
+    unit: LengthUnit,
+) -> Result<(), String> {
+    let keys = default_keys(shape, unit);
+    with_parts(doc, |tables| {
         let mut t = Table::new();
         t.insert("name", Item::Value(Value::from(name)));
-        t.insert("shape", Item::Value(Value::from(shape)));
+        t.insert("shape", Item::Value(Value::from(shape.as_str())));
         for (k, v) in keys {
             t.insert(k, Item::Value(v));
         }
         tables.push(t);
         Ok(())
     })
-}
-
-/// The keys that describe a shape rather than place it: the dimension keys of every
-/// shape, and `points`.
-fn is_shape_key(key: &str) -> bool {
-    key == "points"
-        || SHAPES
-            .iter()
-            .any(|(_, req, opt)| req.contains(&key) || opt.iter().any(|o| o.0 == key))
 }
 
 /// Changes part `i` to `shape`. What places the part stays as written — `name`, `at`,
@@ -307,29 +434,29 @@ fn is_shape_key(key: &str) -> bool {
 /// (converted to `unit`). The dimensions stand where the old ones stood (right after
 /// `shape` if there were none), in the new shape's order. An anchor left to its default
 /// is written out when the two shapes' defaults differ, so the part stays where it was.
-pub fn change_shape(text: &str, i: usize, shape: &str, unit: LengthUnit) -> Result<String, String> {
-    let (_, req, opt) = SHAPES
-        .iter()
-        .find(|s| s.0 == shape)
-        .ok_or_else(|| format!("unknown shape `{shape}`"))?;
-    let defaults = default_keys(shape, unit)?;
-    let mut doc = open(text)?;
-    let t = part_mut(&mut doc, i)?;
+fn change_shape(
+    doc: &mut DocumentMut,
+    i: usize,
+    shape: ShapeKind,
+    unit: LengthUnit,
+) -> Result<(), String> {
+    let spec = shape.spec();
+    let defaults = default_keys(shape, unit);
+    let t = part_mut(doc, i)?;
     let old = t
         .get("shape")
         .and_then(Item::as_str)
-        .unwrap_or_default()
-        .to_string();
+        .and_then(ShapeKind::parse);
     let entries: Vec<(Key, Item)> = t
         .iter()
         .filter_map(|(k, _)| t.get_key_value(k))
         .map(|(k, v)| (k.clone(), v.clone()))
         .collect();
-    let wanted = req
+    let wanted = spec
+        .keys
         .iter()
-        .copied()
-        .chain(opt.iter().map(|o| o.0))
-        .chain((shape == "polygon").then_some("points"));
+        .map(|k| k.key)
+        .chain(spec.points.then_some("points"));
     let mut block: Vec<(Key, Item)> = Vec::new();
     for k in wanted {
         match entries.iter().find(|(e, _)| e.get() == k) {
@@ -358,22 +485,12 @@ pub fn change_shape(text: &str, i: usize, shape: &str, unit: LengthUnit) -> Resu
     for (k, item) in out {
         t.entry_format(&k).or_insert(item);
     }
-    set_key(t, "shape", Value::from(shape));
-    let (was, will) = (Anchor::default_for(&old), Anchor::default_for(shape));
-    if t.get("anchor").is_none() && was != will {
+    set_key(t, "shape", Value::from(shape.as_str()));
+    let was = old.map_or(Anchor::Center, ShapeKind::default_anchor);
+    if t.get("anchor").is_none() && was != shape.default_anchor() {
         t.insert("anchor", Item::Value(Value::from(was.name())));
     }
-    Ok(doc.to_string())
-}
-
-/// Sets the `points` of part `i` to what the user typed: a TOML array of `[x, y]`
-/// pairs, each a number or an expression in quotes. The new list stands where the old
-/// one stood; the reader then checks the pairs and the polygon.
-pub fn set_part_points(text: &str, i: usize, entry: &str) -> Result<String, String> {
-    let v = points_value(entry)?;
-    let mut doc = open(text)?;
-    set_key(part_mut(&mut doc, i)?, "points", v);
-    Ok(doc.to_string())
+    Ok(())
 }
 
 /// A typed point list as a TOML value; a syntax error names the column of the entry.
@@ -424,46 +541,6 @@ pub fn points_entry(points: &[[Val; 2]]) -> String {
     format!("[{}]", pairs.join(", "))
 }
 
-/// Inserts a copy of part `i` right after it.
-pub fn duplicate_part(text: &str, i: usize) -> Result<String, String> {
-    with_parts(text, |tables| {
-        let t = tables
-            .get(i)
-            .cloned()
-            .ok_or_else(|| format!("there is no part {}", i + 1))?;
-        tables.insert(i + 1, t);
-        Ok(())
-    })
-}
-
-/// Removes part `i`.
-pub fn delete_part(text: &str, i: usize) -> Result<String, String> {
-    with_parts(text, |tables| {
-        if i >= tables.len() {
-            return Err(format!("there is no part {}", i + 1));
-        }
-        tables.remove(i);
-        Ok(())
-    })
-}
-
-/// Swaps part `i` with the next one (`down`) or the previous one.
-pub fn move_part(text: &str, i: usize, down: bool) -> Result<String, String> {
-    with_parts(text, |tables| {
-        let j = if down { i + 1 } else { i.wrapping_sub(1) };
-        if i >= tables.len() || j >= tables.len() {
-            return Err("the part is already at that end of the list".into());
-        }
-        tables.swap(i, j);
-        Ok(())
-    })
-}
-
-/// The shapes a part can be added as, in the order of [`SHAPES`].
-pub fn shape_names() -> impl Iterator<Item = &'static str> {
-    SHAPES.iter().map(|s| s.0)
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -476,45 +553,128 @@ mod tests {
         la.iter().zip(&lb).filter(|(x, y)| x != y).count()
     }
 
+    fn edit(text: &str, e: Edit) -> Result<String, String> {
+        e.apply_to_text(text)
+    }
+
+    fn key(k: &str) -> Slot {
+        Slot::Key(k.into())
+    }
+
     #[test]
     fn one_value_edit_is_one_line() {
-        let t = set_part_value(SRC, 1, &Slot::Key("h".into()), "120").unwrap();
+        let t = edit(
+            SRC,
+            Edit::SetValue {
+                part: 1,
+                slot: key("h"),
+                entry: "120".into(),
+            },
+        )
+        .unwrap();
         assert_eq!(changed_lines(SRC, &t), 1);
         assert!(t.contains("h = 120\nat"));
-        let t = set_param(SRC, "bf", "300").unwrap();
+        let t = edit(
+            SRC,
+            Edit::SetParam {
+                name: "bf".into(),
+                entry: "300".into(),
+            },
+        )
+        .unwrap();
         assert_eq!(changed_lines(SRC, &t), 1);
         assert!(t.contains("bf = 300   # flange"));
-        let t = set_part_value(SRC, 1, &Slot::At(1), "hw/2").unwrap();
+        let t = edit(
+            SRC,
+            Edit::SetValue {
+                part: 1,
+                slot: Slot::At(1),
+                entry: "hw/2".into(),
+            },
+        )
+        .unwrap();
         assert_eq!(changed_lines(SRC, &t), 1);
         assert!(t.contains("at = [0, \"hw/2\"]"));
-        let t = toggle_part_flag(SRC, 0, "void", false).unwrap();
+        let t = edit(
+            SRC,
+            Edit::Toggle {
+                part: 0,
+                flag: Flag::Void,
+            },
+        )
+        .unwrap();
         assert!(t.contains("h = 10\nvoid = true\n"));
     }
 
     #[test]
     fn structure_edits_keep_comments_and_other_tables() {
-        let t = add_part(SRC, "pipe", "new pipe", LengthUnit::Mm).unwrap();
+        let t = edit(
+            SRC,
+            Edit::AddPart {
+                shape: ShapeKind::Pipe,
+                name: "new pipe".into(),
+                unit: LengthUnit::Mm,
+            },
+        )
+        .unwrap();
         assert!(t.contains("at = [0, -55]\n\n[[parts]]\nname = \"new pipe\"\nshape = \"pipe\"\nd = 100\nt = 5\n\n[actions]"));
-        let t = add_part(SRC, "rect", "r", LengthUnit::In).unwrap();
+        let t = edit(
+            SRC,
+            Edit::AddPart {
+                shape: ShapeKind::Rect,
+                name: "r".into(),
+                unit: LengthUnit::In,
+            },
+        )
+        .unwrap();
         assert!(t.contains("b = 3.94\nh = 1.97"));
-        let t = move_part(SRC, 0, true).unwrap();
+        let t = edit(
+            SRC,
+            Edit::MovePart {
+                part: 0,
+                down: true,
+            },
+        )
+        .unwrap();
         let (pa, pb) = (
             t.find("name = \"a\"").unwrap(),
             t.find("name = \"b\"").unwrap(),
         );
         assert!(pb < pa && t.starts_with("# a comment") && t.contains("# second part"));
         assert!(t.trim_end().ends_with("Mx = \"1 kN*m\""));
-        let t = delete_part(SRC, 0).unwrap();
+        let t = edit(SRC, Edit::DeletePart { part: 0 }).unwrap();
         assert!(!t.contains("name = \"a\"") && t.contains("[actions]"));
-        let t = duplicate_part(SRC, 0).unwrap();
+        let t = edit(SRC, Edit::CopyPart { part: 0 }).unwrap();
         assert_eq!(t.matches("name = \"a\"").count(), 2);
-        assert!(move_part(SRC, 1, true).is_err());
+        assert!(edit(
+            SRC,
+            Edit::MovePart {
+                part: 1,
+                down: true
+            }
+        )
+        .is_err());
+    }
+
+    fn shape(part: usize, shape: ShapeKind) -> Edit {
+        Edit::SetShape {
+            part,
+            shape,
+            unit: LengthUnit::Mm,
+        }
+    }
+
+    fn points(entry: &str) -> Edit {
+        Edit::SetPoints {
+            part: 0,
+            entry: entry.into(),
+        }
     }
 
     #[test]
     fn changing_the_shape_keeps_placement_and_shared_sizes() {
         let src = "format = 1\nunits = \"mm\"\n\n[[parts]]\nname = \"a\"\nshape = \"rect\"\nb = 10   # wide\nh = 100\nat = [0, -55]\nrotate = 30\nflip_x = true\nvoid = false\n";
-        let t = change_shape(src, 0, "ibeam", LengthUnit::Mm).unwrap();
+        let t = edit(src, shape(0, ShapeKind::IBeam)).unwrap();
         assert!(
             t.contains("shape = \"ibeam\"\nd = 300\nb = 10   # wide\ntf = 10\ntw = 7\nat = [0, -55]\nrotate = 30\nflip_x = true\nvoid = false\n"),
             "{t}"
@@ -522,34 +682,97 @@ mod tests {
         assert!(!t.contains("h = 100") && !t.contains("anchor"));
         // To a polygon: the dimensions go, default corners come, and the anchor that
         // was the default (center) is written out.
-        let t = change_shape(src, 0, "polygon", LengthUnit::Mm).unwrap();
+        let t = edit(src, shape(0, ShapeKind::Polygon)).unwrap();
         assert!(t.contains("shape = \"polygon\"\npoints = [[0, 0], [100, 0], [0, 100]]\nat"));
         assert!(t.contains("anchor = \"center\"") && !t.contains("b = 10"));
-        let back = change_shape(&t, 0, "rect", LengthUnit::Mm).unwrap();
+        let back = edit(&t, shape(0, ShapeKind::Rect)).unwrap();
         assert!(back.contains("shape = \"rect\"\nb = 100\nh = 50\nat") && !back.contains("points"));
-        assert!(change_shape(src, 0, "hexagon", LengthUnit::Mm).is_err());
-        assert!(change_shape(src, 3, "pipe", LengthUnit::Mm).is_err());
+        assert!(edit(src, shape(3, ShapeKind::Pipe)).is_err());
     }
 
     #[test]
     fn points_are_typed_as_a_toml_array() {
         let src = "format = 1\nunits = \"mm\"\n[[parts]]\nshape = \"polygon\"\npoints = [[0, 0], [1, 0], [0, 1]]   # corners\nat = [5, 5]\n";
-        let t = set_part_points(src, 0, "[[0, 0], [\"b\", 0], [0, 2.5]]").unwrap();
+        let t = edit(src, points("[[0, 0], [\"b\", 0], [0, 2.5]]")).unwrap();
         assert_eq!(changed_lines(src, &t), 1);
         assert!(t.contains("points = [[0, 0], [\"b\", 0], [0, 2.5]]   # corners\n"));
-        let e = set_part_points(src, 0, "[[0, 0], [b, 0]]").unwrap_err();
+        let e = edit(src, points("[[0, 0], [b, 0]]")).unwrap_err();
         assert!(e.starts_with("column 11:"), "{e}");
-        assert!(set_part_points(src, 0, "3").is_err());
-        assert!(set_part_points(src, 0, "[[0, 0]] x = 1").is_err());
+        assert!(edit(src, points("3")).is_err());
+        assert!(edit(src, points("[[0, 0]] x = 1")).is_err());
     }
 
     #[test]
-    fn every_shape_has_default_sizes() {
-        for (shape, required, _) in SHAPES {
-            let d = DEFAULT_MM.iter().find(|s| s.0 == *shape).unwrap();
-            for k in *required {
-                assert!(d.1.iter().any(|x| x.0 == *k), "{shape}.{k}");
-            }
+    fn a_refused_edit_leaves_the_document_as_it_was() {
+        let mut doc = open(SRC).unwrap();
+        for e in [
+            Edit::MovePart {
+                part: 1,
+                down: true,
+            },
+            Edit::DeletePart { part: 7 },
+            Edit::SetParam {
+                name: "nope".into(),
+                entry: "1".into(),
+            },
+            Edit::SetValue {
+                part: 9,
+                slot: key("b"),
+                entry: "1".into(),
+            },
+            Edit::SetPoints {
+                part: 0,
+                entry: "[[0, 0], [b, 0]]".into(),
+            },
+        ] {
+            assert!(e.apply(&mut doc).is_err(), "{e:?}");
+            assert_eq!(doc.to_string(), SRC);
         }
+    }
+
+    #[test]
+    fn edits_on_a_kept_document_write_what_edits_on_the_text_write() {
+        let edits = [
+            Edit::AddPart {
+                shape: ShapeKind::Zed,
+                name: "z".into(),
+                unit: LengthUnit::Mm,
+            },
+            Edit::SetValue {
+                part: 2,
+                slot: key("r"),
+                entry: "4".into(),
+            },
+            Edit::MovePart {
+                part: 2,
+                down: false,
+            },
+            Edit::Toggle {
+                part: 1,
+                flag: Flag::FlipX,
+            },
+            Edit::CopyPart { part: 0 },
+            Edit::SetShape {
+                part: 0,
+                shape: ShapeKind::Polygon,
+                unit: LengthUnit::Mm,
+            },
+            Edit::DeletePart { part: 3 },
+            Edit::SetParamNumber {
+                name: "bf".into(),
+                value: 262.5,
+            },
+        ];
+        let mut doc = open(SRC).unwrap();
+        let mut text = SRC.to_string();
+        for e in &edits {
+            e.apply(&mut doc).unwrap();
+            text = e.apply_to_text(&text).unwrap();
+            assert_eq!(doc.to_string(), text, "after {e:?}");
+        }
+        assert!(
+            text.contains("shape = \"zed\"\nd = 200\nb = 75\ntf = 8\ntw = 6\nr = 4\n"),
+            "{text}"
+        );
     }
 }

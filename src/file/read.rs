@@ -3,12 +3,12 @@
 //! errors, so a typo never silently changes a result.
 
 use super::fast_points::{self, Scanned};
-use crate::geom::shapes::SHAPES;
-use crate::geom::Anchor;
 use crate::model::document::ActionsDoc;
+use crate::model::schema::{shape_names, ShapeKind, SPECS};
 use crate::model::units::LengthUnit;
 use crate::model::{
-    Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, StringMaps, Val, Value,
+    Anchor, Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, StringMaps, Val,
+    Value,
 };
 use std::cell::{Cell, RefCell};
 use toml_edit::{ImDocument, Item, TableLike};
@@ -255,18 +255,7 @@ fn span(item: &Item, fallback: Span) -> Span {
 
 /// Edit distance, for "did you mean" hints.
 fn distance(a: &str, b: &str) -> usize {
-    let b: Vec<char> = b.chars().collect();
-    let mut row: Vec<usize> = (0..=b.len()).collect();
-    for (i, ca) in a.chars().enumerate() {
-        let mut prev = row[0];
-        row[0] = i + 1;
-        for (j, cb) in b.iter().enumerate() {
-            let cur = row[j + 1];
-            row[j + 1] = (prev + usize::from(ca != *cb)).min(row[j] + 1).min(cur + 1);
-            prev = cur;
-        }
-    }
-    row[b.len()]
+    strsim::levenshtein(a, b)
 }
 
 struct Reader<'a> {
@@ -491,9 +480,8 @@ impl Reader<'_> {
             // every shape.
             let mut any: Vec<&str> = PART_KEYS.to_vec();
             any.push("points");
-            for (_, req, opt) in SHAPES {
-                any.extend(req.iter());
-                any.extend(opt.iter().map(|o| o.0));
+            for s in SPECS {
+                any.extend(s.keys.iter().map(|k| k.key));
             }
             self.known_keys(t, &any, "a part", sp.clone())?;
             return Err(Diagnostic::new(
@@ -501,31 +489,28 @@ impl Reader<'_> {
                 "a part needs a `shape`, e.g. shape = \"rect\"",
             ));
         };
-        let Some((_, req, opt)) = SHAPES.iter().find(|s| s.0 == shape) else {
-            let best = SHAPES
+        let Some(kind) = ShapeKind::parse(&shape) else {
+            let best = SPECS
                 .iter()
-                .map(|s| s.0)
+                .map(|s| s.name)
                 .min_by_key(|s| distance(&shape, s))
                 .filter(|s| distance(&shape, s) <= 3);
             let hint = best.map_or(String::new(), |b| format!("did you mean `{b}`? "));
             return Err(Diagnostic::new(
                 shape_span,
-                format!(
-                    "unknown shape `{shape}`; {hint}shapes: {}",
-                    crate::geom::shapes::shape_names()
-                ),
+                format!("unknown shape `{shape}`; {hint}shapes: {}", shape_names()),
             ));
         };
+        let keys = kind.spec().keys;
         let mut allowed: Vec<&str> = PART_KEYS.to_vec();
-        allowed.extend(req.iter());
-        allowed.extend(opt.iter().map(|o| o.0));
-        if shape == "polygon" {
+        allowed.extend(keys.iter().map(|k| k.key));
+        if kind.has_points() {
             allowed.push("points");
         }
         self.known_keys(t, &allowed, &format!("a {shape} part"), sp.clone())?;
         let mut dims = Vec::new();
         for (k, v) in t.iter() {
-            if req.contains(&k) || opt.iter().any(|o| o.0 == k) {
+            if kind.key(k).is_some() {
                 dims.push((k.to_string(), self.val(v, k, sp.clone())?));
             }
         }
@@ -566,7 +551,7 @@ impl Reader<'_> {
         };
         Ok(PartDoc {
             name: self.opt_str(t, "name", sp.clone())?.map(|s| s.0),
-            shape,
+            shape: kind,
             shape_span,
             dims,
             points,

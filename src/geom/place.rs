@@ -3,76 +3,24 @@
 
 use super::contour::{union_bounds, Contour, Pt, Turn};
 
-/// The point of a shape that is put at `at`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Anchor {
-    Center,
-    Centroid,
-    Origin,
-    BottomLeft,
-    Bottom,
-    BottomRight,
-    Left,
-    Right,
-    TopLeft,
-    Top,
-    TopRight,
-}
+pub use crate::model::anchor::Anchor;
 
-impl Anchor {
-    /// Every anchor with its name in the file.
-    pub const ALL: [(Anchor, &'static str); 11] = [
-        (Anchor::Center, "center"),
-        (Anchor::Centroid, "centroid"),
-        (Anchor::Origin, "origin"),
-        (Anchor::BottomLeft, "bottom_left"),
-        (Anchor::Bottom, "bottom"),
-        (Anchor::BottomRight, "bottom_right"),
-        (Anchor::Left, "left"),
-        (Anchor::Right, "right"),
-        (Anchor::TopLeft, "top_left"),
-        (Anchor::Top, "top"),
-        (Anchor::TopRight, "top_right"),
-    ];
-
-    pub fn parse(s: &str) -> Option<Anchor> {
-        Anchor::ALL.iter().find(|a| a.1 == s).map(|a| a.0)
-    }
-
-    /// The anchor of a part that names none: `origin` for a polygon (its points are
-    /// where they are meant to be), `center` for every other shape.
-    pub fn default_for(shape: &str) -> Anchor {
-        if shape == "polygon" {
-            Anchor::Origin
-        } else {
-            Anchor::Center
-        }
-    }
-
-    pub fn name(self) -> &'static str {
-        Anchor::ALL
-            .iter()
-            .find(|a| a.0 == self)
-            .map_or("center", |a| a.1)
-    }
-
-    /// The anchor point given the shape's bounding box and centroid.
-    fn point(self, b: [f64; 4], centroid: Pt) -> Pt {
-        let (xm, ym) = ((b[0] + b[1]) / 2.0, (b[2] + b[3]) / 2.0);
-        let p = Pt::new;
-        match self {
-            Anchor::Center => p(xm, ym),
-            Anchor::Centroid => centroid,
-            Anchor::Origin => p(0.0, 0.0),
-            Anchor::BottomLeft => p(b[0], b[2]),
-            Anchor::Bottom => p(xm, b[2]),
-            Anchor::BottomRight => p(b[1], b[2]),
-            Anchor::Left => p(b[0], ym),
-            Anchor::Right => p(b[1], ym),
-            Anchor::TopLeft => p(b[0], b[3]),
-            Anchor::Top => p(xm, b[3]),
-            Anchor::TopRight => p(b[1], b[3]),
-        }
+/// The anchor point given the shape's bounding box and centroid.
+fn anchor_point(anchor: Anchor, b: [f64; 4], centroid: Pt) -> Pt {
+    let (xm, ym) = ((b[0] + b[1]) / 2.0, (b[2] + b[3]) / 2.0);
+    let p = Pt::new;
+    match anchor {
+        Anchor::Center => p(xm, ym),
+        Anchor::Centroid => centroid,
+        Anchor::Origin => p(0.0, 0.0),
+        Anchor::BottomLeft => p(b[0], b[2]),
+        Anchor::Bottom => p(xm, b[2]),
+        Anchor::BottomRight => p(b[1], b[2]),
+        Anchor::Left => p(b[0], ym),
+        Anchor::Right => p(b[1], ym),
+        Anchor::TopLeft => p(b[0], b[3]),
+        Anchor::Top => p(xm, b[3]),
+        Anchor::TopRight => p(b[1], b[3]),
     }
 }
 
@@ -115,7 +63,7 @@ impl Placement {
         } else {
             Pt::default()
         };
-        let anchor = self.anchor.point(bounds, centroid);
+        let anchor = anchor_point(self.anchor, bounds, centroid);
         let turn = Turn::degrees(self.rotate);
         let shift = self.at.sub(turn.apply(anchor));
         for c in &mut placed {

@@ -3,8 +3,11 @@
 //!
 //! Outlines run counter-clockwise; the bore of a pipe and the inside of a box run
 //! clockwise, so that summing over a shape's contours gives its net properties.
+//! The names, keys and rules of the shapes are [`crate::model::schema`]; here each kind
+//! gets its boundary.
 
 use super::contour::{Builder, Contour, Pt, Seg};
+use crate::model::schema::{Dims, ShapeKind};
 use std::f64::consts::{FRAC_PI_2, PI, TAU};
 
 /// A shape with its dimensions, in the file's length unit.
@@ -68,86 +71,63 @@ pub enum Shape {
         d: f64,
         t: f64,
     },
+    Zed {
+        d: f64,
+        b: f64,
+        tf: f64,
+        tw: f64,
+        r: f64,
+    },
 }
 
-/// A shape's file name, its required dimension keys, and its optional keys with defaults.
-pub type ShapeKeys = (
-    &'static str,
-    &'static [&'static str],
-    &'static [(&'static str, f64)],
-);
-
-/// The name of each shape in the file, with its dimension keys (required ones first,
-/// then optional ones with their defaults). The reader, the picker in the workbench and
-/// the documentation all take the list from here.
-pub const SHAPES: &[ShapeKeys] = &[
-    ("rect", &["b", "h"], &[]),
-    ("triangle", &["b", "h"], &[("apex", 0.0)]),
-    ("circle", &["d"], &[]),
-    ("half_circle", &["d"], &[]),
-    ("quarter_circle", &["r"], &[]),
-    ("polygon", &[], &[]),
-    ("ibeam", &["d", "b", "tf", "tw"], &[("r", 0.0)]),
-    ("channel", &["d", "b", "tf", "tw"], &[("r", 0.0)]),
-    ("angle", &["h", "b", "t"], &[("r", 0.0)]),
-    ("tee", &["d", "b", "tf", "tw"], &[("r", 0.0)]),
-    ("box", &["h", "b", "t"], &[("ro", 0.0)]),
-    ("pipe", &["d", "t"], &[]),
-];
-
 impl Shape {
-    /// Builds a shape from its file name and dimension values, checking that the
-    /// dimensions make a real shape. `dim(key)` returns the value of a key (defaults
-    /// already applied). Errors name the offending key and say how to fix it.
-    pub fn build(
-        kind: &str,
-        dim: &dyn Fn(&str) -> f64,
-        points: Vec<Pt>,
-    ) -> Result<Shape, (String, String)> {
+    /// Builds a shape of `kind` from its resolved dimensions (every key of the kind's
+    /// spec, defaults applied), checking that they make a real shape. Errors are
+    /// `(key, message)`: they name the offending key and say how to fix it.
+    pub fn build(kind: ShapeKind, dims: &Dims, points: Vec<Pt>) -> Result<Shape, (String, String)> {
+        let dim = |k: &str| {
+            dims.get(k)
+                .ok_or_else(|| (k.to_string(), format!("a {kind} needs `{k}`")))
+        };
         let s = match kind {
-            "rect" => Shape::Rect {
-                b: dim("b"),
-                h: dim("h"),
+            ShapeKind::Rect => Shape::Rect {
+                b: dim("b")?,
+                h: dim("h")?,
             },
-            "triangle" => Shape::Triangle {
-                b: dim("b"),
-                h: dim("h"),
-                apex: dim("apex"),
+            ShapeKind::Triangle => Shape::Triangle {
+                b: dim("b")?,
+                h: dim("h")?,
+                apex: dim("apex")?,
             },
-            "circle" => Shape::Circle { d: dim("d") },
-            "half_circle" => Shape::HalfCircle { d: dim("d") },
-            "quarter_circle" => Shape::QuarterCircle { r: dim("r") },
-            "polygon" => Shape::Polygon { points },
-            "ibeam" | "channel" | "tee" => {
-                let (d, b, tf, tw, r) = (dim("d"), dim("b"), dim("tf"), dim("tw"), dim("r"));
+            ShapeKind::Circle => Shape::Circle { d: dim("d")? },
+            ShapeKind::HalfCircle => Shape::HalfCircle { d: dim("d")? },
+            ShapeKind::QuarterCircle => Shape::QuarterCircle { r: dim("r")? },
+            ShapeKind::Polygon => Shape::Polygon { points },
+            ShapeKind::IBeam | ShapeKind::Channel | ShapeKind::Tee | ShapeKind::Zed => {
+                let (d, b, tf, tw, r) = (dim("d")?, dim("b")?, dim("tf")?, dim("tw")?, dim("r")?);
                 match kind {
-                    "ibeam" => Shape::IBeam { d, b, tf, tw, r },
-                    "channel" => Shape::Channel { d, b, tf, tw, r },
+                    ShapeKind::IBeam => Shape::IBeam { d, b, tf, tw, r },
+                    ShapeKind::Channel => Shape::Channel { d, b, tf, tw, r },
+                    ShapeKind::Zed => Shape::Zed { d, b, tf, tw, r },
                     _ => Shape::Tee { d, b, tf, tw, r },
                 }
             }
-            "angle" => Shape::Angle {
-                h: dim("h"),
-                b: dim("b"),
-                t: dim("t"),
-                r: dim("r"),
+            ShapeKind::Angle => Shape::Angle {
+                h: dim("h")?,
+                b: dim("b")?,
+                t: dim("t")?,
+                r: dim("r")?,
             },
-            "box" => Shape::Box {
-                h: dim("h"),
-                b: dim("b"),
-                t: dim("t"),
-                ro: dim("ro"),
+            ShapeKind::Box => Shape::Box {
+                h: dim("h")?,
+                b: dim("b")?,
+                t: dim("t")?,
+                ro: dim("ro")?,
             },
-            "pipe" => Shape::Pipe {
-                d: dim("d"),
-                t: dim("t"),
+            ShapeKind::Pipe => Shape::Pipe {
+                d: dim("d")?,
+                t: dim("t")?,
             },
-            other => {
-                return Err((
-                    "shape".into(),
-                    format!("unknown shape `{other}`; use one of {}", shape_names()),
-                ))
-            }
         };
         s.check()?;
         Ok(s)
@@ -193,7 +173,7 @@ impl Shape {
                     );
                 }
             }
-            Shape::Channel { d, b, tf, tw, r } => {
+            Shape::Channel { d, b, tf, tw, r } | Shape::Zed { d, b, tf, tw, r } => {
                 if tw >= b {
                     return fail(
                         "tw",
@@ -208,7 +188,15 @@ impl Shape {
                         format!("flange thickness tf = {tf} leaves no web in depth d = {d}"),
                     );
                 }
-                if r > b - tw || 2.0 * (tf + r) > d {
+                // A channel's two fillets face each other across the web's inner face;
+                // a zed's lie on opposite faces, each spanning at most the web's depth
+                // below (or above) its flange.
+                let fits = if matches!(self, Shape::Zed { .. }) {
+                    tf + r <= d - tf
+                } else {
+                    2.0 * (tf + r) <= d
+                };
+                if r > b - tw || !fits {
                     return fail(
                         "r",
                         format!("root radius r = {r} does not fit between web and flanges"),
@@ -259,21 +247,43 @@ impl Shape {
         Ok(())
     }
 
-    /// The file name of the shape.
-    pub fn kind(&self) -> &'static str {
+    /// The kind of the shape.
+    pub fn kind(&self) -> ShapeKind {
         match self {
-            Shape::Rect { .. } => "rect",
-            Shape::Triangle { .. } => "triangle",
-            Shape::Circle { .. } => "circle",
-            Shape::HalfCircle { .. } => "half_circle",
-            Shape::QuarterCircle { .. } => "quarter_circle",
-            Shape::Polygon { .. } => "polygon",
-            Shape::IBeam { .. } => "ibeam",
-            Shape::Channel { .. } => "channel",
-            Shape::Angle { .. } => "angle",
-            Shape::Tee { .. } => "tee",
-            Shape::Box { .. } => "box",
-            Shape::Pipe { .. } => "pipe",
+            Shape::Rect { .. } => ShapeKind::Rect,
+            Shape::Triangle { .. } => ShapeKind::Triangle,
+            Shape::Circle { .. } => ShapeKind::Circle,
+            Shape::HalfCircle { .. } => ShapeKind::HalfCircle,
+            Shape::QuarterCircle { .. } => ShapeKind::QuarterCircle,
+            Shape::Polygon { .. } => ShapeKind::Polygon,
+            Shape::IBeam { .. } => ShapeKind::IBeam,
+            Shape::Channel { .. } => ShapeKind::Channel,
+            Shape::Angle { .. } => ShapeKind::Angle,
+            Shape::Tee { .. } => ShapeKind::Tee,
+            Shape::Box { .. } => ShapeKind::Box,
+            Shape::Pipe { .. } => ShapeKind::Pipe,
+            Shape::Zed { .. } => ShapeKind::Zed,
+        }
+    }
+
+    /// The dimensions, `(key, value)` in the order of the kind's keys (none for a
+    /// polygon).
+    pub fn dims(&self) -> Vec<(&'static str, f64)> {
+        match *self {
+            Shape::Rect { b, h } => vec![("b", b), ("h", h)],
+            Shape::Triangle { b, h, apex } => vec![("b", b), ("h", h), ("apex", apex)],
+            Shape::Circle { d } | Shape::HalfCircle { d } => vec![("d", d)],
+            Shape::QuarterCircle { r } => vec![("r", r)],
+            Shape::Polygon { .. } => Vec::new(),
+            Shape::IBeam { d, b, tf, tw, r }
+            | Shape::Channel { d, b, tf, tw, r }
+            | Shape::Tee { d, b, tf, tw, r }
+            | Shape::Zed { d, b, tf, tw, r } => {
+                vec![("d", d), ("b", b), ("tf", tf), ("tw", tw), ("r", r)]
+            }
+            Shape::Angle { h, b, t, r } => vec![("h", h), ("b", b), ("t", t), ("r", r)],
+            Shape::Box { h, b, t, ro } => vec![("h", h), ("b", b), ("t", t), ("ro", ro)],
+            Shape::Pipe { d, t } => vec![("d", d), ("t", t)],
         }
     }
 
@@ -338,6 +348,7 @@ impl Shape {
                 Contour::rounded_rect(0.0, 0.0, b, h, ro),
                 Contour::rounded_rect(t, t, b - t, h - t, (ro - t).max(0.0)).reversed(),
             ],
+            Shape::Zed { d, b, tf, tw, r } => vec![zed(d, b, tf, tw, r)],
             Shape::Pipe { d, t } => {
                 let c = p(d / 2.0, d / 2.0);
                 vec![
@@ -349,11 +360,6 @@ impl Shape {
             }
         }
     }
-}
-
-/// The dimension names of every shape, for error messages.
-pub fn shape_names() -> String {
-    SHAPES.iter().map(|s| s.0).collect::<Vec<_>>().join(", ")
 }
 
 /// A concave root fillet of radius `r` about centre `c`, travelled clockwise through a
@@ -404,4 +410,56 @@ fn channel(d: f64, b: f64, tf: f64, tw: f64, r: f64) -> Contour {
     c.line(p(b, d));
     c.line(p(0.0, d));
     c.close()
+}
+
+/// Zed: web from x = b − tw to b over the full depth, the top flange toward +x, the
+/// bottom flange toward −x, a root fillet in each of the two inside corners. Symmetric
+/// through the centre (b − tw/2, d/2).
+fn zed(d: f64, b: f64, tf: f64, tw: f64, r: f64) -> Contour {
+    let p = Pt::new;
+    let x1 = b - tw;
+    let yt = d - tf;
+    let mut c = Builder::start(p(0.0, 0.0));
+    c.line(p(b, 0.0));
+    c.line(p(b, yt - r));
+    c.seg(fillet(p(b + r, yt - r), r, PI));
+    c.line(p(b + x1, yt));
+    c.line(p(b + x1, d));
+    c.line(p(x1, d));
+    c.line(p(x1, tf + r));
+    c.seg(fillet(p(x1 - r, tf + r), r, 0.0));
+    c.line(p(0.0, tf));
+    c.close()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::model::schema::{Dims, SPECS};
+
+    /// Every kind of the schema builds from its keys alone (no key read as a silent
+    /// 0), and gives its dimensions back under the same keys in the same order.
+    #[test]
+    fn every_kind_builds_from_its_keys() {
+        let tri = vec![Pt::new(0.0, 0.0), Pt::new(1.0, 0.0), Pt::new(0.0, 1.0)];
+        for s in SPECS {
+            let dims = Dims(
+                s.keys
+                    .iter()
+                    .map(|k| (k.key, k.default.unwrap_or(k.new_mm)))
+                    .collect(),
+            );
+            let shape = Shape::build(s.kind, &dims, tri.clone()).unwrap();
+            assert_eq!(shape.kind(), s.kind);
+            assert_eq!(shape.dims(), dims.0, "{}", s.name);
+            let short = Dims(dims.0.iter().skip(1).copied().collect());
+            if !s.keys.is_empty() {
+                assert!(
+                    Shape::build(s.kind, &short, Vec::new()).is_err(),
+                    "{}",
+                    s.name
+                );
+            }
+        }
+    }
 }

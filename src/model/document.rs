@@ -1,9 +1,10 @@
 //! A section file as written: every value keeps its text and where it stands, so
 //! that errors can point at it and the workbench can show and edit it.
 
+use super::anchor::Anchor;
 use super::diag::Span;
+use super::schema::ShapeKind;
 use super::units::LengthUnit;
-use crate::geom::Anchor;
 
 pub use super::expr::Value;
 
@@ -28,7 +29,7 @@ pub struct MaterialDoc {
 #[derive(Debug, Clone, PartialEq)]
 pub struct PartDoc {
     pub name: Option<String>,
-    pub shape: String,
+    pub shape: ShapeKind,
     pub shape_span: Span,
     /// Dimension keys in file order (`b`, `h`, `tf`…).
     pub dims: Vec<(String, Val)>,

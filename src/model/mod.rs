@@ -4,16 +4,20 @@
 //! place in the file each came from); [`resolve`] evaluates it into numbers
 //! ([`Resolved`]) and places its parts ([`Resolved::pieces`]). Reading TOML is not
 //! here but in [`crate::file`]; the expression language is [`expr`], units are
-//! [`units`].
+//! [`units`]; the shapes and their keys are [`schema`].
 
+pub mod anchor;
 pub mod diag;
 pub mod document;
 pub mod expr;
 pub mod resolve;
+pub mod schema;
 pub mod units;
 
+pub use anchor::Anchor;
 pub use diag::{Diagnostic, Span};
 pub use document::{
     ActionsDoc, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, StringMaps, Val, Value,
 };
 pub use resolve::{Actions, Material, Member, Part, Resolved};
+pub use schema::{Dims, ShapeKind};

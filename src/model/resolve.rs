@@ -5,12 +5,13 @@
 //! member's lengths are converted to SI base units (N, N·m, Pa, m) here, the member's
 //! lengths written as bare numbers by [`LengthUnit::to_si`] (see [`super::units`]).
 
-use super::diag::{Diagnostic, Span};
+use super::diag::Diagnostic;
 use super::document::{Document, PartDoc, StringMaps, Val, Value};
 use super::expr::{resolve_params, Expr, ExprError};
+use super::schema::{Dims, KeySpec, Rule};
 use super::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
 use crate::checks::member::Support;
-use crate::geom::{Anchor, Piece, Placement, Pt, Shape};
+use crate::geom::{Piece, Placement, Pt, Shape};
 use std::collections::BTreeMap;
 
 /// A material with SI values: `e` and `fy` in Pa, `density` in kg/m³.
@@ -364,56 +365,52 @@ fn resolve_doc_params(doc: &Document) -> Result<BTreeMap<String, f64>, Diagnosti
     })
 }
 
+/// A dimension's value under its rule ([`Rule`]).
+fn ruled(ctx: &Ctx, v: &Val, k: &KeySpec) -> Result<f64, Diagnostic> {
+    match k.rule {
+        Rule::Positive => ctx.positive(v, k.key),
+        Rule::Any => ctx.number(v, k.key),
+        Rule::NonNegative => {
+            let x = ctx.number(v, k.key)?;
+            if x < 0.0 {
+                return Err(Diagnostic::new(
+                    v.span.clone(),
+                    format!("`{}` cannot be negative; use 0 for none", k.key),
+                ));
+            }
+            Ok(x)
+        }
+    }
+}
+
 fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part, Diagnostic> {
     let name = p.name.clone().unwrap_or_else(|| format!("part {}", i + 1));
-    let Some((_, required, optional)) = crate::geom::shapes::SHAPES.iter().find(|s| s.0 == p.shape)
-    else {
-        return Err(Diagnostic::new(
-            p.shape_span.clone(),
-            format!(
-                "unknown shape `{}`; use one of {}",
-                p.shape,
-                crate::geom::shapes::shape_names()
-            ),
-        ));
-    };
-    let mut values: Vec<(String, f64)> = Vec::new();
-    for k in required.iter() {
-        let v = p.dim(k).ok_or_else(|| {
-            Diagnostic::new(
-                p.span.clone(),
-                format!(
-                    "part `{name}` ({}) needs `{k}`; its dimensions are {}",
-                    p.shape,
-                    required.join(", ")
-                ),
-            )
-        })?;
-        values.push((k.to_string(), ctx.positive(v, k)?));
-    }
-    for (k, default) in optional.iter() {
-        let x = match p.dim(k) {
-            None => *default,
-            Some(v) if *k == "apex" => ctx.number(v, k)?,
-            Some(v) => {
-                let x = ctx.number(v, k)?;
-                if x < 0.0 {
-                    return Err(Diagnostic::new(
-                        v.span.clone(),
-                        format!("`{k}` cannot be negative; use 0 for none"),
-                    ));
-                }
-                x
+    let kind = p.shape;
+    let mut values: Vec<(&'static str, f64)> = Vec::new();
+    for k in kind.spec().keys {
+        let x = match (p.dim(k.key), k.default) {
+            (None, Some(default)) => default,
+            (None, None) => {
+                let required: Vec<&str> = kind.required().collect();
+                return Err(Diagnostic::new(
+                    p.span.clone(),
+                    format!(
+                        "part `{name}` ({kind}) needs `{}`; its dimensions are {}",
+                        k.key,
+                        required.join(", ")
+                    ),
+                ));
             }
+            (Some(v), _) => ruled(ctx, v, k)?,
         };
-        values.push((k.to_string(), x));
+        values.push((k.key, x));
     }
     let points = match &p.points {
         Some(pts) => pts
             .iter()
             .map(|[x, y]| Ok(Pt::new(ctx.number(x, "points")?, ctx.number(y, "points")?)))
             .collect::<Result<Vec<_>, Diagnostic>>()?,
-        None if p.shape == "polygon" => {
+        None if kind.has_points() => {
             return Err(Diagnostic::new(
                 p.span.clone(),
                 format!("polygon `{name}` needs `points = [[x, y], ...]` with 3 or more points"),
@@ -421,8 +418,7 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
         }
         None => Vec::new(),
     };
-    let dim = |k: &str| values.iter().find(|(n, _)| n == k).map_or(0.0, |v| v.1);
-    let shape = Shape::build(&p.shape, &dim, points).map_err(|(key, msg)| {
+    let shape = Shape::build(kind, &Dims(values), points).map_err(|(key, msg)| {
         let span = match key.as_str() {
             "points" => p.points_span.clone(),
             k => p.dim(k).map_or(p.span.clone(), |v| v.span.clone()),
@@ -433,7 +429,7 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
         Some([x, y]) => Pt::new(ctx.number(x, "at")?, ctx.number(y, "at")?),
         None => Pt::default(),
     };
-    let anchor = p.anchor.unwrap_or(Anchor::default_for(&p.shape));
+    let anchor = p.anchor.unwrap_or(kind.default_anchor());
     let rotate = p
         .rotate
         .as_ref()
@@ -524,9 +520,4 @@ fn resolve_member(
         deflection_limit,
         self_weight: m.self_weight,
     })
-}
-
-/// The span of the part's table, for messages about a whole part.
-pub fn part_span(doc: &Document, i: usize) -> Span {
-    doc.parts.get(i).map_or(0..1, |p| p.span.clone())
 }

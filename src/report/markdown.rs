@@ -99,35 +99,23 @@ fn table(s: &mut String, head: &[&str], body: &[Vec<String>]) {
     s.push('\n');
 }
 
-/// The dimensions of a shape, `key = value` in the output length unit.
+/// The dimensions of a shape, `key = value` in the output length unit (a polygon's
+/// corners as `(x, y)`).
 fn dimensions(shape: &Shape, u: &OutUnits) -> String {
     let l = |x: f64| plain(u.geo(x, 1));
-    let kv = |pairs: &[(&str, f64)]| {
-        pairs
-            .iter()
-            .map(|(k, v)| format!("{k} = {}", l(*v)))
-            .collect::<Vec<_>>()
-            .join(", ")
-    };
-    match shape {
-        Shape::Rect { b, h } => kv(&[("b", *b), ("h", *h)]),
-        Shape::Triangle { b, h, apex } => kv(&[("b", *b), ("h", *h), ("apex", *apex)]),
-        Shape::Circle { d } | Shape::HalfCircle { d } => kv(&[("d", *d)]),
-        Shape::QuarterCircle { r } => kv(&[("r", *r)]),
-        Shape::Polygon { points } => points
+    if let Shape::Polygon { points } = shape {
+        return points
             .iter()
             .map(|p| format!("({}, {})", l(p.x), l(p.y)))
             .collect::<Vec<_>>()
-            .join(" "),
-        Shape::IBeam { d, b, tf, tw, r }
-        | Shape::Channel { d, b, tf, tw, r }
-        | Shape::Tee { d, b, tf, tw, r } => {
-            kv(&[("d", *d), ("b", *b), ("tf", *tf), ("tw", *tw), ("r", *r)])
-        }
-        Shape::Angle { h, b, t, r } => kv(&[("h", *h), ("b", *b), ("t", *t), ("r", *r)]),
-        Shape::Box { h, b, t, ro } => kv(&[("h", *h), ("b", *b), ("t", *t), ("ro", *ro)]),
-        Shape::Pipe { d, t } => kv(&[("d", *d), ("t", *t)]),
+            .join(" ");
     }
+    shape
+        .dims()
+        .iter()
+        .map(|(k, v)| format!("{k} = {}", l(*v)))
+        .collect::<Vec<_>>()
+        .join(", ")
 }
 
 fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {

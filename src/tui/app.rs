@@ -1,7 +1,8 @@
 //! The workbench's state: the file text being edited, undo and redo, the selection,
 //! the mode (moving, typing, choosing, asking), the current analysis and the baseline it
-//! is compared against, and the message line. Changes go through [`App::apply`], which
-//! refuses an edit whose text does not compute and says why.
+//! is compared against, and the message line. Changes go through [`App::edit`], which
+//! applies an [`Edit`] to the document the workbench keeps and refuses one whose text
+//! does not compute, saying why.
 
 use super::columns::{columns, Col};
 use super::config::Config;
@@ -9,12 +10,14 @@ use super::theme::Theme;
 use super::worker::{Poll, Worker, TOLERANCE};
 use crate::analysis::{Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
+use crate::file::edit::{self, Edit};
 use crate::file::input::read_text;
 use crate::file::{locate, recover};
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use ratatui::layout::Rect;
 use std::path::{Path, PathBuf};
+use toml_edit::DocumentMut;
 
 /// Which list has the keyboard.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -131,6 +134,9 @@ pub struct App {
     /// Where the section is saved; `None` for the bundled demo.
     pub path: Option<PathBuf>,
     pub text: String,
+    /// `text` as a document to edit; only [`App::edit`] and [`App::restore`] change
+    /// the two, together.
+    doc: DocumentMut,
     /// The file's content as last read or written, to notice changes made by others.
     pub disk: Option<String>,
     /// The text as last saved (or opened): differs from `text` when there are changes.
@@ -175,7 +181,9 @@ impl App {
         solver: Solver,
     ) -> Result<App, Diagnostic> {
         let analysis = Analysis::of_text(&text, &Options::default())?;
+        let doc = edit::open(&text).map_err(|m| Diagnostic::new(0..1, m))?;
         let mut app = App {
+            doc,
             disk: path.as_ref().map(|_| text.clone()),
             path,
             saved: text.clone(),
@@ -239,23 +247,46 @@ impl App {
         self.message = Some((m.into(), true));
     }
 
-    /// Takes new text if it computes; otherwise shows why and changes nothing.
+    /// Makes an edit if its text computes; otherwise shows why and changes nothing.
     /// Returns whether the edit was taken.
-    pub fn apply(&mut self, new: Result<String, String>) -> bool {
-        let text = match new {
-            Ok(t) => t,
+    pub fn edit(&mut self, e: Edit) -> bool {
+        if let Err(m) = e.apply(&mut self.doc) {
+            self.error(format!("refused: {m}"));
+            return false;
+        }
+        let text = self.doc.to_string();
+        self.commit(text, None)
+    }
+
+    /// Takes a whole new text (an undoable change) if it computes; otherwise shows why
+    /// and changes nothing. Returns whether it was taken.
+    pub fn replace_text(&mut self, text: String) -> bool {
+        match edit::open(&text) {
+            Ok(doc) => self.commit(text, Some(doc)),
             Err(m) => {
                 self.error(format!("refused: {m}"));
-                return false;
+                false
             }
-        };
+        }
+    }
+
+    /// Makes `text` the current state, pushing the old one on the undo stack, when it
+    /// computes. `doc` is its kept document when the caller has not already edited
+    /// `self.doc` into it; on refusal `self.doc` goes back to the current text.
+    fn commit(&mut self, text: String, doc: Option<DocumentMut>) -> bool {
         match Analysis::of_text(&text, &Options::default()) {
             Err(d) => {
                 let (l, c) = locate(&text, d.span.start);
                 self.error(format!("refused (line {l}:{c}): {}", d.message));
+                if let Ok(doc) = edit::open(&self.text) {
+                    self.doc = doc;
+                }
                 false
             }
             Ok(a) => {
+                if let Some(doc) = doc {
+                    self.doc = doc;
+                }
                 let old = std::mem::replace(&mut self.text, text);
                 self.undo.push(old);
                 self.redo.clear();
@@ -267,12 +298,17 @@ impl App {
 
     /// Goes back to an earlier (or later) text from the history.
     pub fn restore(&mut self, text: String) {
-        match Analysis::of_text(&text, &Options::default()) {
-            Ok(a) => {
+        match (
+            Analysis::of_text(&text, &Options::default()),
+            edit::open(&text),
+        ) {
+            (Ok(a), Ok(doc)) => {
                 self.text = text;
+                self.doc = doc;
                 self.set_analysis(a);
             }
-            Err(d) => self.error(format!("cannot go back to that state: {}", d.message)),
+            (Ok(_), Err(m)) => self.error(format!("cannot go back to that state: {m}")),
+            (Err(d), _) => self.error(format!("cannot go back to that state: {}", d.message)),
         }
     }
 
@@ -354,7 +390,7 @@ impl App {
         match read_text(at) {
             Err(e) => self.error(e.line(at)),
             Ok(text) => {
-                if self.apply(Ok(text)) {
+                if self.replace_text(text) {
                     match std::fs::remove_file(at) {
                         Ok(()) => self.note("took the unsaved edits; save (s) to keep them"),
                         Err(e) => self.error(format!(

@@ -1,11 +1,10 @@
 //! The columns of the parts table: which there are for a document (the dimension keys
-//! of the shapes in use, in the order of [`SHAPES`], and a polygon's points), what each
+//! of the shapes in use, in the order of [`SPECS`], and a polygon's points), what each
 //! cell shows, and which file value a cell edits.
 
 use crate::file::edit::Slot;
-use crate::geom::shapes::SHAPES;
-use crate::geom::Anchor;
-use crate::model::{Document, PartDoc, Val, Value};
+use crate::model::schema::{ShapeKind, SPECS};
+use crate::model::{Anchor, Document, PartDoc, Val, Value};
 
 /// Width of the points column.
 const POINTS_WIDTH: u16 = 24;
@@ -34,17 +33,17 @@ pub enum Col {
 pub fn columns(doc: &Document) -> Vec<Col> {
     let mut cols = vec![Col::Name, Col::Shape, Col::Sign];
     let mut dims: Vec<&'static str> = Vec::new();
-    for (name, req, opt) in SHAPES {
-        if doc.parts.iter().any(|p| p.shape == *name) {
-            for k in req.iter().copied().chain(opt.iter().map(|o| o.0)) {
-                if !dims.contains(&k) {
-                    dims.push(k);
+    for s in SPECS {
+        if doc.parts.iter().any(|p| p.shape == s.kind) {
+            for k in s.keys {
+                if !dims.contains(&k.key) {
+                    dims.push(k.key);
                 }
             }
         }
     }
     cols.extend(dims.into_iter().map(Col::Dim));
-    if doc.parts.iter().any(|p| p.shape == "polygon") {
+    if doc.parts.iter().any(|p| p.shape.has_points()) {
         cols.push(Col::Points);
     }
     cols.extend([Col::AtX, Col::AtY, Col::Anchor, Col::Rotate, Col::Flip]);
@@ -81,7 +80,7 @@ impl Col {
             Col::Shape => doc
                 .parts
                 .iter()
-                .map(|p| p.shape.chars().count())
+                .map(|p| p.shape.as_str().chars().count())
                 .max()
                 .unwrap_or(0)
                 .clamp(5, 14) as u16,
@@ -110,12 +109,8 @@ impl Col {
 }
 
 /// The default of an optional dimension of a shape, `None` if the shape has no such key.
-pub fn dim_default(shape: &str, key: &str) -> Option<Option<f64>> {
-    let (_, req, opt) = SHAPES.iter().find(|s| s.0 == shape)?;
-    if req.contains(&key) {
-        return Some(None);
-    }
-    opt.iter().find(|o| o.0 == key).map(|o| Some(o.1))
+pub fn dim_default(shape: ShapeKind, key: &str) -> Option<Option<f64>> {
+    shape.key(key).map(|k| k.default)
 }
 
 /// What a number cell holds: the value as written, a default, or nothing (`None`:
@@ -124,7 +119,7 @@ pub fn number(p: &PartDoc, col: Col) -> Option<Value> {
     let written =
         |v: Option<&Val>, default: f64| Some(v.map_or(Value::Number(default), |v| v.value.clone()));
     match col {
-        Col::Dim(k) => match dim_default(&p.shape, k)? {
+        Col::Dim(k) => match dim_default(p.shape, k)? {
             None => p.dim(k).map(|v| v.value.clone()),
             Some(d) => written(p.dim(k), d),
         },
@@ -142,7 +137,7 @@ pub fn cell(p: &PartDoc, index: usize, col: Col, ascii: bool) -> String {
             .name
             .clone()
             .unwrap_or_else(|| format!("part {}", index + 1)),
-        Col::Shape => p.shape.clone(),
+        Col::Shape => p.shape.to_string(),
         Col::Sign => match (p.void, ascii) {
             (false, _) => "+".into(),
             (true, false) => "−".into(),
@@ -160,7 +155,7 @@ pub fn cell(p: &PartDoc, index: usize, col: Col, ascii: bool) -> String {
         }
         .into(),
         Col::Dim(_) | Col::AtX | Col::AtY | Col::Rotate => {
-            if p.shape == "polygon" && matches!(col, Col::Dim(_)) {
+            if p.shape.has_points() && matches!(col, Col::Dim(_)) {
                 return String::new();
             }
             number(p, col).map_or(String::new(), |v| v.text())
@@ -170,7 +165,7 @@ pub fn cell(p: &PartDoc, index: usize, col: Col, ascii: bool) -> String {
 
 /// The anchor of a part, written or by default.
 pub fn anchor(p: &PartDoc) -> Anchor {
-    p.anchor.unwrap_or(Anchor::default_for(&p.shape))
+    p.anchor.unwrap_or(p.shape.default_anchor())
 }
 
 /// Points in brief, as many whole pairs as fit the column: `(0,0) (200,0) (200,t) …`.

@@ -10,7 +10,7 @@ use super::columns::{anchor, number, Col};
 use super::keys::Cmd;
 use super::views::help;
 use crate::analysis::{Analysis, Options};
-use crate::file::edit::{self, number_value, round_sig, Slot};
+use crate::file::edit::{self, number_value, round_sig, Edit, Flag, Slot, TextKey};
 use crate::file::input::read_text;
 use crate::file::save::{self as disk, Overwrite, SaveError};
 use crate::model::Value;
@@ -35,14 +35,14 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::FineDown => step(app, 0, -1.0),
         Cmd::CoarseUp => step(app, 2, 1.0),
         Cmd::CoarseDown => step(app, 2, -1.0),
-        Cmd::ToggleVoid => parts::toggle(app, "void", false),
-        Cmd::ToggleEnabled => parts::toggle(app, "enabled", true),
+        Cmd::ToggleVoid => parts::toggle(app, Flag::Void),
+        Cmd::ToggleEnabled => parts::toggle(app, Flag::Enabled),
         Cmd::AddPart => parts::open_picker(app, false),
         Cmd::ChangeShape => parts::open_picker(app, true),
         Cmd::NextAnchor => parts::cycle_anchor(app, 1),
         Cmd::PrevAnchor => parts::cycle_anchor(app, -1),
-        Cmd::FlipX => parts::toggle(app, "flip_x", false),
-        Cmd::FlipY => parts::toggle(app, "flip_y", false),
+        Cmd::FlipX => parts::toggle(app, Flag::FlipX),
+        Cmd::FlipY => parts::toggle(app, Flag::FlipY),
         Cmd::CopyPart => parts::copy_part(app),
         Cmd::DeletePart => parts::delete_part(app),
         Cmd::MoveUp => parts::move_part(app, false),
@@ -102,7 +102,7 @@ fn with_line(app: &mut App, f: impl FnOnce(&mut LineEdit)) {
 fn move_row(app: &mut App, by: i64) {
     match &mut app.mode {
         Mode::Choosing(pick) => {
-            let n = edit::shape_names().count() as i64;
+            let n = crate::model::schema::SPECS.len() as i64;
             pick.row = (pick.row as i64 + by).clamp(0, n - 1) as usize;
         }
         Mode::Help(s) => {
@@ -170,8 +170,8 @@ pub fn begin_edit(app: &mut App) {
     let start = match col {
         Col::Name => p.name.clone().unwrap_or_default(),
         Col::Material => p.material.as_ref().map_or(String::new(), |m| m.0.clone()),
-        Col::Sign => return parts::toggle(app, "void", false),
-        Col::Enabled => return parts::toggle(app, "enabled", true),
+        Col::Sign => return parts::toggle(app, Flag::Void),
+        Col::Enabled => return parts::toggle(app, Flag::Enabled),
         Col::Shape => return parts::open_picker(app, true),
         Col::Flip => return app.note("f mirrors the part left to right, F top to bottom"),
         Col::Anchor => anchor(p).name().to_string(),
@@ -179,7 +179,7 @@ pub fn begin_edit(app: &mut App) {
             Some(pts) => edit::points_entry(pts),
             None => return app.note(format!("a {} has no points; only a polygon has", p.shape)),
         },
-        Col::Dim(k) if p.shape == "polygon" => {
+        Col::Dim(k) if p.shape.has_points() => {
             return app.note(format!(
                 "a polygon has no `{k}`; its corners are in the points column"
             ))
@@ -209,18 +209,42 @@ pub fn commit(app: &mut App) {
     match std::mem::replace(&mut app.mode, Mode::Main) {
         Mode::Typing { target, line } => {
             let entry = line.text.trim().to_string();
+            let part = match &target {
+                Target::Cell { part, .. } => *part,
+                _ => 0,
+            };
+            let text = entry.clone();
             let new = match &target {
-                Target::Cell { part, col } => match col {
-                    Col::Name => edit::set_part_text(&app.text, *part, "name", &entry),
-                    Col::Material => edit::set_part_text(&app.text, *part, "material", &entry),
-                    Col::Anchor => edit::set_part_text(&app.text, *part, "anchor", &entry),
-                    Col::Points => edit::set_part_points(&app.text, *part, &entry),
+                Target::Cell { col, .. } => match col {
+                    Col::Name => Edit::SetText {
+                        part,
+                        key: TextKey::Name,
+                        text,
+                    },
+                    Col::Material => Edit::SetText {
+                        part,
+                        key: TextKey::Material,
+                        text,
+                    },
+                    Col::Anchor => Edit::SetText {
+                        part,
+                        key: TextKey::Anchor,
+                        text,
+                    },
+                    Col::Points => Edit::SetPoints { part, entry },
                     c => match c.slot() {
-                        Some(slot) => edit::set_part_value(&app.text, *part, &slot, &entry),
-                        None => Err("this cell is not typed into".into()),
+                        Some(slot) => Edit::SetValue { part, slot, entry },
+                        None => {
+                            app.error("refused: this cell is not typed into");
+                            app.mode = Mode::Typing { target, line };
+                            return;
+                        }
                     },
                 },
-                Target::Param(name) => edit::set_param(&app.text, name, &entry),
+                Target::Param(name) => Edit::SetParam {
+                    name: name.clone(),
+                    entry,
+                },
                 Target::SaveAs => {
                     if entry.is_empty() {
                         app.error("type a file name, e.g. girder.toml");
@@ -230,7 +254,7 @@ pub fn commit(app: &mut App) {
                     return save_to(app, PathBuf::from(entry), false);
                 }
             };
-            if app.apply(new) {
+            if app.edit(new) {
                 app.note("changed");
             } else {
                 // Keep the line so the entry can be corrected.
@@ -349,17 +373,18 @@ pub fn step(app: &mut App, level: usize, dir: f64) {
     } else {
         app.analysis.section.units.name()
     };
-    let (label, result) = match &what {
-        Stepped::Param(name) => (
-            name.clone(),
-            edit::set_param_value(&app.text, name, v.clone()),
-        ),
-        Stepped::Cell(i, slot) => (
+    let (label, result) = match what {
+        Stepped::Param(name) => (name.clone(), Edit::SetParamNumber { name, value: new }),
+        Stepped::Cell(part, slot) => (
             app.column().heading().to_string(),
-            edit::set_part_number(&app.text, *i, slot, v.clone()),
+            Edit::SetNumber {
+                part,
+                slot,
+                value: new,
+            },
         ),
     };
-    if app.apply(result) {
+    if app.edit(result) {
         app.note(format!(
             "{label}: {} → {v} {unit} (step {s} {unit})",
             number_value(x)

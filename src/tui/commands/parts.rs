@@ -2,8 +2,9 @@
 //! copying, deleting and reordering parts, and the on/off keys of a part — void,
 //! enabled, the flips — and its anchor.
 
-use crate::file::edit;
-use crate::geom::Anchor;
+use crate::file::edit::{Edit, Flag, TextKey};
+use crate::model::schema::{ShapeKind, SPECS};
+use crate::model::Anchor;
 use crate::tui::app::{App, Focus, Mode, Picker};
 use crate::tui::columns::anchor;
 
@@ -18,7 +19,7 @@ pub fn open_picker(app: &mut App, change: bool) {
         return;
     }
     let Some(p) = selected(app) else { return };
-    let row = edit::shape_names().position(|s| s == p.shape).unwrap_or(0);
+    let row = SPECS.iter().position(|s| s.kind == p.shape).unwrap_or(0);
     app.mode = Mode::Choosing(Picker {
         row,
         change: Some(app.part),
@@ -37,7 +38,7 @@ fn selected(app: &mut App) -> Option<&crate::model::PartDoc> {
 /// Takes the shape on the picker's highlighted row.
 pub fn choose(app: &mut App, pick: Picker) {
     app.mode = Mode::Main;
-    let Some(shape) = edit::shape_names().nth(pick.row) else {
+    let Some(shape) = SPECS.get(pick.row).map(|s| s.kind) else {
         return;
     };
     match pick.change {
@@ -47,27 +48,32 @@ pub fn choose(app: &mut App, pick: Picker) {
 }
 
 /// Adds a part of `shape` with default sizes, and selects it.
-fn add_part(app: &mut App, shape: &str) {
+fn add_part(app: &mut App, shape: ShapeKind) {
     let n = app.analysis.document.parts.len();
-    let name = format!("{} {}", shape.replace('_', " "), n + 1);
-    let r = edit::add_part(&app.text, shape, &name, app.analysis.section.units);
-    if app.apply(r) {
+    let name = format!("{} {}", shape.as_str().replace('_', " "), n + 1);
+    let unit = app.analysis.section.units;
+    let note = format!("added {name} at the origin");
+    if app.edit(Edit::AddPart { shape, name, unit }) {
         app.focus = Focus::Parts;
         app.part = n;
-        app.note(format!("added {name} at the origin"));
+        app.note(note);
     }
 }
 
-/// Changes part `i` to `shape` (see [`edit::change_shape`]), in one undoable edit.
-fn change_shape(app: &mut App, i: usize, shape: &str) {
-    let Some(old) = app.analysis.document.parts.get(i).map(|p| p.shape.clone()) else {
+/// Changes part `i` to `shape` (see [`Edit::SetShape`]), in one undoable edit.
+fn change_shape(app: &mut App, i: usize, shape: ShapeKind) {
+    let Some(old) = app.analysis.document.parts.get(i).map(|p| p.shape) else {
         return;
     };
     if old == shape {
         return app.note(format!("the part is a {shape} already"));
     }
-    let r = edit::change_shape(&app.text, i, shape, app.analysis.section.units);
-    if app.apply(r) {
+    let unit = app.analysis.section.units;
+    if app.edit(Edit::SetShape {
+        part: i,
+        shape,
+        unit,
+    }) {
         app.note(format!(
             "{old} → {shape}: place and shared sizes kept, new sizes at their defaults (u undoes)"
         ));
@@ -75,22 +81,24 @@ fn change_shape(app: &mut App, i: usize, shape: &str) {
 }
 
 /// Flips a true/false key of the selected part and says what it is now.
-pub fn toggle(app: &mut App, key: &str, default: bool) {
+pub fn toggle(app: &mut App, flag: Flag) {
     if selected(app).is_none() {
         return;
     }
-    let r = edit::toggle_part_flag(&app.text, app.part, key, default);
-    if app.apply(r) {
+    if app.edit(Edit::Toggle {
+        part: app.part,
+        flag,
+    }) {
         let Some(p) = app.analysis.document.parts.get(app.part) else {
             return;
         };
-        let state = match key {
-            "void" if p.void => "part now a void (subtracted)",
-            "void" => "part now solid",
-            "enabled" if p.enabled => "part taken back in",
-            "enabled" => "part left out (disabled)",
-            "flip_x" if p.flip_x => "part mirrored left to right (flip_x = true)",
-            "flip_y" if p.flip_y => "part mirrored top to bottom (flip_y = true)",
+        let state = match flag {
+            Flag::Void if p.void => "part now a void (subtracted)",
+            Flag::Void => "part now solid",
+            Flag::Enabled if p.enabled => "part taken back in",
+            Flag::Enabled => "part left out (disabled)",
+            Flag::FlipX if p.flip_x => "part mirrored left to right (flip_x = true)",
+            Flag::FlipY if p.flip_y => "part mirrored top to bottom (flip_y = true)",
             _ => "mirror undone",
         };
         app.note(state);
@@ -107,15 +115,17 @@ pub fn cycle_anchor(app: &mut App, by: i64) {
     let Some((_, name)) = all.get((now + by).rem_euclid(n) as usize) else {
         return;
     };
-    let r = edit::set_part_text(&app.text, app.part, "anchor", name);
-    if app.apply(r) {
+    if app.edit(Edit::SetText {
+        part: app.part,
+        key: TextKey::Anchor,
+        text: name.to_string(),
+    }) {
         app.note(format!("anchor: {name} sits at `at` (n next, N back)"));
     }
 }
 
 pub fn copy_part(app: &mut App) {
-    let r = edit::duplicate_part(&app.text, app.part);
-    if app.apply(r) {
+    if app.edit(Edit::CopyPart { part: app.part }) {
         app.part += 1;
         app.note("copied; the copy sits on the original until you move it");
     }
@@ -125,15 +135,16 @@ pub fn delete_part(app: &mut App) {
     if app.analysis.document.parts.len() <= 1 {
         return app.error("refused: a section needs at least one part");
     }
-    let r = edit::delete_part(&app.text, app.part);
-    if app.apply(r) {
+    if app.edit(Edit::DeletePart { part: app.part }) {
         app.note("part deleted (u undoes)");
     }
 }
 
 pub fn move_part(app: &mut App, down: bool) {
-    let r = edit::move_part(&app.text, app.part, down);
-    if app.apply(r) {
+    if app.edit(Edit::MovePart {
+        part: app.part,
+        down,
+    }) {
         app.part = if down {
             app.part + 1
         } else {

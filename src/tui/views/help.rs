@@ -2,7 +2,7 @@
 //! for a new part or a new shape, and the questions before quitting or overwriting.
 
 use super::{fit, pane, rows};
-use crate::geom::shapes::SHAPES;
+use crate::model::schema::SPECS;
 use crate::text::clean;
 use crate::tui::app::{App, Mode, Picker};
 use crate::tui::columns::{cell, Col};
@@ -110,7 +110,44 @@ fn blocks(th: &Theme, width: usize) -> Vec<Block> {
     out
 }
 
-/// The help laid out in the columns that fit `inner`: the lines of each column.
+/// The shapes, each with its keys and what they measure (optional ones with their
+/// default), from the schema.
+fn shapes(th: &Theme, width: usize) -> Vec<Block> {
+    let desc_w = width.saturating_sub(KEY_W).max(10);
+    let mut heading = Some(Line::styled("Shapes and their keys", th.header));
+    SPECS
+        .iter()
+        .map(|spec| {
+            let mut keys: Vec<String> = spec
+                .keys
+                .iter()
+                .map(|k| match k.default {
+                    None => format!("{} {}", k.key, k.meaning),
+                    Some(d) => format!("{} {} (default {d})", k.key, k.meaning),
+                })
+                .collect();
+            if spec.points {
+                keys.push("points [[x, y], ...], 3 or more".into());
+            }
+            let mut lines: Vec<Line> = heading.take().into_iter().collect();
+            let gap = !lines.is_empty();
+            for (i, part) in wrap(&th.text(&keys.join(", ")), desc_w)
+                .into_iter()
+                .enumerate()
+            {
+                let name = if i == 0 { spec.name } else { "" };
+                lines.push(Line::from(vec![
+                    Span::styled(fit(name, KEY_W), th.border_focus),
+                    Span::raw(part),
+                ]));
+            }
+            Block { gap, lines }
+        })
+        .collect()
+}
+
+/// The help laid out in the columns that fit `inner`: the lines of each column. The
+/// keys are balanced over the columns; the shapes follow at the foot of the last.
 fn columns(th: &Theme, inner: Rect) -> Vec<Vec<Line<'static>>> {
     let ncols = (inner.width / COL_W).max(1) as usize;
     let width = (inner.width as usize / ncols).saturating_sub(1);
@@ -128,6 +165,14 @@ fn columns(th: &Theme, inner: Rect) -> Vec<Vec<Line<'static>>> {
         }
         if let Some(col) = cols.last_mut() {
             if b.gap && !col.is_empty() {
+                col.push(Line::raw(""));
+            }
+            col.extend(b.lines);
+        }
+    }
+    if let Some(col) = cols.last_mut() {
+        for b in shapes(th, width) {
+            if b.gap {
                 col.push(Line::raw(""));
             }
             col.extend(b.lines);
@@ -192,7 +237,7 @@ pub fn render(app: &App, scroll: u16, area: Rect, buf: &mut Buffer) {
 pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
     let sel = pick.row;
-    let win = centred(area, 44, SHAPES.len() as u16 + 2);
+    let win = centred(area, 44, SPECS.len() as u16 + 2);
     Clear.render(win, buf);
     let title = match pick
         .change
@@ -206,17 +251,23 @@ pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     let inner = block.inner(win);
     block.render(win, buf);
     let top = sel.saturating_sub((inner.height as usize).saturating_sub(1));
-    for (i, (name, req, opt)) in SHAPES.iter().enumerate().skip(top) {
+    for (i, spec) in SPECS.iter().enumerate().skip(top) {
         let y = inner.y + (i - top) as u16;
         if y >= inner.bottom() {
             break;
         }
-        let mut dims: Vec<String> = req.iter().map(|k| k.to_string()).collect();
-        dims.extend(opt.iter().map(|o| format!("({})", o.0)));
-        if *name == "polygon" {
+        let mut dims: Vec<String> = spec
+            .keys
+            .iter()
+            .map(|k| match k.default {
+                None => k.key.to_string(),
+                Some(_) => format!("({})", k.key),
+            })
+            .collect();
+        if spec.points {
             dims.push("points".into());
         }
-        let text = format!("{} {}", fit(name, 15), dims.join(" "));
+        let text = format!("{} {}", fit(spec.name, 15), dims.join(" "));
         let style = if i == sel {
             th.cell_selected
         } else {
