@@ -14,4 +14,4 @@ pub mod units;
 
 pub use diag::{Diagnostic, Span};
 pub use document::{ActionsDoc, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Val, Value};
-pub use resolve::{Actions, Material, Member, Part, Resolved};
+pub use resolve::{Actions, LoadHeight, Material, Member, Part, Resolved, ShearModulus};
