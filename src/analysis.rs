@@ -237,7 +237,7 @@ end conditions need effective lengths and a published method that kern does not 
                 "bottom"
             };
             return Err(Refusal::warn(format!(
-                "[member] load_height = \"{name}\": Mcr not computed; a load above or below \
+                "[member] load_height = \"{name}\": a load above or below \
 the shear centre needs a load-height method (tabulated for given load cases, e.g. in the SSRC \
 guide) that kern does not implement; use load_height = \"shear_centre\" for the value with \
 the load at the shear centre"
@@ -258,7 +258,7 @@ the load at the shear centre"
             .unwrap_or(1);
         if pieces > 1 {
             return Err(Refusal::warn(format!(
-                "Mcr not computed: the section is {pieces} separate pieces; how they buckle \
+                "the section is {pieces} separate pieces; how they buckle \
 together depends on how and how often they are connected along the span (each piece also \
 buckles on its own between connections), and no single Mcr of the cross-section describes \
 that; check the pieces and their connections by a method for built-up members"
@@ -267,7 +267,7 @@ that; check the pieces and their connections by a method for built-up members"
         let p = &self.props;
         if p.ixy.abs() > 1e-9 * (p.ixx * p.iyy).sqrt() {
             return Err(Refusal::warn(
-                "Mcr not computed: the section is not symmetric about an axis parallel to y \
+                "the section is not symmetric about an axis parallel to y \
 (Ixy ≠ 0), and the formula kern uses holds only for such sections"
                     .to_string(),
             ));
@@ -275,7 +275,7 @@ that; check the pieces and their connections by a method for built-up members"
         let size = (p.bounds[1] - p.bounds[0]).max(p.bounds[3] - p.bounds[2]);
         if (t.shear_centre.x - p.centroid.x).abs() > t.rel_error.max(1e-9) * size {
             return Err(Refusal::warn(
-                "Mcr not computed: the shear centre is off the vertical axis through the \
+                "the shear centre is off the vertical axis through the \
 centroid, so the section is not symmetric about an axis parallel to y, and the formula kern \
 uses holds only for such sections"
                     .to_string(),
@@ -408,7 +408,7 @@ impl Refusal {
     }
     fn warn(text: String) -> Refusal {
         Refusal {
-            warning: Some(text.clone()),
+            warning: Some(format!("Mcr not computed: {text}")),
             text,
         }
     }

@@ -177,7 +177,7 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                         ShearModulus::Given => "as given".to_string(),
                         ShearModulus::FromNu(nu) => format!("E/(2(1 + ν)), ν = {}", plain(nu)),
                         ShearModulus::DefaultNu => format!(
-                            "E/(2(1 + ν)), ν = {DEFAULT_NU} assumed (common practice for steel)"
+                            "E/(2(1 + ν)), ν = {DEFAULT_NU} assumed (the default, common practice for steel; give nu or G otherwise)"
                         ),
                     },
                 ]
@@ -550,7 +550,7 @@ prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of {}
                     m.name,
                     plain(mb.c1),
                     if mb.c1 == 1.0 {
-                        "uniform moment"
+                        "uniform moment, the least favourable diagram for a simple span"
                     } else {
                         "moment-gradient factor as given"
                     },
