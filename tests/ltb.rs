@@ -302,3 +302,30 @@ fn json_carries_beta_and_mcr() {
     assert!(bx < 0.0);
     assert!(j["member"]["mcr"].as_f64().unwrap() > 0.0);
 }
+
+#[test]
+fn materials_with_other_poisson_ratios_make_torsion_approximate() {
+    // FORMAT.md: torsion weights each part by G_part/G_ref; kern's solver weights by
+    // E_part/E_ref, which is the same only for equal ν. Say so when they differ.
+    let mats = "[[materials]]\nname = \"steel\"\nE = \"210 GPa\"\n\
+                [[materials]]\nname = \"alu\"\nE = \"70 GPa\"\nnu = 0.33\n";
+    let body = format!(
+        "{mats}[[parts]]\nshape = \"rect\"\nb = 100\nh = 10\n\
+         [[parts]]\nshape = \"rect\"\nb = 10\nh = 100\nanchor = \"top\"\nat = [0, -5]\nmaterial = \"alu\"\n"
+    );
+    let a = calc(&body);
+    assert!(
+        a.warnings
+            .iter()
+            .any(|w| w.contains("alu") && w.contains("approximate")),
+        "{:?}",
+        a.warnings
+    );
+    let same = body.replace("nu = 0.33\n", "");
+    let a = calc(&same);
+    assert!(
+        !a.warnings.iter().any(|w| w.contains("approximate")),
+        "{:?}",
+        a.warnings
+    );
+}
