@@ -175,7 +175,8 @@ fn two_unequal_flat_plates() {
 /// `t`, heel at (x0, 0) on the inner edge: its rectangles, outline, and thin-walled own
 /// shear centre (the legs' centre-lines meet there; Timoshenko & Gere) and own
 /// Cw = t³(b'³ + h'³)/36 with centre-line leg lengths b' = b − t/2, h' = h − t/2
-/// (Galambos, Guide to Stability Design Criteria, from memory; a few in⁶·1e-4 here).
+/// (Galambos, Guide to Stability Design Criteria, from memory; 0.20 in⁶ per angle at
+/// t = 0.3125 in, 0.0036 in⁶ at t = 0.08 in).
 fn angle(x0: f64, h: f64, b: f64, t: f64, right: bool) -> (Hand, Piece, (f64, f64, f64)) {
     let s = if right { 1.0 } else { -1.0 };
     let xs = |x: f64| x0 + s * x;

@@ -254,7 +254,7 @@ mod tests {
         // Our own girder, larger flange on top (+y). kern's value (exact moments of the
         // plates) approaches the thin-walled one as the plates get thinner, the gap
         // closing about in proportion to the thickness; the shear centre is the
-        // thin-walled one here (the FE shear centre is tested in src/fe).
+        // thin-walled one here (the finite-element one enters in tests/ltb.rs).
         let (b1, b2, h) = (300.0, 150.0, 600.0);
         let mut gaps = Vec::new();
         for t in [8.0, 4.0, 2.0, 1.0] {
