@@ -9,20 +9,18 @@
 //! [`StressField::new`], which takes the file unit's size in metres and gives Pa.
 
 use crate::checks::kern::kern_polygon;
+use crate::checks::ltb::{self, Buckling, Compressed};
 use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
 use crate::checks::stress::{extremes, Extremes, StressField};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{Piece, Pt, Seg};
 use crate::model::units::Dim;
-use crate::model::{Diagnostic, Document, Resolved};
+use crate::model::{Diagnostic, Document, LoadHeight, Resolved};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
 
 /// Standard acceleration of gravity, m/s², for self-weight (defined with the units).
 pub use crate::model::units::GRAVITY;
-/// Poisson's ratio assumed for the shear modulus `G = E/(2(1+ν))` in the
-/// lateral-torsional buckling estimate (structural steel; stated in every output).
-pub const POISSON: f64 = 0.3;
 
 /// What to compute; `torsion: None` skips the finite-element solve.
 #[derive(Debug, Clone, Default)]
@@ -54,8 +52,18 @@ pub struct MemberResult {
     pub stress_max: f64,
     /// `max(stress/fy, δ/δ_allowed)` over the ratios that can be formed.
     pub utilization: Option<f64>,
-    /// Elastic critical moment for lateral-torsional buckling (simple span only).
+    /// Elastic critical moment for lateral-torsional buckling (simple span only), N·m.
     pub mcr: Option<f64>,
+    /// The monosymmetry constant βx used for `mcr`, m; present when the section
+    /// qualifies (symmetric about an axis parallel to y, one piece, torsion solved).
+    pub beta_x: Option<f64>,
+    /// The side in compression that `mcr` was formed for; `None` when the moment
+    /// takes both signs (or none) along the span and the lower of the two is given.
+    pub mcr_side: Option<Compressed>,
+    /// Why there is no `mcr`, in words.
+    pub mcr_note: Option<String>,
+    /// The same, when it belongs in the warnings.
+    pub mcr_warning: Option<String>,
     /// Self-weight added to the uniform load, N/m.
     pub self_weight: f64,
 }
@@ -121,11 +129,18 @@ impl Analysis {
     /// thread), with its warnings and the member check that depends on it.
     pub fn set_torsion(&mut self, t: Result<Torsion, String>) {
         match &t {
-            Ok(t) => self.warnings.extend(t.warnings.iter().cloned()),
+            Ok(t) => {
+                self.warnings.extend(t.warnings.iter().cloned());
+                self.warnings.extend(self.shear_ratio_note());
+            }
             Err(e) => self.warnings.push(format!("torsion not computed: {e}")),
         }
         self.torsion = Some(t);
         self.member = self.member_check();
+        let warning = self.member.as_ref().and_then(|m| m.mcr_warning.clone());
+        if let Some(w) = warning.filter(|w| !self.warnings.contains(w)) {
+            self.warnings.push(w);
+        }
     }
 
     /// A property of dimension `dim` in the file's unit, in SI.
@@ -187,7 +202,140 @@ impl Analysis {
         if self.section.materials.is_empty() {
             notes.push("the member check has no modulus of elasticity: add [[materials]] with E for deflections".to_string());
         }
+        notes.extend(self.member.as_ref().and_then(|m| m.mcr_warning.clone()));
         notes
+    }
+
+    /// A warning when the materials in use have shear moduli that are not in the ratio
+    /// of their E: torsion weights each part by n = E/E_ref (one ν for all), so J, Cw
+    /// and the shear centre are then approximate.
+    fn shear_ratio_note(&self) -> Option<String> {
+        let mats = &self.section.materials;
+        let r = mats.first()?;
+        let off = self
+            .pieces
+            .iter()
+            .filter_map(|p| p.material.and_then(|i| mats.get(i)))
+            .find(|m| ((m.g / r.g) - (m.e / r.e)).abs() > 1e-6 * (m.e / r.e))?;
+        Some(format!(
+            "torsion weights each part by E/E_ref, but material {} has G/G_ref = {} against \
+E/E_ref = {} (a different Poisson's ratio): J, Cw and the shear centre are approximate",
+            off.name,
+            crate::numfmt::sig(off.g / r.g, 4),
+            crate::numfmt::sig(off.e / r.e, 4)
+        ))
+    }
+
+    /// The monosymmetry constants (βx, βy) in the file's length unit, with the
+    /// finite-element shear centre (FORMAT.md `torsion.beta`); `None` without torsion.
+    pub fn beta(&self) -> Option<(f64, f64)> {
+        let t = self.torsion.as_ref()?.as_ref().ok()?;
+        let p = &self.props;
+        Some(ltb::beta(
+            &p.cubic,
+            p.ixx,
+            p.iyy,
+            p.centroid,
+            t.shear_centre,
+        ))
+    }
+
+    /// Mcr of the member in N·m with βx in m and the side in compression, or why there
+    /// is none. The moment diagram decides the side: sagging compresses +y (s = −1),
+    /// hogging −y (s = +1); a diagram of both signs (or none) takes the lower value.
+    fn critical_moment(&self, beam: &Beam) -> Result<(f64, f64, Option<Compressed>), Refusal> {
+        let quiet = |s: &str| Err(Refusal::quiet(s));
+        let mb = self
+            .section
+            .member
+            .as_ref()
+            .ok_or_else(|| Refusal::quiet("no [member]"))?;
+        if mb.support != Support::Simple {
+            return quiet(
+                "the formula is for a simple span (ends free to warp, twist prevented); other \
+end conditions need effective lengths and a published method that kern does not apply",
+            );
+        }
+        if mb.load_height != LoadHeight::ShearCentre {
+            let name = if mb.load_height == LoadHeight::Top {
+                "top"
+            } else {
+                "bottom"
+            };
+            return Err(Refusal::warn(format!(
+                "[member] load_height = \"{name}\": a load above or below \
+the shear centre needs a load-height method (tabulated for given load cases, e.g. in the SSRC \
+guide) that kern does not implement; use load_height = \"shear_centre\" for the value with \
+the load at the shear centre"
+            )));
+        }
+        let Some(mat) = self.section.materials.first() else {
+            return quiet("it needs a modulus of elasticity: add [[materials]] with E");
+        };
+        let t = match &self.torsion {
+            None => return quiet("it needs the torsion results (J, Cw, shear centre)"),
+            Some(Err(_)) => {
+                return quiet("the torsion results (J, Cw, shear centre) could not be computed")
+            }
+            Some(Ok(t)) => t,
+        };
+        let pieces = crate::fe::mesh::base(&self.pieces, 1.0)
+            .map(|b| b.mesh.pinned.len())
+            .unwrap_or(1);
+        if pieces > 1 {
+            return Err(Refusal::warn(format!(
+                "the section is {pieces} separate pieces; how they buckle \
+together depends on how and how often they are connected along the span (each piece also \
+buckles on its own between connections), and no single Mcr of the cross-section describes \
+that; check the pieces and their connections by a method for built-up members"
+            )));
+        }
+        let p = &self.props;
+        if p.ixy.abs() > 1e-9 * (p.ixx * p.iyy).sqrt() {
+            return Err(Refusal::warn(
+                "the section is not symmetric about an axis parallel to y \
+(Ixy ≠ 0), and the formula kern uses holds only for such sections"
+                    .to_string(),
+            ));
+        }
+        let size = (p.bounds[1] - p.bounds[0]).max(p.bounds[3] - p.bounds[2]);
+        if (t.shear_centre.x - p.centroid.x).abs() > t.rel_error.max(1e-9) * size {
+            return Err(Refusal::warn(
+                "the shear centre is off the vertical axis through the \
+centroid, so the section is not symmetric about an axis parallel to y, and the formula kern \
+uses holds only for such sections"
+                    .to_string(),
+            ));
+        }
+        let (beta_x, _) = self
+            .beta()
+            .ok_or_else(|| Refusal::quiet("no torsion results"))?;
+        let b = Buckling {
+            e: mat.e,
+            g: mat.g,
+            iy: self.si(p.iyy, Dim::SecondMoment),
+            j: self.si(t.j, Dim::SecondMoment),
+            cw: self.si(t.cw, Dim::Warping),
+            beta_x: self.si(beta_x, Dim::Length),
+            l: mb.length,
+            c1: mb.c1,
+        };
+        let (sag, hog) = moment_signs(beam);
+        let side = match (sag, hog) {
+            (true, false) => Some(Compressed::PlusY),
+            (false, true) => Some(Compressed::MinusY),
+            _ => None,
+        };
+        let mcr = match side {
+            Some(s) => ltb::mcr(&b, s),
+            None => ltb::mcr(&b, Compressed::PlusY)
+                .zip(ltb::mcr(&b, Compressed::MinusY))
+                .map(|(a, c)| a.min(c)),
+        };
+        match mcr {
+            Some(x) => Ok((x, b.beta_x, side)),
+            None => quiet("J and Cw are both zero, or a value is not finite"),
+        }
     }
 
     fn member_check(&self) -> Option<MemberResult> {
@@ -225,18 +373,7 @@ impl Analysis {
             deflection_max.map(|d| d / deflection_allowed),
         ];
         let utilization = ratios.iter().flatten().copied().reduce(f64::max);
-        let mcr = match (mb.support, e, &self.torsion) {
-            (Support::Simple, Some(e), Some(Ok(t))) => member::mcr_uniform_moment(
-                e,
-                e / (2.0 * (1.0 + POISSON)),
-                self.si(self.props.iyy, Dim::SecondMoment),
-                self.si(t.j, Dim::SecondMoment),
-                self.si(t.cw, Dim::Warping),
-                mb.length,
-            ),
-            _ => None,
-        };
-        Some(MemberResult {
+        let mut out = MemberResult {
             beam,
             result,
             m_max,
@@ -245,9 +382,62 @@ impl Analysis {
             deflection_allowed,
             stress_max,
             utilization,
-            mcr,
+            mcr: None,
+            beta_x: None,
+            mcr_side: None,
+            mcr_note: None,
+            mcr_warning: None,
             self_weight,
-        })
+        };
+        match self.critical_moment(&out.beam) {
+            Ok((mcr, beta_x, side)) => {
+                out.mcr = Some(mcr);
+                out.beta_x = Some(beta_x);
+                out.mcr_side = side;
+            }
+            Err(r) => {
+                out.mcr_note = Some(r.text);
+                out.mcr_warning = r.warning;
+            }
+        }
+        Some(out)
+    }
+}
+
+/// Whether the bending moment sags (compresses +y) and whether it hogs (−y) anywhere
+/// along the span, beyond rounding (256 intervals; M is quadratic between loads, so a
+/// stretch of the other sign narrower than that can be missed only where |M| is tiny).
+fn moment_signs(beam: &Beam) -> (bool, bool) {
+    let Ok(d) = member::diagrams(beam, 256) else {
+        return (false, false);
+    };
+    let peak = d.iter().map(|r| r.2.abs()).fold(0.0, f64::max);
+    let tol = 1e-9 * peak;
+    (
+        peak > 0.0 && d.iter().any(|r| r.2 > tol),
+        peak > 0.0 && d.iter().any(|r| r.2 < -tol),
+    )
+}
+
+/// Why Mcr is absent: the reason in words, and a warning when the user should hear of
+/// it in the warnings list (not for what simply was not asked, like torsion skipped).
+struct Refusal {
+    text: String,
+    warning: Option<String>,
+}
+
+impl Refusal {
+    fn quiet(text: &str) -> Refusal {
+        Refusal {
+            text: text.to_string(),
+            warning: None,
+        }
+    }
+    fn warn(text: String) -> Refusal {
+        Refusal {
+            warning: Some(format!("Mcr not computed: {text}")),
+            text,
+        }
     }
 }
 

@@ -1,6 +1,6 @@
 //! A quick single-span member check: shear, bending moment and deflection of a beam under a
-//! uniform load and point loads, for four support cases, and the elastic critical moment for
-//! lateral-torsional buckling.
+//! uniform load and point loads, for four support cases. The elastic critical moment for
+//! lateral-torsional buckling is in [`super::ltb`].
 //!
 //! Conventions: x runs from 0 to `span`; loads act in −y (gravity) and are given as positive
 //! numbers downward (a negative value lifts); deflection is positive downward; the bending
@@ -184,36 +184,6 @@ pub fn diagrams(beam: &Beam, n: usize) -> Result<Vec<(f64, f64, f64, f64)>, Stri
             (x, sol.shear(x, side), sol.moment(x), sol.deflection(x))
         })
         .collect())
-}
-
-/// Elastic critical moment of a simply supported beam under uniform moment (ends free to warp,
-/// twist prevented at the supports; Timoshenko & Gere, Theory of Elastic Stability, "lateral
-/// buckling of beams in pure bending"):
-///
-/// `Mcr = (π/L)·√(E·Iy·G·J)·√(1 + π²·E·Cw/(G·J·L²))`, computed as
-/// `(π/L)·√(E·Iy·(G·J + π²·E·Cw/L²))` so that J = 0 with Cw > 0 is fine.
-///
-/// `iy` is the minor-axis second moment, `j` the torsion constant, `cw` the warping constant,
-/// `l` the unbraced length. A moment-gradient factor for other moment diagrams is the caller's
-/// assumption to state. `None` unless E, G, Iy, L are finite and > 0, J and Cw finite and ≥ 0,
-/// and the result positive.
-///
-/// ```
-/// use kern::checks::member::mcr_uniform_moment;
-/// // Narrow rectangle (Cw ≈ 0): Mcr = (π/L)·√(E·Iy·G·J).
-/// let m = mcr_uniform_moment(200e3, 80e3, 1e6, 4e6, 0.0, 4000.0).unwrap();
-/// assert!((m - std::f64::consts::PI / 4000.0 * (200e3 * 1e6 * 80e3 * 4e6_f64).sqrt()).abs() < 1e-3);
-/// ```
-pub fn mcr_uniform_moment(e: f64, g: f64, iy: f64, j: f64, cw: f64, l: f64) -> Option<f64> {
-    let positive = [e, g, iy, l].iter().all(|v| v.is_finite() && *v > 0.0);
-    let non_negative = [j, cw].iter().all(|v| v.is_finite() && *v >= 0.0);
-    if !(positive && non_negative) {
-        return None;
-    }
-    let pi = std::f64::consts::PI;
-    let torsion = g * j + pi * pi * e * cw / (l * l);
-    let mcr = pi / l * (e * iy * torsion).sqrt();
-    (mcr.is_finite() && mcr > 0.0).then_some(mcr)
 }
 
 /// Which side of a point load the shear is taken on.
@@ -767,27 +737,5 @@ mod tests {
                 }
             }
         }
-    }
-
-    #[test]
-    fn critical_moment_hand_value() {
-        // Hand calculation (our own numbers, N and mm): E = 200 000, G = 80 000, Iy = 1e7,
-        // J = 2e5, Cw = 1e11, L = 5000:
-        // π/L = 6.2832e-4; √(E·Iy·G·J) = √(3.2e22) = 1.78885e11;
-        // 1 + π²·E·Cw/(G·J·L²) = 1 + 9.8696·2e16/4e17 = 1.49348, √ = 1.22208;
-        // Mcr = 6.2832e-4 × 1.78885e11 × 1.22208 = 1.3736e8 N·mm (137.4 kN·m).
-        let m = mcr_uniform_moment(2e5, 8e4, 1e7, 2e5, 1e11, 5000.0).unwrap();
-        assert!(close(m, 1.3736e8, 1e-4));
-        // Cw = 0 leaves the narrow-rectangle result (π/L)·√(E·Iy·G·J) (Timoshenko & Gere).
-        let m0 = mcr_uniform_moment(2e5, 8e4, 1e7, 2e5, 0.0, 5000.0).unwrap();
-        assert!(close(
-            m0,
-            std::f64::consts::PI / 5000.0 * 1.788854382e11,
-            1e-9
-        ));
-        assert!(mcr_uniform_moment(2e5, 8e4, 1e7, 0.0, 0.0, 5000.0).is_none());
-        assert!(mcr_uniform_moment(2e5, 8e4, 1e7, 0.0, 1e11, 5000.0).is_some());
-        assert!(mcr_uniform_moment(2e5, 8e4, -1.0, 2e5, 1e11, 5000.0).is_none());
-        assert!(mcr_uniform_moment(f64::NAN, 8e4, 1e7, 2e5, 1e11, 5000.0).is_none());
     }
 }

@@ -26,7 +26,7 @@ const TOP_KEYS: &[&str] = &[
 const PART_KEYS: &[&str] = &[
     "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "enabled", "material",
 ];
-const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density"];
+const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density", "G", "nu"];
 const ACTION_KEYS: &[&str] = &["N", "Mx", "My"];
 const MEMBER_KEYS: &[&str] = &[
     "span",
@@ -35,6 +35,8 @@ const MEMBER_KEYS: &[&str] = &[
     "point",
     "deflection_limit",
     "self_weight",
+    "c1",
+    "load_height",
 ];
 
 /// Parses the text of a section file.
@@ -470,6 +472,8 @@ impl Reader<'_> {
             e: self.opt_val(t, "E", sp.clone())?,
             fy: self.opt_val(t, "fy", sp.clone())?,
             density: self.opt_val(t, "density", sp.clone())?,
+            g: self.opt_val(t, "G", sp.clone())?,
+            nu: self.opt_val(t, "nu", sp.clone())?,
             span: sp,
         })
     }
@@ -611,6 +615,8 @@ impl Reader<'_> {
             points,
             deflection_limit: self.opt_val(t, "deflection_limit", sp.clone())?,
             self_weight: self.opt_bool(t, "self_weight", false, sp.clone())?,
+            c1: self.opt_val(t, "c1", sp.clone())?,
+            load_height: self.opt_str(t, "load_height", sp.clone())?,
             span: sp,
         })
     }

@@ -23,6 +23,10 @@ pub struct MaterialDoc {
     pub e: Option<Val>,
     pub fy: Option<Val>,
     pub density: Option<Val>,
+    /// Shear modulus `G`, with a unit.
+    pub g: Option<Val>,
+    /// Poisson's ratio `nu`, a plain number.
+    pub nu: Option<Val>,
 }
 
 /// `[[parts]]`.
@@ -72,6 +76,10 @@ pub struct MemberDoc {
     pub points: Vec<PointDoc>,
     pub deflection_limit: Option<Val>,
     pub self_weight: bool,
+    /// Moment-gradient factor for Mcr.
+    pub c1: Option<Val>,
+    /// Where transverse loads act, for Mcr: `shear_centre`, `top` or `bottom`.
+    pub load_height: Option<(String, Span)>,
 }
 
 /// `[actions]`.

@@ -19,5 +19,5 @@ pub use diag::{Diagnostic, Span};
 pub use document::{
     ActionsDoc, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, StringMaps, Val, Value,
 };
-pub use resolve::{Actions, Material, Member, Part, Resolved};
+pub use resolve::{Actions, LoadHeight, Material, Member, Part, Resolved, ShearModulus};
 pub use schema::{Dims, ShapeKind};

@@ -14,14 +14,48 @@ use crate::checks::member::Support;
 use crate::geom::{Piece, Placement, Pt, Shape};
 use std::collections::BTreeMap;
 
-/// A material with SI values: `e` and `fy` in Pa, `density` in kg/m³.
+/// A material with SI values: `e`, `fy` and `g` in Pa, `density` in kg/m³.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Material {
     pub name: String,
     pub e: f64,
     pub fy: Option<f64>,
     pub density: Option<f64>,
+    /// Shear modulus: as given, or `E/(2(1 + ν))` (FORMAT.md "Materials").
+    pub g: f64,
+    /// Where `g` comes from.
+    pub g_source: ShearModulus,
 }
+
+/// Poisson's ratio assumed when a material gives neither `G` nor `nu` (common practice
+/// for structural steel; no source).
+pub const DEFAULT_NU: f64 = 0.3;
+
+/// How a material's shear modulus was found.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum ShearModulus {
+    /// `G` written in the file (with `nu` too, when they agree).
+    Given,
+    /// `E/(2(1 + ν))` with the `nu` written in the file.
+    FromNu(f64),
+    /// `E/(2(1 + ν))` with ν = [`DEFAULT_NU`].
+    DefaultNu,
+}
+
+/// Where transverse loads act, for the elastic critical moment.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LoadHeight {
+    ShearCentre,
+    Top,
+    Bottom,
+}
+
+/// The names of `load_height`.
+pub const LOAD_HEIGHTS: [(&str, LoadHeight); 3] = [
+    ("shear_centre", LoadHeight::ShearCentre),
+    ("top", LoadHeight::Top),
+    ("bottom", LoadHeight::Bottom),
+];
 
 /// A part with its shape and placement in numbers.
 #[derive(Debug, Clone, PartialEq)]
@@ -47,6 +81,9 @@ pub struct Member {
     pub points: Vec<(f64, f64)>,
     pub deflection_limit: f64,
     pub self_weight: bool,
+    /// Moment-gradient factor for Mcr (1 for uniform moment, the default).
+    pub c1: f64,
+    pub load_height: LoadHeight,
 }
 
 /// A section in numbers.
@@ -252,11 +289,14 @@ impl Resolved {
                     .as_ref()
                     .map(|v| positive_q(&ctx, v, "density", Kind::Density))
                     .transpose()?;
+                let (g, g_source) = shear_modulus(&ctx, m, e)?;
                 Ok(Material {
                     name: m.name.clone(),
                     e,
                     fy,
                     density,
+                    g,
+                    g_source,
                 })
             })
             .collect::<Result<Vec<_>, Diagnostic>>()?;
@@ -464,6 +504,50 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
     })
 }
 
+/// `G` of a material from `G` or `nu` (FORMAT.md "Materials"): G as written, else
+/// `E/(2(1 + ν))` with the written ν in [0, 0.5) or ν = 0.3; both written must agree to a
+/// relative 1e-6.
+fn shear_modulus(
+    ctx: &Ctx,
+    m: &super::document::MaterialDoc,
+    e: f64,
+) -> Result<(f64, ShearModulus), Diagnostic> {
+    let nu = match &m.nu {
+        Some(v) => {
+            let nu = ctx.number(v, "nu")?;
+            if !(0.0..0.5).contains(&nu) {
+                return Err(Diagnostic::new(
+                    v.span.clone(),
+                    format!("`nu` (Poisson's ratio) must be at least 0 and less than 0.5, but it is {nu}"),
+                ));
+            }
+            Some(nu)
+        }
+        None => None,
+    };
+    let from_nu = |nu: f64| e / (2.0 * (1.0 + nu));
+    match (&m.g, nu) {
+        (Some(v), nu) => {
+            let g = positive_q(ctx, v, "G", Kind::Stress)?;
+            if let Some(nu) = nu {
+                let implied = from_nu(nu);
+                if (g - implied).abs() > 1e-6 * g {
+                    return Err(Diagnostic::new(
+                        v.span.clone(),
+                        format!(
+                            "`G` and `nu` = {nu} disagree: G differs from E/(2(1 + nu)) by {:.3} %; give only one of them, or make them agree to 1e-6",
+                            100.0 * (g - implied).abs() / implied
+                        ),
+                    ));
+                }
+            }
+            Ok((g, ShearModulus::Given))
+        }
+        (None, Some(nu)) => Ok((from_nu(nu), ShearModulus::FromNu(nu))),
+        (None, None) => Ok((from_nu(DEFAULT_NU), ShearModulus::DefaultNu)),
+    }
+}
+
 fn resolve_member(
     ctx: &Ctx,
     unit: LengthUnit,
@@ -512,6 +596,23 @@ fn resolve_member(
         Some(v) => ctx.positive(v, "deflection_limit")?,
         None => 360.0,
     };
+    let c1 = match &m.c1 {
+        Some(v) => ctx.positive(v, "c1")?,
+        None => 1.0,
+    };
+    let load_height = match &m.load_height {
+        None => LoadHeight::ShearCentre,
+        Some((name, span)) => LOAD_HEIGHTS
+            .iter()
+            .find(|h| h.0 == name)
+            .map(|h| h.1)
+            .ok_or_else(|| {
+                Diagnostic::new(
+                    span.clone(),
+                    format!("unknown load_height `{name}`; use shear_centre, top or bottom"),
+                )
+            })?,
+    };
     Ok(Member {
         length,
         support,
@@ -519,5 +620,7 @@ fn resolve_member(
         points,
         deflection_limit,
         self_weight: m.self_weight,
+        c1,
+        load_height,
     })
 }

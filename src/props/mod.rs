@@ -4,6 +4,7 @@
 //! moduli; radii of gyration; and the warnings a composite deserves (overlaps, stray
 //! voids). Torsion is not here: see [`crate::fe`].
 
+pub mod cubic;
 pub mod moments;
 pub mod overlap;
 pub mod plastic;

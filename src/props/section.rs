@@ -4,6 +4,7 @@
 //! not the file origin, so a section drawn far from its origin loses no digits to the
 //! parallel axis theorem.
 
+use super::cubic::Cubic;
 use super::moments::{Centroidal, Moments};
 use super::plastic::{plastic_axis_x, plastic_axis_y, Weighted};
 use super::principal::Principal;
@@ -52,6 +53,8 @@ pub struct Properties {
     pub elastic: Elastic,
     pub plastic: Option<Plastic>,
     pub gyration: Gyration,
+    /// Third moments about the centroid (`∫(x−x̄)³ dA`…), for the monosymmetry constants.
+    pub cubic: Cubic,
     /// `Σ ±A·ρ` in (length unit)²·kg/m³, when every piece has a density.
     pub mass_area: Option<f64>,
 }
@@ -73,6 +76,14 @@ impl Properties {
             .fold(Moments::default(), |s, (p, c)| {
                 s.plus(&Moments::of_contours(c), p.sign() * p.n)
             });
+        let cubic = pieces
+            .iter()
+            .zip(&local)
+            .fold(Cubic::default(), |s, (p, c)| {
+                s.plus(&Cubic::of_contours(c), p.sign() * p.n)
+            })
+            .central(&m)
+            .unwrap_or_default();
         let finite = [m.a, m.sx, m.sy, m.ixx, m.iyy, m.ixy]
             .iter()
             .chain(&b)
@@ -156,6 +167,7 @@ impl Properties {
                 y: (iyy / area).sqrt(),
                 min: (principal.i2.max(0.0) / area).sqrt(),
             },
+            cubic,
             mass_area,
         })
     }

@@ -41,7 +41,8 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
                 json!({
                     "j": g(t.j, 4), "cw": g(t.cw, 6),
                     "shear_centre": { "x": g(t.shear_centre.x, 1), "y": g(t.shear_centre.y, 1) },
-                    "method": t.method, "rel_error": t.rel_error, "elements": t.elements
+                    "method": t.method, "rel_error": t.rel_error, "elements": t.elements,
+                    "beta": a.beta().map(|(x, y)| json!({ "x": g(x, 1), "y": g(y, 1) })),
                 }),
             );
         }
@@ -82,6 +83,7 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
                 "stress_max": stress_unit.from_si(m.stress_max),
                 "utilization": m.utilization,
                 "mcr": m.mcr.map(|x| u.moment().from_si(x)),
+                "beta_x": m.beta_x.map(|x| u.metres(x)),
             }),
         );
     }

@@ -9,11 +9,14 @@ use super::out::OutUnits;
 use super::rows::rows;
 use super::table::FIGURES;
 use super::CAUTION;
-use crate::analysis::{Analysis, GRAVITY, POISSON};
+use crate::analysis::{Analysis, GRAVITY};
+use crate::checks::ltb::Compressed;
 use crate::checks::member::Support;
 use crate::checks::stress::Extremes;
 use crate::geom::Shape;
+use crate::model::resolve::DEFAULT_NU;
 use crate::model::units::{display_unit, Kind};
+use crate::model::ShearModulus;
 use crate::numfmt::sig;
 
 /// The line where the HTML page puts the drawing (an HTML comment, invisible in Markdown).
@@ -163,6 +166,14 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                     fig(st.from_si(m.e)),
                     m.fy.map_or("—".into(), |f| fig(st.from_si(f))),
                     m.density.map_or("—".into(), |d| fig(rho.from_si(d))),
+                    fig(st.from_si(m.g)),
+                    match m.g_source {
+                        ShearModulus::Given => "as given".to_string(),
+                        ShearModulus::FromNu(nu) => format!("E/(2(1 + ν)), ν = {}", plain(nu)),
+                        ShearModulus::DefaultNu => format!(
+                            "E/(2(1 + ν)), ν = {DEFAULT_NU} assumed (the default, common practice for steel; give nu or G otherwise)"
+                        ),
+                    },
                 ]
             })
             .collect();
@@ -173,6 +184,8 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                 &format!("E ({})", st.name),
                 &format!("fy ({})", st.name),
                 &format!("density ({})", rho.name),
+                &format!("G ({})", st.name),
+                "G from",
             ],
             &body,
         );
@@ -509,18 +522,42 @@ formula for unsymmetric sections.\n\n",
             )),
             None => s.push_str("- utilisation not formed (neither fy nor E given)\n"),
         }
-        match mr.mcr {
-            Some(x) => s.push_str(&format!(
-                "- Mcr = {} {}: elastic lateral-torsional buckling under uniform moment, simply \
-supported, ends free to warp, G = E/(2(1 + ν)) with ν = {POISSON}, no moment-gradient factor, \
-load at the shear centre (Timoshenko & Gere)\n",
-                fig(m.from_si(x)),
-                m.name
+        match (mr.mcr, mr.beta_x, a.section.materials.first()) {
+            (Some(x), Some(bx), Some(mat)) => {
+                let side = match mr.mcr_side {
+                    Some(Compressed::PlusY) => "+y side in compression (sagging, s = −1)",
+                    Some(Compressed::MinusY) => "−y side in compression (hogging, s = +1)",
+                    None => "the lower of the values for either side in compression (the moment takes both signs, or none)",
+                };
+                let g_from = match mat.g_source {
+                    ShearModulus::Given => "as given".to_string(),
+                    ShearModulus::FromNu(nu) => format!("E/(2(1 + ν)), ν = {}", plain(nu)),
+                    ShearModulus::DefaultNu => format!("E/(2(1 + ν)), ν = {DEFAULT_NU} assumed"),
+                };
+                s.push_str(&format!(
+                    "- Mcr = {} {}: elastic lateral-torsional buckling of the simple span, \
+Mcr = c1·(π²EIy/L²)·(s·βx/2 + √((βx/2)² + Cw/Iy + GJL²/(π²EIy))) (Trahair, Flexural-Torsional \
+Buckling of Structures, ch. 7; Timoshenko & Gere when βx = 0). Assumed: ends free to warp and \
+prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of {} ({g_from}), \
+βx = {} {l} with the finite-element shear centre, {side}\n",
+                    fig(m.from_si(x)),
+                    m.name,
+                    plain(mb.c1),
+                    if mb.c1 == 1.0 {
+                        "uniform moment, the least favourable diagram for a simple span"
+                    } else {
+                        "moment-gradient factor as given"
+                    },
+                    fig(st.from_si(mat.g)),
+                    st.name,
+                    inline(&mat.name),
+                    fig(u.metres(bx)),
+                ));
+            }
+            _ => s.push_str(&format!(
+                "- Mcr not computed: {}\n",
+                mr.mcr_note.as_deref().unwrap_or("no value")
             )),
-            None => s.push_str(
-                "- Mcr not computed: it needs a simply supported span, E and the torsion \
-results\n",
-            ),
         }
         s.push('\n');
     }

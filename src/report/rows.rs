@@ -312,7 +312,7 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
             "Mcr",
             m.mcr.map(|x| u.moment().from_si(x)),
             u.moment().name.into(),
-            "elastic critical moment (LTB), uniform moment, ν = 0.3",
+            "elastic critical moment (LTB), simple span, load at the shear centre",
         );
     }
     out
