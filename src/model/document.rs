@@ -95,6 +95,9 @@ pub struct ActionsDoc {
     pub n: Option<Val>,
     pub mx: Option<Val>,
     pub my: Option<Val>,
+    pub vx: Option<Val>,
+    pub vy: Option<Val>,
+    pub t: Option<Val>,
 }
 
 /// A whole section file.

@@ -39,6 +39,11 @@ pub struct Actions {
     pub n: f64,
     pub mx: f64,
     pub my: f64,
+    /// Shear forces along +x and +y, N, when given.
+    pub vx: Option<f64>,
+    pub vy: Option<f64>,
+    /// Torque about the member axis, N·m, counter-clockwise seen from +z, when given.
+    pub t: Option<f64>,
 }
 
 /// The single-span member, SI: lengths in m, loads in N and N/m.
@@ -229,6 +234,20 @@ impl Resolved {
                     n: q(&a.n, "N", Kind::Force)?,
                     mx: q(&a.mx, "Mx", Kind::Moment)?,
                     my: q(&a.my, "My", Kind::Moment)?,
+                    vx: a
+                        .vx
+                        .as_ref()
+                        .map(|v| ctx.quantity(v, "Vx", Kind::Force, None))
+                        .transpose()?,
+                    vy: a
+                        .vy
+                        .as_ref()
+                        .map(|v| ctx.quantity(v, "Vy", Kind::Force, None))
+                        .transpose()?,
+                    t: a.t
+                        .as_ref()
+                        .map(|v| ctx.quantity(v, "T", Kind::Moment, None))
+                        .transpose()?,
                 })
             })
             .transpose()?;
