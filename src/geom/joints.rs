@@ -191,8 +191,8 @@ fn stretches(bits: &[(Pt, Pt, f64)], tol: f64) -> (usize, bool) {
     }
     let ends = |i: usize| [bits[i].0, bits[i].1];
     let mut free_ends = 0;
-    for i in 0..n {
-        for e in ends(i) {
+    for (i, bit) in bits.iter().enumerate() {
+        for e in [bit.0, bit.1] {
             let mut matched = false;
             for j in (0..n).filter(|&j| j != i) {
                 if ends(j).iter().any(|f| f.dist(e) <= tol) {
@@ -202,7 +202,7 @@ fn stretches(bits: &[(Pt, Pt, f64)], tol: f64) -> (usize, bool) {
                 }
             }
             // A full circle shared as one piece closes on itself.
-            if !matched && bits[i].0.dist(bits[i].1) > tol {
+            if !matched && bit.0.dist(bit.1) > tol {
                 free_ends += 1;
             }
         }
