@@ -11,9 +11,10 @@
 use crate::checks::kern::kern_polygon;
 use crate::checks::ltb::{self, Buckling, Compressed};
 use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
+use crate::checks::shear_flow::{self, Connection};
 use crate::checks::stress::{extremes, Extremes, StressField};
 use crate::fe::{torsion, Torsion, TorsionOptions};
-use crate::geom::{Piece, Pt, Seg};
+use crate::geom::{joints, Piece, Pt, Seg};
 use crate::model::units::Dim;
 use crate::model::{Diagnostic, Document, LoadHeight, Resolved};
 use crate::props::overlap::warnings;
@@ -82,6 +83,9 @@ pub struct Analysis {
     /// The kern: where an axial compressive load leaves no fibre in tension
     /// (counter-clockwise polygon in the file frame; empty if it cannot be formed).
     pub kern: Vec<(f64, f64)>,
+    /// Joints between solid parts, in file order of the pairs, with what statics says
+    /// about the flow across each.
+    pub connections: Vec<Connection>,
     pub warnings: Vec<String>,
 }
 
@@ -105,8 +109,21 @@ impl Analysis {
                 .map_or(0..1, |p| p.span.clone());
             Diagnostic::new(span, m)
         })?;
+        let contacts = joints::contacts(&pieces);
+        let connections = shear_flow::connections(&pieces, &contacts, &props.centroidal());
+        let shear_given = section
+            .actions
+            .is_some_and(|a| a.vx.is_some() || a.vy.is_some());
+        let mut notes = warnings(&pieces);
+        notes.extend(shear_flow::warnings(
+            &pieces,
+            &contacts,
+            &connections,
+            shear_given,
+        ));
         let mut a = Analysis {
-            warnings: warnings(&pieces),
+            warnings: notes,
+            connections,
             kern: kern_polygon(&props.centroidal(), &outline_points(&pieces)),
             document,
             section,
@@ -180,6 +197,26 @@ impl Analysis {
             extremes: ext,
             per_material,
         })
+    }
+
+    /// The longitudinal shear flow across connection `c` in N/m under the shears of
+    /// `[actions]`; `None` without Vx or Vy, or where statics does not give it.
+    pub fn connection_flow(&self, c: &Connection) -> Option<f64> {
+        let act = self.section.actions?;
+        if act.vx.is_none() && act.vy.is_none() {
+            return None;
+        }
+        let (vx, vy) = (act.vx.unwrap_or(0.0), act.vy.unwrap_or(0.0));
+        c.q(&self.props.centroidal(), vx, vy)
+            .map(|q| self.si(q, Dim::PerLength))
+    }
+
+    /// The flow across connection `c` in N/m at the member's largest shear force
+    /// (vertical, `Vy = Vmax`, as the member check bends about x).
+    pub fn connection_flow_at_vmax(&self, c: &Connection) -> Option<f64> {
+        let v = self.member.as_ref()?.v_max;
+        c.q(&self.props.centroidal(), 0.0, v)
+            .map(|q| self.si(q, Dim::PerLength))
     }
 
     /// Mass per metre in kg/m, when every part has a density.

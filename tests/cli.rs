@@ -151,7 +151,20 @@ fn every_demo_section_computes_cleanly() {
             String::from_utf8_lossy(&out.stderr)
         );
         let v = &json_lines(&out)[0];
-        assert_eq!(v["warnings"], Value::Array(vec![]), "{f}: warnings");
+        // The garage lintel's two angles stand apart (joined by stitch bolts along the
+        // span, not in the section): the warning that no two parts share a boundary is right.
+        let warnings: Vec<&Value> = v["warnings"]
+            .as_array()
+            .map(|w| {
+                w.iter()
+                    .filter(|w| {
+                        !(f.ends_with("garage-lintel.toml")
+                            && w.as_str().is_some_and(|s| s.contains("share a boundary")))
+                    })
+                    .collect()
+            })
+            .unwrap_or_default();
+        assert!(warnings.is_empty(), "{f}: warnings {warnings:?}");
         // The table form too.
         let out = kern(&["calc", "--no-torsion", &f]);
         assert_eq!(out.status.code(), Some(0), "{f} (table)");

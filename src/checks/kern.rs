@@ -82,6 +82,7 @@ mod tests {
                 n: -p,
                 mx: p * (e.1 - sec.cy),
                 my: p * (e.0 - sec.cx),
+                ..Default::default()
             };
             StressField::new(sec, &act, 1.0).unwrap().at(v.0, v.1)
         };

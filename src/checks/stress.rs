@@ -32,6 +32,12 @@ pub struct Actions {
     pub n: f64,
     pub mx: f64,
     pub my: f64,
+    /// Shear forces along +x and +y, N, when given.
+    pub vx: Option<f64>,
+    pub vy: Option<f64>,
+    /// Torque about the member axis through the shear centre, N·m, counter-clockwise
+    /// seen from +z, when given.
+    pub t: Option<f64>,
 }
 
 /// A linear normal-stress field `σ(x, y) = σ0 + a·(x − cx) + b·(y − cy)`: σ in Pa, `a` and
@@ -68,7 +74,8 @@ impl StressField {
     /// // σ_top = −6·Mx/(b·h²) = −6·1e3 N·m / (0.1 m · 0.04 m²) = −1.5 MPa
     /// let sec = Centroidal { area: 20_000.0, cx: 0.0, cy: 0.0,
     ///                        ixx: 100.0 * 200f64.powi(3) / 12.0, iyy: 200.0 * 100f64.powi(3) / 12.0, ixy: 0.0 };
-    /// let f = StressField::new(&sec, &Actions { n: 0.0, mx: 1e3, my: 0.0 }, 0.001).unwrap();
+    /// let act = Actions { mx: 1e3, ..Default::default() };
+    /// let f = StressField::new(&sec, &act, 0.001).unwrap();
     /// assert!((f.at(0.0, 100.0) + 1.5e6).abs() < 1e-6);
     /// ```
     pub fn new(sec: &Centroidal, act: &Actions, unit_m: f64) -> Option<StressField> {
@@ -310,6 +317,7 @@ mod tests {
                 n: 0.0,
                 mx: 2e8,
                 my: 0.0,
+                ..Default::default()
             },
             1.0,
         )
@@ -323,6 +331,7 @@ mod tests {
                 n: 0.0,
                 mx: 0.0,
                 my: 5e7,
+                ..Default::default()
             },
             1.0,
         )
@@ -345,6 +354,7 @@ mod tests {
             n: -1.2e6,
             mx: 9e7,
             my: -3e7,
+            ..Default::default()
         };
         let f = StressField::new(&sec, &act, 1.0).unwrap();
         let (area, sx, sy) = (b * h, b * h * h / 6.0, h * b * b / 6.0);
@@ -380,6 +390,7 @@ mod tests {
             n: 5e4,
             mx: 3e6,
             my: -1e6,
+            ..Default::default()
         };
         let f = StressField::new(&sec, &act, 1.0).unwrap();
 
@@ -409,6 +420,7 @@ mod tests {
             n: 4e5,
             mx: 1e8,
             my: 0.0,
+            ..Default::default()
         };
         let f = StressField::new(&sec, &act, 1.0).unwrap();
         let y0 = act.n * sec.ixx / (sec.area * act.mx);
@@ -424,6 +436,7 @@ mod tests {
                 n: 1e5,
                 mx: 1e8,
                 my: 2e7,
+                ..Default::default()
             },
             1.0,
         )
@@ -465,6 +478,7 @@ mod tests {
                 n: 0.0,
                 mx: m * c,
                 my: -m * s,
+                ..Default::default()
             };
             let f = StressField::new(&sec, &act, 1.0).unwrap();
             assert!(close(f.neutral_axis_angle_deg().unwrap(), turn, 1e-10));
@@ -480,6 +494,7 @@ mod tests {
                 n: 1e4,
                 mx: 1e6,
                 my: 2e6,
+                ..Default::default()
             },
             1.0,
         )
@@ -509,6 +524,7 @@ mod tests {
             n: 2e4,
             mx: 1e4,
             my: 0.0,
+            ..Default::default()
         };
         for unit_m in [0.001, 0.01, 1.0, 0.0254] {
             let k = 0.001 / unit_m;

@@ -27,7 +27,7 @@ const PART_KEYS: &[&str] = &[
     "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "enabled", "material",
 ];
 const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density", "G", "nu"];
-const ACTION_KEYS: &[&str] = &["N", "Mx", "My"];
+const ACTION_KEYS: &[&str] = &["N", "Mx", "My", "Vx", "Vy", "T"];
 const MEMBER_KEYS: &[&str] = &[
     "span",
     "support",
@@ -150,6 +150,9 @@ fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Docume
                 n: r.opt_val(t, "N", sp.clone())?,
                 mx: r.opt_val(t, "Mx", sp.clone())?,
                 my: r.opt_val(t, "My", sp.clone())?,
+                vx: r.opt_val(t, "Vx", sp.clone())?,
+                vy: r.opt_val(t, "Vy", sp.clone())?,
+                t: r.opt_val(t, "T", sp.clone())?,
                 span: sp,
             })
         }

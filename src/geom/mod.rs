@@ -7,6 +7,7 @@
 //! [`crate::props::moments`]; placing a part (anchor, flip, rotate) is in [`place`].
 
 pub mod contour;
+pub mod joints;
 pub mod place;
 pub mod region;
 pub mod shapes;

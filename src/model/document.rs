@@ -89,6 +89,9 @@ pub struct ActionsDoc {
     pub n: Option<Val>,
     pub mx: Option<Val>,
     pub my: Option<Val>,
+    pub vx: Option<Val>,
+    pub vy: Option<Val>,
+    pub t: Option<Val>,
 }
 
 /// Where the text of string values stands in the file, for each string whose value is

@@ -318,6 +318,20 @@ impl Resolved {
                     n: q(&a.n, "N", Kind::Force)?,
                     mx: q(&a.mx, "Mx", Kind::Moment)?,
                     my: q(&a.my, "My", Kind::Moment)?,
+                    vx: a
+                        .vx
+                        .as_ref()
+                        .map(|v| ctx.quantity(v, "Vx", Kind::Force, None))
+                        .transpose()?,
+                    vy: a
+                        .vy
+                        .as_ref()
+                        .map(|v| ctx.quantity(v, "Vy", Kind::Force, None))
+                        .transpose()?,
+                    t: a.t
+                        .as_ref()
+                        .map(|v| ctx.quantity(v, "T", Kind::Moment, None))
+                        .transpose()?,
                 })
             })
             .transpose()?;

@@ -111,6 +111,8 @@ impl LengthUnit {
 /// The length dimension of a geometric quantity: the power of length it carries.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Dim {
+    /// Per length (m⁻¹): a shear flow V·Q/I with V already in N becomes N/m.
+    PerLength,
     /// Coordinates, dimensions, radii of gyration (m).
     Length,
     /// Area (m²).
@@ -124,9 +126,10 @@ pub enum Dim {
 }
 
 impl Dim {
-    /// The power of length: 1, 2, 3, 4 or 6.
+    /// The power of length: −1, 1, 2, 3, 4 or 6.
     pub fn power(self) -> i32 {
         match self {
+            Dim::PerLength => -1,
             Dim::Length => 1,
             Dim::Area => 2,
             Dim::Modulus => 3,

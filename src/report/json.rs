@@ -87,9 +87,25 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
             }),
         );
     }
+    let qu = u.shear_flow();
+    let connections: Vec<Value> = a
+        .connections
+        .iter()
+        .map(|c| {
+            let mut j = json!({
+                "parts": [&a.pieces[c.joint.a].name, &a.pieces[c.joint.b].name],
+                "length": g(c.joint.length, 1),
+            });
+            if let Some(q) = a.connection_flow(c) {
+                j["shear_flow"] = json!(qu.from_si(q));
+            }
+            j
+        })
+        .collect();
+    obj.insert("connections".into(), Value::Array(connections));
     obj.insert(
         "quantity_units".into(),
-        json!({ "force": u.force().name, "moment": u.moment().name, "stress": stress_unit.name, "deflection": u.deflection().name }),
+        json!({ "force": u.force().name, "moment": u.moment().name, "stress": stress_unit.name, "deflection": u.deflection().name, "shear_flow": qu.name }),
     );
     obj.insert(
         "warnings".into(),

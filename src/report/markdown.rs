@@ -12,6 +12,7 @@ use super::CAUTION;
 use crate::analysis::{Analysis, GRAVITY};
 use crate::checks::ltb::Compressed;
 use crate::checks::member::Support;
+use crate::checks::shear_flow::Flow;
 use crate::checks::stress::Extremes;
 use crate::geom::Shape;
 use crate::model::resolve::DEFAULT_NU;
@@ -44,6 +45,7 @@ moments in {}, stresses in {}.\n\n",
     composite(&mut s, a, u);
     results(&mut s, a, u);
     checks(&mut s, a, u);
+    connections(&mut s, a, u);
     s.push_str("## Warnings\n\n");
     if a.warnings.is_empty() {
         s.push_str("None.\n\n");
@@ -361,7 +363,7 @@ fn results(s: &mut String, a: &Analysis, u: &OutUnits) {
             group = r.group;
             vec![
                 head.to_string(),
-                r.symbol.clone(),
+                inline(&r.symbol),
                 r.value.map_or("—".into(), fig),
                 r.unit.clone(),
                 r.meaning.to_string(),
@@ -397,6 +399,100 @@ fn extreme_lines(s: &mut String, e: &Extremes, u: &OutUnits, prefix: &str) {
             fig(u.geo(p.y, 1)),
         ));
     }
+}
+
+/// The joints between parts, with the side each bridge cuts off, so the flow can be
+/// redone by hand.
+fn connections(s: &mut String, a: &Analysis, u: &OutUnits) {
+    if a.connections.is_empty() {
+        return;
+    }
+    let (l, qu) = (u.length.name(), u.shear_flow());
+    s.push_str("## Connections\n\n");
+    s.push_str(&format!(
+        "Joints are boundaries of positive length that two solid parts share. Where cutting a \
+joint separates the section in two, the longitudinal shear flow it carries follows from \
+the equilibrium of the side cut off (gross section, modular ratios, voids inside that side \
+subtracted): q = |(Vy·Iyy − Vx·Ixy)·Qx + (Vx·Ixx − Vy·Ixy)·Qy| / (Ixx·Iyy − Ixy²), with \
+Qx = A′·(ȳ′ − ȳ) and Qy = A′·(x̄′ − x̄) of that side (area A′, centroid x̄′, ȳ′). Joints \
+on a closed cell are statically indeterminate: their flow needs the flexure solution and \
+is not given. Flows in {}.\n\n",
+        qu.name
+    ));
+    let name = |i: usize| inline(&a.pieces[i].name);
+    let body: Vec<Vec<String>> = a
+        .connections
+        .iter()
+        .map(|c| {
+            let (side, area, xc, yc, qx, qy) = match &c.flow {
+                Flow::Exact(cut) => (
+                    cut.side
+                        .iter()
+                        .map(|&i| name(i))
+                        .collect::<Vec<_>>()
+                        .join(", "),
+                    fig(u.geo(cut.area, 2)),
+                    fig(u.geo(cut.centroid.x, 1)),
+                    fig(u.geo(cut.centroid.y, 1)),
+                    fig(u.geo(cut.qx, 3)),
+                    fig(u.geo(cut.qy, 3)),
+                ),
+                Flow::ClosedCell => (
+                    "closed cell".into(),
+                    "—".into(),
+                    "—".into(),
+                    "—".into(),
+                    "—".into(),
+                    "—".into(),
+                ),
+                Flow::VoidAcross(_) | Flow::StrayVoid(_) => (
+                    "a void lies across".into(),
+                    "—".into(),
+                    "—".into(),
+                    "—".into(),
+                    "—".into(),
+                    "—".into(),
+                ),
+            };
+            let q = |v: Option<f64>| v.map_or("—".into(), |q| fig(qu.from_si(q)));
+            vec![
+                format!("{} – {}", name(c.joint.a), name(c.joint.b)),
+                fig(u.geo(c.joint.length, 1)),
+                side,
+                area,
+                xc,
+                yc,
+                qx,
+                qy,
+                q(a.connection_flow(c)),
+                q(a.connection_flow_at_vmax(c)),
+            ]
+        })
+        .collect();
+    let (h_len, h_a, h_x, h_y, h_qx, h_qy) = (
+        format!("length ({l})"),
+        format!("A′ ({l}²)"),
+        format!("x̄′ ({l})"),
+        format!("ȳ′ ({l})"),
+        format!("Qx ({l}³)"),
+        format!("Qy ({l}³)"),
+    );
+    table(
+        s,
+        &[
+            "joint",
+            &h_len,
+            "side cut off",
+            &h_a,
+            &h_x,
+            &h_y,
+            &h_qx,
+            &h_qy,
+            "q, [actions]",
+            "q at Vmax",
+        ],
+        &body,
+    );
 }
 
 fn checks(s: &mut String, a: &Analysis, u: &OutUnits) {

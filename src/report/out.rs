@@ -47,6 +47,20 @@ impl OutUnits {
     pub fn line_load(&self) -> DisplayUnit {
         display_unit(Kind::LineLoad, self.system)
     }
+    /// Shear flow (force per length of member): N/mm for metric files, kip/in for US
+    /// customary ones (FORMAT.md, `quantity_units.shear_flow`).
+    pub fn shear_flow(&self) -> DisplayUnit {
+        match self.system {
+            System::Si => DisplayUnit {
+                name: "N/mm",
+                si_per_unit: 1.0 / LengthUnit::Mm.metres(),
+            },
+            System::Us => DisplayUnit {
+                name: "kip/in",
+                si_per_unit: self.force().si_per_unit / LengthUnit::In.metres(),
+            },
+        }
+    }
     pub fn mass(&self) -> DisplayUnit {
         mass_per_length_unit(self.system)
     }

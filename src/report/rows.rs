@@ -4,6 +4,7 @@
 
 use super::out::OutUnits;
 use crate::analysis::Analysis;
+use crate::checks::shear_flow::Flow;
 
 /// One result.
 #[derive(Debug, Clone, PartialEq)]
@@ -314,6 +315,48 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
             u.moment().name.into(),
             "elastic critical moment (LTB), simple span, load at the shear centre",
         );
+    }
+    let qu = u.shear_flow();
+    let shear_given = a
+        .section
+        .actions
+        .is_some_and(|x| x.vx.is_some() || x.vy.is_some());
+    for c in &a.connections {
+        let pair = format!("{}–{}", a.pieces[c.joint.a].name, a.pieces[c.joint.b].name);
+        add(
+            "Connections",
+            &format!("L {pair}"),
+            g(c.joint.length, 1),
+            l1.clone(),
+            "length of the boundary the two parts share",
+        );
+        let closed = c.flow == Flow::ClosedCell;
+        if shear_given {
+            add(
+                "Connections",
+                &format!("q {pair}"),
+                a.connection_flow(c).map(|q| qu.from_si(q)),
+                qu.name.into(),
+                if closed {
+                    "joint on a closed cell: flow needs the flexure solution (not computed)"
+                } else {
+                    "shear flow across the joint under Vx, Vy of [actions]"
+                },
+            );
+        }
+        if a.member.is_some() {
+            add(
+                "Connections",
+                &format!("q@Vmax {pair}"),
+                a.connection_flow_at_vmax(c).map(|q| qu.from_si(q)),
+                qu.name.into(),
+                if closed {
+                    "joint on a closed cell: flow needs the flexure solution (not computed)"
+                } else {
+                    "shear flow across the joint at the member's Vmax (vertical shear)"
+                },
+            );
+        }
     }
     out
 }

@@ -1,0 +1,374 @@
+//! Longitudinal shear flow across the joints between parts: the weld or bolt demand per
+//! unit length of member.
+//!
+//! Parts are the nodes of a graph and joints ([`crate::geom::joints`]) its edges. A
+//! joint that is a *bridge* of that graph (Tarjan, "Depth-first search and linear graph
+//! algorithms", SIAM J. Comput. 1972) separates the section in two when cut; the side
+//! cut off is then in equilibrium under the change of its bending stresses alone, so
+//! (the shear-flow formula of built-up beams, e.g. Gere & Goodno, Mechanics of
+//! Materials, "shear flow in built-up beams", generalised to unsymmetric sections)
+//!
+//! ```text
+//! q = |(Vy·Iyy − Vx·Ixy)·Qx + (Vx·Ixx − Vy·Ixy)·Qy| / (Ixx·Iyy − Ixy²)
+//! Qx = ∫(y − ȳ) dA,  Qy = ∫(x − x̄) dA   over the side cut off
+//! ```
+//!
+//! with modular ratios and the gross section; it is exact, whatever the stress
+//! distribution. Two parts sharing several separate stretches of boundary (a lid on a
+//! channel) or a closed loop (a core in a tube) enclose a cell: that joint counts as
+//! parallel edges, which are never bridges. Joints on a closed cell are statically
+//! indeterminate and get no flow here (the finite-element flexure solution is needed).
+//!
+//! Voids: a void belongs to the side whose solid parts contain it. A void that lies in
+//! parts on both sides of a joint cuts that joint: no flow is given for it. A void in
+//! no solid part leaves every flow out (the section's properties then include material
+//! no part carries).
+
+use crate::geom::joints::{Contacts, Joint};
+use crate::geom::simple::winding;
+use crate::geom::{Piece, Pt};
+use crate::props::{Centroidal, Moments};
+
+/// The part of the section on one side of a bridge joint, about the section centroid
+/// (transformed by modular ratios, voids inside subtracted).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Cut {
+    /// Pieces of the side cut off (indices into the pieces).
+    pub side: Vec<usize>,
+    /// Transformed area of the side.
+    pub area: f64,
+    /// Its centroid, in the file frame.
+    pub centroid: Pt,
+    /// `Qx = ∫(y − ȳ) dA`, `Qy = ∫(x − x̄) dA` over the side.
+    pub qx: f64,
+    pub qy: f64,
+}
+
+/// Whether a joint's flow follows from statics.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Flow {
+    /// The joint separates the section: the side cut off.
+    Exact(Cut),
+    /// The joint is on a closed cell: statically indeterminate.
+    ClosedCell,
+    /// A void (piece index) lies across the joint.
+    VoidAcross(usize),
+    /// A void lies in no solid part, so no side can be told its material.
+    StrayVoid(usize),
+}
+
+/// One joint with what statics says about it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Connection {
+    pub joint: Joint,
+    pub flow: Flow,
+}
+
+impl Connection {
+    /// The flow in force per length unit (forces in N give N per file length unit)
+    /// under shears `vx`, `vy` on a section with centroidal properties `c`; `None`
+    /// unless the joint separates the section.
+    pub fn q(&self, c: &Centroidal, vx: f64, vy: f64) -> Option<f64> {
+        let Flow::Exact(cut) = &self.flow else {
+            return None;
+        };
+        shear_flow(c, vx, vy, cut.qx, cut.qy)
+    }
+}
+
+/// `q = |(Vy·Iyy − Vx·Ixy)·Qx + (Vx·Ixx − Vy·Ixy)·Qy| / (Ixx·Iyy − Ixy²)`; `None` when
+/// the determinant is not positive.
+///
+/// ```
+/// use kern::checks::shear_flow::shear_flow;
+/// use kern::props::Centroidal;
+/// // Symmetric section: q = V·Q/I, here 1000·2000/80000 = 25.
+/// let c = Centroidal { area: 1.0, cx: 0.0, cy: 0.0, ixx: 8e4, iyy: 3e4, ixy: 0.0 };
+/// assert_eq!(shear_flow(&c, 0.0, 1000.0, 2000.0, 0.0), Some(25.0));
+/// ```
+pub fn shear_flow(c: &Centroidal, vx: f64, vy: f64, qx: f64, qy: f64) -> Option<f64> {
+    let det = c.ixx * c.iyy - c.ixy * c.ixy;
+    let q = ((vy * c.iyy - vx * c.ixy) * qx + (vx * c.ixx - vy * c.ixy) * qy).abs() / det;
+    (det > 0.0 && q.is_finite()).then_some(q)
+}
+
+/// Every joint of `contacts` with its flow kind, in the joints' order.
+pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec<Connection> {
+    let joints = &contacts.joints;
+    if joints.is_empty() {
+        return Vec::new();
+    }
+    // Edges: a joint of several stretches (or a closed loop) is two parallel edges.
+    let mut edges: Vec<(usize, usize, usize)> = Vec::new();
+    for (k, j) in joints.iter().enumerate() {
+        edges.push((j.a, j.b, k));
+        if !j.is_single_open() {
+            edges.push((j.a, j.b, k));
+        }
+    }
+    let n = pieces.len();
+    let mut adj: Vec<Vec<(usize, usize)>> = vec![Vec::new(); n];
+    for (e, &(a, b, _)) in edges.iter().enumerate() {
+        adj[a].push((b, e));
+        adj[b].push((a, e));
+    }
+    let bridge = bridges(&adj, edges.len());
+    let origin = Pt::new(c.cx, c.cy);
+    let moments: Vec<Moments> = pieces
+        .iter()
+        .map(|p| {
+            let shifted: Vec<_> = p
+                .contours
+                .iter()
+                .map(|k| crate::geom::Contour {
+                    segs: k
+                        .segs
+                        .iter()
+                        .map(|s| s.shifted(Pt::new(-origin.x, -origin.y)))
+                        .collect(),
+                })
+                .collect();
+            Moments::default().plus(&Moments::of_contours(&shifted), p.sign() * p.n)
+        })
+        .collect();
+    let homes = void_homes(pieces);
+    joints
+        .iter()
+        .enumerate()
+        .map(|(k, j)| {
+            let e = edges.iter().position(|&(_, _, jk)| jk == k).unwrap_or(0);
+            let flow = if !bridge[e] || !j.is_single_open() {
+                Flow::ClosedCell
+            } else {
+                cut_off(&adj, e, j, &moments, &homes, origin)
+            };
+            Connection {
+                joint: j.clone(),
+                flow,
+            }
+        })
+        .collect()
+}
+
+/// The side of bridge edge `e` with fewer parts (the later part's side on a tie), its
+/// voids, and its first moments.
+fn cut_off(
+    adj: &[Vec<(usize, usize)>],
+    e: usize,
+    j: &Joint,
+    moments: &[Moments],
+    homes: &[(usize, Vec<usize>)],
+    origin: Pt,
+) -> Flow {
+    let reach = |from: usize| {
+        let mut seen = vec![false; adj.len()];
+        let mut stack = vec![from];
+        seen[from] = true;
+        while let Some(v) = stack.pop() {
+            for &(w, f) in &adj[v] {
+                if f != e && !seen[w] {
+                    seen[w] = true;
+                    stack.push(w);
+                }
+            }
+        }
+        seen
+    };
+    let (sa, sb) = (reach(j.a), reach(j.b));
+    let count = |s: &[bool]| s.iter().filter(|&&x| x).count();
+    let side = if count(&sa) < count(&sb) { sa } else { sb };
+    let mut m = Moments::default();
+    for (i, _) in side.iter().enumerate().filter(|(_, &s)| s) {
+        m = m.plus(&moments[i], 1.0);
+    }
+    for (v, inside) in homes {
+        if inside.is_empty() {
+            return Flow::StrayVoid(*v);
+        }
+        let on = inside.iter().filter(|&&i| side[i]).count();
+        if on == inside.len() {
+            m = m.plus(&moments[*v], 1.0);
+        } else if on > 0 {
+            return Flow::VoidAcross(*v);
+        }
+    }
+    let side: Vec<usize> = (0..side.len()).filter(|&i| side[i]).collect();
+    let centroid = if m.a != 0.0 {
+        Pt::new(origin.x + m.sx / m.a, origin.y + m.sy / m.a)
+    } else {
+        origin
+    };
+    Flow::Exact(Cut {
+        side,
+        area: m.a,
+        centroid,
+        qx: m.sy,
+        qy: m.sx,
+    })
+}
+
+/// For each void, the solid pieces that hold some of it: tested at points just inside
+/// the void's boundary (chords of at most 5°, offset inward by 10⁻⁶ of the section's
+/// size), against each solid's outline cut into chords of at most 1°.
+fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
+    let size = crate::geom::solid_bounds(pieces).map_or(1.0, |b| (b[1] - b[0]).max(b[3] - b[2]));
+    let delta = 1e-6 * size;
+    let solids: Vec<(usize, Vec<Vec<Pt>>)> = pieces
+        .iter()
+        .enumerate()
+        .filter(|(_, p)| !p.void)
+        .map(|(i, p)| {
+            (
+                i,
+                p.contours
+                    .iter()
+                    .map(|c| c.facets(1f64.to_radians()))
+                    .collect(),
+            )
+        })
+        .collect();
+    pieces
+        .iter()
+        .enumerate()
+        .filter(|(_, p)| p.void)
+        .map(|(v, p)| {
+            let mut probes = Vec::new();
+            for c in &p.contours {
+                let f = c.facets(5f64.to_radians());
+                for (k, &a) in f.iter().enumerate() {
+                    let b = f[(k + 1) % f.len()];
+                    let d = b.sub(a);
+                    let len = d.x.hypot(d.y);
+                    if len > 0.0 {
+                        let mid = a.add(d.scale(0.5));
+                        probes.push(mid.add(Pt::new(-d.y, d.x).scale(delta / len)));
+                    }
+                }
+            }
+            let inside = solids
+                .iter()
+                .filter(|(_, loops)| probes.iter().any(|&q| winding(loops, q) != 0))
+                .map(|(i, _)| *i)
+                .collect();
+            (v, inside)
+        })
+        .collect()
+}
+
+/// Which edges are bridges: an iterative form of Tarjan's low-link search, so that a
+/// long chain of parts cannot exhaust the stack. Parallel edges carry their own ids, so
+/// only the edge used to arrive is skipped and a doubled edge is never a bridge.
+fn bridges(adj: &[Vec<(usize, usize)>], edges: usize) -> Vec<bool> {
+    let n = adj.len();
+    let mut is_bridge = vec![false; edges];
+    let mut disc = vec![usize::MAX; n];
+    let mut low = vec![0; n];
+    let mut time = 0;
+    for root in 0..n {
+        if disc[root] != usize::MAX {
+            continue;
+        }
+        // (vertex, edge used to arrive, next neighbour to look at)
+        let mut stack = vec![(root, usize::MAX, 0usize)];
+        disc[root] = time;
+        low[root] = time;
+        time += 1;
+        while let Some(top) = stack.last_mut() {
+            let (v, via) = (top.0, top.1);
+            if let Some(&(w, e)) = adj[v].get(top.2) {
+                top.2 += 1;
+                if e == via {
+                    continue;
+                }
+                if disc[w] == usize::MAX {
+                    disc[w] = time;
+                    low[w] = time;
+                    time += 1;
+                    stack.push((w, e, 0));
+                } else {
+                    low[v] = low[v].min(disc[w]);
+                }
+            } else {
+                stack.pop();
+                if let Some(&(u, _, _)) = stack.last() {
+                    low[u] = low[u].min(low[v]);
+                    if low[v] > disc[u] {
+                        is_bridge[via] = true;
+                    }
+                }
+            }
+        }
+    }
+    is_bridge
+}
+
+/// Warnings about how the parts are joined: contacts at a point only, parts joined to
+/// nothing, and (when a shear force is given) joints whose flow is not computed.
+pub fn warnings(
+    pieces: &[Piece],
+    contacts: &Contacts,
+    conns: &[Connection],
+    shear_given: bool,
+) -> Vec<String> {
+    let name = |i: usize| pieces[i].name.as_str();
+    let mut out = Vec::new();
+    for &(a, b) in &contacts.points {
+        out.push(format!(
+            "parts `{}` and `{}` touch only at a point: no joint there can carry longitudinal shear",
+            name(a),
+            name(b)
+        ));
+    }
+    let solids: Vec<usize> = (0..pieces.len()).filter(|&i| !pieces[i].void).collect();
+    let alone: Vec<usize> = solids
+        .iter()
+        .copied()
+        .filter(|&i| !contacts.joints.iter().any(|j| j.a == i || j.b == i))
+        .collect();
+    if solids.len() > 1 && alone.len() == solids.len() {
+        out.push(format!(
+            "no two of the {} solid parts share a boundary: the properties assume they act together, which needs connections along the member (battens, packs, bolts)",
+            solids.len()
+        ));
+    } else if solids.len() > 1 && !alone.is_empty() {
+        let names: Vec<String> = alone.iter().map(|&i| format!("`{}`", name(i))).collect();
+        out.push(format!(
+            "{} {} no boundary with another solid part: each needs its own connection to the rest, or is a separate member (the properties assume the parts act together)",
+            if names.len() == 1 { "part" } else { "parts" },
+            if names.len() == 1 {
+                format!("{} shares", names[0])
+            } else {
+                format!("{} share", names.join(", "))
+            }
+        ));
+    }
+    if !shear_given {
+        return out;
+    }
+    let closed: Vec<String> = conns
+        .iter()
+        .filter(|c| c.flow == Flow::ClosedCell)
+        .map(|c| format!("`{}`–`{}`", name(c.joint.a), name(c.joint.b)))
+        .collect();
+    if !closed.is_empty() {
+        out.push(format!(
+            "the shear flow across joints on a closed cell ({}) needs the finite-element flexure solution, which is not yet computed: no flow is given for them",
+            closed.join(", ")
+        ));
+    }
+    for c in conns {
+        let joint = format!("`{}`–`{}`", name(c.joint.a), name(c.joint.b));
+        match c.flow {
+            Flow::VoidAcross(v) => out.push(format!(
+                "void `{}` lies in parts on both sides of the joint {joint}: the flow across it is not computed",
+                name(v)
+            )),
+            Flow::StrayVoid(v) => out.push(format!(
+                "void `{}` is in no solid part, so the sides of the joint {joint} cannot be told its share: the flow across it is not computed",
+                name(v)
+            )),
+            _ => {}
+        }
+    }
+    out
+}
