@@ -425,12 +425,25 @@ fn grade_corners(
         ends.entry(cell(a, eps)).or_default().push((a, id, true));
         ends.entry(cell(b, eps)).or_default().push((b, id, false));
     }
+    // A boundary vertex with more than 200° of region about it.
+    let corners: Vec<usize> = (0..nv)
+        .filter(|&v| {
+            angle[v] > PI * 200.0 / 180.0
+                && angle[v] < TAU - 1e-6
+                && !inside_arc(&ends, pos[v], eps)
+        })
+        .collect();
+    if corners.len() * 40 > BASE_VERTICES {
+        return Err(format!(
+            "the section has {} re-entrant corners, and grading the torsion mesh at them \
+             would take more than the solver's budget of {} added nodes: simplify the \
+             section (fewer holes or parts)",
+            corners.len(),
+            BASE_VERTICES
+        ));
+    }
     let mut extra = Vec::new();
-    for v in 0..nv {
-        // A boundary vertex with more than 200° of region about it.
-        if angle[v] > PI * 200.0 / 180.0
-            && angle[v] < TAU - 1e-6
-            && !inside_arc(&ends, pos[v], eps)
+    for v in corners {
         {
             let mut rho = shortest[v] / 2.0;
             for _ in 0..5 {
