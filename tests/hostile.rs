@@ -50,8 +50,8 @@ fn expectations(text: &str) -> Expect {
 
 /// Runs `kern calc FILE` with a watchdog; `Err` says what went wrong.
 fn run_one(path: &Path) -> Result<(), String> {
-    let text = String::from_utf8_lossy(&std::fs::read(path).map_err(|e| e.to_string())?)
-        .into_owned();
+    let text =
+        String::from_utf8_lossy(&std::fs::read(path).map_err(|e| e.to_string())?).into_owned();
     let want = expectations(&text);
     let mut child = Command::new(env!("CARGO_BIN_EXE_kern"))
         .arg("calc")

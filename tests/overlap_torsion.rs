@@ -47,23 +47,34 @@ fn plate_with_a_disc_over_its_edge_solves_between_its_bounds() {
     // The disc adds a stiff knob to a thin plate: a few per cent over the plate alone
     // (FE 5.52e5 against the plate's 5.00e5; a rough rule of thumb, not a source).
     assert!(t.j < 1.3 * lo, "J = {} far above the plate's {lo}", t.j);
-    assert!(!a.warnings.iter().any(|w| w.contains("degenerate")), "{:?}", a.warnings);
+    assert!(
+        !a.warnings.iter().any(|w| w.contains("degenerate")),
+        "{:?}",
+        a.warnings
+    );
 }
 
 fn overlapping() -> impl Strategy<Value = String> {
     let edge = -100.0..100.0f64;
     prop_oneof![
         // A disc (solid or void) straddling the top or bottom edge of the plate.
-        (2.0..40.0f64, edge.clone(), -12.0..12.0f64, any::<bool>(), any::<bool>()).prop_map(
-            |(d, x, dy, top, v)| format!(
+        (
+            2.0..40.0f64,
+            edge.clone(),
+            -12.0..12.0f64,
+            any::<bool>(),
+            any::<bool>()
+        )
+            .prop_map(|(d, x, dy, top, v)| format!(
                 "[[parts]]\nshape = \"circle\"\nd = {d}\nat = [{x}, {}]\nvoid = {v}\n",
                 if top { 10.0 + dy } else { -10.0 + dy }
+            )),
+        // A pipe whose arcs cross the plate's edges and other arcs.
+        (10.0..50.0f64, 1.0..5.0f64, edge.clone(), -20.0..20.0f64).prop_map(
+            |(d, t, x, y)| format!(
+                "[[parts]]\nshape = \"pipe\"\nd = {d}\nt = {t}\nat = [{x}, {y}]\n"
             )
         ),
-        // A pipe whose arcs cross the plate's edges and other arcs.
-        (10.0..50.0f64, 1.0..5.0f64, edge.clone(), -20.0..20.0f64).prop_map(|(d, t, x, y)| format!(
-            "[[parts]]\nshape = \"pipe\"\nd = {d}\nt = {t}\nat = [{x}, {y}]\n"
-        )),
         // A half disc over an edge.
         (4.0..40.0f64, edge, -15.0..15.0f64).prop_map(|(d, x, y)| format!(
             "[[parts]]\nshape = \"half_circle\"\nd = {d}\nat = [{x}, {y}]\n"

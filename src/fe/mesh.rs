@@ -193,7 +193,12 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
         }
         if !loops.is_empty() {
             let bounds = loops.iter().flatten().fold(
-                [f64::INFINITY, f64::NEG_INFINITY, f64::INFINITY, f64::NEG_INFINITY],
+                [
+                    f64::INFINITY,
+                    f64::NEG_INFINITY,
+                    f64::INFINITY,
+                    f64::NEG_INFINITY,
+                ],
                 |b, q| [b[0].min(q.x), b[1].max(q.x), b[2].min(q.y), b[3].max(q.y)],
             );
             outlines.push(Outline {

@@ -122,7 +122,9 @@ impl Budget {
 
     /// Whether a mesh of `elements` and `nodes` fits.
     pub fn admits(&self, elements: usize, nodes: usize) -> bool {
-        elements <= self.elements && nodes <= self.nodes && Budget::bytes_for(elements) <= self.bytes
+        elements <= self.elements
+            && nodes <= self.nodes
+            && Budget::bytes_for(elements) <= self.bytes
     }
 
     /// Whether the refinement of a mesh of `elements` and `nodes` (four times the

@@ -213,7 +213,10 @@ pub enum FactorError {
     NotPositive,
     /// The factor would hold this many entries, or take this many multiplications,
     /// past the budget (decided before allocating).
-    TooLarge { entries: usize, flops: f64 },
+    TooLarge {
+        entries: usize,
+        flops: f64,
+    },
     Cancelled,
 }
 
@@ -559,7 +562,10 @@ mod tests {
         // An indefinite matrix is refused.
         let d = a.diag[3];
         a.val[d] = -1.0;
-        assert_eq!(Envelope::factor(&a, None).err(), Some(FactorError::NotPositive));
+        assert_eq!(
+            Envelope::factor(&a, None).err(),
+            Some(FactorError::NotPositive)
+        );
     }
 
     #[test]

@@ -457,5 +457,8 @@ fn features_below_the_floor_are_refused_with_the_ratio() {
         false,
     );
     let e = torsion(&[pipe], &TorsionOptions::default()).unwrap_err();
-    assert!(e.contains("features 1e8 times smaller than the section"), "{e}");
+    assert!(
+        e.contains("features 1e8 times smaller than the section"),
+        "{e}"
+    );
 }

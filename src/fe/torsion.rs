@@ -36,9 +36,14 @@ pub enum Failure {
     Degenerate,
     /// The iterations did not reach the tolerance (an indefinite or badly
     /// conditioned matrix: elements in a cusp where outlines touch).
-    Stalled { elements: usize },
+    Stalled {
+        elements: usize,
+    },
     /// The base matrix's direct factor is past the budget.
-    TooLarge { entries: usize, flops: f64 },
+    TooLarge {
+        entries: usize,
+        flops: f64,
+    },
 }
 
 impl From<Cancelled> for Failure {
@@ -178,7 +183,7 @@ fn solve(
         .map(|(a, b)| (a - b) * (a - b))
         .sum::<f64>()
         .sqrt();
-    if !(rnorm <= 100.0 * RTOL * fnorm) {
+    if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
         return Err(Failure::Stalled {
             elements: m.elems.len(),
         });

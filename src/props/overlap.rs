@@ -236,7 +236,11 @@ pub fn warnings(pieces: &[Piece]) -> Vec<String> {
     let total: f64 = shapes.iter().flatten().map(|s| s.area.abs()).sum();
     let mut out = Vec::new();
     let empty: Vec<usize> = (0..pieces.len())
-        .filter(|&i| shapes[i].as_ref().is_none_or(|s| s.area.abs() <= 1e-12 * total))
+        .filter(|&i| {
+            shapes[i]
+                .as_ref()
+                .is_none_or(|s| s.area.abs() <= 1e-12 * total)
+        })
         .collect();
     let lines = empty
         .iter()
@@ -304,7 +308,12 @@ pub fn warnings(pieces: &[Piece]) -> Vec<String> {
             }
         }
     }
-    capped(&mut out, outside, count, "voids are not wholly inside solid material");
+    capped(
+        &mut out,
+        outside,
+        count,
+        "voids are not wholly inside solid material",
+    );
     out
 }
 
@@ -431,6 +440,9 @@ mod tests {
         let w = warnings(&plates);
         assert_eq!(w.len(), SHOWN + 1, "{w:?}");
         assert!(w[0].contains("`plate 0` and `plate 1` overlap (100% of the smaller)"));
-        assert_eq!(w[SHOWN], format!("… and {} more pairs of parts overlap", 435 - SHOWN));
+        assert_eq!(
+            w[SHOWN],
+            format!("… and {} more pairs of parts overlap", 435 - SHOWN)
+        );
     }
 }
