@@ -5,7 +5,11 @@
 //! [`ARC_FACET`], goes into a constrained Delaunay triangulation as constraint edges
 //! (crossing edges of overlapping parts are split where they cross). A triangle belongs
 //! to the region when its centroid is inside some solid piece and inside no void
-//! (nonzero winding number), so overlapping solids count once. Points are added in
+//! (nonzero winding number), so overlapping solids count once. Only the outline of the
+//! region (and interfaces between materials) is then triangulated again and refined,
+//! the faces outside it left alone; a region whose thinnest triangle is below
+//! [`FEATURE_FLOOR`] of the section, or whose refinement would pass [`BASE_VERTICES`],
+//! is refused with a message saying so. Points are added in
 //! rings about re-entrant corners (where the warping function is singular), but not
 //! where two facets of one arc meet (a fillet or a hole is smooth: the solution is not
 //! singular there), then the triangulation is refined to a minimum angle of 20° and a

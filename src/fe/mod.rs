@@ -37,6 +37,13 @@
 //! 9,120 elements about 1.2 / 4 / 18 ms with 1 / 7 / 8 iterations. On the finest level
 //! the multigrid-preconditioned iterations and the assembly take most of it.
 //!
+//! Budget: features below 1e-5 of the section, a base mesh past 20,000 added nodes or
+//! a direct factor past 2.5e7 entries / 1e10 operations are refused before anything
+//! is allocated ("torsion not computed: …" says which); a refinement past [`Budget`]
+//! (800,000 elements, 1.7 million nodes, 1 GiB estimated) is not tried. Iterations
+//! that do not converge (cusps where outlines touch) are reported, not used. The
+//! cancel flag is checked between levels, in the direct factor and in the iterations.
+//!
 //! Layout: [`mesh`] (region, base mesh, refinement), [`p2`] (element), [`solve`]
 //! (sparse matrix and PCG), [`torsion`] (one mesh's results); this file holds the
 //! public API, the refinement loop and the error estimate.
