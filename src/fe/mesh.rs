@@ -5,7 +5,11 @@
 //! [`ARC_FACET`], goes into a constrained Delaunay triangulation as constraint edges
 //! (crossing edges of overlapping parts are split where they cross). A triangle belongs
 //! to the region when its centroid is inside some solid piece and inside no void
-//! (nonzero winding number), so overlapping solids count once. Points are added in
+//! (nonzero winding number), so overlapping solids count once. Only the outline of the
+//! region (and interfaces between materials) is then triangulated again and refined,
+//! the faces outside it left alone; a region whose thinnest triangle is below
+//! [`FEATURE_FLOOR`] of the section, or whose refinement would pass [`BASE_VERTICES`],
+//! is refused with a message saying so. Points are added in
 //! rings about re-entrant corners (where the warping function is singular), but not
 //! where two facets of one arc meet (a fillet or a hole is smooth: the solution is not
 //! singular there), then the triangulation is refined to a minimum angle of 20° and a
@@ -36,6 +40,12 @@ const SIMPLIFY_ABOVE: usize = 256;
 const SIMPLIFY: f64 = 1e-5;
 /// … and, for rough outlines, a wider tolerance until at most this many corners stay.
 const MAX_CORNERS: usize = 4000;
+/// Features (walls, gaps, tips) thinner than this fraction of the section's size are
+/// not meshed: torsion is then not computed, and the message says why.
+pub const FEATURE_FLOOR: f64 = 1e-5;
+/// Points the quality refinement of the base mesh may add; a section that needs more
+/// is past the solver's budget (the base mesh is factored directly).
+pub const BASE_VERTICES: usize = 20_000;
 
 /// A circle that boundary edges follow.
 #[derive(Debug, Clone, Copy)]
@@ -88,6 +98,8 @@ pub struct Base {
 /// Faceted boundaries of one piece, in the local frame.
 struct Outline {
     loops: Vec<Vec<Pt>>,
+    /// `[xmin, xmax, ymin, ymax]` of the loops: points outside are outside.
+    bounds: [f64; 4],
     void: bool,
     n: f64,
 }
@@ -95,6 +107,10 @@ struct Outline {
 impl Outline {
     /// Winding number of the piece's loops about `p` (nonzero: inside).
     fn winding(&self, p: Pt) -> i32 {
+        let b = self.bounds;
+        if p.x < b[0] || p.x > b[1] || p.y < b[2] || p.y > b[3] {
+            return 0;
+        }
         crate::geom::simple::winding(&self.loops, p)
     }
 }
@@ -180,8 +196,18 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
             }
         }
         if !loops.is_empty() {
+            let bounds = loops.iter().flatten().fold(
+                [
+                    f64::INFINITY,
+                    f64::NEG_INFINITY,
+                    f64::INFINITY,
+                    f64::NEG_INFINITY,
+                ],
+                |b, q| [b[0].min(q.x), b[1].max(q.x), b[2].min(q.y), b[3].max(q.y)],
+            );
             outlines.push(Outline {
                 loops,
+                bounds,
                 void: p.void,
                 n: p.n,
             });
@@ -190,36 +216,83 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
     if !outlines.iter().any(|o| !o.void) {
         return Err("the solid parts have no area to mesh for torsion".into());
     }
-    let mut cdt = Cdt::new();
+    let mut all = Cdt::new();
     let mut snap = Snap::new(eps);
     for o in &outlines {
         for l in &o.loops {
             let handles: Vec<_> = l
                 .iter()
-                .map(|&p| snap.insert(&mut cdt, p))
+                .map(|&p| snap.insert(&mut all, p))
                 .collect::<Result<_, _>>()?;
             for i in 0..handles.len() {
                 let (a, b) = (handles[i], handles[(i + 1) % handles.len()]);
                 if a != b {
-                    cdt.add_constraint_and_split(a, b, |p| p);
+                    all.add_constraint_and_split(a, b, |p| p);
                 }
             }
         }
     }
-    let area: f64 = region_triangles(&cdt, &outlines)
-        .iter()
-        .map(|t| t.area)
-        .sum();
+    // Only the outline of the region itself (and interfaces between materials) is
+    // meshed: edges of one part inside another, or of a void outside every solid, are
+    // dropped with the corners only they had.
+    let (edges, interfaces) = union_outline(&all, &outlines);
+    let mut cdt = Cdt::new();
+    let mut snap = Snap::new(eps);
+    for (p, q) in edges {
+        let (a, b) = (snap.insert(&mut cdt, p)?, snap.insert(&mut cdt, q)?);
+        if a != b {
+            cdt.add_constraint_and_split(a, b, |p| p);
+        }
+    }
+    let region = region_triangles(&cdt, &outlines);
+    let area: f64 = region.iter().map(|t| t.area).sum();
     if area <= 0.0 {
         return Err("the region of the section (solids minus voids) is empty".into());
     }
+    // The thinnest feature: the smallest altitude of the region's triangles before
+    // refinement (a wall, a sliver between an outline and a hole, a needle's tip).
+    let pos0: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
+    let feature = region
+        .iter()
+        .map(|t| {
+            let [a, b, c] = t.v.map(|i| pos0[i]);
+            let longest = a.dist(b).max(b.dist(c)).max(c.dist(a));
+            2.0 * t.area / longest
+        })
+        .fold(f64::INFINITY, f64::min);
+    if feature < FEATURE_FLOOR * span {
+        return Err(format!(
+            "features {} times smaller than the section (a wall, gap or tip {} wide, the \
+             section {} across); the torsion mesh takes features down to {:.0e} of the \
+             section's size: check the dimensions, or leave the thin part out",
+            ratio(span / feature),
+            crate::numfmt::sig(feature, 2),
+            crate::numfmt::sig(span, 3),
+            FEATURE_FLOOR
+        ));
+    }
     grade_corners(&mut cdt, &outlines, &chords, eps, &mut snap)?;
+    let before_refine = cdt.num_vertices();
+    let floor = FEATURE_FLOOR * span;
     let params = RefinementParameters::<f64>::new()
         .with_angle_limit(AngleLimit::from_deg(20.0))
         .with_max_allowed_area(size * area / 60.0)
-        .with_min_required_area(area * 1e-12)
-        .with_max_additional_vertices(200_000);
-    cdt.refine(params);
+        .with_min_required_area((area * 1e-12).max(floor * floor))
+        .exclude_outer_faces(!interfaces)
+        .with_max_additional_vertices(BASE_VERTICES);
+    let refined = cdt.refine(params);
+    if !refined.refinement_complete && cdt.num_vertices() >= before_refine + BASE_VERTICES {
+        return Err(format!(
+            "the base mesh would need more than {} nodes ({} corners and graded points on \
+             the outlines, the thinnest feature 1/{} of the section's {}); the torsion \
+             solver's budget is {} added nodes: simplify the section (fewer holes or parts)",
+            before_refine + BASE_VERTICES,
+            before_refine,
+            ratio(span / feature),
+            crate::numfmt::sig(span, 3),
+            BASE_VERTICES
+        ));
+    }
     let tris = region_triangles(&cdt, &outlines);
     let mut warnings = Vec::new();
     let mut geometry_error = 0.0;
@@ -244,7 +317,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
         ));
     }
     let mut pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
-    snap_to_arcs(&cdt, &mut pos, &chords, &arcs, eps);
+    snap_to_arcs(&cdt, &mut pos, before_refine, &chords, &arcs, eps);
     let mesh = build(&pos, &tris, origin, arcs, &arc_sweeps, eps);
     if mesh.pinned.len() > 1 {
         warnings.push(format!(
@@ -356,12 +429,30 @@ fn grade_corners(
             shortest[a] = shortest[a].min(u.x.hypot(u.y)).min(w.x.hypot(w.y));
         }
     }
+    let mut ends = ArcEnds::new();
+    for &(a, b, id) in chords {
+        ends.entry(cell(a, eps)).or_default().push((a, id, true));
+        ends.entry(cell(b, eps)).or_default().push((b, id, false));
+    }
+    // A boundary vertex with more than 200° of region about it.
+    let corners: Vec<usize> = (0..nv)
+        .filter(|&v| {
+            angle[v] > PI * 200.0 / 180.0
+                && angle[v] < TAU - 1e-6
+                && !inside_arc(&ends, pos[v], eps)
+        })
+        .collect();
+    if corners.len() * 40 > BASE_VERTICES {
+        return Err(format!(
+            "the section has {} re-entrant corners, and grading the torsion mesh at them \
+             would take more than the solver's budget of {} added nodes: simplify the \
+             section (fewer holes or parts)",
+            corners.len(),
+            BASE_VERTICES
+        ));
+    }
     let mut extra = Vec::new();
-    for v in 0..nv {
-        // A boundary vertex with more than 200° of region about it.
-        if angle[v] > PI * 200.0 / 180.0
-            && angle[v] < TAU - 1e-6
-            && !inside_arc(chords, pos[v], eps)
+    for v in corners {
         {
             let mut rho = shortest[v] / 2.0;
             for _ in 0..5 {
@@ -383,11 +474,60 @@ fn grade_corners(
 }
 
 /// Whether `p` joins two facets of the same arc: the boundary there is smooth, and the
-/// angle the facets make is not a corner.
-fn inside_arc(chords: &[(Pt, Pt, u32)], p: Pt, eps: f64) -> bool {
-    chords.iter().any(|&(_, b, id)| {
-        b.dist(p) <= eps && chords.iter().any(|&(a, _, k)| k == id && a.dist(p) <= eps)
-    })
+/// angle the facets make is not a corner. `ends` maps each facet end, on a grid of
+/// `eps`, to the arcs whose facets start (`.0`) or end (`.1`) there.
+fn inside_arc(ends: &ArcEnds, p: Pt, eps: f64) -> bool {
+    let key = cell(p, eps);
+    let near = |want_start: bool| -> Vec<u32> {
+        (-1..=1)
+            .flat_map(|dx| (-1..=1).map(move |dy| (key.0 + dx, key.1 + dy)))
+            .filter_map(|k| ends.get(&k))
+            .flatten()
+            .filter(|&&(q, _, start)| start == want_start && q.dist(p) <= eps)
+            .map(|&(_, id, _)| id)
+            .collect()
+    };
+    let (starts, stops) = (near(true), near(false));
+    stops.iter().any(|id| starts.contains(id))
+}
+
+/// Facet ends by grid cell: the point, its arc and whether a facet starts there.
+type ArcEnds = HashMap<(i64, i64), Vec<(Pt, u32, bool)>>;
+
+fn cell(p: Pt, eps: f64) -> (i64, i64) {
+    ((p.x / eps).floor() as i64, (p.y / eps).floor() as i64)
+}
+
+/// The edges of the region's outline, from a triangulation of every part's boundary:
+/// the constraint edges with the region on one side only, or other materials on
+/// its two sides; and whether any is such an interface between materials.
+fn union_outline(cdt: &Cdt, outlines: &[Outline]) -> (Vec<(Pt, Pt)>, bool) {
+    let side = |f: spade::handles::FaceHandle<'_, spade::handles::PossiblyOuterTag, _, _, _, _>| {
+        f.as_inner().and_then(|f| {
+            let [a, b, c] = f.positions().map(pt);
+            classify(outlines, a.add(b).add(c).scale(1.0 / 3.0))
+        })
+    };
+    let mut edges = Vec::new();
+    let mut interfaces = false;
+    for e in cdt.undirected_edges() {
+        if !cdt.is_constraint_edge(e.fix()) {
+            continue;
+        }
+        let d = e.as_directed();
+        let (l, r) = (side(d.face()), side(d.rev().face()));
+        if l != r {
+            interfaces |= l.is_some() && r.is_some();
+            let [p, q] = d.positions().map(pt);
+            edges.push((p, q));
+        }
+    }
+    (edges, interfaces)
+}
+
+/// A ratio rounded to a power of ten for a message: `1e5`.
+fn ratio(r: f64) -> String {
+    format!("{:.0e}", r)
 }
 
 /// Distance from `p` to the nearest boundary edge of any piece.
@@ -411,8 +551,17 @@ fn clearance(outlines: &[Outline], p: Pt) -> f64 {
 
 /// Moves the points that refinement put on an arc's chord (splitting a boundary
 /// edge) onto the arc itself, so that every boundary vertex lies on the true boundary.
-fn snap_to_arcs(cdt: &Cdt, pos: &mut [Pt], chords: &[(Pt, Pt, u32)], arcs: &[Arc], eps: f64) {
-    for v in cdt.vertices() {
+/// Only points refinement added (index `from` on) move: a corner where an arc's chord
+/// crosses another outline stays where the outlines cross.
+fn snap_to_arcs(
+    cdt: &Cdt,
+    pos: &mut [Pt],
+    from: usize,
+    chords: &[(Pt, Pt, u32)],
+    arcs: &[Arc],
+    eps: f64,
+) {
+    for v in cdt.vertices().skip(from) {
         if !v
             .out_edges()
             .any(|e| cdt.is_constraint_edge(e.as_undirected().fix()))

@@ -37,6 +37,13 @@
 //! 9,120 elements about 1.2 / 4 / 18 ms with 1 / 7 / 8 iterations. On the finest level
 //! the multigrid-preconditioned iterations and the assembly take most of it.
 //!
+//! Budget: features below 1e-5 of the section, a base mesh past 20,000 added nodes or
+//! a direct factor past 2.5e7 entries / 1e10 operations are refused before anything
+//! is allocated ("torsion not computed: …" says which); a refinement past [`Budget`]
+//! (800,000 elements, 1.7 million nodes, 1 GiB estimated) is not tried. Iterations
+//! that do not converge (cusps where outlines touch) are reported, not used. The
+//! cancel flag is checked between levels, in the direct factor and in the iterations.
+//!
 //! Layout: [`mesh`] (region, base mesh, refinement), [`p2`] (element), [`solve`]
 //! (sparse matrix and PCG), [`torsion`] (one mesh's results); this file holds the
 //! public API, the refinement loop and the error estimate.
@@ -87,8 +94,52 @@ pub struct Torsion {
     pub warnings: Vec<String>,
 }
 
-/// Meshes finer than this are not tried; the result then says the tolerance was missed.
-const MAX_ELEMENTS: usize = 1_500_000;
+/// What the solver may spend, decided before a mesh is refined or a matrix allocated.
+/// A refinement past it is not tried: with three levels solved the result says the
+/// tolerance was missed; with fewer there is no error estimate, and torsion is not
+/// computed.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Budget {
+    /// Elements of the finest mesh.
+    pub elements: usize,
+    /// Nodes (unknowns) of the finest mesh.
+    pub nodes: usize,
+    /// Bytes the hierarchy of meshes and matrices would hold.
+    pub bytes: usize,
+}
+
+/// Bytes one element of the finest mesh costs, measured loosely from the structures
+/// (matrix rows of about 19 entries for 2 nodes, 6 quadrature points, the mesh, the
+/// prolongation rows and 6 solver vectors): about 1.1 kB, rounded up.
+const BYTES_PER_ELEMENT: usize = 1_200;
+
+impl Budget {
+    /// 800,000 elements, 1.7 million nodes, 1 GiB.
+    pub const DEFAULT: Budget = Budget {
+        elements: 800_000,
+        nodes: 1_700_000,
+        bytes: 1 << 30,
+    };
+
+    /// Estimated bytes of the whole hierarchy when the finest mesh has `elements`:
+    /// each coarser level is a quarter of the next, so 4/3 of the finest.
+    pub fn bytes_for(elements: usize) -> usize {
+        elements.saturating_mul(BYTES_PER_ELEMENT) / 3 * 4
+    }
+
+    /// Whether a mesh of `elements` and `nodes` fits.
+    pub fn admits(&self, elements: usize, nodes: usize) -> bool {
+        elements <= self.elements
+            && nodes <= self.nodes
+            && Budget::bytes_for(elements) <= self.bytes
+    }
+
+    /// Whether the refinement of a mesh of `elements` and `nodes` (four times the
+    /// elements; a 6-node mesh of n nodes gains at most 3n) fits.
+    pub fn admits_refinement(&self, elements: usize, nodes: usize) -> bool {
+        self.admits(elements.saturating_mul(4), nodes.saturating_mul(4))
+    }
+}
 
 /// Computes J, the shear centre and Cw of the region of `pieces` to the tolerance of
 /// `opts`. Errors: `"cancelled"`, or why there is nothing to mesh.
@@ -98,7 +149,22 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
     let fail = |f: Failure| match f {
         Failure::Cancelled => "cancelled".to_string(),
         Failure::Degenerate => "the torsion mesh has a degenerate element".to_string(),
+        Failure::Stalled { elements } => format!(
+            "the solver did not converge on the mesh of {elements} elements (outlines that \
+             touch at a point or meet at a hairline angle make cusps); move the parts apart \
+             or overlap them clearly"
+        ),
+        Failure::TooLarge { entries, flops } => format!(
+            "the base mesh's direct solve would hold {} entries and take {:.0e} operations, \
+             past the solver's budget ({} entries, {:.0e} operations); simplify the section \
+             (fewer holes or corners)",
+            entries,
+            flops,
+            solve::MAX_ENVELOPE,
+            solve::MAX_FLOPS
+        ),
     };
+    let budget = Budget::DEFAULT;
     if cancelled() {
         return Err("cancelled".into());
     }
@@ -132,13 +198,23 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
             if est.rel_error <= tol {
                 return Ok(finish(est, &mesh, warnings));
             }
-            if 4 * mesh.elems.len() > MAX_ELEMENTS {
+            if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
                 warnings.push(format!(
                     "torsion: the estimated error {:.1e} is above the tolerance {:.1e} on the finest mesh allowed",
                     est.rel_error, tol
                 ));
                 return Ok(finish(est, &mesh, warnings));
             }
+        } else if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
+            return Err(format!(
+                "an error estimate needs three meshes, and the next ({} elements) is past \
+                 the solver's budget of {} elements, {} nodes and {} MB; simplify the \
+                 section (fewer holes or corners)",
+                4 * mesh.elems.len(),
+                budget.elements,
+                budget.nodes,
+                budget.bytes >> 20
+            ));
         }
         let fine = mesh.refine();
         step = Some(mesh.prolongation(&fine));
@@ -174,7 +250,9 @@ pub fn mesh_outline(pieces: &[Piece], max_elements: usize) -> Vec<[Pt; 3]> {
         return Vec::new();
     };
     let mut m = base.mesh;
-    while 4 * m.elems.len() <= max_elements {
+    while 4 * m.elems.len() <= max_elements
+        && Budget::DEFAULT.admits_refinement(m.elems.len(), m.nodes.len())
+    {
         m = m.refine();
     }
     m.elems

@@ -206,9 +206,29 @@ pub struct Envelope {
     val: Vec<f64>,
 }
 
+/// Why the base matrix was not factored.
+#[derive(Debug, PartialEq)]
+pub enum FactorError {
+    /// Not numerically positive definite.
+    NotPositive,
+    /// The factor would hold this many entries, or take this many multiplications,
+    /// past the budget (decided before allocating).
+    TooLarge {
+        entries: usize,
+        flops: f64,
+    },
+    Cancelled,
+}
+
+/// Largest envelope factor allowed: 2.5e7 entries (200 MB of f64) …
+pub const MAX_ENVELOPE: usize = 25_000_000;
+/// … and 1e10 multiply-adds (a few seconds).
+pub const MAX_FLOPS: f64 = 1e10;
+
 impl Envelope {
-    /// Factors `a`; `None` if it is not numerically positive definite.
-    pub fn factor(a: &Csr) -> Option<Envelope> {
+    /// Factors `a`, checking `cancel` every 256 rows; refuses a factor past
+    /// [`MAX_ENVELOPE`] or [`MAX_FLOPS`] before allocating it.
+    pub fn factor(a: &Csr, cancel: Option<&AtomicBool>) -> Result<Envelope, FactorError> {
         let n = a.rows();
         let perm = rcm(a);
         let mut inv = vec![0usize; n];
@@ -226,8 +246,17 @@ impl Envelope {
         }
         let mut start = Vec::with_capacity(n + 1);
         start.push(0);
+        // Row i costs about (its width)² / 2 multiply-adds.
+        let mut flops = 0.0;
         for (i, &f) in first.iter().enumerate() {
             start.push(start[i] + i + 1 - f);
+            flops += 0.5 * ((i + 1 - f) as f64).powi(2);
+        }
+        if start[n] > MAX_ENVELOPE || flops > MAX_FLOPS {
+            return Err(FactorError::TooLarge {
+                entries: start[n],
+                flops,
+            });
         }
         let mut val = vec![0.0; start[n]];
         for i in 0..n {
@@ -240,6 +269,9 @@ impl Envelope {
             }
         }
         for i in 0..n {
+            if i % 256 == 255 && cancel.is_some_and(|c| c.load(Ordering::Relaxed)) {
+                return Err(FactorError::Cancelled);
+            }
             for j in first[i]..=i {
                 let lo = first[i].max(first[j]);
                 let (ri, rj) = (start[i] + lo - first[i], start[j] + lo - first[j]);
@@ -254,11 +286,11 @@ impl Envelope {
                 } else if s > 0.0 && s.is_finite() {
                     val[start[i + 1] - 1] = s.sqrt();
                 } else {
-                    return None;
+                    return Err(FactorError::NotPositive);
                 }
             }
         }
-        Some(Envelope {
+        Ok(Envelope {
             perm,
             first,
             start,
@@ -340,10 +372,14 @@ pub struct Multigrid {
 }
 
 impl Multigrid {
-    /// Starts the hierarchy at the base mesh's matrix; `None` if it cannot be factored.
-    pub fn new(a: &Csr, pinned: &[u32]) -> Option<Multigrid> {
-        Some(Multigrid {
-            base: Envelope::factor(a)?,
+    /// Starts the hierarchy at the base mesh's matrix.
+    pub fn new(
+        a: &Csr,
+        pinned: &[u32],
+        cancel: Option<&AtomicBool>,
+    ) -> Result<Multigrid, FactorError> {
+        Ok(Multigrid {
+            base: Envelope::factor(a, cancel)?,
             levels: Vec::new(),
             pinned: pinned.to_vec(),
         })
@@ -374,7 +410,7 @@ impl Multigrid {
                 self.base.solve(b, x);
                 Ok(1)
             }
-            Some((_, a)) => pcg(a, b, x, rtol, 500, cancel, |r, z| {
+            Some((_, a)) => pcg(a, b, x, rtol, MAX_ITERATIONS, cancel, |r, z| {
                 self.vcycle(self.levels.len(), r, z)
             }),
         }
@@ -404,6 +440,10 @@ impl Multigrid {
         a.gauss_seidel(r, z, false);
     }
 }
+
+/// Iterations a refined level may take (7–10 is usual; more means the matrix is
+/// indefinite or badly conditioned, and the caller reports it).
+pub const MAX_ITERATIONS: usize = 150;
 
 fn dot(a: &[f64], b: &[f64]) -> f64 {
     a.iter().zip(b).map(|(x, y)| x * y).sum()
@@ -515,14 +555,17 @@ mod tests {
     fn envelope_cholesky_solves_directly() {
         let (mut a, b) = small();
         let mut x = vec![0.0; 7];
-        Envelope::factor(&a)
+        Envelope::factor(&a, None)
             .expect("positive definite")
             .solve(&b, &mut x);
         assert!(residual(&a, &x, &b) < 1e-12);
         // An indefinite matrix is refused.
         let d = a.diag[3];
         a.val[d] = -1.0;
-        assert!(Envelope::factor(&a).is_none());
+        assert_eq!(
+            Envelope::factor(&a, None).err(),
+            Some(FactorError::NotPositive)
+        );
     }
 
     #[test]

@@ -422,3 +422,43 @@ fn a_traced_outline_of_many_corners_is_simplified_honestly() {
         t.warnings
     );
 }
+
+#[test]
+fn budget_admits_within_and_refuses_past_each_limit() {
+    // The budget is ours (no outside source): each limit alone refuses.
+    let b = Budget {
+        elements: 1000,
+        nodes: 2500,
+        bytes: Budget::bytes_for(1000),
+    };
+    assert!(b.admits(1000, 2500));
+    assert!(!b.admits(1001, 2000));
+    assert!(!b.admits(900, 2501));
+    let tight = Budget {
+        bytes: Budget::bytes_for(500),
+        ..b
+    };
+    assert!(!tight.admits(600, 1000));
+    // Refining quadruples both counts.
+    assert!(b.admits_refinement(250, 600));
+    assert!(!b.admits_refinement(251, 600));
+    assert!(!b.admits_refinement(200, 700));
+}
+
+#[test]
+fn features_below_the_floor_are_refused_with_the_ratio() {
+    // A pipe 100 across with a wall of 1e-6: a ratio of 1e8, past the floor of 1e-5.
+    let pipe = Piece::plain(
+        "pipe",
+        vec![
+            crate::geom::Contour::circle(Pt::new(0.0, 0.0), 50.0),
+            crate::geom::Contour::circle(Pt::new(0.0, 0.0), 50.0 - 1e-6).reversed(),
+        ],
+        false,
+    );
+    let e = torsion(&[pipe], &TorsionOptions::default()).unwrap_err();
+    assert!(
+        e.contains("features 1e8 times smaller than the section"),
+        "{e}"
+    );
+}

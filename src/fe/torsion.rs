@@ -11,7 +11,7 @@
 
 use super::mesh::Mesh;
 use super::p2::{at, Rule};
-use super::solve::{Cancelled, Csr, Multigrid, Prolong};
+use super::solve::{Cancelled, Csr, FactorError, Multigrid, Prolong};
 use crate::geom::Pt;
 use std::sync::atomic::AtomicBool;
 
@@ -34,6 +34,16 @@ pub struct Level {
 pub enum Failure {
     Cancelled,
     Degenerate,
+    /// The iterations did not reach the tolerance (an indefinite or badly
+    /// conditioned matrix: elements in a cusp where outlines touch).
+    Stalled {
+        elements: usize,
+    },
+    /// The base matrix's direct factor is past the budget.
+    TooLarge {
+        entries: usize,
+        flops: f64,
+    },
 }
 
 impl From<Cancelled> for Failure {
@@ -138,7 +148,11 @@ fn solve(
     let mut ku = vec![0.0; nn];
     let iterations = match step {
         None => {
-            let mg = Multigrid::new(&k, &m.pinned).ok_or(Failure::Degenerate)?;
+            let mg = Multigrid::new(&k, &m.pinned, cancel).map_err(|e| match e {
+                FactorError::NotPositive => Failure::Degenerate,
+                FactorError::Cancelled => Failure::Cancelled,
+                FactorError::TooLarge { entries, flops } => Failure::TooLarge { entries, flops },
+            })?;
             let it = mg.solve(&f, &mut u, RTOL, cancel)?;
             k.mul(&u, &mut ku);
             ladder.mg = Some(mg);
@@ -160,6 +174,20 @@ fn solve(
             it
         }
     };
+    // A solve that stopped short (iteration limit, or an indefinite matrix) is not
+    // worth a figure: the residual is checked against the tolerance, with margin.
+    let fnorm = f.iter().map(|v| v * v).sum::<f64>().sqrt();
+    let rnorm = ku
+        .iter()
+        .zip(&f)
+        .map(|(a, b)| (a - b) * (a - b))
+        .sum::<f64>()
+        .sqrt();
+    if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
+        return Err(Failure::Stalled {
+            elements: m.elems.len(),
+        });
+    }
     // J = Ip − ∫n(x ∂ω/∂y − y ∂ω/∂x)… written as the stationary value
     // Ip − (2fᵀu − uᵀKu), whose error is second order in the solver's error.
     let fu: f64 = f.iter().zip(&u).map(|(a, b)| a * b).sum();

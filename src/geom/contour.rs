@@ -72,6 +72,13 @@ impl Turn {
 
     /// A rotation by `deg` degrees, counter-clockwise.
     pub fn degrees(deg: f64) -> Turn {
+        // Reduced once, exactly (fmod is exact), so a huge angle is an ordinary one
+        // and every angle after this is in [0°, 360°).
+        let deg = if deg.is_finite() {
+            deg.rem_euclid(360.0)
+        } else {
+            0.0
+        };
         let quarter = deg / 90.0;
         let (sin, cos) = if quarter.fract() == 0.0 && quarter.abs() < 1e15 {
             match quarter.rem_euclid(4.0) as i64 {
@@ -203,15 +210,19 @@ impl Seg {
         let mut b = [p.x.min(q.x), p.x.max(q.x), p.y.min(q.y), p.y.max(q.y)];
         if let Seg::Arc { c, r, a0, a1 } = *self {
             let (lo, hi) = (a0.min(a1), a0.max(a1));
-            // Every multiple of π/2 inside the sweep is an extreme point of the circle.
-            let mut k = (lo / FRAC_PI_2).ceil();
-            while k * FRAC_PI_2 <= hi && k.is_finite() {
-                let t = k * FRAC_PI_2;
-                let e = c.add(Pt::new(r * t.cos(), r * t.sin()));
-                b = [b[0].min(e.x), b[1].max(e.x), b[2].min(e.y), b[3].max(e.y)];
-                k += 1.0;
-                if k - (lo / FRAC_PI_2).ceil() > 8.0 {
-                    break;
+            // Every multiple of π/2 inside the sweep is an extreme point of the circle:
+            // at most five of them in a sweep of a full turn, counted by an integer
+            // (a float counter stops counting beyond 2^53).
+            let first = (lo / FRAC_PI_2).ceil();
+            let quarters = ((hi - lo) / FRAC_PI_2).min(4.0);
+            if first.is_finite() && quarters.is_finite() {
+                for i in 0..=(quarters as usize) {
+                    let t = (first + i as f64) * FRAC_PI_2;
+                    if t > hi {
+                        break;
+                    }
+                    let e = c.add(Pt::new(r * t.cos(), r * t.sin()));
+                    b = [b[0].min(e.x), b[1].max(e.x), b[2].min(e.y), b[3].max(e.y)];
                 }
             }
         }

@@ -12,11 +12,16 @@ use crate::numfmt::sig;
 
 const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
 
+/// Warnings of one kind shown in full; the rest are counted in one line.
+pub const SHOWN: usize = 20;
+
 /// A region as polygons (outlines counter-clockwise, holes clockwise).
 struct Shape {
     loops: Vec<Vec<Pt>>,
     bounds: [f64; 4],
     area: f64,
+    /// A point inside and its distance to the boundary (> 0), when the centroid is one.
+    core: Option<(Pt, f64)>,
 }
 
 impl Shape {
@@ -27,11 +32,51 @@ impl Shape {
             .iter()
             .map(|l| crate::geom::simple::signed_area(l))
             .sum();
-        Some(Shape {
+        let mut s = Shape {
             loops,
             bounds,
             area,
-        })
+            core: None,
+        };
+        let m = crate::props::Moments::of_contours(&p.contours);
+        if let Some(c) = m.centroid() {
+            let r = s.clearance(c);
+            if s.winding(c) > 0 && r > 0.0 {
+                s.core = Some((c, r));
+            }
+        }
+        Some(s)
+    }
+
+    /// Distance from `p` to the nearest edge.
+    fn clearance(&self, p: Pt) -> f64 {
+        self.edges()
+            .map(|(a, b)| {
+                let d = b.sub(a);
+                let len2 = d.x * d.x + d.y * d.y;
+                let t = if len2 > 0.0 {
+                    ((p.sub(a).x * d.x + p.sub(a).y * d.y) / len2).clamp(0.0, 1.0)
+                } else {
+                    0.0
+                };
+                p.dist(a.add(d.scale(t)))
+            })
+            .fold(f64::INFINITY, f64::min)
+    }
+
+    /// A lower bound on the area shared with `q` from the cores: a disc about one's
+    /// core point clear of both boundaries lies in both (0 when neither core helps).
+    fn shared_at_least(&self, q: &Shape) -> f64 {
+        [(self, q), (q, self)]
+            .iter()
+            .filter_map(|(a, b)| {
+                let (c, r) = a.core?;
+                (b.winding(c) > 0).then(|| {
+                    let rr = r.min(b.clearance(c));
+                    std::f64::consts::PI * rr * rr
+                })
+            })
+            .fold(0.0, f64::max)
     }
 
     fn edges(&self) -> impl Iterator<Item = (Pt, Pt)> + '_ {
@@ -138,10 +183,10 @@ fn common_area(p: &Shape, q: &Shape) -> f64 {
     boundary_inside(p, q, true, tol) + boundary_inside(q, p, false, tol)
 }
 
-/// The pairs `(i, j)`, `i < j`, of shapes whose boxes overlap, in increasing order, by
-/// sort and sweep along the axis on which the parts are most spread out (a stack of
-/// plates is swept vertically): about `n log n` plus the pairs found.
-fn box_pairs(shapes: &[Option<Shape>]) -> Vec<(usize, usize)> {
+/// Calls `f(i, j)`, `i < j`, for the shapes whose boxes overlap, by sort and sweep
+/// along the axis on which the parts are most spread out (a stack of plates is swept
+/// vertically): about `n log n` plus the pairs found, in no particular order.
+fn box_pairs(shapes: &[Option<Shape>], mut f: impl FnMut(usize, usize)) {
     let boxes: Vec<(usize, [f64; 4])> = shapes
         .iter()
         .enumerate()
@@ -157,70 +202,118 @@ fn box_pairs(shapes: &[Option<Shape>]) -> Vec<(usize, usize)> {
     let lo = if spread(2) > spread(0) { 2 } else { 0 };
     let mut order = boxes;
     order.sort_by(|a, b| a.1[lo].total_cmp(&b.1[lo]));
-    let mut pairs = Vec::new();
     for (k, (i, a)) in order.iter().enumerate() {
         for (j, b) in &order[k + 1..] {
             if b[lo] >= a[lo + 1] {
                 break;
             }
             if boxes_overlap(*a, *b) {
-                pairs.push(((*i).min(*j), (*i).max(*j)));
+                f((*i).min(*j), (*i).max(*j));
             }
         }
     }
-    pairs.sort_unstable();
-    pairs
 }
 
-/// Warnings about the arrangement of the pieces, in plain words.
+/// Whether two shapes share more than the warning's threshold of area: the cores
+/// decide most pairs at once, the exact common area the rest.
+fn overlaps(a: &Shape, b: &Shape) -> bool {
+    let threshold = 1e-6 * a.area.min(b.area);
+    a.shared_at_least(b) > threshold || common_area(a, b) > threshold
+}
+
+/// The first [`SHOWN`] of `lines`, then one line counting the rest.
+fn capped(out: &mut Vec<String>, lines: Vec<String>, total: usize, rest: &str) {
+    out.extend(lines.into_iter().take(SHOWN));
+    if total > SHOWN {
+        out.push(format!("… and {} more {rest}", total - SHOWN));
+    }
+}
+
+/// Warnings about the arrangement of the pieces, in plain words; of each kind the
+/// first [`SHOWN`] in the order of the parts, then a count of the rest.
 pub fn warnings(pieces: &[Piece]) -> Vec<String> {
     let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
     let total: f64 = shapes.iter().flatten().map(|s| s.area.abs()).sum();
     let mut out = Vec::new();
-    for (p, s) in pieces.iter().zip(&shapes) {
-        if s.as_ref().is_none_or(|s| s.area.abs() <= 1e-12 * total) {
-            out.push(format!(
+    let empty: Vec<usize> = (0..pieces.len())
+        .filter(|&i| {
+            shapes[i]
+                .as_ref()
+                .is_none_or(|s| s.area.abs() <= 1e-12 * total)
+        })
+        .collect();
+    let lines = empty
+        .iter()
+        .take(SHOWN)
+        .map(|&i| {
+            format!(
                 "part `{}` has no area after placement and adds nothing",
-                p.name
-            ));
-        }
-    }
-    for (i, j) in box_pairs(&shapes) {
+                pieces[i].name
+            )
+        })
+        .collect();
+    capped(&mut out, lines, empty.len(), "parts with no area");
+    // The overlapping pairs: all counted, the first SHOWN (by part order) kept.
+    let mut first = std::collections::BinaryHeap::new();
+    let mut count = 0usize;
+    box_pairs(&shapes, |i, j| {
         let (Some(a), Some(b)) = (&shapes[i], &shapes[j]) else {
-            continue;
+            return;
         };
-        let (pi, pj) = (&pieces[i], &pieces[j]);
-        if pi.void != pj.void {
-            continue;
+        if pieces[i].void != pieces[j].void || !overlaps(a, b) {
+            return;
         }
-        let common = common_area(a, b);
-        if common > 1e-6 * a.area.min(b.area) {
+        count += 1;
+        first.push((i, j));
+        if first.len() > SHOWN {
+            first.pop();
+        }
+    });
+    let lines = first
+        .into_sorted_vec()
+        .into_iter()
+        .filter_map(|(i, j)| {
+            let (a, b) = (shapes[i].as_ref()?, shapes[j].as_ref()?);
+            let common = common_area(a, b).max(a.shared_at_least(b));
             let pct = 100.0 * common / a.area.min(b.area);
-            out.push(if pi.void {
+            let (pi, pj) = (&pieces[i], &pieces[j]);
+            Some(if pi.void {
                 format!("voids `{}` and `{}` overlap ({}% of the smaller): the shared area is removed twice", pi.name, pj.name, sig(pct, 3))
             } else {
                 format!("solid parts `{}` and `{}` overlap ({}% of the smaller): the shared area counts twice; make one of them a void or trim it", pi.name, pj.name, sig(pct, 3))
-            });
-        }
-    }
+            })
+        })
+        .collect();
+    capped(&mut out, lines, count, "pairs of parts overlap");
+    let solids: Vec<&Shape> = pieces
+        .iter()
+        .zip(&shapes)
+        .filter(|(p, _)| !p.void)
+        .filter_map(|(_, s)| s.as_ref())
+        .collect();
+    let mut outside = Vec::new();
+    let mut count = 0usize;
     for (i, v) in pieces.iter().enumerate().filter(|(_, p)| p.void) {
         let Some(vs) = &shapes[i] else { continue };
-        let inside: f64 = pieces
-            .iter()
-            .zip(&shapes)
-            .filter(|(p, _)| !p.void)
-            .filter_map(|(_, s)| s.as_ref())
-            .map(|s| common_area(vs, s))
-            .sum();
+        let inside: f64 = solids.iter().map(|s| common_area(vs, s)).sum();
         if inside < (1.0 - 1e-6) * vs.area {
-            let pct = 100.0 * (1.0 - inside / vs.area);
-            out.push(format!(
-                "void `{}` is not wholly inside solid material ({}% of it lies outside): it removes area that is not there",
-                v.name,
-                sig(pct, 3)
-            ));
+            count += 1;
+            if outside.len() < SHOWN {
+                let pct = 100.0 * (1.0 - inside / vs.area);
+                outside.push(format!(
+                    "void `{}` is not wholly inside solid material ({}% of it lies outside): it removes area that is not there",
+                    v.name,
+                    sig(pct, 3)
+                ));
+            }
         }
     }
+    capped(
+        &mut out,
+        outside,
+        count,
+        "voids are not wholly inside solid material",
+    );
     out
 }
 
@@ -293,5 +386,63 @@ mod tests {
         let c = Contour::circle(Pt::new(0.0, 0.0), 25.0);
         let w = warnings(&[piece("bar", c.clone(), false), piece("same", c, true)]);
         assert!(w.is_empty(), "{w:?}");
+    }
+
+    #[test]
+    fn sweep_finds_the_same_pairs_as_brute_force() {
+        // Random boxes from a small linear congruential generator (Knuth's MMIX
+        // constants); the reference is the plain check of every pair.
+        let mut seed = 12345u64;
+        let mut next = || {
+            seed = seed
+                .wrapping_mul(6364136223846793005)
+                .wrapping_add(1442695040888963407);
+            (seed >> 11) as f64 / (1u64 << 53) as f64
+        };
+        for round in 0..20 {
+            let n = 5 + round * 7;
+            let shapes: Vec<Option<Shape>> = (0..n)
+                .map(|_| {
+                    let (x, y) = (100.0 * next(), 100.0 * next());
+                    let (w, h) = (1.0 + 30.0 * next(), 1.0 + 30.0 * next());
+                    let c = Contour::rounded_rect(x, y, x + w, y + h, 0.0);
+                    Shape::of(&piece("box", c, false))
+                })
+                .collect();
+            let mut swept = Vec::new();
+            box_pairs(&shapes, |i, j| swept.push((i, j)));
+            swept.sort_unstable();
+            let mut brute = Vec::new();
+            for i in 0..n {
+                for j in i + 1..n {
+                    let (a, b) = (shapes[i].as_ref().unwrap(), shapes[j].as_ref().unwrap());
+                    if boxes_overlap(a.bounds, b.bounds) {
+                        brute.push((i, j));
+                    }
+                }
+            }
+            assert_eq!(swept, brute, "round {round}");
+        }
+    }
+
+    #[test]
+    fn many_overlaps_are_counted_past_the_first_ones() {
+        // 30 identical plates: 435 pairs, SHOWN of them named, the rest counted.
+        let plates: Vec<Piece> = (0..30)
+            .map(|k| {
+                piece(
+                    &format!("plate {k}"),
+                    Contour::rounded_rect(0.0, 0.0, 10.0, 10.0, 0.0),
+                    false,
+                )
+            })
+            .collect();
+        let w = warnings(&plates);
+        assert_eq!(w.len(), SHOWN + 1, "{w:?}");
+        assert!(w[0].contains("`plate 0` and `plate 1` overlap (100% of the smaller)"));
+        assert_eq!(
+            w[SHOWN],
+            format!("… and {} more pairs of parts overlap", 435 - SHOWN)
+        );
     }
 }
