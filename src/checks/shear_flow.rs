@@ -312,6 +312,13 @@ pub fn warnings(
 ) -> Vec<String> {
     let name = |i: usize| pieces[i].name.as_str();
     let mut out = Vec::new();
+    if contacts.gave_up {
+        out.push(format!(
+            "connections not looked for: more than {} pairs of parts lie on one another (stacked or overlapping parts); no joint or shear flow is given",
+            crate::geom::joints::MAX_PAIRS
+        ));
+        return out;
+    }
     for &(a, b) in &contacts.points {
         out.push(format!(
             "parts `{}` and `{}` touch only at a point: no joint there can carry longitudinal shear",

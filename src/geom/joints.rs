@@ -46,7 +46,15 @@ pub struct Contacts {
     pub joints: Vec<Joint>,
     /// Pairs `(a, b)`, `a < b`, that touch only at points.
     pub points: Vec<(usize, usize)>,
+    /// The search stopped after [`MAX_PAIRS`] pairs of parts whose boxes touch (parts
+    /// stacked on one another): `joints` and `points` are then empty.
+    pub gave_up: bool,
 }
+
+/// The most pairs of parts with touching bounding boxes that are examined for joints.
+/// Real built-up sections have a few joints a part; thousands of parts stacked in one
+/// place would otherwise make the search (and the flows after it) quadratic or worse.
+pub const MAX_PAIRS: usize = 20_000;
 
 /// Finds every joint and point contact between enabled solid pieces (voids are skipped).
 pub fn contacts(pieces: &[Piece]) -> Contacts {
@@ -64,6 +72,7 @@ pub fn contacts(pieces: &[Piece]) -> Contacts {
     let mut order = boxes;
     order.sort_by(|a, b| a.1[0].total_cmp(&b.1[0]));
     let mut out = Contacts::default();
+    let mut pairs = 0;
     for (k, (i, bi)) in order.iter().enumerate() {
         for (j, bj) in &order[k + 1..] {
             if bj[0] > bi[1] + tol {
@@ -71,6 +80,13 @@ pub fn contacts(pieces: &[Piece]) -> Contacts {
             }
             if bj[2] > bi[3] + tol || bi[2] > bj[3] + tol {
                 continue;
+            }
+            pairs += 1;
+            if pairs > MAX_PAIRS {
+                return Contacts {
+                    gave_up: true,
+                    ..Contacts::default()
+                };
             }
             let (a, b) = ((*i).min(*j), (*i).max(*j));
             match shared(&pieces[a], &pieces[b], tol) {

@@ -35,23 +35,20 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
     }
     s.push('\n');
     let rs = rows(a, u);
-    let wsym = rs
-        .iter()
-        .map(|r| r.symbol.chars().count())
-        .max()
-        .unwrap_or(0);
+    // Symbols may hold part names (a joint's): cleaned like every text from the file.
+    let syms: Vec<String> = rs.iter().map(|r| clean(&r.symbol)).collect();
+    let wsym = syms.iter().map(|s| s.chars().count()).max().unwrap_or(0);
     let vals: Vec<String> = rs
         .iter()
         .map(|r| r.value.map_or("—".into(), |v| sig(v, FIGURES)))
         .collect();
     let wval = vals.iter().map(|v| v.chars().count()).max().unwrap_or(0);
     let mut group = "";
-    for (r, v) in rs.iter().zip(&vals) {
+    for ((r, v), sym) in rs.iter().zip(&vals).zip(&syms) {
         let head = if r.group != group { r.group } else { "" };
         group = r.group;
         s.push_str(&format!(
             "  {head:<18} {sym:<wsym$}  {v:>wval$} {unit}\n",
-            sym = r.symbol,
             unit = r.unit
         ));
     }
