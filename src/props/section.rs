@@ -89,7 +89,7 @@ impl Properties {
             .chain(&b)
             .all(|v| v.is_finite());
         if !finite {
-            return Err("the section is too large to compute with (its second moments overflow); draw it in a larger length unit".into());
+            return Err("the section is too large to compute with (its second moments overflow); check the dimensions and the length unit".into());
         }
         let c = m.centroidal().filter(|c| c.area > 1e-12 * (b[1] - b[0]) * (b[3] - b[2])).ok_or_else(|| {
             if pieces.iter().any(|p| p.void) {
@@ -106,6 +106,11 @@ impl Properties {
             iyy,
             mut ixy,
         } = c;
+        // A section of positive area has positive second moments; where they come out as
+        // zero or subnormal, double precision has lost them, and zero would be printed.
+        if !(ixx.is_normal() && iyy.is_normal()) {
+            return Err("the section is too small to compute with (its second moments underflow to zero); check the dimensions and the length unit".into());
+        }
         // Rounding leaves about 1e-16 of the moments in Ixy of a symmetric section.
         if ixy.abs() <= 1e-13 * (ixx * iyy).abs().sqrt() {
             ixy = 0.0;
