@@ -397,7 +397,7 @@ fn help_descriptions_wrap_in_their_own_column_and_scroll() {
         .expect("the quit key in the help");
     let next = &rows[r + 1];
     assert!(
-        next[c - 16..c].iter().all(|ch| *ch == ' ') && next[c].is_alphabetic(),
+        next[c - 18..c].iter().all(|ch| *ch == ' ') && next[c].is_alphabetic(),
         "the rest of the line stands under the description: {:?}",
         next.iter().collect::<String>()
     );
@@ -648,4 +648,75 @@ fn a_refused_edit_leaves_the_kept_document_as_the_text() {
     assert!(a.edit(flip));
     assert_eq!(a.text, want);
     assert!(!a.text.contains("no_such_param"));
+}
+
+fn chord(app: &mut App, c: char, m: KeyModifiers) {
+    handle_key(app, &KeyEvent::new(KeyCode::Char(c), m));
+}
+
+fn line_text(a: &App) -> String {
+    match &a.mode {
+        Mode::Typing { line, .. } => line.text.clone(),
+        m => panic!("not typing: {m:?}"),
+    }
+}
+
+#[test]
+fn control_chords_edit_the_line_and_never_type_their_letter() {
+    let ctrl = KeyModifiers::CONTROL;
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::Edit);
+    let start = line_text(&a);
+    // Chords without a meaning while typing do nothing at all.
+    for c in ['t', 'g', 'x', 'v'] {
+        chord(&mut a, c, ctrl);
+    }
+    chord(&mut a, 'q', KeyModifiers::ALT);
+    assert_eq!(line_text(&a), start);
+    // Ctrl-u deletes back to the start, Ctrl-k to the end.
+    typed(&mut a, "12");
+    chord(&mut a, 'b', ctrl);
+    chord(&mut a, 'u', ctrl);
+    assert_eq!(line_text(&a), "2");
+    chord(&mut a, 'a', ctrl);
+    chord(&mut a, 'k', ctrl);
+    assert_eq!(line_text(&a), "");
+    typed(&mut a, "bf + 2*tw");
+    // Ctrl-w deletes the word before the cursor; Ctrl-h is a backspace.
+    chord(&mut a, 'w', ctrl);
+    assert_eq!(line_text(&a), "bf + 2*");
+    chord(&mut a, 'h', ctrl);
+    assert_eq!(line_text(&a), "bf + 2");
+    // Alt-b, Alt-f move by words; Ctrl-f, Ctrl-d move and delete forward.
+    chord(&mut a, 'b', KeyModifiers::ALT);
+    chord(&mut a, 'b', KeyModifiers::ALT);
+    chord(&mut a, 'd', ctrl);
+    assert_eq!(line_text(&a), "f + 2");
+    chord(&mut a, 'f', KeyModifiers::ALT);
+    chord(&mut a, 'f', ctrl);
+    typed(&mut a, "x");
+    assert_eq!(line_text(&a), "f x+ 2");
+    chord(&mut a, 'e', ctrl);
+    typed(&mut a, "u");
+    assert_eq!(line_text(&a), "f x+ 2u");
+}
+
+#[test]
+fn the_help_never_splits_a_group_from_its_heading() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::Help);
+    let s = screen(&a, 120, 40);
+    // The history group: its heading and every key of it in one column, in view.
+    let col_of = |needle: &str| {
+        s.lines()
+            .enumerate()
+            .find_map(|(r, l)| l.find(needle).map(|b| (r, l[..b].chars().count())))
+            .unwrap_or_else(|| panic!("{needle} in view:\n{s}"))
+    };
+    let (hr, hc) = col_of("History, baseline and file");
+    for key in ["undo", "redo", "quit (asks"] {
+        let (r, c) = col_of(key);
+        assert!(r > hr && c == hc + 18, "{key} under its heading:\n{s}");
+    }
 }

@@ -74,8 +74,56 @@ impl LineEdit {
     }
 
     pub fn right(&mut self) {
-        self.cursor = (self.cursor + 1).min(self.text.chars().count());
+        self.cursor = (self.cursor + 1).min(self.len());
     }
+
+    /// The length in characters.
+    pub fn len(&self) -> usize {
+        self.text.chars().count()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.text.is_empty()
+    }
+
+    /// Removes the characters from `from` to `to` (character indices) and puts the
+    /// cursor where they were.
+    pub fn cut(&mut self, from: usize, to: usize) {
+        let (a, b) = (self.byte(from.min(to)), self.byte(to.max(from)));
+        self.text.replace_range(a..b, "");
+        self.cursor = from.min(to);
+    }
+
+    /// Where the word before the cursor starts (a word: letters, digits, `_` or `.`).
+    pub fn word_start(&self) -> usize {
+        let chars: Vec<char> = self.text.chars().collect();
+        let mut i = self.cursor.min(chars.len());
+        while i > 0 && !is_word(chars[i - 1]) {
+            i -= 1;
+        }
+        while i > 0 && is_word(chars[i - 1]) {
+            i -= 1;
+        }
+        i
+    }
+
+    /// Where the word at or after the cursor ends.
+    pub fn word_end(&self) -> usize {
+        let chars: Vec<char> = self.text.chars().collect();
+        let mut i = self.cursor.min(chars.len());
+        while i < chars.len() && !is_word(chars[i]) {
+            i += 1;
+        }
+        while i < chars.len() && is_word(chars[i]) {
+            i += 1;
+        }
+        i
+    }
+}
+
+/// A character that belongs to a word for the word moves (a name or a number).
+fn is_word(c: char) -> bool {
+    c.is_alphanumeric() || c == '_' || c == '.'
 }
 
 /// What a typed line is for.

@@ -75,9 +75,14 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::CursorLeft => with_line(app, LineEdit::left),
         Cmd::CursorRight => with_line(app, LineEdit::right),
         Cmd::CursorHome => with_line(app, |l| l.cursor = 0),
-        Cmd::CursorEnd => with_line(app, |l| l.cursor = l.text.chars().count()),
+        Cmd::CursorEnd => with_line(app, |l| l.cursor = l.len()),
         Cmd::Backspace => with_line(app, LineEdit::backspace),
         Cmd::DeleteChar => with_line(app, LineEdit::delete),
+        Cmd::WordLeft => with_line(app, |l| l.cursor = l.word_start()),
+        Cmd::WordRight => with_line(app, |l| l.cursor = l.word_end()),
+        Cmd::DeleteWordBack => with_line(app, |l| l.cut(l.word_start(), l.cursor)),
+        Cmd::KillToStart => with_line(app, |l| l.cut(0, l.cursor)),
+        Cmd::KillToEnd => with_line(app, |l| l.cut(l.cursor, l.len())),
         Cmd::Yes => answer_yes(app),
         Cmd::SaveAndQuit if app.mode == Mode::AskQuit => {
             app.mode = Mode::Main;

@@ -179,7 +179,10 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
             }
             commands::run(app, cmd);
         }
-        (None, event::KeyCode::Char(c)) if ctx == Ctx::Typing => commands::type_char(app, c),
+        // Other Ctrl and Alt chords do nothing; they never type their letter.
+        (None, event::KeyCode::Char(c)) if ctx == Ctx::Typing && !keys::is_chord(k) => {
+            commands::type_char(app, c)
+        }
         _ => {}
     }
 }

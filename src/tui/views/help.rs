@@ -26,13 +26,13 @@ fn centred(area: Rect, w: u16, h: u16) -> Rect {
 }
 
 /// Width of the keys at the left of a help line.
-const KEY_W: usize = 16;
+const KEY_W: usize = 18;
 /// The narrowest column of the help; a wider window takes more columns.
 const COL_W: u16 = 58;
 
-/// A piece of the help that stays together in one column: a group's heading with its
-/// first key, each other key, the note on steps; `gap` puts a blank line before it,
-/// unless it tops a column.
+/// A piece of the help that stays together in one column: a group's heading with all
+/// its keys (a group is never split from its heading), the note on steps; `gap` puts a
+/// blank line before it, unless it tops a column.
 struct Block {
     gap: bool,
     lines: Vec<Line<'static>>,
@@ -81,10 +81,8 @@ fn blocks(th: &Theme, width: usize) -> Vec<Block> {
     let desc_w = width.saturating_sub(KEY_W).max(10);
     let mut out: Vec<Block> = Vec::new();
     for (group, binds) in groups() {
-        let mut heading = Some(Line::styled(group, th.header));
+        let mut lines = vec![Line::styled(group, th.header)];
         for bd in binds {
-            let gap = heading.is_some() && !out.is_empty();
-            let mut lines: Vec<Line> = heading.take().into_iter().collect();
             for (i, part) in wrap(&th.text(bd.help), desc_w).into_iter().enumerate() {
                 let keys = if i == 0 {
                     keys_label(bd)
@@ -96,8 +94,9 @@ fn blocks(th: &Theme, width: usize) -> Vec<Block> {
                     Span::raw(part),
                 ]));
             }
-            out.push(Block { gap, lines });
         }
+        let gap = !out.is_empty();
+        out.push(Block { gap, lines });
     }
     let note = th.text("Steps: sizes by a share of their value, positions by a share of the section's size, rotations by 1°, 5°, 15°; set the shares in the config file.");
     out.push(Block {
