@@ -315,7 +315,7 @@ fn polygon_points_are_typed_as_a_list_and_written_in_place() {
     );
     set(&mut a, "[[0, 0], [200, 0]]");
     assert!(
-        refusal(&a).contains("line 14:10): part `bent plate`: a polygon needs 3 or more points"),
+        refusal(&a).starts_with("refused: part `bent plate`: a polygon needs 3 or more points"),
         "{:?}",
         a.message
     );
@@ -719,4 +719,48 @@ fn the_help_never_splits_a_group_from_its_heading() {
         let (r, c) = col_of(key);
         assert!(r > hr && c == hc + 18, "{key} under its heading:\n{s}");
     }
+}
+
+#[test]
+fn saving_onto_another_file_asks_plainly_and_a_new_name_asks_nothing() {
+    let dir = temp_dir("save-as");
+    let other = dir.join("other.toml");
+    std::fs::write(&other, "# someone's file\n").unwrap();
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::SaveAs);
+    typed(&mut a, &other.display().to_string());
+    key(&mut a, KeyCode::Enter);
+    assert!(matches!(a.mode, Mode::AskOverwrite(_)));
+    let s = screen(&a, 120, 40);
+    assert!(
+        s.contains("other.toml exists;") && s.contains("overwrite? y/n"),
+        "{s}"
+    );
+    assert!(!s.contains("changed on disk"), "{s}");
+    run(&mut a, Cmd::Cancel);
+    let fresh = dir.join("fresh.toml");
+    run(&mut a, Cmd::SaveAs);
+    typed(&mut a, &fresh.display().to_string());
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.mode, Mode::Main, "a new name is simply written");
+    assert_eq!(std::fs::read_to_string(&fresh).unwrap(), a.text);
+    // The file itself changed by someone else: that is what the question says.
+    std::fs::write(&fresh, "# edited elsewhere\n").unwrap();
+    run(&mut a, Cmd::Save);
+    let s = screen(&a, 120, 40);
+    assert!(s.contains("has changed on") && !s.contains("exists;"), "{s}");
+    std::fs::remove_dir_all(&dir).unwrap();
+}
+
+#[test]
+fn a_refused_value_says_what_is_wrong_not_where_in_the_file() {
+    let mut a = app(GIRDER);
+    to_column(&mut a, Col::Dim("h"));
+    run(&mut a, Cmd::Edit);
+    chord(&mut a, 'u', KeyModifiers::CONTROL);
+    typed(&mut a, "0");
+    key(&mut a, KeyCode::Enter);
+    let (msg, err) = a.message.clone().unwrap();
+    assert!(err, "{msg}");
+    assert_eq!(msg, "refused: `h` must be greater than 0, but it is 0");
 }

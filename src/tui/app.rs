@@ -12,7 +12,7 @@ use crate::analysis::{Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
 use crate::file::edit::{self, Edit};
 use crate::file::input::read_text;
-use crate::file::{locate, recover};
+use crate::file::recover;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use ratatui::layout::Rect;
@@ -324,8 +324,9 @@ impl App {
     fn commit(&mut self, text: String, doc: Option<DocumentMut>) -> bool {
         match Analysis::of_text(&text, &Options::default()) {
             Err(d) => {
-                let (l, c) = locate(&text, d.span.start);
-                self.error(format!("refused (line {l}:{c}): {}", d.message));
+                // What is wrong with the value; where it sits in the file is no help to
+                // someone typing into a cell.
+                self.error(format!("refused: {}", d.message));
                 if let Ok(doc) = edit::open(&self.text) {
                     self.doc = doc;
                 }

@@ -287,8 +287,12 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
     let text = match &app.mode {
         Mode::AskQuit => "There are unsaved changes.\n\ns  save, then quit\ny  quit without saving\nn  go back".to_string(),
+        Mode::AskOverwrite(p) if app.path.as_deref() == Some(p.as_path()) => format!(
+            "{} has changed on disk since it was opened or last saved.\n\ny  overwrite it\nn  go back (S saves under another name)",
+            clean(&p.display().to_string())
+        ),
         Mode::AskOverwrite(p) => format!(
-            "{} has changed on disk since it was opened (or it is another file).\n\ny  overwrite it\nn  go back (S saves under another name)",
+            "{} exists; overwrite? y/n\n\ny  overwrite it\nn  go back (S saves under another name)",
             clean(&p.display().to_string())
         ),
         Mode::AskReadOnly(p) => format!(
