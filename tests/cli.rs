@@ -325,9 +325,17 @@ fn svg_takes_units_like_report_and_calc_help_names_the_format_file() {
         String::from_utf8_lossy(&cm.stdout),
     );
     assert!(cm.contains(" cm") && !mm.contains(" cm"), "{cm}");
-    let bad = kern(&["svg", "sections/mezzanine-girder.toml", "--units", "furlong"]);
+    let bad = kern(&[
+        "svg",
+        "sections/mezzanine-girder.toml",
+        "--units",
+        "furlong",
+    ]);
     assert!(!bad.status.success());
     let help = kern(&["calc", "--help"]);
     let help = String::from_utf8_lossy(&help.stdout);
-    assert!(help.contains("docs/format.md") && !help.contains("FORMAT.md"), "{help}");
+    assert!(
+        help.contains("docs/format.md") && !help.contains("FORMAT.md"),
+        "{help}"
+    );
 }

@@ -748,7 +748,10 @@ fn saving_onto_another_file_asks_plainly_and_a_new_name_asks_nothing() {
     std::fs::write(&fresh, "# edited elsewhere\n").unwrap();
     run(&mut a, Cmd::Save);
     let s = screen(&a, 120, 40);
-    assert!(s.contains("has changed on") && !s.contains("exists;"), "{s}");
+    assert!(
+        s.contains("has changed on") && !s.contains("exists;"),
+        "{s}"
+    );
     std::fs::remove_dir_all(&dir).unwrap();
 }
 
@@ -763,4 +766,41 @@ fn a_refused_value_says_what_is_wrong_not_where_in_the_file() {
     let (msg, err) = a.message.clone().unwrap();
     assert!(err, "{msg}");
     assert_eq!(msg, "refused: `h` must be greater than 0, but it is 0");
+}
+
+#[test]
+fn up_and_down_steps_reverse_each_other() {
+    // The web height `hw` is a bare param, stepped through the params list.
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::SwitchList);
+    repeat(&mut a, Cmd::Down, 3);
+    let hw = |a: &App| a.analysis.section.params["hw"];
+    // 350 → 400 → 350 (not 300) with the coarse 25 % step. Values on the grid of their
+    // step; one off it (210) is first put on it, by design (round numbers).
+    for start in [350.0, 400.0, 1000.0, 16.0, 200.0, 250.0, 3.0, 0.8] {
+        for (cmd, back) in [
+            (Cmd::CoarseUp, Cmd::CoarseDown),
+            (Cmd::CoarseDown, Cmd::CoarseUp),
+            (Cmd::StepUp, Cmd::StepDown),
+            (Cmd::StepDown, Cmd::StepUp),
+            (Cmd::FineUp, Cmd::FineDown),
+            (Cmd::FineDown, Cmd::FineUp),
+        ] {
+            run(&mut a, Cmd::Edit);
+            chord(&mut a, 'u', KeyModifiers::CONTROL);
+            typed(&mut a, &start.to_string());
+            key(&mut a, KeyCode::Enter);
+            assert_eq!(hw(&a), start);
+            run(&mut a, cmd);
+            assert_ne!(hw(&a), start, "{cmd:?} moved {start}");
+            run(&mut a, back);
+            assert_eq!(hw(&a), start, "{start}: {cmd:?} then {back:?}");
+        }
+    }
+    run(&mut a, Cmd::Edit);
+    chord(&mut a, 'u', KeyModifiers::CONTROL);
+    typed(&mut a, "350");
+    key(&mut a, KeyCode::Enter);
+    run(&mut a, Cmd::CoarseUp);
+    assert_eq!(hw(&a), 400.0);
 }

@@ -319,7 +319,8 @@ enum Kind {
 }
 
 /// Steps the selected number by the fine (0), normal (1) or coarse (2) step, in
-/// direction `dir`: sizes by a percentage of their value, positions by a percentage of
+/// direction `dir`: sizes by a percentage of their value (stepping down, of the value an
+/// up step would have started from, so the two reverse each other), positions by a percentage of
 /// the section's size, rotations by 1°, 5° or 15°; the step is rounded to 1, 2 or 5 × 10ⁿ
 /// and the result to a multiple of it. An expression that is a bare param name steps
 /// that param; any other expression is refused.
@@ -367,10 +368,15 @@ pub fn step(app: &mut App, level: usize, dir: f64) {
     let raw = match kind {
         Kind::Angle => ANGLE_STEPS.get(level).copied().unwrap_or(5.0),
         Kind::Position => pct * size,
+        // Down, the step is the one an up step to `x` would take (it starts from
+        // x/(1 + share)), so that an up and a down step undo each other.
+        Kind::Size if x != 0.0 && dir < 0.0 => pct * x.abs() / (1.0 + pct),
         Kind::Size if x != 0.0 => pct * x.abs(),
         Kind::Size => pct * size,
     };
-    let s = nice_step(raw);
+    // A hair over, so that a share landing on 1, 2 or 5 × 10ⁿ in exact arithmetic is
+    // not rounded below it.
+    let s = nice_step(raw * (1.0 + 1e-9));
     let new = round_sig(((x + dir * s) / s).round() * s, 12);
     let v = number_value(new);
     let unit = if kind == Kind::Angle {

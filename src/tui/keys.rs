@@ -452,20 +452,8 @@ pub const KEYS: &[Binding] = &[
         TYPE,
         "cursor right",
     ),
-    b(
-        Typing,
-        &[alt('b')],
-        Cmd::WordLeft,
-        TYPE,
-        "back a word",
-    ),
-    b(
-        Typing,
-        &[alt('f')],
-        Cmd::WordRight,
-        TYPE,
-        "forward a word",
-    ),
+    b(Typing, &[alt('b')], Cmd::WordLeft, TYPE, "back a word"),
+    b(Typing, &[alt('f')], Cmd::WordRight, TYPE, "forward a word"),
     b(
         Typing,
         &[code(K::Home), ctrl('a')],
