@@ -195,7 +195,8 @@ fn adds_copies_moves_and_deletes_parts() {
         .iter()
         .map(|p| p.name.clone().unwrap())
         .collect();
-    assert_eq!(names, ["web", "bottom flange", "pipe 4", "pipe 4"]);
+    // The copy is numbered, not a second "pipe 4".
+    assert_eq!(names, ["web", "bottom flange", "pipe 5", "pipe 4"]);
     // The comment at the top of the file survives all of it.
     assert!(a.text.starts_with("# Mezzanine bay 3, edge girder"));
 }
@@ -221,7 +222,8 @@ fn changing_a_shape_keeps_the_part_in_place_in_one_undoable_edit() {
     let mut a = app(GIRDER);
     run(&mut a, Cmd::FlipX);
     let flipped = a.text.clone();
-    // The top flange (300 × 16) becomes a pipe: nothing to share, so the pipe comes at
+    // The top flange (300 × 16) becomes a pipe: its height becomes the diameter, the
+    // wall comes at
     // the add-part sizes (100 × 5), where the flange was.
     run(&mut a, Cmd::ChangeShape);
     assert_eq!(
@@ -241,11 +243,15 @@ fn changing_a_shape_keeps_the_part_in_place_in_one_undoable_edit() {
         ("pipe", Some("top flange"))
     );
     assert!(p.flip_x && p.at.as_ref().unwrap()[1].value.text() == "hw + tf/2");
-    assert!(a
-        .text
-        .contains("shape = \"pipe\"\nd = 100\nt = 5\nat = [0, \"hw + tf/2\"]"));
+    // The flange's height carries over as the pipe's diameter (d = tf = 16).
+    assert!(
+        a.text
+            .contains("shape = \"pipe\"\nd = \"tf\"\nt = 5\nat = [0, \"hw + tf/2\"]"),
+        "{}",
+        a.text
+    );
     // Annulus: A = π/4 (D² − d²).
-    let pipe = PI / 4.0 * (100.0f64.powi(2) - 90.0f64.powi(2));
+    let pipe = PI / 4.0 * (16.0f64.powi(2) - 6.0f64.powi(2));
     assert!((a.analysis.props.area - (13800.0 - 4800.0 + pipe)).abs() < 1e-6);
     run(&mut a, Cmd::Undo);
     assert_eq!(a.text, flipped, "one undo takes the whole change back");
@@ -803,4 +809,84 @@ fn up_and_down_steps_reverse_each_other() {
     key(&mut a, KeyCode::Enter);
     run(&mut a, Cmd::CoarseUp);
     assert_eq!(hw(&a), 400.0);
+}
+
+/// Changes the selected part's shape to `name` through the picker.
+fn change_to(a: &mut App, name: &str) {
+    run(a, Cmd::ChangeShape);
+    let row = kern::model::schema::SPECS
+        .iter()
+        .position(|s| s.name == name)
+        .expect("a shape of that name");
+    if let Mode::Choosing(p) = &mut a.mode {
+        p.row = row;
+    }
+    run(a, Cmd::Commit);
+}
+
+#[test]
+fn home_and_end_move_columns_and_the_column_is_kept_by_its_key() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::LastColumn);
+    assert_eq!(a.col, a.columns().len() - 1);
+    assert_eq!(a.part, 1, "End stays on the row");
+    run(&mut a, Cmd::FirstColumn);
+    assert_eq!(a.col, 0);
+    // The web becomes a circle: the table's columns change, the cursor stays on `at y`.
+    to_column(&mut a, Col::AtY);
+    change_to(&mut a, "circle");
+    assert_eq!(a.column(), Col::AtY);
+    // On `b` of the top flange, moving to the circle (no `b`) lands on its `d`, and
+    // back on the flange keeps `d`'s neighbour rule: the flange has no `d`, so `b`.
+    run(&mut a, Cmd::Up);
+    to_column(&mut a, Col::Dim("b"));
+    run(&mut a, Cmd::Down);
+    assert_eq!(a.column(), Col::Dim("d"));
+    run(&mut a, Cmd::Up);
+    assert_eq!(a.column(), Col::Dim("b"));
+}
+
+#[test]
+fn copies_are_numbered_and_a_new_shape_keeps_the_overall_size() {
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::CopyPart);
+    run(&mut a, Cmd::CopyPart);
+    let names: Vec<_> = a
+        .analysis
+        .document
+        .parts
+        .iter()
+        .map(|p| p.name.clone().unwrap_or_default())
+        .collect();
+    assert_eq!(
+        names[..3],
+        ["top flange", "top flange 2", "top flange 3"],
+        "{names:?}"
+    );
+    run(&mut a, Cmd::Undo);
+    assert_eq!(a.analysis.document.parts.len(), 4, "one undo per copy");
+    // A circle of d = 120 becomes a 120 × 120 rectangle, not 100 × 50.
+    let mut a = app(GIRDER);
+    change_to(&mut a, "circle");
+    to_column(&mut a, Col::Dim("d"));
+    run(&mut a, Cmd::Edit);
+    chord(&mut a, 'u', KeyModifiers::CONTROL);
+    typed(&mut a, "120");
+    key(&mut a, KeyCode::Enter);
+    change_to(&mut a, "rect");
+    let p = &a.analysis.document.parts[0];
+    assert_eq!(p.dim("b").map(|v| v.value.text()).as_deref(), Some("120"));
+    assert_eq!(p.dim("h").map(|v| v.value.text()).as_deref(), Some("120"));
+}
+
+#[test]
+fn copy_names_take_the_next_free_number() {
+    use kern::tui::commands::parts::copy_name;
+    assert_eq!(copy_name("bolt hole", &["bolt hole"]), "bolt hole 2");
+    assert_eq!(
+        copy_name("bolt hole", &["bolt hole", "bolt hole 2"]),
+        "bolt hole 3"
+    );
+    assert_eq!(copy_name("web 2", &["web 2"]), "web 3");
 }

@@ -306,6 +306,21 @@ impl App {
         self.commit(text, None)
     }
 
+    /// Makes several edits as one (one step of undo), if all apply and the text computes.
+    pub fn edit_all(&mut self, edits: Vec<Edit>) -> bool {
+        for e in edits {
+            if let Err(m) = e.apply(&mut self.doc) {
+                self.error(format!("refused: {m}"));
+                if let Ok(doc) = edit::open(&self.text) {
+                    self.doc = doc;
+                }
+                return false;
+            }
+        }
+        let text = self.doc.to_string();
+        self.commit(text, None)
+    }
+
     /// Takes a whole new text (an undoable change) if it computes; otherwise shows why
     /// and changes nothing. Returns whether it was taken.
     pub fn replace_text(&mut self, text: String) -> bool {
@@ -362,6 +377,7 @@ impl App {
     }
 
     fn set_analysis(&mut self, a: Analysis) {
+        let col = self.column();
         self.analysis = a;
         let n = self.analysis.document.parts.len();
         self.part = self.part.min(n.saturating_sub(1));
@@ -369,7 +385,28 @@ impl App {
             .param
             .min(self.analysis.document.params.len().saturating_sub(1));
         self.col = self.col.min(self.columns().len().saturating_sub(1));
+        self.keep_column(col);
         self.start_torsion();
+    }
+
+    /// Selects `col` by its key in the current columns and row: where the selected part
+    /// has it, that column; a dimension it does not have, its first dimension instead;
+    /// otherwise the column stays where it is.
+    pub fn keep_column(&mut self, col: Col) {
+        let cols = self.columns();
+        let part = self.analysis.document.parts.get(self.part);
+        let want = match (col, part) {
+            (Col::Dim(k), Some(p)) if p.shape.key(k).is_none() => {
+                match p.shape.spec().keys.first() {
+                    Some(first) => Col::Dim(first.key),
+                    None => Col::Points,
+                }
+            }
+            _ => col,
+        };
+        if let Some(i) = cols.iter().position(|c| *c == want) {
+            self.col = i;
+        }
     }
 
     /// Starts (or, solving inline, does) the torsion solve for the current text.

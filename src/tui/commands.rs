@@ -25,6 +25,12 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::Down => move_row(app, 1),
         Cmd::First => move_row(app, i64::MIN / 2),
         Cmd::Last => move_row(app, i64::MAX / 2),
+        Cmd::FirstColumn if app.focus == Focus::Parts && app.mode == Mode::Main => app.col = 0,
+        Cmd::LastColumn if app.focus == Focus::Parts && app.mode == Mode::Main => {
+            app.col = app.columns().len().saturating_sub(1)
+        }
+        Cmd::FirstColumn => move_row(app, i64::MIN / 2),
+        Cmd::LastColumn => move_row(app, i64::MAX / 2),
         Cmd::SwitchList => switch_list(app),
         Cmd::PageDown => page(app, 1),
         Cmd::PageUp => page(app, -1),
@@ -120,6 +126,11 @@ fn move_row(app: &mut App, by: i64) {
                 Focus::Params => (&mut app.param, app.analysis.document.params.len()),
             };
             *row = (*row as i64 + by).clamp(0, n.saturating_sub(1) as i64) as usize;
+            // The same column by its key on the new row (a dimension it lacks: its first).
+            if app.focus == Focus::Parts {
+                let col = app.column();
+                app.keep_column(col);
+            }
         }
     }
 }
