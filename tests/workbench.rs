@@ -498,7 +498,13 @@ fn the_baseline_can_be_moved_and_reset() {
     let mut a = app(GIRDER);
     run(&mut a, Cmd::SwitchList);
     run(&mut a, Cmd::StepUp);
+    // `b` asks first: a name typed in the wrong mode does not lose the baseline.
     run(&mut a, Cmd::SetBaseline);
+    assert_eq!(a.mode, Mode::AskBaseline);
+    run(&mut a, Cmd::Cancel);
+    assert!(a.baseline.props.ixx < a.analysis.props.ixx, "unchanged");
+    run(&mut a, Cmd::SetBaseline);
+    run(&mut a, Cmd::Yes);
     assert_eq!(a.baseline.props.ixx, a.analysis.props.ixx);
     run(&mut a, Cmd::ResetBaseline);
     assert!(a.baseline.props.ixx < a.analysis.props.ixx);
@@ -889,4 +895,20 @@ fn copy_names_take_the_next_free_number() {
         "bolt hole 3"
     );
     assert_eq!(copy_name("web 2", &["web 2"]), "web 3");
+}
+
+#[test]
+fn enter_on_the_sign_cell_asks_solid_or_void() {
+    let mut a = app(GIRDER);
+    to_column(&mut a, Col::Sign);
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.mode, Mode::AskVoid(0), "a choice, not a silent toggle");
+    assert_eq!(a.text, GIRDER);
+    let s = screen(&a, 120, 40);
+    assert!(s.contains("top flange is solid. Make it a void"), "{s}");
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.text, GIRDER);
+    key(&mut a, KeyCode::Enter);
+    key(&mut a, KeyCode::Char('y'));
+    assert!(a.analysis.document.parts[0].void);
 }

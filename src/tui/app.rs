@@ -163,6 +163,10 @@ pub enum Mode {
     AskReadOnly(PathBuf),
     /// A recovery copy of unsaved edits is at this place: take it?
     AskRecover(PathBuf),
+    /// Compare against the section as it is now (the old baseline is not kept)?
+    AskBaseline,
+    /// Solid or void for this part (Enter on the ± cell)?
+    AskVoid(usize),
     /// The help overlay, scrolled by so many lines.
     Help(u16),
 }

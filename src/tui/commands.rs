@@ -55,10 +55,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::MoveDown => parts::move_part(app, true),
         Cmd::Undo => undo(app),
         Cmd::Redo => redo(app),
-        Cmd::SetBaseline => {
-            app.set_baseline("your baseline");
-            app.note("baseline set: changes are now shown against the section as it is now");
-        }
+        Cmd::SetBaseline => app.mode = Mode::AskBaseline,
         Cmd::ResetBaseline => reset_baseline(app),
         Cmd::Save => save(app),
         Cmd::SaveAs => begin_save_as(app),
@@ -186,7 +183,10 @@ pub fn begin_edit(app: &mut App) {
     let start = match col {
         Col::Name => p.name.clone().unwrap_or_default(),
         Col::Material => p.material.as_ref().map_or(String::new(), |m| m.0.clone()),
-        Col::Sign => return parts::toggle(app, Flag::Void),
+        Col::Sign => {
+            app.mode = Mode::AskVoid(app.part);
+            return;
+        }
         Col::Enabled => return parts::toggle(app, Flag::Enabled),
         Col::Shape => return parts::open_picker(app, true),
         Col::Flip => return app.note("f mirrors the part left to right, F top to bottom"),
@@ -547,6 +547,11 @@ fn answer_yes(app: &mut App) {
         Mode::AskOverwrite(p) => save_to(app, p, true),
         Mode::AskReadOnly(p) => write_to(app, p, true, Overwrite::ReadOnly),
         Mode::AskRecover(p) => app.take_recovery(&p),
+        Mode::AskBaseline => {
+            app.set_baseline("your baseline");
+            app.note("baseline set: changes are now shown against the section as it is now (B: the file as opened)");
+        }
+        Mode::AskVoid(part) if part == app.part => parts::toggle(app, Flag::Void),
         other => app.mode = other,
     }
 }

@@ -546,7 +546,7 @@ pub const KEYS: &[Binding] = &[
         &[ch('y')],
         Cmd::Yes,
         ASK,
-        "yes (quit without saving, or overwrite)",
+        "yes (quit without saving, overwrite, new baseline, solid or void)",
     ),
     b(Asking, &[ch('s')], Cmd::SaveAndQuit, ASK, "save, then quit"),
     b(

@@ -167,9 +167,12 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         Mode::Main => Ctx::Main,
         Mode::Typing { .. } => Ctx::Typing,
         Mode::Choosing(_) => Ctx::Choosing,
-        Mode::AskQuit | Mode::AskOverwrite(_) | Mode::AskReadOnly(_) | Mode::AskRecover(_) => {
-            Ctx::Asking
-        }
+        Mode::AskQuit
+        | Mode::AskOverwrite(_)
+        | Mode::AskReadOnly(_)
+        | Mode::AskRecover(_)
+        | Mode::AskBaseline
+        | Mode::AskVoid(_) => Ctx::Asking,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

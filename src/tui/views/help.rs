@@ -299,6 +299,21 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
             "{} is read-only (no one may write to it).\n\ny  replace it anyway (its mode is kept)\nn  go back (S saves under another name)",
             clean(&p.display().to_string())
         ),
+        Mode::AskBaseline => format!(
+            "Compare against the section as it is now? The changes shown against the {} are lost (B goes back to the file as opened).\n\ny  yes, make this the baseline\nn  go back",
+            app.baseline_label
+        ),
+        Mode::AskVoid(i) => match app.analysis.document.parts.get(*i) {
+            Some(p) => format!(
+                "{} is {}. Make it {}?\n\ny  {}\nn  keep it {}",
+                clean(&cell(p, *i, Col::Name, th.ascii)),
+                if p.void { "a void (subtracted)" } else { "solid" },
+                if p.void { "solid" } else { "a void (subtracted)" },
+                if p.void { "solid" } else { "void" },
+                if p.void { "a void" } else { "solid" },
+            ),
+            None => return,
+        },
         Mode::AskRecover(p) => format!(
             "Unsaved edits were kept in {} when kern last stopped.\n\ny  take them (as unsaved edits; s saves)\nn  open as saved, keep the copy",
             clean(&p.display().to_string())

@@ -65,9 +65,12 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     match &app.mode {
         Mode::Help(scroll) => help::render(app, *scroll, main, buf),
         Mode::Choosing(pick) => help::picker(app, *pick, main, buf),
-        Mode::AskQuit | Mode::AskOverwrite(_) | Mode::AskReadOnly(_) | Mode::AskRecover(_) => {
-            help::question(app, main, buf)
-        }
+        Mode::AskQuit
+        | Mode::AskOverwrite(_)
+        | Mode::AskReadOnly(_)
+        | Mode::AskRecover(_)
+        | Mode::AskBaseline
+        | Mode::AskVoid(_) => help::question(app, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
 }
