@@ -912,3 +912,18 @@ fn enter_on_the_sign_cell_asks_solid_or_void() {
     key(&mut a, KeyCode::Char('y'));
     assert!(a.analysis.document.parts[0].void);
 }
+
+#[test]
+fn the_results_page_by_their_height_and_mark_only_what_is_hidden() {
+    let mut a = app(GIRDER);
+    a.screen = Rect::new(0, 0, 80, 24);
+    let s = screen(&a, 80, 24);
+    assert!(s.contains("PgDn ▾") && !s.contains("PgUp ▴"), "{s}");
+    run(&mut a, Cmd::PageDown);
+    let page = a.results_scroll;
+    assert_eq!(page, kern::tui::views::results_page(&a));
+    assert!(page > 5, "a page, not a few lines: {page}");
+    repeat(&mut a, Cmd::PageDown, 20);
+    let s = screen(&a, 80, 24);
+    assert!(s.contains("PgUp ▴") && !s.contains("PgDn ▾"), "{s}");
+}

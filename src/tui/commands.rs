@@ -132,7 +132,7 @@ fn move_row(app: &mut App, by: i64) {
     }
 }
 
-/// Scrolls the help by a page, or the results by a few lines.
+/// Scrolls the help, or the results, by a page.
 fn page(app: &mut App, dir: i64) {
     match app.mode {
         Mode::Help(_) => {
@@ -145,7 +145,8 @@ fn page(app: &mut App, dir: i64) {
             let rows = crate::report::rows::rows(&app.analysis, &app.units());
             let groups = rows.windows(2).filter(|w| w[0].group != w[1].group).count() + 1;
             let most = rows.len() + groups + 3 * app.analysis.warnings.len() + 2;
-            let next = app.results_scroll as i64 + 5 * dir;
+            let page = super::views::results_page(app).max(1) as i64;
+            let next = app.results_scroll as i64 + page * dir;
             app.results_scroll = next.clamp(0, most as i64) as u16;
         }
     }
