@@ -927,3 +927,13 @@ fn the_results_page_by_their_height_and_mark_only_what_is_hidden() {
     let s = screen(&a, 80, 24);
     assert!(s.contains("PgUp ▴") && !s.contains("PgDn ▾"), "{s}");
 }
+
+#[test]
+fn the_caution_takes_one_line_at_80_columns_and_stays() {
+    let a = app(GIRDER);
+    let s = screen(&a, 80, 24);
+    let last: Vec<&str> = s.lines().rev().take(2).collect();
+    assert!(last[0].contains("Caution: mechanics only"), "{s}");
+    assert!(last[0].contains("licensed engineer decides"), "{s}");
+    assert!(!last[1].contains("Caution"), "one line: {s}");
+}
