@@ -210,11 +210,12 @@ pub fn report(args: &ReportArgs) -> i32 {
     emit(args.out.as_deref(), &text)
 }
 
-/// `kern svg`: the drawing of one file, to `out` or stdout.
-pub fn svg(file: &Path, out: Option<&Path>, options: &Options) -> i32 {
+/// `kern svg`: the drawing of one file, to `out` or stdout, labelled in `units` (the
+/// file's own unit when `None`).
+pub fn svg(file: &Path, out: Option<&Path>, units: Option<LengthUnit>, options: &Options) -> i32 {
     match load(file, options) {
         Ok(a) => {
-            let u = OutUnits::new(a.section.units, None);
+            let u = OutUnits::new(a.section.units, units);
             emit(out, &drawing::drawing(&a, &u))
         }
         Err(line) => {

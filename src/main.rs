@@ -23,7 +23,7 @@ enum Verb {
     Calc {
         #[arg(required = true)]
         files: Vec<PathBuf>,
-        /// One JSON object per file, one per line (FORMAT.md).
+        /// One JSON object per file, one per line (keys in docs/format.md).
         #[arg(long)]
         json: bool,
         /// Express lengths in this unit: mm, cm, m, in or ft.
@@ -58,6 +58,9 @@ enum Verb {
         /// Write to this file instead of stdout.
         #[arg(short, long)]
         out: Option<PathBuf>,
+        /// Express lengths in this unit: mm, cm, m, in or ft.
+        #[arg(long, value_parser = parse_unit)]
+        units: Option<LengthUnit>,
         /// Skip the finite-element torsion solve (no shear centre).
         #[arg(long)]
         no_torsion: bool,
@@ -117,8 +120,9 @@ fn main() {
         Some(Verb::Svg {
             file,
             out,
+            units,
             no_torsion,
-        }) => svg(&file, out.as_deref(), &torsion_options(no_torsion)),
+        }) => svg(&file, out.as_deref(), units, &torsion_options(no_torsion)),
         Some(Verb::Keys) => print_out(&kern::tui::keys::markdown()),
         None => kern::tui::run(cli.file),
     };

@@ -308,3 +308,34 @@ fn missing_and_non_utf8_files() {
         .starts_with(&format!("{gs}:1:1:")));
     let _ = std::fs::remove_dir_all(d);
 }
+
+#[test]
+fn svg_takes_units_like_report_and_calc_help_names_the_format_file() {
+    let mm = kern(&["svg", "sections/mezzanine-girder.toml", "--no-torsion"]);
+    let cm = kern(&[
+        "svg",
+        "sections/mezzanine-girder.toml",
+        "--no-torsion",
+        "--units",
+        "cm",
+    ]);
+    assert!(mm.status.success() && cm.status.success());
+    let (mm, cm) = (
+        String::from_utf8_lossy(&mm.stdout),
+        String::from_utf8_lossy(&cm.stdout),
+    );
+    assert!(cm.contains(" cm") && !mm.contains(" cm"), "{cm}");
+    let bad = kern(&[
+        "svg",
+        "sections/mezzanine-girder.toml",
+        "--units",
+        "furlong",
+    ]);
+    assert!(!bad.status.success());
+    let help = kern(&["calc", "--help"]);
+    let help = String::from_utf8_lossy(&help.stdout);
+    assert!(
+        help.contains("docs/format.md") && !help.contains("FORMAT.md"),
+        "{help}"
+    );
+}

@@ -12,7 +12,7 @@ use crate::analysis::{Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
 use crate::file::edit::{self, Edit};
 use crate::file::input::read_text;
-use crate::file::{locate, recover};
+use crate::file::recover;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use ratatui::layout::Rect;
@@ -74,8 +74,56 @@ impl LineEdit {
     }
 
     pub fn right(&mut self) {
-        self.cursor = (self.cursor + 1).min(self.text.chars().count());
+        self.cursor = (self.cursor + 1).min(self.len());
     }
+
+    /// The length in characters.
+    pub fn len(&self) -> usize {
+        self.text.chars().count()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.text.is_empty()
+    }
+
+    /// Removes the characters from `from` to `to` (character indices) and puts the
+    /// cursor where they were.
+    pub fn cut(&mut self, from: usize, to: usize) {
+        let (a, b) = (self.byte(from.min(to)), self.byte(to.max(from)));
+        self.text.replace_range(a..b, "");
+        self.cursor = from.min(to);
+    }
+
+    /// Where the word before the cursor starts (a word: letters, digits, `_` or `.`).
+    pub fn word_start(&self) -> usize {
+        let chars: Vec<char> = self.text.chars().collect();
+        let mut i = self.cursor.min(chars.len());
+        while i > 0 && !is_word(chars[i - 1]) {
+            i -= 1;
+        }
+        while i > 0 && is_word(chars[i - 1]) {
+            i -= 1;
+        }
+        i
+    }
+
+    /// Where the word at or after the cursor ends.
+    pub fn word_end(&self) -> usize {
+        let chars: Vec<char> = self.text.chars().collect();
+        let mut i = self.cursor.min(chars.len());
+        while i < chars.len() && !is_word(chars[i]) {
+            i += 1;
+        }
+        while i < chars.len() && is_word(chars[i]) {
+            i += 1;
+        }
+        i
+    }
+}
+
+/// A character that belongs to a word for the word moves (a name or a number).
+fn is_word(c: char) -> bool {
+    c.is_alphanumeric() || c == '_' || c == '.'
 }
 
 /// What a typed line is for.
@@ -115,6 +163,10 @@ pub enum Mode {
     AskReadOnly(PathBuf),
     /// A recovery copy of unsaved edits is at this place: take it?
     AskRecover(PathBuf),
+    /// Compare against the section as it is now (the old baseline is not kept)?
+    AskBaseline,
+    /// Solid or void for this part (Enter on the ± cell)?
+    AskVoid(usize),
     /// The help overlay, scrolled by so many lines.
     Help(u16),
 }
@@ -258,6 +310,21 @@ impl App {
         self.commit(text, None)
     }
 
+    /// Makes several edits as one (one step of undo), if all apply and the text computes.
+    pub fn edit_all(&mut self, edits: Vec<Edit>) -> bool {
+        for e in edits {
+            if let Err(m) = e.apply(&mut self.doc) {
+                self.error(format!("refused: {m}"));
+                if let Ok(doc) = edit::open(&self.text) {
+                    self.doc = doc;
+                }
+                return false;
+            }
+        }
+        let text = self.doc.to_string();
+        self.commit(text, None)
+    }
+
     /// Takes a whole new text (an undoable change) if it computes; otherwise shows why
     /// and changes nothing. Returns whether it was taken.
     pub fn replace_text(&mut self, text: String) -> bool {
@@ -276,8 +343,9 @@ impl App {
     fn commit(&mut self, text: String, doc: Option<DocumentMut>) -> bool {
         match Analysis::of_text(&text, &Options::default()) {
             Err(d) => {
-                let (l, c) = locate(&text, d.span.start);
-                self.error(format!("refused (line {l}:{c}): {}", d.message));
+                // What is wrong with the value; where it sits in the file is no help to
+                // someone typing into a cell.
+                self.error(format!("refused: {}", d.message));
                 if let Ok(doc) = edit::open(&self.text) {
                     self.doc = doc;
                 }
@@ -313,6 +381,7 @@ impl App {
     }
 
     fn set_analysis(&mut self, a: Analysis) {
+        let col = self.column();
         self.analysis = a;
         let n = self.analysis.document.parts.len();
         self.part = self.part.min(n.saturating_sub(1));
@@ -320,7 +389,28 @@ impl App {
             .param
             .min(self.analysis.document.params.len().saturating_sub(1));
         self.col = self.col.min(self.columns().len().saturating_sub(1));
+        self.keep_column(col);
         self.start_torsion();
+    }
+
+    /// Selects `col` by its key in the current columns and row: where the selected part
+    /// has it, that column; a dimension it does not have, its first dimension instead;
+    /// otherwise the column stays where it is.
+    pub fn keep_column(&mut self, col: Col) {
+        let cols = self.columns();
+        let part = self.analysis.document.parts.get(self.part);
+        let want = match (col, part) {
+            (Col::Dim(k), Some(p)) if p.shape.key(k).is_none() => {
+                match p.shape.spec().keys.first() {
+                    Some(first) => Col::Dim(first.key),
+                    None => Col::Points,
+                }
+            }
+            _ => col,
+        };
+        if let Some(i) = cols.iter().position(|c| *c == want) {
+            self.col = i;
+        }
     }
 
     /// Starts (or, solving inline, does) the torsion solve for the current text.

@@ -25,6 +25,12 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::Down => move_row(app, 1),
         Cmd::First => move_row(app, i64::MIN / 2),
         Cmd::Last => move_row(app, i64::MAX / 2),
+        Cmd::FirstColumn if app.focus == Focus::Parts && app.mode == Mode::Main => app.col = 0,
+        Cmd::LastColumn if app.focus == Focus::Parts && app.mode == Mode::Main => {
+            app.col = app.columns().len().saturating_sub(1)
+        }
+        Cmd::FirstColumn => move_row(app, i64::MIN / 2),
+        Cmd::LastColumn => move_row(app, i64::MAX / 2),
         Cmd::SwitchList => switch_list(app),
         Cmd::PageDown => page(app, 1),
         Cmd::PageUp => page(app, -1),
@@ -49,10 +55,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::MoveDown => parts::move_part(app, true),
         Cmd::Undo => undo(app),
         Cmd::Redo => redo(app),
-        Cmd::SetBaseline => {
-            app.set_baseline("your baseline");
-            app.note("baseline set: changes are now shown against the section as it is now");
-        }
+        Cmd::SetBaseline => app.mode = Mode::AskBaseline,
         Cmd::ResetBaseline => reset_baseline(app),
         Cmd::Save => save(app),
         Cmd::SaveAs => begin_save_as(app),
@@ -75,9 +78,14 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::CursorLeft => with_line(app, LineEdit::left),
         Cmd::CursorRight => with_line(app, LineEdit::right),
         Cmd::CursorHome => with_line(app, |l| l.cursor = 0),
-        Cmd::CursorEnd => with_line(app, |l| l.cursor = l.text.chars().count()),
+        Cmd::CursorEnd => with_line(app, |l| l.cursor = l.len()),
         Cmd::Backspace => with_line(app, LineEdit::backspace),
         Cmd::DeleteChar => with_line(app, LineEdit::delete),
+        Cmd::WordLeft => with_line(app, |l| l.cursor = l.word_start()),
+        Cmd::WordRight => with_line(app, |l| l.cursor = l.word_end()),
+        Cmd::DeleteWordBack => with_line(app, |l| l.cut(l.word_start(), l.cursor)),
+        Cmd::KillToStart => with_line(app, |l| l.cut(0, l.cursor)),
+        Cmd::KillToEnd => with_line(app, |l| l.cut(l.cursor, l.len())),
         Cmd::Yes => answer_yes(app),
         Cmd::SaveAndQuit if app.mode == Mode::AskQuit => {
             app.mode = Mode::Main;
@@ -115,11 +123,16 @@ fn move_row(app: &mut App, by: i64) {
                 Focus::Params => (&mut app.param, app.analysis.document.params.len()),
             };
             *row = (*row as i64 + by).clamp(0, n.saturating_sub(1) as i64) as usize;
+            // The same column by its key on the new row (a dimension it lacks: its first).
+            if app.focus == Focus::Parts {
+                let col = app.column();
+                app.keep_column(col);
+            }
         }
     }
 }
 
-/// Scrolls the help by a page, or the results by a few lines.
+/// Scrolls the help, or the results, by a page.
 fn page(app: &mut App, dir: i64) {
     match app.mode {
         Mode::Help(_) => {
@@ -132,7 +145,8 @@ fn page(app: &mut App, dir: i64) {
             let rows = crate::report::rows::rows(&app.analysis, &app.units());
             let groups = rows.windows(2).filter(|w| w[0].group != w[1].group).count() + 1;
             let most = rows.len() + groups + 3 * app.analysis.warnings.len() + 2;
-            let next = app.results_scroll as i64 + 5 * dir;
+            let page = super::views::results_page(app).max(1) as i64;
+            let next = app.results_scroll as i64 + page * dir;
             app.results_scroll = next.clamp(0, most as i64) as u16;
         }
     }
@@ -170,7 +184,10 @@ pub fn begin_edit(app: &mut App) {
     let start = match col {
         Col::Name => p.name.clone().unwrap_or_default(),
         Col::Material => p.material.as_ref().map_or(String::new(), |m| m.0.clone()),
-        Col::Sign => return parts::toggle(app, Flag::Void),
+        Col::Sign => {
+            app.mode = Mode::AskVoid(app.part);
+            return;
+        }
         Col::Enabled => return parts::toggle(app, Flag::Enabled),
         Col::Shape => return parts::open_picker(app, true),
         Col::Flip => return app.note("f mirrors the part left to right, F top to bottom"),
@@ -314,7 +331,8 @@ enum Kind {
 }
 
 /// Steps the selected number by the fine (0), normal (1) or coarse (2) step, in
-/// direction `dir`: sizes by a percentage of their value, positions by a percentage of
+/// direction `dir`: sizes by a percentage of their value (stepping down, of the value an
+/// up step would have started from, so the two reverse each other), positions by a percentage of
 /// the section's size, rotations by 1°, 5° or 15°; the step is rounded to 1, 2 or 5 × 10ⁿ
 /// and the result to a multiple of it. An expression that is a bare param name steps
 /// that param; any other expression is refused.
@@ -362,10 +380,15 @@ pub fn step(app: &mut App, level: usize, dir: f64) {
     let raw = match kind {
         Kind::Angle => ANGLE_STEPS.get(level).copied().unwrap_or(5.0),
         Kind::Position => pct * size,
+        // Down, the step is the one an up step to `x` would take (it starts from
+        // x/(1 + share)), so that an up and a down step undo each other.
+        Kind::Size if x != 0.0 && dir < 0.0 => pct * x.abs() / (1.0 + pct),
         Kind::Size if x != 0.0 => pct * x.abs(),
         Kind::Size => pct * size,
     };
-    let s = nice_step(raw);
+    // A hair over, so that a share landing on 1, 2 or 5 × 10ⁿ in exact arithmetic is
+    // not rounded below it.
+    let s = nice_step(raw * (1.0 + 1e-9));
     let new = round_sig(((x + dir * s) / s).round() * s, 12);
     let v = number_value(new);
     let unit = if kind == Kind::Angle {
@@ -525,6 +548,11 @@ fn answer_yes(app: &mut App) {
         Mode::AskOverwrite(p) => save_to(app, p, true),
         Mode::AskReadOnly(p) => write_to(app, p, true, Overwrite::ReadOnly),
         Mode::AskRecover(p) => app.take_recovery(&p),
+        Mode::AskBaseline => {
+            app.set_baseline("your baseline");
+            app.note("baseline set: changes are now shown against the section as it is now (B: the file as opened)");
+        }
+        Mode::AskVoid(part) if part == app.part => parts::toggle(app, Flag::Void),
         other => app.mode = other,
     }
 }

@@ -4,34 +4,55 @@
 
 use crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
-/// A key, with or without Ctrl (Shift is part of the character: `G`, `{`).
+/// A key, with or without Ctrl or Alt (Shift is part of the character: `G`, `{`).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct Key {
     pub code: KeyCode,
     pub ctrl: bool,
+    pub alt: bool,
 }
 
 const fn ch(c: char) -> Key {
     Key {
         code: KeyCode::Char(c),
         ctrl: false,
+        alt: false,
     }
 }
 const fn ctrl(c: char) -> Key {
     Key {
         code: KeyCode::Char(c),
         ctrl: true,
+        alt: false,
+    }
+}
+const fn alt(c: char) -> Key {
+    Key {
+        code: KeyCode::Char(c),
+        ctrl: false,
+        alt: true,
     }
 }
 const fn code(code: KeyCode) -> Key {
-    Key { code, ctrl: false }
+    Key {
+        code,
+        ctrl: false,
+        alt: false,
+    }
+}
+
+/// Is a key press a chord (Ctrl or Alt held), which never types its character?
+pub fn is_chord(ev: &KeyEvent) -> bool {
+    ev.modifiers
+        .intersects(KeyModifiers::CONTROL | KeyModifiers::ALT)
 }
 
 impl Key {
     /// Does a key press match this key?
     pub fn matches(&self, ev: &KeyEvent) -> bool {
         let ev_ctrl = ev.modifiers.contains(KeyModifiers::CONTROL);
-        if ev_ctrl != self.ctrl {
+        let ev_alt = ev.modifiers.contains(KeyModifiers::ALT);
+        if ev_ctrl != self.ctrl || ev_alt != self.alt {
             return false;
         }
         match (self.code, ev.code) {
@@ -64,6 +85,8 @@ impl Key {
         };
         if self.ctrl {
             format!("Ctrl-{base}")
+        } else if self.alt {
+            format!("Alt-{base}")
         } else {
             base
         }
@@ -94,6 +117,8 @@ pub enum Cmd {
     Down,
     First,
     Last,
+    FirstColumn,
+    LastColumn,
     SwitchList,
     PageDown,
     PageUp,
@@ -132,8 +157,13 @@ pub enum Cmd {
     CursorRight,
     CursorHome,
     CursorEnd,
+    WordLeft,
+    WordRight,
     Backspace,
     DeleteChar,
+    DeleteWordBack,
+    KillToStart,
+    KillToEnd,
     Yes,
     SaveAndQuit,
 }
@@ -194,14 +224,22 @@ pub const KEYS: &[Binding] = &[
     ),
     b(Main, &[code(K::Up), ch('k')], Cmd::Up, MOVE, "previous row"),
     b(Main, &[code(K::Down), ch('j')], Cmd::Down, MOVE, "next row"),
+    b(Main, &[ch('g')], Cmd::First, MOVE, "first row"),
+    b(Main, &[ch('G')], Cmd::Last, MOVE, "last row"),
     b(
         Main,
-        &[code(K::Home), ch('g')],
-        Cmd::First,
+        &[code(K::Home)],
+        Cmd::FirstColumn,
         MOVE,
-        "first row",
+        "first column (in the params: first row)",
     ),
-    b(Main, &[code(K::End), ch('G')], Cmd::Last, MOVE, "last row"),
+    b(
+        Main,
+        &[code(K::End)],
+        Cmd::LastColumn,
+        MOVE,
+        "last column (in the params: last row)",
+    ),
     b(
         Main,
         &[code(K::Tab)],
@@ -412,18 +450,20 @@ pub const KEYS: &[Binding] = &[
     ),
     b(
         Typing,
-        &[code(K::Left)],
+        &[code(K::Left), ctrl('b')],
         Cmd::CursorLeft,
         TYPE,
         "cursor left",
     ),
     b(
         Typing,
-        &[code(K::Right)],
+        &[code(K::Right), ctrl('f')],
         Cmd::CursorRight,
         TYPE,
         "cursor right",
     ),
+    b(Typing, &[alt('b')], Cmd::WordLeft, TYPE, "back a word"),
+    b(Typing, &[alt('f')], Cmd::WordRight, TYPE, "forward a word"),
     b(
         Typing,
         &[code(K::Home), ctrl('a')],
@@ -440,17 +480,38 @@ pub const KEYS: &[Binding] = &[
     ),
     b(
         Typing,
-        &[code(K::Backspace)],
+        &[code(K::Backspace), ctrl('h')],
         Cmd::Backspace,
         TYPE,
         "delete before the cursor",
     ),
     b(
         Typing,
-        &[code(K::Delete)],
+        &[code(K::Delete), ctrl('d')],
         Cmd::DeleteChar,
         TYPE,
         "delete at the cursor",
+    ),
+    b(
+        Typing,
+        &[ctrl('w')],
+        Cmd::DeleteWordBack,
+        TYPE,
+        "delete the word before the cursor",
+    ),
+    b(
+        Typing,
+        &[ctrl('u')],
+        Cmd::KillToStart,
+        TYPE,
+        "delete from the start of the line to the cursor",
+    ),
+    b(
+        Typing,
+        &[ctrl('k')],
+        Cmd::KillToEnd,
+        TYPE,
+        "delete from the cursor to the end of the line",
     ),
     b(
         Choosing,
@@ -485,7 +546,7 @@ pub const KEYS: &[Binding] = &[
         &[ch('y')],
         Cmd::Yes,
         ASK,
-        "yes (quit without saving, or overwrite)",
+        "yes (quit without saving, overwrite, new baseline, solid or void)",
     ),
     b(Asking, &[ch('s')], Cmd::SaveAndQuit, ASK, "save, then quit"),
     b(

@@ -167,9 +167,12 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         Mode::Main => Ctx::Main,
         Mode::Typing { .. } => Ctx::Typing,
         Mode::Choosing(_) => Ctx::Choosing,
-        Mode::AskQuit | Mode::AskOverwrite(_) | Mode::AskReadOnly(_) | Mode::AskRecover(_) => {
-            Ctx::Asking
-        }
+        Mode::AskQuit
+        | Mode::AskOverwrite(_)
+        | Mode::AskReadOnly(_)
+        | Mode::AskRecover(_)
+        | Mode::AskBaseline
+        | Mode::AskVoid(_) => Ctx::Asking,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {
@@ -179,7 +182,10 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
             }
             commands::run(app, cmd);
         }
-        (None, event::KeyCode::Char(c)) if ctx == Ctx::Typing => commands::type_char(app, c),
+        // Other Ctrl and Alt chords do nothing; they never type their letter.
+        (None, event::KeyCode::Char(c)) if ctx == Ctx::Typing && !keys::is_chord(k) => {
+            commands::type_char(app, c)
+        }
         _ => {}
     }
 }

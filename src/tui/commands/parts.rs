@@ -2,7 +2,7 @@
 //! copying, deleting and reordering parts, and the on/off keys of a part — void,
 //! enabled, the flips — and its anchor.
 
-use crate::file::edit::{Edit, Flag, TextKey};
+use crate::file::edit::{Edit, Flag, Slot, TextKey};
 use crate::model::schema::{ShapeKind, SPECS};
 use crate::model::Anchor;
 use crate::tui::app::{App, Focus, Mode, Picker};
@@ -69,16 +69,44 @@ fn change_shape(app: &mut App, i: usize, shape: ShapeKind) {
         return app.note(format!("the part is a {shape} already"));
     }
     let unit = app.analysis.section.units;
-    if app.edit(Edit::SetShape {
+    let mut edits = vec![Edit::SetShape {
         part: i,
         shape,
         unit,
-    }) {
+    }];
+    let mut carried = Vec::new();
+    if let Some(p) = app.analysis.document.parts.get(i) {
+        for (from, to) in CARRY {
+            let fresh = shape.key(to).is_some() && old.key(to).is_none();
+            if let (true, Some(v)) = (fresh, p.dim(from)) {
+                if carried.iter().all(|(_, t)| t != to) {
+                    carried.push((*from, *to));
+                    edits.push(Edit::SetValue {
+                        part: i,
+                        slot: Slot::Key((*to).to_string()),
+                        entry: v.value.text(),
+                    });
+                }
+            }
+        }
+    }
+    let carried: Vec<String> = carried.iter().map(|(f, t)| format!("{f} → {t}")).collect();
+    let carried = if carried.is_empty() {
+        String::new()
+    } else {
+        format!(", {}", carried.join(", "))
+    };
+    if app.edit_all(edits) {
         app.note(format!(
-            "{old} → {shape}: place and shared sizes kept, new sizes at their defaults (u undoes)"
+            "{old} → {shape}: place and shared sizes kept{carried}, other new sizes at their defaults (u undoes)"
         ));
     }
 }
+
+/// Sizes carried over to a new shape that lacks the old key: an overall size stays the
+/// overall size (a circle's diameter becomes a rectangle's width and height, a depth a
+/// height and back). The first pair for a new key wins.
+const CARRY: &[(&str, &str)] = &[("d", "b"), ("d", "h"), ("h", "d"), ("b", "d")];
 
 /// Flips a true/false key of the selected part and says what it is now.
 pub fn toggle(app: &mut App, flag: Flag) {
@@ -124,11 +152,50 @@ pub fn cycle_anchor(app: &mut App, by: i64) {
     }
 }
 
+/// Copies the selected part below itself; a named part's copy gets the next free
+/// number (`bolt hole` → `bolt hole 2`, `web 2` → `web 3`), in one undoable edit.
 pub fn copy_part(app: &mut App) {
-    if app.edit(Edit::CopyPart { part: app.part }) {
+    let part = app.part;
+    let mut edits = vec![Edit::CopyPart { part }];
+    let names: Vec<&str> = app
+        .analysis
+        .document
+        .parts
+        .iter()
+        .filter_map(|p| p.name.as_deref())
+        .collect();
+    let named = app
+        .analysis
+        .document
+        .parts
+        .get(part)
+        .and_then(|p| p.name.clone());
+    if let Some(name) = named {
+        edits.push(Edit::SetText {
+            part: part + 1,
+            key: TextKey::Name,
+            text: copy_name(&name, &names),
+        });
+    }
+    if app.edit_all(edits) {
         app.part += 1;
         app.note("copied; the copy sits on the original until you move it");
     }
+}
+
+/// The name for a copy of `name`: its stem with the next number no part uses yet.
+pub fn copy_name(name: &str, taken: &[&str]) -> String {
+    let (stem, n) = match name.rsplit_once(' ') {
+        Some((stem, n)) if !stem.is_empty() => match n.parse::<u32>() {
+            Ok(n) => (stem, n),
+            Err(_) => (name, 1),
+        },
+        _ => (name, 1),
+    };
+    (n.saturating_add(1)..)
+        .map(|k| format!("{stem} {k}"))
+        .find(|c| !taken.contains(&c.as_str()))
+        .unwrap_or_else(|| name.to_string())
 }
 
 pub fn delete_part(app: &mut App) {

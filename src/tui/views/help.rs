@@ -26,13 +26,13 @@ fn centred(area: Rect, w: u16, h: u16) -> Rect {
 }
 
 /// Width of the keys at the left of a help line.
-const KEY_W: usize = 16;
+const KEY_W: usize = 18;
 /// The narrowest column of the help; a wider window takes more columns.
 const COL_W: u16 = 58;
 
-/// A piece of the help that stays together in one column: a group's heading with its
-/// first key, each other key, the note on steps; `gap` puts a blank line before it,
-/// unless it tops a column.
+/// A piece of the help that stays together in one column: a group's heading with all
+/// its keys (a group is never split from its heading), the note on steps; `gap` puts a
+/// blank line before it, unless it tops a column.
 struct Block {
     gap: bool,
     lines: Vec<Line<'static>>,
@@ -81,10 +81,8 @@ fn blocks(th: &Theme, width: usize) -> Vec<Block> {
     let desc_w = width.saturating_sub(KEY_W).max(10);
     let mut out: Vec<Block> = Vec::new();
     for (group, binds) in groups() {
-        let mut heading = Some(Line::styled(group, th.header));
+        let mut lines = vec![Line::styled(group, th.header)];
         for bd in binds {
-            let gap = heading.is_some() && !out.is_empty();
-            let mut lines: Vec<Line> = heading.take().into_iter().collect();
             for (i, part) in wrap(&th.text(bd.help), desc_w).into_iter().enumerate() {
                 let keys = if i == 0 {
                     keys_label(bd)
@@ -96,8 +94,9 @@ fn blocks(th: &Theme, width: usize) -> Vec<Block> {
                     Span::raw(part),
                 ]));
             }
-            out.push(Block { gap, lines });
         }
+        let gap = !out.is_empty();
+        out.push(Block { gap, lines });
     }
     let note = th.text("Steps: sizes by a share of their value, positions by a share of the section's size, rotations by 1°, 5°, 15°; set the shares in the config file.");
     out.push(Block {
@@ -288,14 +287,33 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
     let text = match &app.mode {
         Mode::AskQuit => "There are unsaved changes.\n\ns  save, then quit\ny  quit without saving\nn  go back".to_string(),
+        Mode::AskOverwrite(p) if app.path.as_deref() == Some(p.as_path()) => format!(
+            "{} has changed on disk since it was opened or last saved.\n\ny  overwrite it\nn  go back (S saves under another name)",
+            clean(&p.display().to_string())
+        ),
         Mode::AskOverwrite(p) => format!(
-            "{} has changed on disk since it was opened (or it is another file).\n\ny  overwrite it\nn  go back (S saves under another name)",
+            "{} exists; overwrite? y/n\n\ny  overwrite it\nn  go back (S saves under another name)",
             clean(&p.display().to_string())
         ),
         Mode::AskReadOnly(p) => format!(
             "{} is read-only (no one may write to it).\n\ny  replace it anyway (its mode is kept)\nn  go back (S saves under another name)",
             clean(&p.display().to_string())
         ),
+        Mode::AskBaseline => format!(
+            "Compare against the section as it is now? The changes shown against the {} are lost (B goes back to the file as opened).\n\ny  yes, make this the baseline\nn  go back",
+            app.baseline_label
+        ),
+        Mode::AskVoid(i) => match app.analysis.document.parts.get(*i) {
+            Some(p) => format!(
+                "{} is {}. Make it {}?\n\ny  {}\nn  keep it {}",
+                clean(&cell(p, *i, Col::Name, th.ascii)),
+                if p.void { "a void (subtracted)" } else { "solid" },
+                if p.void { "solid" } else { "a void (subtracted)" },
+                if p.void { "solid" } else { "void" },
+                if p.void { "a void" } else { "solid" },
+            ),
+            None => return,
+        },
         Mode::AskRecover(p) => format!(
             "Unsaved edits were kept in {} when kern last stopped.\n\ny  take them (as unsaved edits; s saves)\nn  open as saved, keep the copy",
             clean(&p.display().to_string())

@@ -49,14 +49,8 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     let inner = block.inner(drawing_area);
     block.render(drawing_area, buf);
     drawing::render(app, inner, buf);
-    let n_params = app.analysis.document.params.len() as u16;
-    let params_h = if n_params == 0 {
-        0
-    } else {
-        (n_params + 2).min(right.height / 3).max(3)
-    };
-    let [params_area, panel_area] =
-        Layout::vertical([Constraint::Length(params_h), Constraint::Min(3)]).areas(right);
+    let [params_area, panel_area] = right_panes(app, right);
+    let params_h = params_area.height;
     if params_h > 0 {
         params::render(app, params_area, buf);
     }
@@ -65,11 +59,34 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     match &app.mode {
         Mode::Help(scroll) => help::render(app, *scroll, main, buf),
         Mode::Choosing(pick) => help::picker(app, *pick, main, buf),
-        Mode::AskQuit | Mode::AskOverwrite(_) | Mode::AskReadOnly(_) | Mode::AskRecover(_) => {
-            help::question(app, main, buf)
-        }
+        Mode::AskQuit
+        | Mode::AskOverwrite(_)
+        | Mode::AskReadOnly(_)
+        | Mode::AskRecover(_)
+        | Mode::AskBaseline
+        | Mode::AskVoid(_) => help::question(app, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
+}
+
+/// The params pane and the results pane of the right column.
+fn right_panes(app: &App, right: Rect) -> [Rect; 2] {
+    let n_params = app.analysis.document.params.len() as u16;
+    let params_h = if n_params == 0 {
+        0
+    } else {
+        (n_params + 2).min(right.height / 3).max(3)
+    };
+    Layout::vertical([Constraint::Length(params_h), Constraint::Min(3)]).areas(right)
+}
+
+/// The lines of results in view at once on the screen last drawn (a page for PgDn).
+pub fn results_page(app: &App) -> u16 {
+    let [_, main, _] = rows(app.screen);
+    let [_, right] =
+        Layout::horizontal([Constraint::Percentage(58), Constraint::Percentage(42)]).areas(main);
+    let [_, panel] = right_panes(app, right);
+    panel.height.saturating_sub(2)
 }
 
 /// The screen's rows: the title line, the panes (where the windows open too) and the

@@ -96,16 +96,21 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     let total = lines.len() as u16;
     let scroll = app.results_scroll.min(total.saturating_sub(inner.height));
     Paragraph::new(lines).scroll((scroll, 0)).render(inner, buf);
-    if total > inner.height {
-        let more = th.glyph("PgDn ▾", "PgDn v");
-        let x = inner.right().saturating_sub(more.len() as u16 + 1);
-        buf.set_stringn(
-            x,
+    // The markers only where there is more to see.
+    let marks = [
+        (scroll > 0, th.glyph("PgUp ▴", "PgUp ^"), area.y),
+        (
+            scroll + inner.height < total,
+            th.glyph("PgDn ▾", "PgDn v"),
             area.bottom().saturating_sub(1),
-            more,
-            inner.width as usize,
-            th.border,
-        );
+        ),
+    ];
+    for (shown, more, y) in marks {
+        if shown {
+            let w = Line::raw(more).width() as u16;
+            let x = inner.right().saturating_sub(w + 1);
+            buf.set_stringn(x, y, more, inner.width as usize, th.border);
+        }
     }
 }
 

@@ -12,10 +12,25 @@ use ratatui::layout::Rect;
 use ratatui::text::{Line, Span};
 use ratatui::widgets::{Paragraph, Widget, Wrap};
 
-/// Lines the bottom needs at a screen width: two, plus the caution's.
+/// The caution in brief, for a screen too narrow for all of it on one line: the same
+/// three points (mechanics only, the local code governs, an engineer decides).
+const CAUTION_SHORT: &str =
+    "Caution: mechanics only. Verify against local code; a licensed engineer decides.";
+
+/// The caution for a screen width: whole if it fits one line, else in brief.
+fn caution_text(width: usize) -> &'static str {
+    if CAUTION.chars().count() <= width {
+        CAUTION
+    } else {
+        CAUTION_SHORT
+    }
+}
+
+/// Lines the bottom needs at a screen width: two, plus the caution's (one where the
+/// brief form fits, so the results keep the room).
 pub fn height(width: u16) -> u16 {
     let w = width.max(1) as usize;
-    2 + CAUTION.chars().count().div_ceil(w).min(2) as u16
+    2 + caution_text(w).chars().count().div_ceil(w).min(2) as u16
 }
 
 pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
@@ -41,7 +56,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         height: area.height - 2,
         ..area
     };
-    Paragraph::new(CAUTION)
+    Paragraph::new(caution_text(w))
         .style(th.caution)
         .wrap(Wrap { trim: true })
         .render(caution, buf);
