@@ -937,3 +937,13 @@ fn the_caution_takes_one_line_at_80_columns_and_stays() {
     assert!(last[0].contains("licensed engineer decides"), "{s}");
     assert!(!last[1].contains("Caution"), "one line: {s}");
 }
+
+/// At the smallest window (40×12) a value is shown whole with its unit or as `…`, never
+/// cut into another unit: `352.0 mm` must not show as `352.0 m`.
+#[test]
+fn the_smallest_window_never_cuts_a_unit() {
+    let a = app(&section("mezzanine-girder.toml"));
+    let s = screen(&a, 40, 12);
+    assert!(!s.contains(" m│"), "a millimetre value cut to metres:\n{s}");
+    insta::assert_snapshot!("mezzanine-girder-40x12", s);
+}

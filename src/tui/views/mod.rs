@@ -139,29 +139,41 @@ fn title_line(app: &App, area: Rect, buf: &mut Buffer) {
     );
 }
 
-/// Pads or cuts `s` to exactly `w` columns.
+/// Pads `s` to exactly `w` columns, or elides it: a name that does not fit keeps what
+/// fits and ends in `…`, so a cut never passes for the whole name.
 pub fn fit(s: &str, w: usize) -> String {
+    let width = Line::raw(s).width();
+    if width <= w {
+        return format!("{s}{}", " ".repeat(w - width));
+    }
     let mut out = String::new();
     let mut used = 0;
     for c in s.chars() {
         let cw = Line::raw(c.to_string()).width();
-        if used + cw > w {
+        if used + cw + 1 > w {
             break;
         }
         out.push(c);
         used += cw;
     }
-    if used < w {
-        out.push_str(&" ".repeat(w - used));
+    if w > 0 {
+        out.push('…');
+        used += 1;
     }
+    out.push_str(&" ".repeat(w.saturating_sub(used)));
     out
 }
 
-/// Pads `s` on the left to `w` columns (cuts it on the right if longer).
+/// Pads a value (digits and unit) on the left to `w` columns. A value is never cut —
+/// `352.0 m` would read as metres where it was millimetres — so one that does not fit
+/// shows as `…`.
 pub fn fit_right(s: &str, w: usize) -> String {
     let width = Line::raw(s).width();
-    if width >= w {
-        fit(s, w)
+    if width > w {
+        match w {
+            0 => String::new(),
+            _ => format!("{}…", " ".repeat(w - 1)),
+        }
     } else {
         format!("{}{s}", " ".repeat(w - width))
     }

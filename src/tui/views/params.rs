@@ -25,6 +25,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     let w = inner.width as usize;
     let name_w = (w / 3).clamp(3, 12);
     let val_w = 10.min(w.saturating_sub(name_w + 1));
+    // The text as written only where it has room; the name and the value always.
     let text_w = w.saturating_sub(name_w + val_w + 2);
     for (i, (name, _, v)) in doc.params.iter().enumerate().skip(top).take(rows) {
         let y = inner.y + (i - top) as u16;
@@ -34,12 +35,20 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
             .params
             .get(name)
             .map_or(String::new(), |x| format!("{} {unit}", sig(*x, 4)));
-        let line = format!(
-            "{} {} {}",
-            fit(&clean(name), name_w),
-            fit(&clean(&v.value.text()), text_w),
-            fit_right(&value, val_w)
-        );
+        let line = if text_w == 0 {
+            format!(
+                "{} {}",
+                fit(&clean(name), name_w),
+                fit_right(&value, w.saturating_sub(name_w + 1))
+            )
+        } else {
+            format!(
+                "{} {} {}",
+                fit(&clean(name), name_w),
+                fit(&clean(&v.value.text()), text_w),
+                fit_right(&value, val_w)
+            )
+        };
         let style = if i == app.param {
             let s = th.row_selected;
             if focused {
