@@ -90,12 +90,6 @@ pub struct Analysis {
 }
 
 impl Analysis {
-    /// Reads and computes a section from its file text.
-    pub fn of_text(text: &str, opts: &Options) -> Result<Analysis, Diagnostic> {
-        let document = crate::file::parse(text)?;
-        Analysis::of_document(document, opts)
-    }
-
     /// Computes a section from a document.
     pub fn of_document(document: Document, opts: &Options) -> Result<Analysis, Diagnostic> {
         let section = Resolved::resolve(&document)?;

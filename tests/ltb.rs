@@ -16,7 +16,7 @@ fn calc(body: &str) -> Analysis {
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
     };
-    match Analysis::of_text(&t, &opts) {
+    match kern::file::load::analyse(&t, &opts) {
         Ok(a) => a,
         Err(d) => panic!("{}: {}", d.message, t),
     }
@@ -25,7 +25,7 @@ fn calc(body: &str) -> Analysis {
 /// The line (1-based) of the error in the file, and its message.
 fn error(body: &str) -> (usize, String) {
     let t = text(body);
-    match Analysis::of_text(&t, &Options::default()) {
+    match kern::file::load::analyse(&t, &Options::default()) {
         Ok(_) => panic!("expected an error: {t}"),
         Err(d) => (kern::file::locate(&t, d.span.start).0, d.message),
     }
@@ -287,7 +287,7 @@ fn mcr_is_refused_for_unsymmetric_sections_separate_pieces_and_other_supports() 
 #[test]
 fn json_carries_beta_and_mcr() {
     let t = text(&girder(300.0, 250.0, STEEL, "udl = \"38 kN/m\""));
-    let a = Analysis::of_text(
+    let a = kern::file::load::analyse(
         &t,
         &Options {
             torsion: Some(TorsionOptions::default()),

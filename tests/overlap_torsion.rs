@@ -11,7 +11,7 @@ fn calc(parts: &str) -> Analysis {
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
     };
-    Analysis::of_text(&text, &opts).expect("a valid file")
+    kern::file::load::analyse(&text, &opts).expect("a valid file")
 }
 
 /// Saint-Venant torsion constant of a b × h rectangle (b ≥ h) by its series

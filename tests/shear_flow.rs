@@ -11,7 +11,7 @@ use kern::report::out::OutUnits;
 
 fn calc(body: &str) -> Analysis {
     let text = format!("format = 1\nunits = \"mm\"\n{body}");
-    match Analysis::of_text(&text, &Options::default()) {
+    match kern::file::load::analyse(&text, &Options::default()) {
         Ok(a) => a,
         Err(d) => panic!("{}: {}", d.message, text),
     }

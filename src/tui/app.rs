@@ -180,7 +180,7 @@ impl App {
         config: Config,
         solver: Solver,
     ) -> Result<App, Diagnostic> {
-        let analysis = Analysis::of_text(&text, &Options::default())?;
+        let analysis = crate::file::load::analyse(&text, &Options::default())?;
         let doc = edit::open(&text).map_err(|m| Diagnostic::new(0..1, m))?;
         let mut app = App {
             doc,
@@ -274,7 +274,7 @@ impl App {
     /// computes. `doc` is its kept document when the caller has not already edited
     /// `self.doc` into it; on refusal `self.doc` goes back to the current text.
     fn commit(&mut self, text: String, doc: Option<DocumentMut>) -> bool {
-        match Analysis::of_text(&text, &Options::default()) {
+        match crate::file::load::analyse(&text, &Options::default()) {
             Err(d) => {
                 let (l, c) = locate(&text, d.span.start);
                 self.error(format!("refused (line {l}:{c}): {}", d.message));
@@ -299,7 +299,7 @@ impl App {
     /// Goes back to an earlier (or later) text from the history.
     pub fn restore(&mut self, text: String) {
         match (
-            Analysis::of_text(&text, &Options::default()),
+            crate::file::load::analyse(&text, &Options::default()),
             edit::open(&text),
         ) {
             (Ok(a), Ok(doc)) => {
