@@ -7,7 +7,7 @@ use kern::analysis::Options;
 use kern::cli::{load, parallel_map};
 use kern::file::parse;
 use kern::geom::Piece;
-use kern::model::Resolved;
+use kern::geom::Resolved;
 use kern::props::Properties;
 use std::fmt::Write;
 use std::path::PathBuf;

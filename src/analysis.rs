@@ -4,7 +4,7 @@
 //!
 //! Units: this is where the section meets SI. Geometry, properties and torsion results
 //! stay in the file's length unit; actions, materials and the member are SI from
-//! [`crate::model::resolve`]. The member check takes each property into SI with
+//! [`crate::geom::resolve`]. The member check takes each property into SI with
 //! [`to_si`](crate::model::units::LengthUnit::to_si) and its [`Dim`]; the stresses are formed by
 //! [`StressField::new`], which takes the file unit's size in metres and gives Pa.
 
@@ -15,8 +15,9 @@ use crate::checks::shear_flow::{self, Connection};
 use crate::checks::stress::{extremes, Extremes, StressField};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{joints, Piece, Pt, Seg};
+use crate::geom::{LoadHeight, Resolved};
 use crate::model::units::Dim;
-use crate::model::{Diagnostic, Document, LoadHeight, Resolved};
+use crate::model::{Diagnostic, Document};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
 

@@ -57,7 +57,7 @@ impl Placement {
             .reduce(union_bounds)
             .unwrap_or([0.0; 4]);
         let centroid = if self.anchor == Anchor::Centroid {
-            crate::props::moments::Moments::of_contours(&placed)
+            super::moments::Moments::of_contours(&placed)
                 .centroid()
                 .unwrap_or_default()
         } else {

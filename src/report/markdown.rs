@@ -14,10 +14,10 @@ use crate::checks::ltb::Compressed;
 use crate::checks::member::Support;
 use crate::checks::shear_flow::Flow;
 use crate::checks::stress::Extremes;
+use crate::geom::resolve::DEFAULT_NU;
 use crate::geom::Shape;
-use crate::model::resolve::DEFAULT_NU;
+use crate::geom::ShearModulus;
 use crate::model::units::{display_unit, Kind};
-use crate::model::ShearModulus;
 use crate::numfmt::sig;
 
 /// The line where the HTML page puts the drawing (an HTML comment, invisible in Markdown).
