@@ -664,7 +664,7 @@ fn self_weight_without_density_is_not_silently_dropped() {
     let t = rect("[member]\nspan = \"6 m\"\nself_weight = true\n");
     match kern::file::load::analyse(&t, &Options::default()) {
         Ok(a) => assert!(
-            a.warnings.iter().any(|w| w.contains("density")),
+            a.warnings.iter().any(|w| w.to_string().contains("density")),
             "{:?}",
             a.warnings
         ),

@@ -65,7 +65,7 @@ fn tangent_coincident_and_empty_arrangements() {
         match kern::file::load::analyse(&text, &opts) {
             Ok(a) => match &a.torsion {
                 Some(Ok(t)) => assert!(t.j.is_finite() && t.j > 0.0, "{body}: J = {}", t.j),
-                Some(Err(e)) => assert!(!e.is_empty(), "{body}"),
+                Some(Err(e)) => assert!(!e.to_string().is_empty(), "{body}"),
                 None => panic!("torsion was asked for"),
             },
             Err(d) => assert!(!d.message.is_empty()),

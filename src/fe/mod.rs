@@ -54,6 +54,7 @@ pub mod solve;
 pub mod torsion;
 
 use crate::geom::{Piece, Pt};
+use crate::model::Warning;
 use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::Arc;
 use torsion::{Failure, Level};
@@ -91,7 +92,7 @@ pub struct Torsion {
     /// Elements of the finest mesh.
     pub elements: usize,
     pub method: String,
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Warning>,
 }
 
 /// What the solver may spend, decided before a mesh is refined or a matrix allocated.
@@ -143,7 +144,7 @@ impl Budget {
 
 /// Computes J, the shear centre and Cw of the region of `pieces` to the tolerance of
 /// `opts`. Errors: `"cancelled"`, or why there is nothing to mesh.
-pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, String> {
+pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warning> {
     let cancel = opts.cancel.as_deref();
     let cancelled = || cancel.is_some_and(|c| c.load(Ordering::Relaxed));
     let fail = |f: Failure| match f {
@@ -202,7 +203,7 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
                 warnings.push(format!(
                     "torsion: the estimated error {:.1e} is above the tolerance {:.1e} on the finest mesh allowed",
                     est.rel_error, tol
-                ));
+                ).into());
                 return Ok(finish(est, &mesh, warnings));
             }
         } else if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
@@ -214,7 +215,8 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
                 budget.elements,
                 budget.nodes,
                 budget.bytes >> 20
-            ));
+            )
+            .into());
         }
         let fine = mesh.refine();
         step = Some(mesh.prolongation(&fine));
@@ -226,18 +228,14 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
 /// the composite-area method's signed sum — overlapping solids, voids that overlap or
 /// stick out — since torsion and the other properties then describe different
 /// sections (FORMAT.md, Composition).
-fn region_note(pieces: &[Piece], region_area: f64) -> Option<String> {
+fn region_note(pieces: &[Piece], region_area: f64) -> Option<Warning> {
     let signed: f64 = pieces
         .iter()
         .map(|p| p.sign() * p.n * crate::props::Moments::of_contours(&p.contours).a)
         .sum();
     let diff = (region_area - signed).abs() / signed.abs().max(f64::MIN_POSITIVE);
-    (diff > 1e-4).then(|| {
-        format!(
-            "torsion uses the region itself (solids united, voids removed once), whose area \
-             differs from the signed sum of the parts by {}%",
-            crate::numfmt::sig(100.0 * diff, 2)
-        )
+    (diff > 1e-4).then(|| Warning::RegionArea {
+        percent: 100.0 * diff,
     })
 }
 
@@ -274,7 +272,7 @@ struct Estimate {
     rel_error: f64,
 }
 
-fn finish(est: Estimate, m: &mesh::Mesh, warnings: Vec<String>) -> Torsion {
+fn finish(est: Estimate, m: &mesh::Mesh, warnings: Vec<Warning>) -> Torsion {
     Torsion {
         j: est.j,
         cw: est.cw,

@@ -14,6 +14,7 @@ pub mod expr;
 pub mod loads;
 pub mod schema;
 pub mod units;
+pub mod warning;
 
 pub use anchor::Anchor;
 pub use diag::{Diagnostic, Span};
@@ -22,3 +23,4 @@ pub use document::{
 };
 pub use loads::{Actions, Support};
 pub use schema::{Dims, ShapeKind};
+pub use warning::Warning;

@@ -343,7 +343,7 @@ impl App {
         }
     }
 
-    fn take_torsion(&mut self, r: Result<crate::fe::Torsion, String>) {
+    fn take_torsion(&mut self, r: Result<crate::fe::Torsion, crate::model::Warning>) {
         if self.text == self.baseline_text && self.baseline.torsion.is_none() {
             self.baseline.set_torsion(r.clone());
         }

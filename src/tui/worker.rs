@@ -20,7 +20,7 @@ struct Job {
 /// A finished solve, for the edit numbered `generation`.
 pub struct Done {
     pub generation: u64,
-    pub result: Result<Torsion, String>,
+    pub result: Result<Torsion, crate::model::Warning>,
 }
 
 /// The handle of the background solver.
