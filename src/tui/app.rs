@@ -13,9 +13,11 @@ use crate::fe::{torsion, TorsionOptions};
 use crate::file::edit::{self, Edit};
 use crate::file::input::read_text;
 use crate::file::{locate, recover};
+use crate::geom::Pt;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use ratatui::layout::Rect;
+use std::cell::OnceCell;
 use std::path::{Path, PathBuf};
 use toml_edit::DocumentMut;
 
@@ -163,6 +165,9 @@ pub struct App {
     /// The size of the screen last drawn on (the help scrolls within it).
     pub screen: Rect,
     pub show_mesh: bool,
+    /// The sides of the drawn torsion mesh, made the first time the mesh is shown for
+    /// the current analysis (not every frame).
+    drawn_mesh: OnceCell<Vec<(Pt, Pt)>>,
     pub solver: Solver,
     /// A background solve for the current text is under way.
     pub solving: bool,
@@ -171,6 +176,9 @@ pub struct App {
     /// Quit once the pending save succeeds.
     pub quit_after_save: bool,
 }
+
+/// Most triangles of the torsion mesh drawn (finer meshes would fill the cells solid).
+const MESH_ELEMENTS: usize = 2000;
 
 impl App {
     /// A workbench on `text` (read from `path`, if any). An invalid section is an error.
@@ -206,6 +214,7 @@ impl App {
             results_scroll: 0,
             screen: Rect::new(0, 0, 80, 24),
             show_mesh: false,
+            drawn_mesh: OnceCell::new(),
             solver,
             solving: false,
             generation: 0,
@@ -312,8 +321,20 @@ impl App {
         }
     }
 
+    /// The sides of the torsion mesh's triangles, in the file's frame (for the mesh
+    /// toggle): at most [`MESH_ELEMENTS`] triangles, kept until the analysis changes.
+    pub fn mesh_lines(&self) -> &[(Pt, Pt)] {
+        self.drawn_mesh.get_or_init(|| {
+            crate::fe::mesh_outline(&self.analysis.pieces, MESH_ELEMENTS)
+                .into_iter()
+                .flat_map(|[p, q, r]| [(p, q), (q, r), (r, p)])
+                .collect()
+        })
+    }
+
     fn set_analysis(&mut self, a: Analysis) {
         self.analysis = a;
+        self.drawn_mesh = OnceCell::new();
         let n = self.analysis.document.parts.len();
         self.part = self.part.min(n.saturating_sub(1));
         self.param = self
