@@ -522,15 +522,7 @@ fn clearance(outlines: &[Outline], p: Pt) -> f64 {
     let mut d = f64::INFINITY;
     for l in outlines.iter().flat_map(|o| &o.loops) {
         for (i, &a) in l.iter().enumerate() {
-            let b = l[(i + 1) % l.len()];
-            let ab = b.sub(a);
-            let len2 = ab.x * ab.x + ab.y * ab.y;
-            let t = if len2 > 0.0 {
-                ((p.sub(a).x * ab.x + p.sub(a).y * ab.y) / len2).clamp(0.0, 1.0)
-            } else {
-                0.0
-            };
-            d = d.min(p.dist(a.add(ab.scale(t))));
+            d = d.min(p.dist_to_segment(a, l[(i + 1) % l.len()]));
         }
     }
     d

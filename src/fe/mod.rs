@@ -59,10 +59,14 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::Arc;
 use torsion::{Failure, Level};
 
+/// The target relative error of J and Cw unless asked otherwise, by `kern calc`
+/// (`--torsion-tol`) and the workbench alike (FORMAT.md, Accuracy).
+pub const DEFAULT_TOL: f64 = 1e-3;
+
 /// Options of the torsion solver.
 #[derive(Debug, Clone)]
 pub struct TorsionOptions {
-    /// Target relative error of J and Cw (default 1e-3).
+    /// Target relative error of J and Cw (default [`DEFAULT_TOL`]).
     pub tol: f64,
     /// When set to true by another thread, the solver stops with `Err("cancelled")`.
     pub cancel: Option<Arc<AtomicBool>>,
@@ -71,7 +75,7 @@ pub struct TorsionOptions {
 impl Default for TorsionOptions {
     fn default() -> Self {
         TorsionOptions {
-            tol: 1e-3,
+            tol: DEFAULT_TOL,
             cancel: None,
         }
     }

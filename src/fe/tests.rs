@@ -27,12 +27,16 @@ fn run(p: &[Piece]) -> Torsion {
 fn check_j(name: &str, t: &Torsion, exact: f64) {
     let err = (t.j - exact).abs() / exact;
     assert!(
-        err <= t.rel_error.max(1e-9) && err <= 1e-3,
+        err <= t.rel_error.max(1e-9) && err <= DEFAULT_TOL,
         "{name}: J = {} vs {exact}, error {err:.2e}, estimate {:.2e}",
         t.j,
         t.rel_error
     );
-    assert!(t.rel_error <= 1e-3, "{name}: estimate {:.2e}", t.rel_error);
+    assert!(
+        t.rel_error <= DEFAULT_TOL,
+        "{name}: estimate {:.2e}",
+        t.rel_error
+    );
 }
 
 /// Saint-Venant's series for a b × t rectangle (b ≥ t):
@@ -178,7 +182,7 @@ fn rolled_ipe300_matches_section_tables() {
         "Iw = {} cm6",
         r.cw / 1e6
     );
-    assert!(r.rel_error <= 1e-3);
+    assert!(r.rel_error <= DEFAULT_TOL);
 }
 
 #[test]

@@ -51,16 +51,7 @@ impl Shape {
     /// Distance from `p` to the nearest edge.
     fn clearance(&self, p: Pt) -> f64 {
         self.edges()
-            .map(|(a, b)| {
-                let d = b.sub(a);
-                let len2 = d.x * d.x + d.y * d.y;
-                let t = if len2 > 0.0 {
-                    ((p.sub(a).x * d.x + p.sub(a).y * d.y) / len2).clamp(0.0, 1.0)
-                } else {
-                    0.0
-                };
-                p.dist(a.add(d.scale(t)))
-            })
+            .map(|(a, b)| p.dist_to_segment(a, b))
             .fold(f64::INFINITY, f64::min)
     }
 
@@ -94,13 +85,8 @@ impl Shape {
     fn edge_at(&self, p: Pt, tol: f64) -> Option<Pt> {
         self.edges().find_map(|(a, b)| {
             let d = b.sub(a);
-            let len2 = d.x * d.x + d.y * d.y;
-            if len2 == 0.0 {
-                return None;
-            }
-            let t = (p.sub(a).x * d.x + p.sub(a).y * d.y) / len2;
-            let off = a.add(d.scale(t.clamp(0.0, 1.0))).sub(p);
-            (off.x * off.x + off.y * off.y <= tol * tol).then_some(d)
+            let off = p.nearest_on_segment(a, b).sub(p);
+            (d != Pt::default() && off.x * off.x + off.y * off.y <= tol * tol).then_some(d)
         })
     }
 }

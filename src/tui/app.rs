@@ -7,7 +7,7 @@
 use super::columns::{columns, Col};
 use super::config::Config;
 use super::theme::Theme;
-use super::worker::{Poll, Worker, TOLERANCE};
+use super::worker::{Poll, Worker};
 use crate::analysis::{Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
 use crate::file::edit::{self, Edit};
@@ -351,7 +351,7 @@ impl App {
             Solver::Off => {}
             Solver::Inline => {
                 let opts = TorsionOptions {
-                    tol: TOLERANCE,
+                    tol: crate::fe::DEFAULT_TOL,
                     cancel: None,
                 };
                 let r = torsion(&self.analysis.pieces, &opts);
