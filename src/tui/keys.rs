@@ -235,7 +235,7 @@ pub const KEYS: &[Binding] = &[
         &[ch('+'), ch('=')],
         Cmd::StepUp,
         WHATIF,
-        "step the value up (5 % of it, rounded)",
+        "step up (step, default 5 %; rounded)",
     ),
     b(
         Main,
@@ -244,14 +244,14 @@ pub const KEYS: &[Binding] = &[
         WHATIF,
         "step the value down",
     ),
-    b(Main, &[ch(']')], Cmd::FineUp, WHATIF, "fine step up (1 %)"),
+    b(Main, &[ch(']')], Cmd::FineUp, WHATIF, "fine step up (fine_step, default 1 %)"),
     b(Main, &[ch('[')], Cmd::FineDown, WHATIF, "fine step down"),
     b(
         Main,
         &[ch('}')],
         Cmd::CoarseUp,
         WHATIF,
-        "coarse step up (25 %)",
+        "coarse step up (coarse_step, default 25 %)",
     ),
     b(
         Main,
