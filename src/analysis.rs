@@ -259,7 +259,7 @@ impl Analysis {
     }
 
     /// The monosymmetry constants (βx, βy) in the file's length unit, with the
-    /// finite-element shear centre (FORMAT.md `torsion.beta`); `None` without torsion.
+    /// finite-element shear centre (docs/format.md `torsion.beta`); `None` without torsion.
     pub fn beta(&self) -> Option<(f64, f64)> {
         let t = self.torsion.as_ref()?.as_ref().ok()?;
         let p = &self.props;

@@ -23,7 +23,7 @@ enum Verb {
     Calc {
         #[arg(required = true)]
         files: Vec<PathBuf>,
-        /// One JSON object per file, one per line (FORMAT.md).
+        /// One JSON object per file, one per line (docs/format.md).
         #[arg(long)]
         json: bool,
         /// Express lengths in this unit: mm, cm, m, in or ft.

@@ -29,13 +29,8 @@
 //! every level. The values reported are the extrapolated ones; `rel_error` is the
 //! estimated error of the finest mesh, which the extrapolated value is expected to beat.
 //!
-//! Where the time goes (`benches/torsion.rs`, 2-core machine shared with other work,
-//! tolerance 1e-3): an IPE 300 with root fillets takes about 6 ms — base mesh of 123
-//! elements 0.6 ms, levels of 123 / 492 / 1,968 elements about 0.2 / 0.9 / 4 ms with
-//! 1 (direct) / 8 / 9 iterations; the 20-plate girder about 27 ms — base mesh of 570
-//! elements (graded at the four re-entrant corners) 1.4 ms, levels of 570 / 2,280 /
-//! 9,120 elements about 1.2 / 4 / 18 ms with 1 / 7 / 8 iterations. On the finest level
-//! the multigrid-preconditioned iterations and the assembly take most of it.
+//! Where the time goes is measured by `benches/torsion.rs`; the figures are in
+//! DEVELOPERS.md ("Benchmark figures").
 //!
 //! Budget: features below 1e-5 of the section, a base mesh past 20,000 added nodes or
 //! a direct factor past 2.5e7 entries / 1e10 operations are refused before anything
@@ -60,7 +55,7 @@ use std::sync::Arc;
 use torsion::{Failure, Level};
 
 /// The target relative error of J and Cw unless asked otherwise, by `kern calc`
-/// (`--torsion-tol`) and the workbench alike (FORMAT.md, Accuracy).
+/// (`--torsion-tol`) and the workbench alike (docs/format.md, Accuracy).
 pub const DEFAULT_TOL: f64 = 1e-3;
 
 /// Options of the torsion solver.
@@ -231,14 +226,14 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
 /// A note when the region (solids united, voids removed once) has another area than
 /// the composite-area method's signed sum — overlapping solids, voids that overlap or
 /// stick out — since torsion and the other properties then describe different
-/// sections (FORMAT.md, Composition).
+/// sections (docs/format.md, "How parts combine").
 fn region_note(pieces: &[Piece], region_area: f64) -> Option<Warning> {
     let signed: f64 = pieces
         .iter()
         .map(|p| p.sign() * p.n * crate::props::Moments::of_contours(&p.contours).a)
         .sum();
     let diff = (region_area - signed).abs() / signed.abs().max(f64::MIN_POSITIVE);
-    (diff > 1e-4).then(|| Warning::RegionArea {
+    (diff > 1e-4).then_some(Warning::RegionArea {
         percent: 100.0 * diff,
     })
 }

@@ -372,7 +372,7 @@ fn separate_pieces_add_their_torsion_constants_and_say_so() {
 
 #[test]
 fn says_when_the_region_differs_from_the_signed_sum() {
-    // FORMAT.md, Composition: a void half outside the plate removes area the plate
+    // docs/format.md, "How parts combine": a void half outside the plate removes area the plate
     // does not have; torsion sees the plate with a notch, and says so.
     let plate = piece(
         Shape::Rect { b: 100.0, h: 100.0 },

@@ -1,5 +1,5 @@
 //! Placing a shape in the section: flip in its own frame, put its anchor point at `at`,
-//! then rotate about `at` (FORMAT.md, "Placement").
+//! then rotate about `at` (docs/format.md, "Placement").
 
 use super::contour::{union_bounds, Contour, Pt, Turn};
 

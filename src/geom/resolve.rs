@@ -20,7 +20,7 @@ pub struct Material {
     pub e: f64,
     pub fy: Option<f64>,
     pub density: Option<f64>,
-    /// Shear modulus: as given, or `E/(2(1 + ν))` (FORMAT.md "Materials").
+    /// Shear modulus: as given, or `E/(2(1 + ν))` (docs/format.md "Materials").
     pub g: f64,
     /// Where `g` comes from.
     pub g_source: ShearModulus,
@@ -518,7 +518,7 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
     })
 }
 
-/// `G` of a material from `G` or `nu` (FORMAT.md "Materials"): G as written, else
+/// `G` of a material from `G` or `nu` (docs/format.md "Materials"): G as written, else
 /// `E/(2(1 + ν))` with the written ν in [0, 0.5) or ν = 0.3; both written must agree to a
 /// relative 1e-6.
 fn shear_modulus(

@@ -244,7 +244,13 @@ pub const KEYS: &[Binding] = &[
         WHATIF,
         "step the value down",
     ),
-    b(Main, &[ch(']')], Cmd::FineUp, WHATIF, "fine step up (fine_step, default 1 %)"),
+    b(
+        Main,
+        &[ch(']')],
+        Cmd::FineUp,
+        WHATIF,
+        "fine step up (fine_step, default 1 %)",
+    ),
     b(Main, &[ch('[')], Cmd::FineDown, WHATIF, "fine step down"),
     b(
         Main,
