@@ -23,7 +23,7 @@
 //! Method: 6-node triangles ([`p2`]) on a quality mesh of the region ([`mesh`]); the
 //! base mesh solved directly, each refinement by conjugate gradients with a multigrid
 //! V-cycle over the nested meshes as preconditioner ([`solve`]); J, the shear centre
-//! (Trefftz) and Cw on each mesh ([`torsion`]). The mesh is refined by splitting every
+//! (Trefftz) and Cw on each mesh ([`torsion`](mod@torsion)). The mesh is refined by splitting every
 //! triangle into four until the error estimated by Richardson extrapolation over the
 //! last three meshes, with the observed rate, is below the tolerance, tested after
 //! every level. The values reported are the extrapolated ones; `rel_error` is the
@@ -40,7 +40,7 @@
 //! cancel flag is checked between levels, in the direct factor and in the iterations.
 //!
 //! Layout: [`mesh`] (region, base mesh, refinement), [`p2`] (element), [`solve`]
-//! (sparse matrix and PCG), [`torsion`] (one mesh's results); this file holds the
+//! (sparse matrix and PCG), [`torsion`](mod@torsion) (one mesh's results); this file holds the
 //! public API, the refinement loop and the error estimate.
 
 pub mod mesh;

@@ -322,7 +322,7 @@ impl App {
     }
 
     /// The sides of the torsion mesh's triangles, in the file's frame (for the mesh
-    /// toggle): at most [`MESH_ELEMENTS`] triangles, kept until the analysis changes.
+    /// toggle): at most `MESH_ELEMENTS` (2000) triangles, kept until the analysis changes.
     pub fn mesh_lines(&self) -> &[(Pt, Pt)] {
         self.drawn_mesh.get_or_init(|| {
             crate::fe::mesh_outline(&self.analysis.pieces, MESH_ELEMENTS)
