@@ -5,7 +5,7 @@ use criterion::{black_box, criterion_group, criterion_main, Criterion};
 use kern::checks::shear_flow::{connections, shear_flow, Flow};
 use kern::file::parse;
 use kern::geom::joints::contacts;
-use kern::model::Resolved;
+use kern::geom::Resolved;
 use kern::props::Properties;
 use std::fmt::Write;
 

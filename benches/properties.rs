@@ -3,11 +3,11 @@
 //! `kern calc` over many files using every core. Run with `cargo bench`.
 
 use criterion::{black_box, criterion_group, criterion_main, Criterion};
-use kern::analysis::{Analysis, Options};
+use kern::analysis::Options;
 use kern::cli::{load, parallel_map};
 use kern::file::parse;
 use kern::geom::Piece;
-use kern::model::Resolved;
+use kern::geom::Resolved;
 use kern::props::Properties;
 use std::fmt::Write;
 use std::path::PathBuf;
@@ -71,7 +71,7 @@ fn big_polygon(n: usize) -> String {
 }
 
 fn pieces(text: &str) -> Vec<Piece> {
-    Analysis::of_text(text, &Options::default())
+    kern::file::load::analyse(text, &Options::default())
         .expect("valid bench section")
         .pieces
 }
@@ -86,8 +86,8 @@ fn bench_sections(c: &mut Criterion) {
     g.bench_function("20 parts: Properties::compute", |b| {
         b.iter(|| Properties::compute(black_box(&p20)))
     });
-    g.bench_function("20 parts: Analysis::of_text", |b| {
-        b.iter(|| Analysis::of_text(black_box(&b20), &opts))
+    g.bench_function("20 parts: file::load::analyse", |b| {
+        b.iter(|| kern::file::load::analyse(black_box(&b20), &opts))
     });
     let s1000 = stack(1000);
     let p1000 = pieces(&s1000);
@@ -97,8 +97,8 @@ fn bench_sections(c: &mut Criterion) {
     g.bench_function("1000 parts: overlap warnings", |b| {
         b.iter(|| kern::props::overlap::warnings(black_box(&p1000)))
     });
-    g.bench_function("1000 parts: Analysis::of_text", |b| {
-        b.iter(|| Analysis::of_text(black_box(&s1000), &opts))
+    g.bench_function("1000 parts: file::load::analyse", |b| {
+        b.iter(|| kern::file::load::analyse(black_box(&s1000), &opts))
     });
     let poly = big_polygon(100_000);
     let ppoly = pieces(&poly);
@@ -112,8 +112,8 @@ fn bench_sections(c: &mut Criterion) {
     g.bench_function("100k-vertex polygon: resolve (simplicity check)", |b| {
         b.iter(|| Resolved::resolve(black_box(&doc)))
     });
-    g.bench_function("100k-vertex polygon: Analysis::of_text", |b| {
-        b.iter(|| Analysis::of_text(black_box(&poly), &opts))
+    g.bench_function("100k-vertex polygon: file::load::analyse", |b| {
+        b.iter(|| kern::file::load::analyse(black_box(&poly), &opts))
     });
     g.finish();
 }

@@ -4,7 +4,7 @@
 //!
 //! Units: this is where the section meets SI. Geometry, properties and torsion results
 //! stay in the file's length unit; actions, materials and the member are SI from
-//! [`crate::model::resolve`]. The member check takes each property into SI with
+//! [`crate::geom::resolve`]. The member check takes each property into SI with
 //! [`to_si`](crate::model::units::LengthUnit::to_si) and its [`Dim`]; the stresses are formed by
 //! [`StressField::new`], which takes the file unit's size in metres and gives Pa.
 
@@ -15,8 +15,9 @@ use crate::checks::shear_flow::{self, Connection};
 use crate::checks::stress::{extremes, Extremes, StressField};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{joints, Piece, Pt, Seg};
+use crate::geom::{LoadHeight, Resolved};
 use crate::model::units::Dim;
-use crate::model::{Diagnostic, Document, LoadHeight, Resolved};
+use crate::model::{Diagnostic, Document, Warning};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
 
@@ -77,7 +78,7 @@ pub struct Analysis {
     pub pieces: Vec<Piece>,
     pub props: Properties,
     /// `None` when skipped; `Some(Err)` when the solve failed (the message says why).
-    pub torsion: Option<Result<Torsion, String>>,
+    pub torsion: Option<Result<Torsion, Warning>>,
     pub stress: Option<StressResult>,
     pub member: Option<MemberResult>,
     /// The kern: where an axial compressive load leaves no fibre in tension
@@ -86,16 +87,10 @@ pub struct Analysis {
     /// Joints between solid parts, in file order of the pairs, with what statics says
     /// about the flow across each.
     pub connections: Vec<Connection>,
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Warning>,
 }
 
 impl Analysis {
-    /// Reads and computes a section from its file text.
-    pub fn of_text(text: &str, opts: &Options) -> Result<Analysis, Diagnostic> {
-        let document = crate::file::parse(text)?;
-        Analysis::of_document(document, opts)
-    }
-
     /// Computes a section from a document.
     pub fn of_document(document: Document, opts: &Options) -> Result<Analysis, Diagnostic> {
         let section = Resolved::resolve(&document)?;
@@ -115,12 +110,11 @@ impl Analysis {
             .actions
             .is_some_and(|a| a.vx.is_some() || a.vy.is_some());
         let mut notes = warnings(&pieces);
-        notes.extend(shear_flow::warnings(
-            &pieces,
-            &contacts,
-            &connections,
-            shear_given,
-        ));
+        notes.extend(
+            shear_flow::warnings(&pieces, &contacts, &connections, shear_given)
+                .into_iter()
+                .map(Warning::Note),
+        );
         let mut a = Analysis {
             warnings: notes,
             connections,
@@ -135,7 +129,8 @@ impl Analysis {
         };
         a.stress = a.stresses();
         a.member = a.member_check();
-        a.warnings.extend(a.member_notes());
+        a.warnings
+            .extend(a.member_notes().into_iter().map(Warning::Note));
         if let Some(o) = &opts.torsion {
             a.set_torsion(torsion(&a.pieces, o));
         }
@@ -144,17 +139,19 @@ impl Analysis {
 
     /// Adds a torsion result solved separately (the workbench solves off the UI
     /// thread), with its warnings and the member check that depends on it.
-    pub fn set_torsion(&mut self, t: Result<Torsion, String>) {
+    pub fn set_torsion(&mut self, t: Result<Torsion, Warning>) {
         match &t {
             Ok(t) => {
                 self.warnings.extend(t.warnings.iter().cloned());
                 self.warnings.extend(self.shear_ratio_note());
             }
-            Err(e) => self.warnings.push(format!("torsion not computed: {e}")),
+            Err(e) => self.warnings.push(Warning::NoTorsion(Box::new(e.clone()))),
         }
         self.torsion = Some(t);
         self.member = self.member_check();
-        let warning = self.member.as_ref().and_then(|m| m.mcr_warning.clone());
+        let warning = (self.member.as_ref())
+            .and_then(|m| m.mcr_warning.clone())
+            .map(Warning::Note);
         if let Some(w) = warning.filter(|w| !self.warnings.contains(w)) {
             self.warnings.push(w);
         }
@@ -246,7 +243,7 @@ impl Analysis {
     /// A warning when the materials in use have shear moduli that are not in the ratio
     /// of their E: torsion weights each part by n = E/E_ref (one ν for all), so J, Cw
     /// and the shear centre are then approximate.
-    fn shear_ratio_note(&self) -> Option<String> {
+    fn shear_ratio_note(&self) -> Option<Warning> {
         let mats = &self.section.materials;
         let r = mats.first()?;
         let off = self
@@ -254,17 +251,15 @@ impl Analysis {
             .iter()
             .filter_map(|p| p.material.and_then(|i| mats.get(i)))
             .find(|m| ((m.g / r.g) - (m.e / r.e)).abs() > 1e-6 * (m.e / r.e))?;
-        Some(format!(
-            "torsion weights each part by E/E_ref, but material {} has G/G_ref = {} against \
-E/E_ref = {} (a different Poisson's ratio): J, Cw and the shear centre are approximate",
-            off.name,
-            crate::numfmt::sig(off.g / r.g, 4),
-            crate::numfmt::sig(off.e / r.e, 4)
-        ))
+        Some(Warning::ShearRatio {
+            material: off.name.clone(),
+            g_ratio: off.g / r.g,
+            e_ratio: off.e / r.e,
+        })
     }
 
     /// The monosymmetry constants (βx, βy) in the file's length unit, with the
-    /// finite-element shear centre (FORMAT.md `torsion.beta`); `None` without torsion.
+    /// finite-element shear centre (docs/format.md `torsion.beta`); `None` without torsion.
     pub fn beta(&self) -> Option<(f64, f64)> {
         let t = self.torsion.as_ref()?.as_ref().ok()?;
         let p = &self.props;

@@ -3,10 +3,8 @@
 //! section file, 1 any other failure).
 
 use crate::analysis::{Analysis, Options};
-use crate::file::input::read_text;
-use crate::file::locate;
+pub use crate::file::load::{diagnostic_line, load, say};
 use crate::model::units::LengthUnit;
-use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
 use crate::text::clean;
@@ -22,19 +20,6 @@ pub struct CalcArgs {
     pub json: bool,
     pub units: Option<LengthUnit>,
     pub options: Options,
-}
-
-/// Reads and analyses one file; the error is the line to print on stderr.
-pub fn load(path: &Path, opts: &Options) -> Result<Analysis, String> {
-    let text = read_text(path).map_err(|e| clean(&e.line(path)))?;
-    Analysis::of_text(&text, opts)
-        .map_err(|d| diagnostic_line(&path.display().to_string(), &text, &d))
-}
-
-/// `FILE:LINE:COLUMN: message`, cleaned for a terminal.
-pub fn diagnostic_line(file: &str, text: &str, d: &Diagnostic) -> String {
-    let (l, c) = locate(text, d.span.start);
-    clean(&format!("{file}:{l}:{c}: {}", d.message))
 }
 
 /// Runs `f` over `items` on every core, keeping the input order of the results. A
@@ -98,12 +83,6 @@ pub fn print_out(text: &str) -> i32 {
             1
         }
     }
-}
-
-/// Prints a line on stderr; a stderr that cannot be written to is ignored (there is
-/// nowhere left to say so).
-pub fn say(line: &str) {
-    let _ = writeln!(std::io::stderr().lock(), "{line}");
 }
 
 /// `kern calc`: prints a table (or one JSON line) per file, in input order; invalid

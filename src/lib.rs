@@ -5,6 +5,9 @@
 //! [`fe`] torsion and [`checks`] → views ([`report`], [`tui`]).
 //!
 //! The core (`model`, `geom`, `props`, `fe`, `checks`) does no terminal or file I/O.
+//! Each module names only modules below it (DEVELOPERS.md, "Layers"; kept by
+//! `tests/layers.rs`): model < geom < props < fe < checks < analysis < file < numfmt
+//! < report < tui, cli, with `text` a leaf for all.
 
 pub mod analysis;
 pub mod checks;

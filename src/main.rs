@@ -33,7 +33,7 @@ enum Verb {
         #[arg(long)]
         no_torsion: bool,
         /// Target relative error of the torsion results.
-        #[arg(long, default_value_t = 1e-3)]
+        #[arg(long, default_value_t = kern::fe::DEFAULT_TOL)]
         torsion_tol: f64,
     },
     /// Write a calculation sheet for one section file (Markdown, or HTML with --html).
@@ -73,13 +73,10 @@ fn parse_unit(s: &str) -> Result<LengthUnit, String> {
     LengthUnit::parse(s).ok_or_else(|| format!("unknown unit `{s}`; use mm, cm, m, in or ft"))
 }
 
-/// Analysis options: torsion to the default relative error of 1e-3 unless skipped.
+/// Analysis options: torsion to the default relative error unless skipped.
 fn torsion_options(no_torsion: bool) -> Options {
     Options {
-        torsion: (!no_torsion).then(|| TorsionOptions {
-            tol: 1e-3,
-            ..TorsionOptions::default()
-        }),
+        torsion: (!no_torsion).then(TorsionOptions::default),
     }
 }
 

@@ -8,7 +8,7 @@ use std::f64::consts::PI;
 
 fn calc(body: &str) -> Analysis {
     let text = format!("format = 1\nunits = \"mm\"\n{body}");
-    match Analysis::of_text(&text, &Options::default()) {
+    match kern::file::load::analyse(&text, &Options::default()) {
         Ok(a) => a,
         Err(d) => panic!("{}: {}", d.message, text),
     }
@@ -354,7 +354,7 @@ fn unequal_angle_principal_axes_match_the_table() {
     // rounded toes that kern's `angle` omits, hence a tolerance near 1.5%.
     let text =
         "format = 1\nunits = \"in\"\n[[parts]]\nshape = \"angle\"\nh = 6\nb = 4\nt = 0.5\nr = 0.5";
-    let a = Analysis::of_text(text, &Options::default()).unwrap();
+    let a = kern::file::load::analyse(text, &Options::default()).unwrap();
     let p = &a.props;
     close(p.ixx, 17.4, 1e-2);
     close(p.iyy, 6.27, 1e-2);
@@ -376,7 +376,7 @@ fn torsion_of(body: &str) -> kern::fe::Torsion {
     let opts = Options {
         torsion: Some(kern::fe::TorsionOptions::default()),
     };
-    match Analysis::of_text(&text, &opts).map(|a| a.torsion) {
+    match kern::file::load::analyse(&text, &opts).map(|a| a.torsion) {
         Ok(Some(Ok(t))) => t,
         other => panic!("no torsion: {other:?}"),
     }

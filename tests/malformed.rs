@@ -2,7 +2,7 @@
 //! what is wrong and how to fix it, at a sane `line:column` (FORMAT.md: "Unknown keys
 //! are an error (with line and column)", "Nothing panics, whatever the input").
 
-use kern::analysis::{Analysis, Options};
+use kern::analysis::Options;
 use kern::file::locate;
 use kern::model::schema::SPECS;
 use proptest::prelude::*;
@@ -11,7 +11,7 @@ const HEAD: &str = "format = 1\nunits = \"mm\"\n";
 
 /// The error of a text as `(line, column, message)`; fails the test if it is accepted.
 fn err(text: &str) -> (usize, usize, String) {
-    match Analysis::of_text(text, &Options::default()) {
+    match kern::file::load::analyse(text, &Options::default()) {
         Ok(_) => panic!("accepted:\n{text}"),
         Err(d) => {
             let (l, c) = locate(text, d.span.start);
@@ -291,7 +291,7 @@ fn sizes_must_be_positive() {
         Some(5),
         &["`r`", "negative"],
     );
-    assert!(Analysis::of_text(
+    assert!(kern::file::load::analyse(
         &with("[[parts]]\nshape = \"ibeam\"\nd = 300\nb = 150\ntf = 10\ntw = 6\nr = 0\n"),
         &Options::default()
     )
@@ -352,7 +352,7 @@ fn any_apex_is_a_triangle() {
         let t = with(&format!(
             "[[parts]]\nshape = \"triangle\"\nb = 100\nh = 60\napex = {apex}\n"
         ));
-        let a = Analysis::of_text(&t, &Options::default()).expect("valid triangle");
+        let a = kern::file::load::analyse(&t, &Options::default()).expect("valid triangle");
         assert!(
             (a.props.area - 3000.0).abs() <= 1e-9 * 3000.0,
             "apex {apex}"
@@ -628,7 +628,7 @@ fn extreme_magnitudes_say_what_is_wrong() {
         assert!(!m.contains("voids remove"), "{body}: {m}");
     }
     // Large but representable sections are fine.
-    let a = Analysis::of_text(
+    let a = kern::file::load::analyse(
         &with("[[parts]]\nshape = \"rect\"\nb = 1e60\nh = 1e60\n"),
         &Options::default(),
     )
@@ -662,9 +662,9 @@ fn member_loads() {
 #[test]
 fn self_weight_without_density_is_not_silently_dropped() {
     let t = rect("[member]\nspan = \"6 m\"\nself_weight = true\n");
-    match Analysis::of_text(&t, &Options::default()) {
+    match kern::file::load::analyse(&t, &Options::default()) {
         Ok(a) => assert!(
-            a.warnings.iter().any(|w| w.contains("density")),
+            a.warnings.iter().any(|w| w.to_string().contains("density")),
             "{:?}",
             a.warnings
         ),
@@ -682,7 +682,7 @@ fn many_parts_do_not_panic() {
             2 * i
         ));
     }
-    let a = Analysis::of_text(&t, &Options::default()).expect("valid");
+    let a = kern::file::load::analyse(&t, &Options::default()).expect("valid");
     assert!((a.props.area - 400_000.0).abs() < 1e-6);
     assert!(
         a.warnings.is_empty(),
@@ -694,7 +694,7 @@ fn many_parts_do_not_panic() {
     for _ in 0..60 {
         t.push_str("[[parts]]\nshape = \"circle\"\nd = 10\n");
     }
-    let a = Analysis::of_text(&t, &Options::default()).expect("valid");
+    let a = kern::file::load::analyse(&t, &Options::default()).expect("valid");
     assert!(!a.warnings.is_empty());
 }
 
@@ -719,7 +719,7 @@ fn control_characters_and_line_endings() {
 
 /// Accepts or refuses a text; an accepted one has finite core results and serialises.
 fn survives(text: &str) {
-    match Analysis::of_text(text, &Options::default()) {
+    match kern::file::load::analyse(text, &Options::default()) {
         Err(d) => {
             assert!(d.span.start <= text.len() && !d.message.is_empty());
             let _ = locate(text, d.span.start);

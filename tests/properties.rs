@@ -9,7 +9,7 @@ use proptest::prelude::*;
 const HEAD: &str = "format = 1\nunits = \"mm\"\n";
 
 fn analyse(text: &str) -> Analysis {
-    match Analysis::of_text(text, &Options::default()) {
+    match kern::file::load::analyse(text, &Options::default()) {
         Ok(a) => a,
         Err(d) => panic!("{}\n{text}", d.message),
     }
@@ -257,7 +257,7 @@ proptest! {
         prop_assume!(ga > 1e-6);
         let list: Vec<String> = pts.iter().map(|(x, y)| format!("[{x}, {y}]")).collect();
         let text = format!("{HEAD}[[parts]]\nshape = \"polygon\"\npoints = [{}]\n", list.join(", "));
-        let Ok(a) = Analysis::of_text(&text, &Options::default()) else {
+        let Ok(a) = kern::file::load::analyse(&text, &Options::default()) else {
             // Points from nearly equal angles can make a sliver that kern refuses as
             // crossing; geo does not check simplicity, so there is nothing to compare.
             return Ok(());

@@ -17,7 +17,7 @@ const FILES: [&str; 2] = [
 fn analyse(file: &str) -> Analysis {
     let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(file);
     let text = std::fs::read_to_string(&path).expect("fixture readable");
-    Analysis::of_text(&text, &Options::default()).expect("fixture valid")
+    kern::file::load::analyse(&text, &Options::default()).expect("fixture valid")
 }
 
 fn units(a: &Analysis) -> OutUnits {

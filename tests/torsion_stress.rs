@@ -1,7 +1,7 @@
 //! Torsion on awkward arrangements of parts — overlaps, touching edges, voids across
 //! edges, tiny and huge parts — must give a result or a clear error, never a panic.
 
-use kern::analysis::{Analysis, Options};
+use kern::analysis::Options;
 use kern::fe::TorsionOptions;
 use proptest::prelude::*;
 
@@ -31,7 +31,7 @@ proptest! {
     fn torsion_never_panics(parts in proptest::collection::vec(part(), 1..5)) {
         let text = format!("format = 1\nunits = \"mm\"\n{}", parts.concat());
         let opts = Options { torsion: Some(TorsionOptions::default()) };
-        if let Ok(a) = Analysis::of_text(&text, &opts) {
+        if let Ok(a) = kern::file::load::analyse(&text, &opts) {
             if let Some(Ok(t)) = &a.torsion {
                 prop_assert!(t.j.is_finite() && t.j >= 0.0, "J = {}", t.j);
                 prop_assert!(t.cw.is_finite(), "Cw = {}", t.cw);
@@ -62,10 +62,10 @@ fn tangent_coincident_and_empty_arrangements() {
     };
     for body in cases {
         let text = format!("format = 1\nunits = \"mm\"\n{body}");
-        match Analysis::of_text(&text, &opts) {
+        match kern::file::load::analyse(&text, &opts) {
             Ok(a) => match &a.torsion {
                 Some(Ok(t)) => assert!(t.j.is_finite() && t.j > 0.0, "{body}: J = {}", t.j),
-                Some(Err(e)) => assert!(!e.is_empty(), "{body}"),
+                Some(Err(e)) => assert!(!e.to_string().is_empty(), "{body}"),
                 None => panic!("torsion was asked for"),
             },
             Err(d) => assert!(!d.message.is_empty()),

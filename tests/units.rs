@@ -30,7 +30,7 @@ fn per_mm(unit: &str) -> &'static str {
 const UNITS: [&str; 4] = ["mm", "cm", "m", "in"];
 
 fn calc(text: &str, opts: &Options) -> Analysis {
-    match Analysis::of_text(text, opts) {
+    match kern::file::load::analyse(text, opts) {
         Ok(a) => a,
         Err(d) => panic!("{}: {}", d.message, text),
     }

@@ -1,7 +1,7 @@
 //! The US-customary demo (a garage lintel of two angles, lengths in inches, loads in
 //! kip/ft) checked against a hand calculation, end to end through the file format.
 
-use kern::analysis::{Analysis, Options};
+use kern::analysis::Options;
 use kern::report::out::OutUnits;
 use std::f64::consts::PI;
 
@@ -17,7 +17,7 @@ fn close(got: f64, want: f64, rel: f64) {
 #[test]
 fn garage_lintel_by_hand() {
     let text = std::fs::read_to_string("sections/garage-lintel.toml").unwrap();
-    let a = Analysis::of_text(&text, &Options::default()).unwrap();
+    let a = kern::file::load::analyse(&text, &Options::default()).unwrap();
     let u = OutUnits::new(a.section.units, None);
     // One angle 6 × 3.5 × 5/16 with a 3/8 root fillet: the two legs less their shared
     // square, plus the fillet's spandrel (1 − π/4)r² (Gere & Goodno, App. E cases 1 and

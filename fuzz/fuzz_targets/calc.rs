@@ -17,7 +17,7 @@ fuzz_target!(|data: &[u8]| {
                 cancel: None,
             }),
         };
-        if let Err(d) = Analysis::of_text(text, &opts) {
+        if let Err(d) = kern::file::load::analyse(text, &opts) {
             let _ = kern::file::locate(text, d.span.start);
         }
     }

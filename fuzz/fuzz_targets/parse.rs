@@ -7,7 +7,7 @@ use libfuzzer_sys::fuzz_target;
 
 fuzz_target!(|data: &[u8]| {
     if let Ok(text) = std::str::from_utf8(data) {
-        if let Err(d) = Analysis::of_text(text, &Options::default()) {
+        if let Err(d) = kern::file::load::analyse(text, &Options::default()) {
             let _ = kern::file::locate(text, d.span.start);
         }
     }

@@ -263,7 +263,7 @@ mod tests {
             gaps.push(((bx - hand) / hand).abs());
             assert!(by.abs() < 1e-9 * h);
             // Kitipornchai & Trahair's approximation βx ≈ 0.9·h·(2ρ − 1)·(1 − (Iy/Ix)²),
-            // ρ = Iyc/Iy with the top flange in compression; FORMAT.md's sign is the
+            // ρ = Iyc/Iy with the top flange in compression; docs/format.md's sign is the
             // opposite (negative with the larger flange on +y). An approximation that
             // leaves out most of the web's share: with this web (1.3 times the flanges'
             // area) it is within 25 % of the exact value.

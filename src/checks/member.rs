@@ -17,18 +17,7 @@
 //! Strain, Table 8.1; AISC Steel Construction Manual, beam diagrams and formulas), without
 //! a table of cases to copy.
 
-/// End conditions of the span.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Support {
-    /// Pinned at x = 0, on a roller at x = L.
-    Simple,
-    /// Fixed at x = 0, free at x = L.
-    Cantilever,
-    /// Fixed at both ends.
-    Fixed,
-    /// Propped cantilever: fixed at x = 0, simply supported at x = L.
-    Propped,
-}
+pub use crate::model::loads::Support;
 
 /// A point load `p` (positive downward) at `a` from x = 0 (for a cantilever, from the fixed end).
 #[derive(Debug, Clone, Copy, PartialEq)]

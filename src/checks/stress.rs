@@ -24,21 +24,7 @@ pub(crate) fn det(sec: &Centroidal) -> f64 {
     sec.ixx * sec.iyy - sec.ixy * sec.ixy
 }
 
-/// Internal forces on the section in SI, `n` in N, `mx` and `my` in N·m (the file's
-/// `[actions]`): `n` tension positive; positive `mx` compresses the fibres on the +y side;
-/// positive `my` compresses the fibres on the +x side.
-#[derive(Debug, Clone, Copy, Default, PartialEq)]
-pub struct Actions {
-    pub n: f64,
-    pub mx: f64,
-    pub my: f64,
-    /// Shear forces along +x and +y, N, when given.
-    pub vx: Option<f64>,
-    pub vy: Option<f64>,
-    /// Torque about the member axis through the shear centre, N·m, counter-clockwise
-    /// seen from +z, when given.
-    pub t: Option<f64>,
-}
+pub use crate::model::loads::Actions;
 
 /// A linear normal-stress field `σ(x, y) = σ0 + a·(x − cx) + b·(y − cy)`: σ in Pa, `a` and
 /// `b` in Pa per length unit of the section, `cx`, `cy` in that unit.

@@ -23,6 +23,7 @@
 use super::p2::shape;
 use super::solve::Prolong;
 use crate::geom::{Piece, Pt, Seg};
+use crate::model::Warning;
 use spade::{
     AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters, Triangulation,
 };
@@ -90,7 +91,7 @@ pub struct Mesh {
 /// The base mesh and the warnings its region deserves.
 pub struct Base {
     pub mesh: Mesh,
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Warning>,
     /// Relative error in J and Cw from simplifying long straight-edged outlines.
     pub geometry_error: f64,
 }
@@ -135,7 +136,7 @@ type Cdt = ConstrainedDelaunayTriangulation<Point2<f64>>;
 
 /// Builds the base mesh of the region of `pieces`. `size` scales the largest element
 /// area allowed (1 for the default).
-pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
+pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
     let bounds = crate::geom::solid_bounds(pieces)
         .ok_or("there is no enabled solid part to mesh for torsion")?;
     if !bounds.iter().all(|v| v.is_finite()) {
@@ -261,15 +262,12 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
         })
         .fold(f64::INFINITY, f64::min);
     if feature < FEATURE_FLOOR * span {
-        return Err(format!(
-            "features {} times smaller than the section (a wall, gap or tip {} wide, the \
-             section {} across); the torsion mesh takes features down to {:.0e} of the \
-             section's size: check the dimensions, or leave the thin part out",
-            ratio(span / feature),
-            crate::numfmt::sig(feature, 2),
-            crate::numfmt::sig(span, 3),
-            FEATURE_FLOOR
-        ));
+        return Err(Warning::TinyFeature {
+            ratio: span / feature,
+            feature,
+            span,
+            floor: FEATURE_FLOOR,
+        });
     }
     grade_corners(&mut cdt, &outlines, &chords, eps, &mut snap)?;
     let before_refine = cdt.num_vertices();
@@ -282,16 +280,13 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
         .with_max_additional_vertices(BASE_VERTICES);
     let refined = cdt.refine(params);
     if !refined.refinement_complete && cdt.num_vertices() >= before_refine + BASE_VERTICES {
-        return Err(format!(
-            "the base mesh would need more than {} nodes ({} corners and graded points on \
-             the outlines, the thinnest feature 1/{} of the section's {}); the torsion \
-             solver's budget is {} added nodes: simplify the section (fewer holes or parts)",
-            before_refine + BASE_VERTICES,
-            before_refine,
-            ratio(span / feature),
-            crate::numfmt::sig(span, 3),
-            BASE_VERTICES
-        ));
+        return Err(Warning::MeshBudget {
+            nodes: before_refine + BASE_VERTICES,
+            corners: before_refine,
+            ratio: span / feature,
+            span,
+            budget: BASE_VERTICES,
+        });
     }
     let tris = region_triangles(&cdt, &outlines);
     let mut warnings = Vec::new();
@@ -309,22 +304,19 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, String> {
             })
             .sum();
         geometry_error = 2.0 * tol * perimeter / area;
-        warnings.push(format!(
-            "torsion meshed the straight-edged outlines with {} of their {} corners (the rest lie within {} of them); the error estimate includes this",
-            simplified.1,
-            simplified.0,
-            crate::numfmt::sig(tol, 2)
-        ));
+        warnings.push(Warning::MeshSimplified {
+            kept: simplified.1,
+            corners: simplified.0,
+            tol,
+        });
     }
     let mut pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
     snap_to_arcs(&cdt, &mut pos, before_refine, &chords, &arcs, eps);
     let mesh = build(&pos, &tris, origin, arcs, &arc_sweeps, eps);
     if mesh.pinned.len() > 1 {
-        warnings.push(format!(
-            "the section is in {} separate pieces: torsion takes them as twisting together \
-             but unconnected (J is the sum of theirs); battens or lacing would make it stiffer",
-            mesh.pinned.len()
-        ));
+        warnings.push(Warning::SeparatePieces {
+            count: mesh.pinned.len(),
+        });
     }
     Ok(Base {
         mesh,
@@ -525,25 +517,12 @@ fn union_outline(cdt: &Cdt, outlines: &[Outline]) -> (Vec<(Pt, Pt)>, bool) {
     (edges, interfaces)
 }
 
-/// A ratio rounded to a power of ten for a message: `1e5`.
-fn ratio(r: f64) -> String {
-    format!("{:.0e}", r)
-}
-
 /// Distance from `p` to the nearest boundary edge of any piece.
 fn clearance(outlines: &[Outline], p: Pt) -> f64 {
     let mut d = f64::INFINITY;
     for l in outlines.iter().flat_map(|o| &o.loops) {
         for (i, &a) in l.iter().enumerate() {
-            let b = l[(i + 1) % l.len()];
-            let ab = b.sub(a);
-            let len2 = ab.x * ab.x + ab.y * ab.y;
-            let t = if len2 > 0.0 {
-                ((p.sub(a).x * ab.x + p.sub(a).y * ab.y) / len2).clamp(0.0, 1.0)
-            } else {
-                0.0
-            };
-            d = d.min(p.dist(a.add(ab.scale(t))));
+            d = d.min(p.dist_to_segment(a, l[(i + 1) % l.len()]));
         }
     }
     d

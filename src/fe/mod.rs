@@ -23,19 +23,14 @@
 //! Method: 6-node triangles ([`p2`]) on a quality mesh of the region ([`mesh`]); the
 //! base mesh solved directly, each refinement by conjugate gradients with a multigrid
 //! V-cycle over the nested meshes as preconditioner ([`solve`]); J, the shear centre
-//! (Trefftz) and Cw on each mesh ([`torsion`]). The mesh is refined by splitting every
+//! (Trefftz) and Cw on each mesh ([`torsion`](mod@torsion)). The mesh is refined by splitting every
 //! triangle into four until the error estimated by Richardson extrapolation over the
 //! last three meshes, with the observed rate, is below the tolerance, tested after
 //! every level. The values reported are the extrapolated ones; `rel_error` is the
 //! estimated error of the finest mesh, which the extrapolated value is expected to beat.
 //!
-//! Where the time goes (`benches/torsion.rs`, 2-core machine shared with other work,
-//! tolerance 1e-3): an IPE 300 with root fillets takes about 6 ms — base mesh of 123
-//! elements 0.6 ms, levels of 123 / 492 / 1,968 elements about 0.2 / 0.9 / 4 ms with
-//! 1 (direct) / 8 / 9 iterations; the 20-plate girder about 27 ms — base mesh of 570
-//! elements (graded at the four re-entrant corners) 1.4 ms, levels of 570 / 2,280 /
-//! 9,120 elements about 1.2 / 4 / 18 ms with 1 / 7 / 8 iterations. On the finest level
-//! the multigrid-preconditioned iterations and the assembly take most of it.
+//! Where the time goes is measured by `benches/torsion.rs`; the figures are in
+//! DEVELOPERS.md ("Benchmark figures").
 //!
 //! Budget: features below 1e-5 of the section, a base mesh past 20,000 added nodes or
 //! a direct factor past 2.5e7 entries / 1e10 operations are refused before anything
@@ -45,7 +40,7 @@
 //! cancel flag is checked between levels, in the direct factor and in the iterations.
 //!
 //! Layout: [`mesh`] (region, base mesh, refinement), [`p2`] (element), [`solve`]
-//! (sparse matrix and PCG), [`torsion`] (one mesh's results); this file holds the
+//! (sparse matrix and PCG), [`torsion`](mod@torsion) (one mesh's results); this file holds the
 //! public API, the refinement loop and the error estimate.
 
 pub mod mesh;
@@ -54,14 +49,19 @@ pub mod solve;
 pub mod torsion;
 
 use crate::geom::{Piece, Pt};
+use crate::model::Warning;
 use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::Arc;
 use torsion::{Failure, Level};
 
+/// The target relative error of J and Cw unless asked otherwise, by `kern calc`
+/// (`--torsion-tol`) and the workbench alike (docs/format.md, Accuracy).
+pub const DEFAULT_TOL: f64 = 1e-3;
+
 /// Options of the torsion solver.
 #[derive(Debug, Clone)]
 pub struct TorsionOptions {
-    /// Target relative error of J and Cw (default 1e-3).
+    /// Target relative error of J and Cw (default [`DEFAULT_TOL`]).
     pub tol: f64,
     /// When set to true by another thread, the solver stops with `Err("cancelled")`.
     pub cancel: Option<Arc<AtomicBool>>,
@@ -70,7 +70,7 @@ pub struct TorsionOptions {
 impl Default for TorsionOptions {
     fn default() -> Self {
         TorsionOptions {
-            tol: 1e-3,
+            tol: DEFAULT_TOL,
             cancel: None,
         }
     }
@@ -91,7 +91,7 @@ pub struct Torsion {
     /// Elements of the finest mesh.
     pub elements: usize,
     pub method: String,
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Warning>,
 }
 
 /// What the solver may spend, decided before a mesh is refined or a matrix allocated.
@@ -143,7 +143,7 @@ impl Budget {
 
 /// Computes J, the shear centre and Cw of the region of `pieces` to the tolerance of
 /// `opts`. Errors: `"cancelled"`, or why there is nothing to mesh.
-pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, String> {
+pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warning> {
     let cancel = opts.cancel.as_deref();
     let cancelled = || cancel.is_some_and(|c| c.load(Ordering::Relaxed));
     let fail = |f: Failure| match f {
@@ -202,7 +202,7 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
                 warnings.push(format!(
                     "torsion: the estimated error {:.1e} is above the tolerance {:.1e} on the finest mesh allowed",
                     est.rel_error, tol
-                ));
+                ).into());
                 return Ok(finish(est, &mesh, warnings));
             }
         } else if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
@@ -214,7 +214,8 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
                 budget.elements,
                 budget.nodes,
                 budget.bytes >> 20
-            ));
+            )
+            .into());
         }
         let fine = mesh.refine();
         step = Some(mesh.prolongation(&fine));
@@ -225,19 +226,15 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Strin
 /// A note when the region (solids united, voids removed once) has another area than
 /// the composite-area method's signed sum — overlapping solids, voids that overlap or
 /// stick out — since torsion and the other properties then describe different
-/// sections (FORMAT.md, Composition).
-fn region_note(pieces: &[Piece], region_area: f64) -> Option<String> {
+/// sections (docs/format.md, "How parts combine").
+fn region_note(pieces: &[Piece], region_area: f64) -> Option<Warning> {
     let signed: f64 = pieces
         .iter()
         .map(|p| p.sign() * p.n * crate::props::Moments::of_contours(&p.contours).a)
         .sum();
     let diff = (region_area - signed).abs() / signed.abs().max(f64::MIN_POSITIVE);
-    (diff > 1e-4).then(|| {
-        format!(
-            "torsion uses the region itself (solids united, voids removed once), whose area \
-             differs from the signed sum of the parts by {}%",
-            crate::numfmt::sig(100.0 * diff, 2)
-        )
+    (diff > 1e-4).then_some(Warning::RegionArea {
+        percent: 100.0 * diff,
     })
 }
 
@@ -274,7 +271,7 @@ struct Estimate {
     rel_error: f64,
 }
 
-fn finish(est: Estimate, m: &mesh::Mesh, warnings: Vec<String>) -> Torsion {
+fn finish(est: Estimate, m: &mesh::Mesh, warnings: Vec<Warning>) -> Torsion {
     Torsion {
         j: est.j,
         cw: est.cw,

@@ -1,6 +1,7 @@
 //! Saint-Venant torsion on one mesh: the warping function, J, the shear centre and the
-//! warping constant (METHODS.md, "Saint-Venant torsion by the warping function",
-//! "Shear centre (Trefftz) and warping constant").
+//! warping constant: Saint-Venant torsion by the warping function, the shear centre
+//! after Trefftz and the warping constant about it (Pilkey, Analysis and Design of
+//! Elastic Beams, Wiley 2002, ch. 6; cited from memory).
 //!
 //! Coordinates are about the centroid of the mesh itself, and the second moments in the
 //! formulas are those of the mesh, from the same quadrature, so that J, the shear

@@ -4,7 +4,7 @@
 //! is a one-line diff).
 //!
 //! The edits do not check that the result is a valid section; the caller re-reads
-//! the text (`Analysis::of_text`) and refuses an edit that does not compute.
+//! the text (`file::load::analyse`) and refuses an edit that does not compute.
 //! What lives elsewhere: reading with spans is [`super::read`], saving is [`super::save`].
 
 use crate::model::schema::{is_shape_key, ShapeKind};

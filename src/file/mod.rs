@@ -1,12 +1,14 @@
 //! Section files on disk and in text: reading TOML into a [`crate::model::Document`]
 //! with the place of every value ([`read`]), turning byte offsets into line and
 //! column ([`locate`]), editing text in place keeping its layout ([`edit`]), reading a
-//! file's text within bounds ([`input`]), saving atomically and securely ([`save`]) and
+//! file's text within bounds ([`input`]), from a file to its analysis and the line
+//! an error prints as ([`load`]), saving atomically and securely ([`save`]) and
 //! the recovery copy of unsaved edits ([`recover`]).
 
 pub mod edit;
 pub mod fast_points;
 pub mod input;
+pub mod load;
 pub mod read;
 pub mod recover;
 pub mod save;

@@ -1,4 +1,4 @@
-//! Reading a section file (FORMAT.md, format 1) into a [`Document`], keeping the byte
+//! Reading a section file (docs/format.md, format 1) into a [`Document`], keeping the byte
 //! range of every value so that each error can say `line:column`. Unknown keys are
 //! errors, so a typo never silently changes a result.
 

@@ -244,16 +244,7 @@ fn touch_at_point(p: &Piece, q: &Piece, tol: f64) -> bool {
 /// Distance from a point to a segment.
 fn distance(v: Pt, s: &Seg) -> f64 {
     match *s {
-        Seg::Line(a, b) => {
-            let d = b.sub(a);
-            let l2 = dot(d, d);
-            let t = if l2 > 0.0 {
-                (dot(v.sub(a), d) / l2).clamp(0.0, 1.0)
-            } else {
-                0.0
-            };
-            v.dist(a.add(d.scale(t)))
-        }
+        Seg::Line(a, b) => v.dist_to_segment(a, b),
         Seg::Arc { c, r, a0, a1 } => {
             let ang = (v.y - c.y).atan2(v.x - c.x);
             let (lo, hi) = (a0.min(a1), a0.max(a1));

@@ -3,17 +3,22 @@
 //! A [`Contour`] is a closed loop; counter-clockwise loops enclose material, clockwise
 //! loops are holes (the inside of a pipe or a box). Arcs are kept exact — nothing here
 //! approximates a curve by facets except [`Contour::facets`], which the mesher and the
-//! drawing use. What lives elsewhere: the area integrals over these boundaries are in
-//! [`crate::props::moments`]; placing a part (anchor, flip, rotate) is in [`place`].
+//! drawing use. The area integrals over these boundaries are in [`moments`] (with
+//! [`trig`]); placing a part (anchor, flip, rotate) is in [`place`]; a document
+//! evaluated into numbers and its parts placed ([`Resolved`]) is in [`resolve`].
 
 pub mod contour;
 pub mod joints;
+pub mod moments;
 pub mod place;
 pub mod region;
+pub mod resolve;
 pub mod shapes;
 pub mod simple;
+pub mod trig;
 
 pub use contour::{Contour, Pt, Seg, Turn};
 pub use place::{Anchor, Placement};
 pub use region::{solid_bounds, Piece};
+pub use resolve::{LoadHeight, Material, Member, Part, Resolved, ShearModulus};
 pub use shapes::Shape;

@@ -1,5 +1,5 @@
 //! Placing a shape in the section: flip in its own frame, put its anchor point at `at`,
-//! then rotate about `at` (FORMAT.md, "Placement").
+//! then rotate about `at` (docs/format.md, "Placement").
 
 use super::contour::{union_bounds, Contour, Pt, Turn};
 
@@ -57,7 +57,7 @@ impl Placement {
             .reduce(union_bounds)
             .unwrap_or([0.0; 4]);
         let centroid = if self.anchor == Anchor::Centroid {
-            crate::props::moments::Moments::of_contours(&placed)
+            super::moments::Moments::of_contours(&placed)
                 .centroid()
                 .unwrap_or_default()
         } else {

@@ -1,5 +1,5 @@
-//! The shapes of format 1, each drawn in its own frame (FORMAT.md, "Shapes and their
-//! own frame") as exact boundaries: straight edges and circular arcs, no facets.
+//! The shapes of format 1, each drawn in its own frame (docs/format.md, "Shapes") as
+//! exact boundaries: straight edges and circular arcs, no facets.
 //!
 //! Outlines run counter-clockwise; the bore of a pipe and the inside of a box run
 //! clockwise, so that summing over a shape's contours gives its net properties.

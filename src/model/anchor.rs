@@ -1,4 +1,4 @@
-//! The anchor of a part: which point of its shape is put at `at` (FORMAT.md,
+//! The anchor of a part: which point of its shape is put at `at` (docs/format.md,
 //! "Placement"). The names are file vocabulary; where each point lies on a placed
 //! shape is worked out in [`crate::geom::place`].
 

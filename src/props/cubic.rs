@@ -15,13 +15,13 @@
 //!
 //! (Steger, "On the calculation of arbitrary moments of polygons", 1996, gives the
 //! general polygon sum.) On an arc the integrand is a trigonometric polynomial of degree
-//! 4 in the arc angle, integrated exactly by [`super::trig`]. The moments are about the
+//! 4 in the arc angle, integrated exactly by [`crate::geom::trig`]. The moments are about the
 //! origin and add part by part with sign (void −1) and modular ratio, like
 //! [`super::Moments`]; [`Cubic::central`] carries them to the centroid by the binomial
 //! expansion of `(x − x̄)ⁱ(y − ȳ)ʲ`.
 
-use super::moments::Moments;
-use super::trig::TrigPoly;
+use crate::geom::moments::Moments;
+use crate::geom::trig::TrigPoly;
 use crate::geom::{Contour, Seg};
 
 /// Third area moments: `xxx = ∫x³ dA`, `xxy = ∫x²y dA`, `xyy = ∫xy² dA`, `yyy = ∫y³ dA`

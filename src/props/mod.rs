@@ -5,13 +5,11 @@
 //! voids). Torsion is not here: see [`crate::fe`].
 
 pub mod cubic;
-pub mod moments;
 pub mod overlap;
 pub mod plastic;
 pub mod principal;
 pub mod section;
-pub mod trig;
 
-pub use moments::{Centroidal, Moments};
+pub use crate::geom::moments::{Centroidal, Moments};
 pub use principal::Principal;
 pub use section::{Elastic, Gyration, Plastic, Properties};

@@ -8,7 +8,7 @@
 //! edges are cut into chords of at most 3°, which is ample for a warning.
 
 use crate::geom::{Piece, Pt};
-use crate::numfmt::sig;
+use crate::model::warning::{More, Warning};
 
 const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
 
@@ -51,16 +51,7 @@ impl Shape {
     /// Distance from `p` to the nearest edge.
     fn clearance(&self, p: Pt) -> f64 {
         self.edges()
-            .map(|(a, b)| {
-                let d = b.sub(a);
-                let len2 = d.x * d.x + d.y * d.y;
-                let t = if len2 > 0.0 {
-                    ((p.sub(a).x * d.x + p.sub(a).y * d.y) / len2).clamp(0.0, 1.0)
-                } else {
-                    0.0
-                };
-                p.dist(a.add(d.scale(t)))
-            })
+            .map(|(a, b)| p.dist_to_segment(a, b))
             .fold(f64::INFINITY, f64::min)
     }
 
@@ -94,13 +85,8 @@ impl Shape {
     fn edge_at(&self, p: Pt, tol: f64) -> Option<Pt> {
         self.edges().find_map(|(a, b)| {
             let d = b.sub(a);
-            let len2 = d.x * d.x + d.y * d.y;
-            if len2 == 0.0 {
-                return None;
-            }
-            let t = (p.sub(a).x * d.x + p.sub(a).y * d.y) / len2;
-            let off = a.add(d.scale(t.clamp(0.0, 1.0))).sub(p);
-            (off.x * off.x + off.y * off.y <= tol * tol).then_some(d)
+            let off = p.nearest_on_segment(a, b).sub(p);
+            (d != Pt::default() && off.x * off.x + off.y * off.y <= tol * tol).then_some(d)
         })
     }
 }
@@ -221,17 +207,20 @@ fn overlaps(a: &Shape, b: &Shape) -> bool {
     a.shared_at_least(b) > threshold || common_area(a, b) > threshold
 }
 
-/// The first [`SHOWN`] of `lines`, then one line counting the rest.
-fn capped(out: &mut Vec<String>, lines: Vec<String>, total: usize, rest: &str) {
+/// The first [`SHOWN`] of `lines`, then one counting the rest.
+fn capped(out: &mut Vec<Warning>, lines: Vec<Warning>, total: usize, kind: More) {
     out.extend(lines.into_iter().take(SHOWN));
     if total > SHOWN {
-        out.push(format!("… and {} more {rest}", total - SHOWN));
+        out.push(Warning::More {
+            count: total - SHOWN,
+            kind,
+        });
     }
 }
 
-/// Warnings about the arrangement of the pieces, in plain words; of each kind the
-/// first [`SHOWN`] in the order of the parts, then a count of the rest.
-pub fn warnings(pieces: &[Piece]) -> Vec<String> {
+/// Warnings about the arrangement of the pieces; of each kind the first [`SHOWN`] in
+/// the order of the parts, then a count of the rest.
+pub fn warnings(pieces: &[Piece]) -> Vec<Warning> {
     let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
     let total: f64 = shapes.iter().flatten().map(|s| s.area.abs()).sum();
     let mut out = Vec::new();
@@ -245,14 +234,11 @@ pub fn warnings(pieces: &[Piece]) -> Vec<String> {
     let lines = empty
         .iter()
         .take(SHOWN)
-        .map(|&i| {
-            format!(
-                "part `{}` has no area after placement and adds nothing",
-                pieces[i].name
-            )
+        .map(|&i| Warning::NoArea {
+            part: pieces[i].name.clone(),
         })
         .collect();
-    capped(&mut out, lines, empty.len(), "parts with no area");
+    capped(&mut out, lines, empty.len(), More::PartsWithNoArea);
     // The overlapping pairs: all counted, the first SHOWN (by part order) kept.
     let mut first = std::collections::BinaryHeap::new();
     let mut count = 0usize;
@@ -277,14 +263,15 @@ pub fn warnings(pieces: &[Piece]) -> Vec<String> {
             let common = common_area(a, b).max(a.shared_at_least(b));
             let pct = 100.0 * common / a.area.min(b.area);
             let (pi, pj) = (&pieces[i], &pieces[j]);
+            let (a, b, percent) = (pi.name.clone(), pj.name.clone(), pct);
             Some(if pi.void {
-                format!("voids `{}` and `{}` overlap ({}% of the smaller): the shared area is removed twice", pi.name, pj.name, sig(pct, 3))
+                Warning::VoidsOverlap { a, b, percent }
             } else {
-                format!("solid parts `{}` and `{}` overlap ({}% of the smaller): the shared area counts twice; make one of them a void or trim it", pi.name, pj.name, sig(pct, 3))
+                Warning::SolidsOverlap { a, b, percent }
             })
         })
         .collect();
-    capped(&mut out, lines, count, "pairs of parts overlap");
+    capped(&mut out, lines, count, More::Overlaps);
     let solids: Vec<&Shape> = pieces
         .iter()
         .zip(&shapes)
@@ -300,25 +287,24 @@ pub fn warnings(pieces: &[Piece]) -> Vec<String> {
             count += 1;
             if outside.len() < SHOWN {
                 let pct = 100.0 * (1.0 - inside / vs.area);
-                outside.push(format!(
-                    "void `{}` is not wholly inside solid material ({}% of it lies outside): it removes area that is not there",
-                    v.name,
-                    sig(pct, 3)
-                ));
+                outside.push(Warning::VoidOutside {
+                    void: v.name.clone(),
+                    percent: pct,
+                });
             }
         }
     }
-    capped(
-        &mut out,
-        outside,
-        count,
-        "voids are not wholly inside solid material",
-    );
+    capped(&mut out, outside, count, More::VoidsOutside);
     out
 }
 
 #[cfg(test)]
 mod tests {
+    /// The warnings in words (as every view prints them).
+    fn worded(pieces: &[Piece]) -> Vec<String> {
+        warnings(pieces).iter().map(ToString::to_string).collect()
+    }
+
     use super::*;
     use crate::geom::Contour;
 
@@ -344,7 +330,7 @@ mod tests {
             Contour::rounded_rect(-50.0, 95.0, 50.0, 105.0, 0.0),
             false,
         );
-        let w = warnings(&[web, low]);
+        let w = worded(&[web, low]);
         assert_eq!(w.len(), 1);
         assert!(w[0].contains("`web` and `low flange` overlap"), "{w:?}");
     }
@@ -374,7 +360,7 @@ mod tests {
             Contour::rounded_rect(90.0, 40.0, 110.0, 60.0, 0.0),
             true,
         );
-        let w = warnings(&[plate, stray]);
+        let w = worded(&[plate, stray]);
         assert!(
             w.len() == 1 && w[0].contains("50.0% of it lies outside"),
             "{w:?}"
@@ -384,7 +370,7 @@ mod tests {
     #[test]
     fn a_part_minus_itself_is_inside() {
         let c = Contour::circle(Pt::new(0.0, 0.0), 25.0);
-        let w = warnings(&[piece("bar", c.clone(), false), piece("same", c, true)]);
+        let w = worded(&[piece("bar", c.clone(), false), piece("same", c, true)]);
         assert!(w.is_empty(), "{w:?}");
     }
 
@@ -437,7 +423,7 @@ mod tests {
                 )
             })
             .collect();
-        let w = warnings(&plates);
+        let w = worded(&plates);
         assert_eq!(w.len(), SHOWN + 1, "{w:?}");
         assert!(w[0].contains("`plate 0` and `plate 1` overlap (100% of the smaller)"));
         assert_eq!(

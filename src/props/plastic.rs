@@ -12,7 +12,7 @@
 //! so the modulus is accurate to rounding. The axis parallel to y is found the same way
 //! after a quarter turn of the section.
 
-use super::trig::TrigPoly;
+use crate::geom::trig::TrigPoly;
 use crate::geom::{Contour, Seg};
 use std::f64::consts::TAU;
 

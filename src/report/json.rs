@@ -109,7 +109,11 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
     );
     obj.insert(
         "warnings".into(),
-        json!(a.warnings.iter().map(|w| clean(w)).collect::<Vec<_>>()),
+        json!(a
+            .warnings
+            .iter()
+            .map(|w| clean(&w.to_string()))
+            .collect::<Vec<_>>()),
     );
     o
 }

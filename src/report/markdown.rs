@@ -14,10 +14,10 @@ use crate::checks::ltb::Compressed;
 use crate::checks::member::Support;
 use crate::checks::shear_flow::Flow;
 use crate::checks::stress::Extremes;
+use crate::geom::resolve::DEFAULT_NU;
 use crate::geom::Shape;
-use crate::model::resolve::DEFAULT_NU;
+use crate::geom::ShearModulus;
 use crate::model::units::{display_unit, Kind};
-use crate::model::ShearModulus;
 use crate::numfmt::sig;
 
 /// The line where the HTML page puts the drawing (an HTML comment, invisible in Markdown).
@@ -51,7 +51,7 @@ moments in {}, stresses in {}.\n\n",
         s.push_str("None.\n\n");
     }
     for w in &a.warnings {
-        s.push_str(&format!("- {}\n", inline(w)));
+        s.push_str(&format!("- {}\n", inline(&w.to_string())));
     }
     if !a.warnings.is_empty() {
         s.push('\n');
@@ -373,7 +373,10 @@ fn results(s: &mut String, a: &Analysis, u: &OutUnits) {
     table(s, &["group", "symbol", "value", "unit", "meaning"], &body);
     match &a.torsion {
         None => s.push_str("Torsion was not computed for this sheet.\n\n"),
-        Some(Err(e)) => s.push_str(&format!("Torsion is not available: {}\n\n", inline(e))),
+        Some(Err(e)) => s.push_str(&format!(
+            "Torsion is not available: {}\n\n",
+            inline(&e.to_string())
+        )),
         Some(Ok(t)) => s.push_str(&format!(
             "Torsion by {} ({} elements), estimated relative error {}.\n\n",
             inline(&t.method),

@@ -12,6 +12,7 @@ pub mod out;
 pub mod rows;
 pub mod svg;
 pub mod table;
+pub mod warnings;
 
 /// The caution every report carries.
 pub const CAUTION: &str =

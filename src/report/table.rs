@@ -59,7 +59,7 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
         ));
     }
     for w in &a.warnings {
-        s.push_str(&format!("  warning: {}\n", clean(w)));
+        s.push_str(&format!("  warning: {}\n", clean(&w.to_string())));
     }
     s
 }

@@ -7,15 +7,17 @@
 use super::columns::{columns, Col};
 use super::config::Config;
 use super::theme::Theme;
-use super::worker::{Poll, Worker, TOLERANCE};
+use super::worker::{Poll, Worker};
 use crate::analysis::{Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
 use crate::file::edit::{self, Edit};
 use crate::file::input::read_text;
 use crate::file::recover;
+use crate::geom::Pt;
 use crate::model::Diagnostic;
 use crate::report::out::OutUnits;
 use ratatui::layout::Rect;
+use std::cell::OnceCell;
 use std::path::{Path, PathBuf};
 use toml_edit::DocumentMut;
 
@@ -215,6 +217,9 @@ pub struct App {
     /// The size of the screen last drawn on (the help scrolls within it).
     pub screen: Rect,
     pub show_mesh: bool,
+    /// The sides of the drawn torsion mesh, made the first time the mesh is shown for
+    /// the current analysis (not every frame).
+    drawn_mesh: OnceCell<Vec<(Pt, Pt)>>,
     pub solver: Solver,
     /// A background solve for the current text is under way.
     pub solving: bool,
@@ -224,6 +229,9 @@ pub struct App {
     pub quit_after_save: bool,
 }
 
+/// Most triangles of the torsion mesh drawn (finer meshes would fill the cells solid).
+const MESH_ELEMENTS: usize = 2000;
+
 impl App {
     /// A workbench on `text` (read from `path`, if any). An invalid section is an error.
     pub fn new(
@@ -232,7 +240,7 @@ impl App {
         config: Config,
         solver: Solver,
     ) -> Result<App, Diagnostic> {
-        let analysis = Analysis::of_text(&text, &Options::default())?;
+        let analysis = crate::file::load::analyse(&text, &Options::default())?;
         let doc = edit::open(&text).map_err(|m| Diagnostic::new(0..1, m))?;
         let mut app = App {
             doc,
@@ -258,6 +266,7 @@ impl App {
             results_scroll: 0,
             screen: Rect::new(0, 0, 80, 24),
             show_mesh: false,
+            drawn_mesh: OnceCell::new(),
             solver,
             solving: false,
             generation: 0,
@@ -341,7 +350,7 @@ impl App {
     /// computes. `doc` is its kept document when the caller has not already edited
     /// `self.doc` into it; on refusal `self.doc` goes back to the current text.
     fn commit(&mut self, text: String, doc: Option<DocumentMut>) -> bool {
-        match Analysis::of_text(&text, &Options::default()) {
+        match crate::file::load::analyse(&text, &Options::default()) {
             Err(d) => {
                 // What is wrong with the value; where it sits in the file is no help to
                 // someone typing into a cell.
@@ -367,7 +376,7 @@ impl App {
     /// Goes back to an earlier (or later) text from the history.
     pub fn restore(&mut self, text: String) {
         match (
-            Analysis::of_text(&text, &Options::default()),
+            crate::file::load::analyse(&text, &Options::default()),
             edit::open(&text),
         ) {
             (Ok(a), Ok(doc)) => {
@@ -380,9 +389,21 @@ impl App {
         }
     }
 
+    /// The sides of the torsion mesh's triangles, in the file's frame (for the mesh
+    /// toggle): at most `MESH_ELEMENTS` (2000) triangles, kept until the analysis changes.
+    pub fn mesh_lines(&self) -> &[(Pt, Pt)] {
+        self.drawn_mesh.get_or_init(|| {
+            crate::fe::mesh_outline(&self.analysis.pieces, MESH_ELEMENTS)
+                .into_iter()
+                .flat_map(|[p, q, r]| [(p, q), (q, r), (r, p)])
+                .collect()
+        })
+    }
+
     fn set_analysis(&mut self, a: Analysis) {
         let col = self.column();
         self.analysis = a;
+        self.drawn_mesh = OnceCell::new();
         let n = self.analysis.document.parts.len();
         self.part = self.part.min(n.saturating_sub(1));
         self.param = self
@@ -420,7 +441,7 @@ impl App {
             Solver::Off => {}
             Solver::Inline => {
                 let opts = TorsionOptions {
-                    tol: TOLERANCE,
+                    tol: crate::fe::DEFAULT_TOL,
                     cancel: None,
                 };
                 let r = torsion(&self.analysis.pieces, &opts);
@@ -433,7 +454,7 @@ impl App {
         }
     }
 
-    fn take_torsion(&mut self, r: Result<crate::fe::Torsion, String>) {
+    fn take_torsion(&mut self, r: Result<crate::fe::Torsion, crate::model::Warning>) {
         if self.text == self.baseline_text && self.baseline.torsion.is_none() {
             self.baseline.set_torsion(r.clone());
         }

@@ -9,7 +9,7 @@ use super::app::{App, Focus, LineEdit, Mode, Target};
 use super::columns::{anchor, number, Col};
 use super::keys::Cmd;
 use super::views::help;
-use crate::analysis::{Analysis, Options};
+use crate::analysis::Options;
 use crate::file::edit::{self, number_value, round_sig, Edit, Flag, Slot, TextKey};
 use crate::file::input::read_text;
 use crate::file::save::{self as disk, Overwrite, SaveError};
@@ -461,7 +461,7 @@ pub fn redo(app: &mut App) {
 }
 
 fn reset_baseline(app: &mut App) {
-    match Analysis::of_text(&app.opened, &Options::default()) {
+    match crate::file::load::analyse(&app.opened, &Options::default()) {
         Ok(a) => {
             app.baseline = a;
             app.baseline_text = app.opened.clone();

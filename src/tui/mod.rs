@@ -71,7 +71,7 @@ pub fn run(path: Option<PathBuf>) -> i32 {
                 starter(p)
             }
             Err(e) => {
-                crate::cli::say(&e.line(p));
+                crate::file::load::say(&e.line(p));
                 return 2;
             }
         },
@@ -86,7 +86,7 @@ pub fn run(path: Option<PathBuf>) -> i32 {
         Ok(a) => a,
         Err(d) => {
             let name = path.map_or("demo".into(), |p| p.display().to_string());
-            crate::cli::say(&crate::cli::diagnostic_line(&name, &text, &d));
+            crate::file::load::say(&crate::file::load::diagnostic_line(&name, &text, &d));
             return 2;
         }
     };
@@ -101,7 +101,7 @@ pub fn run(path: Option<PathBuf>) -> i32 {
     let mut terminal = match ratatui::try_init() {
         Ok(t) => t,
         Err(e) => {
-            crate::cli::say(&format!("kern: cannot use this terminal: {e}"));
+            crate::file::load::say(&format!("kern: cannot use this terminal: {e}"));
             return 1;
         }
     };
@@ -115,7 +115,7 @@ pub fn run(path: Option<PathBuf>) -> i32 {
     match result {
         Ok(()) => 0,
         Err(e) => {
-            crate::cli::say(&format!("kern: terminal error: {e}"));
+            crate::file::load::say(&format!("kern: terminal error: {e}"));
             1
         }
     }

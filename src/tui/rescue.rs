@@ -62,7 +62,7 @@ pub fn install() -> std::io::Result<()> {
         let said = if main { write_copy() } else { None };
         previous(info);
         if let Some(line) = said {
-            crate::cli::say(&line);
+            crate::file::load::say(&line);
         }
     }));
     let mut signals = Signals::new([SIGTERM, SIGHUP, SIGINT, SIGQUIT])?;
@@ -73,7 +73,7 @@ pub fn install() -> std::io::Result<()> {
                 let said = write_copy();
                 ratatui::restore();
                 if let Some(line) = said {
-                    crate::cli::say(&line);
+                    crate::file::load::say(&line);
                 }
                 std::process::exit(128 + sig);
             }

@@ -8,9 +8,6 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::mpsc::{channel, Receiver, Sender, TryRecvError};
 use std::sync::Arc;
 
-/// Target relative error of the workbench's torsion results (FORMAT.md, Accuracy).
-pub const TOLERANCE: f64 = 1e-3;
-
 struct Job {
     generation: u64,
     pieces: Vec<Piece>,
@@ -20,7 +17,7 @@ struct Job {
 /// A finished solve, for the edit numbered `generation`.
 pub struct Done {
     pub generation: u64,
-    pub result: Result<Torsion, String>,
+    pub result: Result<Torsion, crate::model::Warning>,
 }
 
 /// The handle of the background solver.
@@ -53,7 +50,7 @@ impl Worker {
                     continue;
                 }
                 let opts = TorsionOptions {
-                    tol: TOLERANCE,
+                    tol: crate::fe::DEFAULT_TOL,
                     cancel: Some(job.cancel.clone()),
                 };
                 let result = std::panic::catch_unwind(|| torsion(&job.pieces, &opts))

@@ -4,8 +4,7 @@
 //! centre once torsion is solved, and a labelled scale bar. Braille dots, or one
 //! character per cell in ASCII mode.
 
-use crate::analysis::Analysis;
-use crate::geom::{solid_bounds, Pt};
+use crate::geom::solid_bounds;
 use crate::tui::app::{App, Focus};
 use crate::tui::commands::nice_step;
 use crate::tui::raster::{Dash, Raster};
@@ -15,17 +14,6 @@ use ratatui::layout::Rect;
 
 /// Greatest angle between the chords that stand in for an arc in the drawing.
 const FACET: f64 = 0.1;
-
-/// Most triangles of the torsion mesh drawn (finer meshes would fill the cells solid).
-const MESH_ELEMENTS: usize = 2000;
-
-/// The sides of the torsion mesh's triangles, in the file's frame (for the mesh toggle).
-pub fn mesh_lines(a: &Analysis) -> Vec<(Pt, Pt)> {
-    crate::fe::mesh_outline(&a.pieces, MESH_ELEMENTS)
-        .into_iter()
-        .flat_map(|[p, q, r]| [(p, q), (q, r), (r, p)])
-        .collect()
-}
 
 /// Maps the file's frame to dot coordinates with one scale on both axes.
 struct View {
@@ -93,7 +81,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         r.line(v.at(p.0, p.1), v.at(q.0, q.1), ink, dash)
     };
     if app.show_mesh {
-        for (p, q) in mesh_lines(a) {
+        for (p, q) in app.mesh_lines() {
             line(&mut r, (p.x, p.y), (q.x, q.y), Ink::Mesh, Dash::Solid);
         }
     }

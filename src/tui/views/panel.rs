@@ -47,7 +47,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         }
     };
     for m in &app.analysis.warnings {
-        plain(format!("{warn}{}", clean(m)), th.warning);
+        plain(format!("{warn}{}", clean(&m.to_string())), th.warning);
     }
     if app.solving {
         plain(
@@ -55,7 +55,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
             th.note,
         );
     } else if let Some(Err(m)) = &app.analysis.torsion {
-        plain(format!("Torsion: {}", clean(m)), th.muted);
+        plain(format!("Torsion: {}", clean(&m.to_string())), th.muted);
     }
     // Symbol, value, unit and change; narrower on a narrow panel.
     let (sym_w, val_w, unit_w) = if w >= 33 { (8, 10, 6) } else { (7, 10, 5) };

@@ -3,15 +3,14 @@
 //!
 //! Lengths of the section stay in the file's unit; forces, moments, stresses and the
 //! member's lengths are converted to SI base units (N, N·m, Pa, m) here, the member's
-//! lengths written as bare numbers by [`LengthUnit::to_si`] (see [`super::units`]).
+//! lengths written as bare numbers by [`LengthUnit::to_si`] (see [`crate::model::units`]).
 
-use super::diag::Diagnostic;
-use super::document::{Document, PartDoc, StringMaps, Val, Value};
-use super::expr::{resolve_params, Expr, ExprError};
-use super::schema::{Dims, KeySpec, Rule};
-use super::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
-use crate::checks::member::Support;
-use crate::geom::{Piece, Placement, Pt, Shape};
+use super::{Piece, Placement, Pt, Shape};
+use crate::model::diag::Diagnostic;
+use crate::model::document::{Document, PartDoc, StringMaps, Val, Value};
+use crate::model::expr::{resolve_params, Expr, ExprError};
+use crate::model::schema::{Dims, KeySpec, Rule};
+use crate::model::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
 use std::collections::BTreeMap;
 
 /// A material with SI values: `e`, `fy` and `g` in Pa, `density` in kg/m³.
@@ -21,7 +20,7 @@ pub struct Material {
     pub e: f64,
     pub fy: Option<f64>,
     pub density: Option<f64>,
-    /// Shear modulus: as given, or `E/(2(1 + ν))` (FORMAT.md "Materials").
+    /// Shear modulus: as given, or `E/(2(1 + ν))` (docs/format.md "Materials").
     pub g: f64,
     /// Where `g` comes from.
     pub g_source: ShearModulus,
@@ -69,7 +68,8 @@ pub struct Part {
 }
 
 /// `[actions]` in SI (N, N·m): the one actions type, the stress code's own.
-pub use crate::checks::stress::Actions;
+pub use crate::model::loads::Actions;
+use crate::model::loads::Support;
 
 /// The single-span member, SI: lengths in m, loads in N and N/m.
 #[derive(Debug, Clone, PartialEq)]
@@ -518,12 +518,12 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
     })
 }
 
-/// `G` of a material from `G` or `nu` (FORMAT.md "Materials"): G as written, else
+/// `G` of a material from `G` or `nu` (docs/format.md "Materials"): G as written, else
 /// `E/(2(1 + ν))` with the written ν in [0, 0.5) or ν = 0.3; both written must agree to a
 /// relative 1e-6.
 fn shear_modulus(
     ctx: &Ctx,
-    m: &super::document::MaterialDoc,
+    m: &crate::model::document::MaterialDoc,
     e: f64,
 ) -> Result<(f64, ShearModulus), Diagnostic> {
     let nu = match &m.nu {
@@ -565,7 +565,7 @@ fn shear_modulus(
 fn resolve_member(
     ctx: &Ctx,
     unit: LengthUnit,
-    m: &super::document::MemberDoc,
+    m: &crate::model::document::MemberDoc,
 ) -> Result<Member, Diagnostic> {
     let length = ctx.quantity(&m.length, "span", Kind::Length, Some(unit))?;
     if length <= 0.0 {

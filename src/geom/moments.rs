@@ -17,7 +17,7 @@
 //! `I_c = I_o − A·d²`.
 
 use super::trig::TrigPoly;
-use crate::geom::{Contour, Pt, Seg};
+use super::{Contour, Pt, Seg};
 
 /// Area moments about the origin: `a = ∫dA`, `sx = ∫x dA`, `sy = ∫y dA`,
 /// `ixx = ∫y² dA`, `iyy = ∫x² dA`, `ixy = ∫xy dA`.
