@@ -349,3 +349,30 @@ fn connection_rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
     }
     out
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_table_is_well_formed() {
+        // One quantity per JSON path and per shown symbol; every group has a place.
+        let mut paths: Vec<&str> = QUANTITIES.iter().map(|q| q.path).collect();
+        paths.sort_unstable();
+        let n = paths.len();
+        paths.dedup();
+        assert_eq!(paths.len(), n, "a JSON path twice");
+        let mut syms: Vec<&str> = QUANTITIES
+            .iter()
+            .filter(|q| q.shown())
+            .map(|q| q.symbol)
+            .collect();
+        syms.sort_unstable();
+        let n = syms.len();
+        syms.dedup();
+        assert_eq!(syms.len(), n, "a symbol twice");
+        for q in QUANTITIES.iter().filter(|q| q.shown()) {
+            assert!(GROUPS.contains(&q.group), "{} has no place", q.group);
+        }
+    }
+}
