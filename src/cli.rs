@@ -179,12 +179,12 @@ pub fn report(args: &ReportArgs) -> i32 {
         }
     };
     let u = OutUnits::new(a.section.units, args.units);
-    let md = markdown::sheet(&args.file.display().to_string(), &a, &u);
+    let blocks = markdown::blocks(&args.file.display().to_string(), &a, &u);
     let text = if args.html {
         let title = a.section.title.as_deref().unwrap_or("(untitled section)");
-        html::page(title, &md, &drawing::drawing(&a, &u))
+        html::page(title, &blocks, &drawing::drawing(&a, &u))
     } else {
-        md
+        crate::report::blocks::markdown(&blocks)
     };
     emit(args.out.as_deref(), &text)
 }

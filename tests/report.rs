@@ -104,7 +104,7 @@ fn the_caution_is_in_every_output() {
         let u = units(&a);
         let md = markdown::sheet(f, &a, &u);
         let drawing = svg::drawing(&a, &u);
-        let page = html::page("t", &md, &drawing);
+        let page = html::page("t", &markdown::blocks(f, &a, &u), &drawing);
         assert_eq!(
             md.matches(CAUTION).count(),
             2,
@@ -131,7 +131,7 @@ fn names_cannot_inject_html() {
     assert!(md.contains("&lt;script&gt;alert(3)&lt;/script&gt;"), "{md}");
     // A `|` in a name is escaped, so table rows keep their column count.
     assert!(md.contains("a \\| b \\*\\* c"), "{md}");
-    let page = html::page("t", &md, &svg::drawing(&a, &u));
+    let page = html::page("t", &markdown::blocks(file, &a, &u), &svg::drawing(&a, &u));
     assert!(
         !page.contains("<script") && !page.contains("<img"),
         "{page}"
@@ -153,4 +153,113 @@ fn the_drawing_has_no_control_characters() {
     assert!(!s.chars().any(|c| c.is_control() && c != '\n' && c != '\t'));
     assert!(!s.contains("&#1;") && !s.contains("&#x1;"));
     assert!(s.contains("mezzanine  edge"), "the title is kept, cleaned");
+}
+
+/// Analysed with the torsion solve at its default tolerance.
+fn analyse_with_torsion(file: &str) -> Analysis {
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(file);
+    let text = std::fs::read_to_string(&path).expect("fixture readable");
+    let opts = Options {
+        torsion: Some(kern::fe::TorsionOptions::default()),
+    };
+    kern::file::load::analyse(&text, &opts).expect("fixture valid")
+}
+
+/// The Torsion and Member rows (J, Cw, shear centre, Mcr…) of the results table, to 3
+/// significant figures so the snapshot does not follow the solver's last digits.
+fn torsion_rows(a: &Analysis) -> String {
+    kern::report::rows::rows(a, &units(a))
+        .iter()
+        .filter(|r| r.group == "Torsion" || r.group == "Member")
+        .map(|r| {
+            let v = r.value.map_or("—".into(), |v| kern::numfmt::sig(v, 3));
+            format!("{:<8} {:<7} {v} {}\n", r.group, r.symbol, r.unit)
+        })
+        .collect()
+}
+
+/// The torsion results of two demo sections as every view shows them: the
+/// mezzanine girder (a monosymmetric I) and the crane runway.
+#[test]
+fn torsion_rows_snapshot() {
+    for f in [
+        "sections/mezzanine-girder.toml",
+        "sections/crane-runway.toml",
+    ] {
+        let a = analyse_with_torsion(f);
+        insta::assert_snapshot!(format!("{}.torsion", snap_name(f)), torsion_rows(&a));
+    }
+}
+
+/// The mezzanine girder's torsion rows against thin-walled closed forms for a
+/// monosymmetric I with flanges b1 × tf (top), b2 × tf (bottom) and web hw × tw,
+/// h = hw + tf between flange centroids, If = tf·b³/12 of each flange (Trahair,
+/// Flexural-Torsional Buckling of Structures, ch. 7; Timoshenko & Gere, Theory of
+/// Elastic Stability, §5.9): Cw = h²·I1·I2/(I1 + I2); shear centre on the web, at
+/// h·I2/(I1 + I2) below the top flange's centroid; J ≈ Σ b·t³/3, which overstates J
+/// a little (free flange ends), so within 3 %. And by symmetry xs is exactly 0 in
+/// every view — table, JSON and drawing — not FE noise.
+#[test]
+fn girder_torsion_rows_match_thin_walled_closed_forms() {
+    let a = analyse_with_torsion("sections/mezzanine-girder.toml");
+    let u = units(&a);
+    let get = |s: &str| {
+        kern::report::rows::rows(&a, &u)
+            .into_iter()
+            .find(|r| r.symbol == s)
+            .and_then(|r| r.value)
+            .expect("row present")
+    };
+    let (b1, b2, tf, hw, tw) = (300.0f64, 250.0f64, 16.0f64, 500.0f64, 10.0f64);
+    let h = hw + tf;
+    let (i1, i2) = (tf * b1.powi(3) / 12.0, tf * b2.powi(3) / 12.0);
+    let cw = h * h * i1 * i2 / (i1 + i2);
+    assert!(
+        (get("Cw") - cw).abs() < 0.01 * cw,
+        "Cw {} vs {cw}",
+        get("Cw")
+    );
+    let ys = hw + tf / 2.0 - h * i2 / (i1 + i2);
+    assert!(
+        (get("ys") - ys).abs() < 0.01 * h,
+        "ys {} vs {ys}",
+        get("ys")
+    );
+    let j = (b1 + b2) * tf.powi(3) / 3.0 + hw * tw.powi(3) / 3.0;
+    assert!(get("J") < j && get("J") > 0.97 * j, "J {} vs {j}", get("J"));
+    assert_eq!(get("xs"), 0.0);
+    let json = kern::report::json::to_json("g", &a, &u);
+    assert_eq!(json["torsion"]["shear_centre"]["x"], 0.0);
+    assert!(svg::drawing(&a, &u).contains(">S (0, "));
+}
+
+/// The HTML page of the mezzanine girder's sheet, version redacted.
+#[test]
+fn html_sheet_snapshot() {
+    let f = "sections/mezzanine-girder.toml";
+    let a = analyse(f);
+    let u = units(&a);
+    let page = html::page("t", &markdown::blocks(f, &a, &u), &svg::drawing(&a, &u));
+    insta::assert_snapshot!(
+        "mezzanine-girder.html",
+        page.replace(env!("CARGO_PKG_VERSION"), "[version]")
+    );
+}
+
+/// A `**` or a backtick in a part name is text in both writers: the page gains no
+/// bold or code from it, and the Markdown escapes it.
+#[test]
+fn markup_in_names_stays_text() {
+    let text = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("sections/mezzanine-girder.toml"),
+    )
+    .expect("fixture readable")
+    .replace("name = \"web\"", "name = \"**web** `x`\"");
+    let a = kern::file::load::analyse(&text, &Options::default()).expect("valid");
+    let u = units(&a);
+    let b = markdown::blocks("g", &a, &u);
+    let page = html::page("t", &b, "");
+    assert!(page.contains("**web** `x`"), "name shown as written");
+    assert!(!page.contains("<strong>web"));
+    assert!(kern::report::blocks::markdown(&b).contains("\\*\\*web\\*\\* \\`x\\`"));
 }

@@ -1,9 +1,11 @@
-//! `kern report`: the calculation sheet in Markdown — inputs, the composite-area table
-//! part by part with its check, every result row, the stress and member checks with
-//! their assumptions, the warnings, and the caution at both ends.
+//! `kern report`: the calculation sheet — inputs, the composite-area table part by
+//! part with its check, every result row, the stress and member checks with their
+//! assumptions, the warnings, and the caution at both ends — built once as blocks
+//! ([`blocks`]) and written as Markdown ([`sheet`]) or HTML ([`super::html::page`]).
 //!
 //! The sheet carries no date, so the same file always gives the same sheet.
 
+use super::blocks::{self, own, user, Block, Line, Span};
 use super::composite::{terms, totals};
 use super::out::OutUnits;
 use super::rows::rows;
@@ -20,43 +22,46 @@ use crate::geom::ShearModulus;
 use crate::model::units::{display_unit, Kind};
 use crate::numfmt::sig;
 
-/// The line where the HTML page puts the drawing (an HTML comment, invisible in Markdown).
-pub const DRAWING_MARK: &str = "<!-- drawing -->";
+pub use super::blocks::DRAWING_MARK;
 
-/// The whole sheet for one analysed file, named `file`.
+/// The whole sheet for one analysed file, named `file`, in Markdown.
 pub fn sheet(file: &str, a: &Analysis, u: &OutUnits) -> String {
-    let mut s = String::new();
+    blocks::markdown(&blocks(file, a, u))
+}
+
+/// The sheet's blocks for one analysed file, named `file`.
+pub fn blocks(file: &str, a: &Analysis, u: &OutUnits) -> Vec<Block> {
+    let mut s = Vec::new();
     let title = a.section.title.as_deref().unwrap_or("(untitled section)");
-    s.push_str(&format!("# {}\n\n", inline(title)));
-    s.push_str(&format!(
-        "Calculation sheet for {}, prepared by kern {}. Lengths in {}, forces in {}, \
-moments in {}, stresses in {}.\n\n",
-        code(file),
-        env!("CARGO_PKG_VERSION"),
-        u.length.name(),
-        u.force().name,
-        u.moment().name,
-        u.stress().name
-    ));
-    s.push_str(&format!("> {CAUTION}\n\n"));
+    s.push(Block::Heading(1, user(title)));
+    s.push(Block::Para(vec![
+        Span::Own("Calculation sheet for ".into()),
+        Span::Code(file.into()),
+        Span::Own(format!(
+            ", prepared by kern {}. Lengths in {}, forces in {}, moments in {}, stresses in {}.",
+            env!("CARGO_PKG_VERSION"),
+            u.length.name(),
+            u.force().name,
+            u.moment().name,
+            u.stress().name
+        )),
+    ]));
+    s.push(Block::Quote(own(CAUTION)));
     inputs(&mut s, a, u);
-    s.push_str(DRAWING_MARK);
-    s.push_str("\n\n");
+    s.push(Block::Drawing);
     composite(&mut s, a, u);
     results(&mut s, a, u);
     checks(&mut s, a, u);
     connections(&mut s, a, u);
-    s.push_str("## Warnings\n\n");
+    s.push(Block::Heading(2, own("Warnings")));
     if a.warnings.is_empty() {
-        s.push_str("None.\n\n");
+        s.push(Block::Para(own("None.")));
+    } else {
+        s.push(Block::List(
+            a.warnings.iter().map(|w| user(&w.to_string())).collect(),
+        ));
     }
-    for w in &a.warnings {
-        s.push_str(&format!("- {}\n", inline(&w.to_string())));
-    }
-    if !a.warnings.is_empty() {
-        s.push('\n');
-    }
-    s.push_str(&format!("> {CAUTION}\n"));
+    s.push(Block::Quote(own(CAUTION)));
     s
 }
 
@@ -76,32 +81,17 @@ fn fig(x: f64) -> String {
     sig(x, FIGURES)
 }
 
-/// User text made literal for one table cell or line.
-fn inline(t: &str) -> String {
-    crate::text::markdown(t)
+/// A table from a header of kern's own words and rows of lines.
+fn table(s: &mut Vec<Block>, head: &[&str], body: Vec<Vec<Line>>) {
+    s.push(Block::Table {
+        head: head.iter().map(|h| own(*h)).collect(),
+        body,
+    });
 }
 
-/// User text in a code span: cleaned, with no backtick to end the span early and `|`
-/// escaped for table cells (GitHub tables read `\|` inside code too). Inside a span
-/// `<` is literal text to Markdown, and the HTML sheet escapes it.
-fn code(t: &str) -> String {
-    format!(
-        "`{}`",
-        crate::text::clean(t).replace('`', "'").replace('|', "\\|")
-    )
-}
-
-/// A Markdown table from a header and rows.
-fn table(s: &mut String, head: &[&str], body: &[Vec<String>]) {
-    s.push_str(&format!("| {} |\n", head.join(" | ")));
-    s.push_str(&format!(
-        "|{}|\n",
-        head.iter().map(|_| "---").collect::<Vec<_>>().join("|")
-    ));
-    for r in body {
-        s.push_str(&format!("| {} |\n", r.join(" | ")));
-    }
-    s.push('\n');
+/// Cells of kern's own text.
+fn cells(v: Vec<String>) -> Vec<Line> {
+    v.into_iter().map(own).collect()
 }
 
 /// The dimensions of a shape, `key = value` in the output length unit (a polygon's
@@ -123,17 +113,17 @@ fn dimensions(shape: &Shape, u: &OutUnits) -> String {
         .join(", ")
 }
 
-fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
+fn inputs(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
     let sec = &a.section;
-    s.push_str("## Inputs\n\n");
-    s.push_str(&format!(
-        "The file's lengths are in {}; they are shown here in {}.\n\n",
+    s.push(Block::Heading(2, own("Inputs")));
+    s.push(Block::Para(own(format!(
+        "The file's lengths are in {}; they are shown here in {}.",
         sec.units.name(),
         u.length.name()
-    ));
+    ))));
     if !a.document.params.is_empty() {
-        s.push_str("### Parameters\n\n");
-        let body: Vec<Vec<String>> = a
+        s.push(Block::Heading(3, own("Parameters")));
+        let body: Vec<Vec<Line>> = a
             .document
             .params
             .iter()
@@ -142,7 +132,11 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                     .params
                     .get(name)
                     .map_or("—".into(), |x| plain(u.geo(*x, 1)));
-                vec![code(name), value, code(&v.value.text())]
+                vec![
+                    vec![Span::Code(name.to_string())],
+                    own(value),
+                    vec![Span::Code(v.value.text())],
+                ]
             })
             .collect();
         table(
@@ -152,19 +146,19 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                 &format!("value ({})", u.length.name()),
                 "as written",
             ],
-            &body,
+            body,
         );
     }
     if !sec.materials.is_empty() {
-        s.push_str("### Materials\n\n");
+        s.push(Block::Heading(3, own("Materials")));
         let st = u.stress();
         let rho = display_unit(Kind::Density, u.system);
-        let body: Vec<Vec<String>> = sec
+        let body: Vec<Vec<Line>> = sec
             .materials
             .iter()
             .map(|m| {
-                vec![
-                    inline(&m.name),
+                let mut row = vec![user(&m.name)];
+                row.extend(cells(vec![
                     fig(st.from_si(m.e)),
                     m.fy.map_or("—".into(), |f| fig(st.from_si(f))),
                     m.density.map_or("—".into(), |d| fig(rho.from_si(d))),
@@ -176,7 +170,8 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                             "E/(2(1 + ν)), ν = {DEFAULT_NU} assumed (the default, common practice for steel; give nu or G otherwise)"
                         ),
                     },
-                ]
+                ]));
+                row
             })
             .collect();
         table(
@@ -189,18 +184,18 @@ fn inputs(s: &mut String, a: &Analysis, u: &OutUnits) {
                 &format!("G ({})", st.name),
                 "G from",
             ],
-            &body,
+            body,
         );
         if sec.materials.len() > 1 {
-            s.push_str(&format!(
-                "The section is transformed to the first material, {}: each part counts \
-with its modular ratio n = E / E_ref.\n\n",
-                inline(&sec.materials[0].name)
-            ));
+            s.push(Block::Para(vec![
+                Span::Own("The section is transformed to the first material, ".into()),
+                Span::User(sec.materials[0].name.clone()),
+                Span::Own(": each part counts with its modular ratio n = E / E_ref.".into()),
+            ]));
         }
     }
-    s.push_str("### Parts\n\n");
-    let body: Vec<Vec<String>> = sec
+    s.push(Block::Heading(3, own("Parts")));
+    let body: Vec<Vec<Line>> = sec
         .parts
         .iter()
         .enumerate()
@@ -218,9 +213,8 @@ with its modular ratio n = E / E_ref.\n\n",
                 (true, true) => "void",
                 (true, false) => "solid",
             };
-            vec![
-                format!("{}", i + 1),
-                inline(&p.name),
+            let mut row = vec![own(format!("{}", i + 1)), user(&p.name)];
+            row.extend(cells(vec![
                 p.shape.kind().to_string(),
                 dimensions(&p.shape, u),
                 format!(
@@ -236,10 +230,13 @@ with its modular ratio n = E / E_ref.\n\n",
                     flips.join(", ")
                 },
                 kind.to_string(),
+            ]));
+            row.push(
                 p.material
                     .and_then(|m| sec.materials.get(m))
-                    .map_or("—".into(), |m| inline(&m.name)),
-            ]
+                    .map_or(own("—"), |m| user(&m.name)),
+            );
+            row
         })
         .collect();
     table(
@@ -255,27 +252,31 @@ with its modular ratio n = E / E_ref.\n\n",
             "kind",
             "material",
         ],
-        &body,
+        body,
     );
 }
 
-fn composite(s: &mut String, a: &Analysis, u: &OutUnits) {
+fn composite(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
     let ts = terms(a);
     let tot = totals(&ts);
     let (l1, l2, l4) = (u.label(1), u.label(2), u.label(4));
-    s.push_str("## Composite-area method\n\n");
-    s.push_str(
+    s.push(Block::Heading(2, own("Composite-area method")));
+    s.push(Block::Para(own(
         "Each enabled part counts with the weight w = ±n: minus for a void, times its modular \
 ratio n. A is the weighted area, (x_i, y_i) the part's own centroid, Ixx,own and Iyy,own its \
 weighted second moments about its own centroid, dy = y_i − ȳ and dx = x_i − x̄. The parallel \
-axis theorem then gives I = Σ(I_own + A·d²).\n\n",
-    );
+axis theorem then gives I = Σ(I_own + A·d²).",
+    )));
     let g = |x: f64, p: i32| fig(u.geo(x, p));
-    let mut body: Vec<Vec<String>> = ts
+    let mut body: Vec<Vec<Line>> = ts
         .iter()
         .map(|t| {
-            vec![
-                format!("{}{}", inline(&t.name), if t.void { " (void)" } else { "" }),
+            let mut name = user(&t.name);
+            if t.void {
+                name.push(Span::Own(" (void)".into()));
+            }
+            let mut row = vec![name];
+            row.extend(cells(vec![
                 plain(t.n),
                 g(t.a, 2),
                 g(t.x, 1),
@@ -286,21 +287,23 @@ axis theorem then gives I = Σ(I_own + A·d²).\n\n",
                 g(t.dx, 1),
                 g(t.a_dy2(), 4),
                 g(t.a_dx2(), 4),
-            ]
+            ]));
+            row
         })
         .collect();
+    let bold = |t: String| vec![Span::Bold(t)];
     body.push(vec![
-        "**Σ**".into(),
-        String::new(),
-        format!("**{}**", g(tot.a, 2)),
-        String::new(),
-        String::new(),
-        format!("**{}**", g(tot.ixx_own, 4)),
-        format!("**{}**", g(tot.iyy_own, 4)),
-        String::new(),
-        String::new(),
-        format!("**{}**", g(tot.a_dy2, 4)),
-        format!("**{}**", g(tot.a_dx2, 4)),
+        bold("Σ".into()),
+        own(""),
+        bold(g(tot.a, 2)),
+        own(""),
+        own(""),
+        bold(g(tot.ixx_own, 4)),
+        bold(g(tot.iyy_own, 4)),
+        own(""),
+        own(""),
+        bold(g(tot.a_dy2, 4)),
+        bold(g(tot.a_dx2, 4)),
     ]);
     table(
         s,
@@ -317,7 +320,7 @@ axis theorem then gives I = Σ(I_own + A·d²).\n\n",
             &format!("A·dy² ({l4})"),
             &format!("A·dx² ({l4})"),
         ],
-        &body,
+        body,
     );
     let p = &a.props;
     let (xbar, ybar) = if tot.a > 0.0 {
@@ -325,151 +328,151 @@ axis theorem then gives I = Σ(I_own + A·d²).\n\n",
     } else {
         (f64::NAN, f64::NAN)
     };
-    s.push_str("Check of the method against the section's own results:\n\n");
-    s.push_str(&format!(
-        "- x̄ = ΣA·x_i / ΣA = {} {l1}, ȳ = ΣA·y_i / ΣA = {} {l1} (section: {}, {})\n",
-        g(xbar, 1),
-        g(ybar, 1),
-        g(p.centroid.x, 1),
-        g(p.centroid.y, 1)
-    ));
+    s.push(Block::Para(own(
+        "Check of the method against the section's own results:",
+    )));
     // `a + b` written as `a − |b|` when b is negative.
     let sum = |x: f64, y: f64| {
         let (op, y) = if y < 0.0 { ("−", -y) } else { ("+", y) };
         format!("{} {op} {}", g(x, 4), g(y, 4))
     };
-    s.push_str(&format!(
-        "- Ixx = ΣIxx,own + ΣA·dy² = {} = {} {l4} (section: {})\n",
-        sum(tot.ixx_own, tot.a_dy2),
-        g(tot.ixx(), 4),
-        g(p.ixx, 4)
-    ));
-    s.push_str(&format!(
-        "- Iyy = ΣIyy,own + ΣA·dx² = {} = {} {l4} (section: {})\n\n",
-        sum(tot.iyy_own, tot.a_dx2),
-        g(tot.iyy(), 4),
-        g(p.iyy, 4)
-    ));
+    s.push(Block::List(vec![
+        own(format!(
+            "x̄ = ΣA·x_i / ΣA = {} {l1}, ȳ = ΣA·y_i / ΣA = {} {l1} (section: {}, {})",
+            g(xbar, 1),
+            g(ybar, 1),
+            g(p.centroid.x, 1),
+            g(p.centroid.y, 1)
+        )),
+        own(format!(
+            "Ixx = ΣIxx,own + ΣA·dy² = {} = {} {l4} (section: {})",
+            sum(tot.ixx_own, tot.a_dy2),
+            g(tot.ixx(), 4),
+            g(p.ixx, 4)
+        )),
+        own(format!(
+            "Iyy = ΣIyy,own + ΣA·dx² = {} = {} {l4} (section: {})",
+            sum(tot.iyy_own, tot.a_dx2),
+            g(tot.iyy(), 4),
+            g(p.iyy, 4)
+        )),
+    ]));
 }
 
-fn results(s: &mut String, a: &Analysis, u: &OutUnits) {
-    s.push_str("## Results\n\n");
+fn results(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
+    s.push(Block::Heading(2, own("Results")));
     let rs = rows(a, u);
     let mut group = "";
-    let body: Vec<Vec<String>> = rs
+    let body: Vec<Vec<Line>> = rs
         .iter()
         .map(|r| {
             let head = if r.group != group { r.group } else { "" };
             group = r.group;
             vec![
-                head.to_string(),
-                inline(&r.symbol),
-                r.value.map_or("—".into(), fig),
-                r.unit.clone(),
-                r.meaning.to_string(),
+                own(head),
+                user(&r.symbol),
+                own(r.value.map_or("—".into(), fig)),
+                own(r.unit.clone()),
+                own(r.meaning),
             ]
         })
         .collect();
-    table(s, &["group", "symbol", "value", "unit", "meaning"], &body);
-    match &a.torsion {
-        None => s.push_str("Torsion was not computed for this sheet.\n\n"),
-        Some(Err(e)) => s.push_str(&format!(
-            "Torsion is not available: {}\n\n",
-            inline(&e.to_string())
-        )),
-        Some(Ok(t)) => s.push_str(&format!(
-            "Torsion by {} ({} elements), estimated relative error {}.\n\n",
-            inline(&t.method),
-            t.elements,
-            sig(t.rel_error, 2)
-        )),
-    }
+    table(s, &["group", "symbol", "value", "unit", "meaning"], body);
+    s.push(Block::Para(match &a.torsion {
+        None => own("Torsion was not computed for this sheet."),
+        Some(Err(e)) => vec![
+            Span::Own("Torsion is not available: ".into()),
+            Span::User(e.to_string()),
+        ],
+        Some(Ok(t)) => vec![
+            Span::Own("Torsion by ".into()),
+            Span::User(t.method.clone()),
+            Span::Own(format!(
+                " ({} elements), estimated relative error {}.",
+                t.elements,
+                sig(t.rel_error, 2)
+            )),
+        ],
+    }));
 }
 
 /// One line per extreme: value and point.
-fn extreme_lines(s: &mut String, e: &Extremes, u: &OutUnits, prefix: &str) {
+fn extreme_lines(out: &mut Vec<Line>, e: &Extremes, u: &OutUnits, prefix: &Line) {
     let st = u.stress();
     let l = u.length.name();
     for (what, p) in [
         ("largest σ", &e.max_tension),
         ("smallest σ", &e.max_compression),
     ] {
-        s.push_str(&format!(
-            "- {prefix}{what} = {} {} at ({}, {}) {l}\n",
+        let mut line = prefix.clone();
+        line.push(Span::Own(format!(
+            "{what} = {} {} at ({}, {}) {l}",
             fig(st.from_si(p.value)),
             st.name,
             fig(u.geo(p.x, 1)),
             fig(u.geo(p.y, 1)),
-        ));
+        )));
+        out.push(line);
     }
 }
 
 /// The joints between parts, with the side each bridge cuts off, so the flow can be
 /// redone by hand.
-fn connections(s: &mut String, a: &Analysis, u: &OutUnits) {
+fn connections(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
     if a.connections.is_empty() {
         return;
     }
     let (l, qu) = (u.length.name(), u.shear_flow());
-    s.push_str("## Connections\n\n");
-    s.push_str(&format!(
+    s.push(Block::Heading(2, own("Connections")));
+    s.push(Block::Para(own(format!(
         "Joints are boundaries of positive length that two solid parts share. Where cutting a \
 joint separates the section in two, the longitudinal shear flow it carries follows from \
 the equilibrium of the side cut off (gross section, modular ratios, voids inside that side \
 subtracted): q = |(Vy·Iyy − Vx·Ixy)·Qx + (Vx·Ixx − Vy·Ixy)·Qy| / (Ixx·Iyy − Ixy²), with \
 Qx = A′·(ȳ′ − ȳ) and Qy = A′·(x̄′ − x̄) of that side (area A′, centroid x̄′, ȳ′). Joints \
 on a closed cell are statically indeterminate: their flow needs the flexure solution and \
-is not given. Flows in {}.\n\n",
+is not given. Flows in {}.",
         qu.name
-    ));
-    let name = |i: usize| inline(&a.pieces[i].name);
-    let body: Vec<Vec<String>> = a
+    ))));
+    let name = |i: usize| Span::User(a.pieces[i].name.clone());
+    let body: Vec<Vec<Line>> = a
         .connections
         .iter()
         .map(|c| {
-            let (side, area, xc, yc, qx, qy) = match &c.flow {
-                Flow::Exact(cut) => (
-                    cut.side
-                        .iter()
-                        .map(|&i| name(i))
-                        .collect::<Vec<_>>()
-                        .join(", "),
-                    fig(u.geo(cut.area, 2)),
-                    fig(u.geo(cut.centroid.x, 1)),
-                    fig(u.geo(cut.centroid.y, 1)),
-                    fig(u.geo(cut.qx, 3)),
-                    fig(u.geo(cut.qy, 3)),
-                ),
-                Flow::ClosedCell => (
-                    "closed cell".into(),
-                    "—".into(),
-                    "—".into(),
-                    "—".into(),
-                    "—".into(),
-                    "—".into(),
-                ),
-                Flow::VoidAcross(_) | Flow::StrayVoid(_) => (
-                    "a void lies across".into(),
-                    "—".into(),
-                    "—".into(),
-                    "—".into(),
-                    "—".into(),
-                    "—".into(),
-                ),
+            let none = || cells(vec!["—".into(); 5]);
+            let (side, rest) = match &c.flow {
+                Flow::Exact(cut) => {
+                    let mut side = Vec::new();
+                    for (k, &i) in cut.side.iter().enumerate() {
+                        if k > 0 {
+                            side.push(Span::Own(", ".into()));
+                        }
+                        side.push(name(i));
+                    }
+                    (
+                        side,
+                        cells(vec![
+                            fig(u.geo(cut.area, 2)),
+                            fig(u.geo(cut.centroid.x, 1)),
+                            fig(u.geo(cut.centroid.y, 1)),
+                            fig(u.geo(cut.qx, 3)),
+                            fig(u.geo(cut.qy, 3)),
+                        ]),
+                    )
+                }
+                Flow::ClosedCell => (own("closed cell"), none()),
+                Flow::VoidAcross(_) | Flow::StrayVoid(_) => (own("a void lies across"), none()),
             };
-            let q = |v: Option<f64>| v.map_or("—".into(), |q| fig(qu.from_si(q)));
-            vec![
-                format!("{} – {}", name(c.joint.a), name(c.joint.b)),
-                fig(u.geo(c.joint.length, 1)),
+            let q = |v: Option<f64>| own(v.map_or("—".into(), |q| fig(qu.from_si(q))));
+            let mut row = vec![
+                vec![name(c.joint.a), Span::Own(" – ".into()), name(c.joint.b)],
+                own(fig(u.geo(c.joint.length, 1))),
                 side,
-                area,
-                xc,
-                yc,
-                qx,
-                qy,
-                q(a.connection_flow(c)),
-                q(a.connection_flow_at_vmax(c)),
-            ]
+            ];
+            row.extend(rest);
+            row.push(q(a.connection_flow(c)));
+            row.push(q(a.connection_flow_at_vmax(c)));
+            row
         })
         .collect();
     let (h_len, h_a, h_x, h_y, h_qx, h_qy) = (
@@ -494,151 +497,158 @@ is not given. Flows in {}.\n\n",
             "q, [actions]",
             "q at Vmax",
         ],
-        &body,
+        body,
     );
 }
 
-fn checks(s: &mut String, a: &Analysis, u: &OutUnits) {
+fn checks(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
     if a.stress.is_none() && a.member.is_none() {
         return;
     }
-    s.push_str("## Checks\n\n");
+    s.push(Block::Heading(2, own("Checks")));
     if let (Some(st), Some(act)) = (&a.stress, &a.section.actions) {
         let (f, m) = (u.force(), u.moment());
-        s.push_str("### Stresses under the actions\n\n");
-        s.push_str(&format!(
+        s.push(Block::Heading(3, own("Stresses under the actions")));
+        s.push(Block::Para(own(format!(
             "N = {} {}, Mx = {} {}, My = {} {} (tension positive; positive Mx compresses the \
 +y fibres, positive My the +x fibres). σ = N/A + a·(x − x̄) + b·(y − ȳ), the flexure \
-formula for unsymmetric sections.\n\n",
+formula for unsymmetric sections.",
             fig(f.from_si(act.n)),
             f.name,
             fig(m.from_si(act.mx)),
             m.name,
             fig(m.from_si(act.my)),
             m.name
-        ));
-        extreme_lines(s, &st.extremes, u, "");
-        match st.neutral_axis_angle_deg {
-            Some(d) => s.push_str(&format!(
-                "- neutral axis at {}° from +x, counter-clockwise\n",
-                fig(d)
-            )),
-            None => s.push_str("- no neutral axis (axial force only)\n"),
-        }
+        ))));
+        let mut items = Vec::new();
+        extreme_lines(&mut items, &st.extremes, u, &Vec::new());
+        items.push(own(match st.neutral_axis_angle_deg {
+            Some(d) => format!("neutral axis at {}° from +x, counter-clockwise", fig(d)),
+            None => "no neutral axis (axial force only)".into(),
+        }));
         for (name, e) in &st.per_material {
-            extreme_lines(s, e, u, &format!("{}: ", inline(name)));
+            let prefix = vec![Span::User(name.clone()), Span::Own(": ".into())];
+            extreme_lines(&mut items, e, u, &prefix);
         }
-        s.push('\n');
+        s.push(Block::List(items));
     }
     if let (Some(mr), Some(mb)) = (&a.member, &a.section.member) {
-        let (f, m, w, d, st) = (
-            u.force(),
-            u.moment(),
-            u.line_load(),
-            u.deflection(),
-            u.stress(),
-        );
-        let l = u.length.name();
-        let support = match mb.support {
-            Support::Simple => "simply supported",
-            Support::Cantilever => "cantilever (fixed at x = 0)",
-            Support::Fixed => "fixed at both ends",
-            Support::Propped => "propped cantilever (fixed at x = 0)",
-        };
-        s.push_str("### Member\n\n");
-        s.push_str(&format!(
-            "- {support}, span L = {} {l}\n",
-            plain(u.metres(mb.length))
-        ));
-        s.push_str(&format!(
-            "- uniform load {} {}",
-            fig(w.from_si(mb.udl)),
+        s.push(Block::Heading(3, own("Member")));
+        s.push(Block::List(member_lines(a, mr, mb, u)));
+    }
+}
+
+/// The member check line by line, with its assumptions.
+fn member_lines(
+    a: &Analysis,
+    mr: &crate::analysis::MemberResult,
+    mb: &crate::geom::resolve::Member,
+    u: &OutUnits,
+) -> Vec<Line> {
+    let (f, m, w, d, st) = (
+        u.force(),
+        u.moment(),
+        u.line_load(),
+        u.deflection(),
+        u.stress(),
+    );
+    let l = u.length.name();
+    let support = match mb.support {
+        Support::Simple => "simply supported",
+        Support::Cantilever => "cantilever (fixed at x = 0)",
+        Support::Fixed => "fixed at both ends",
+        Support::Propped => "propped cantilever (fixed at x = 0)",
+    };
+    let mut out = vec![own(format!(
+        "{support}, span L = {} {l}",
+        plain(u.metres(mb.length))
+    ))];
+    let mut load = format!("uniform load {} {}", fig(w.from_si(mb.udl)), w.name);
+    if mb.self_weight {
+        load.push_str(&format!(
+            ", plus self-weight {} {} (mass × g, g = {GRAVITY} m/s²)",
+            fig(w.from_si(mr.self_weight)),
             w.name
         ));
-        if mb.self_weight {
-            s.push_str(&format!(
-                ", plus self-weight {} {} (mass × g, g = {GRAVITY} m/s²)",
-                fig(w.from_si(mr.self_weight)),
-                w.name
-            ));
-        }
-        s.push('\n');
-        for (p, at) in &mb.points {
-            s.push_str(&format!(
-                "- point load {} {} at {} {l}\n",
-                fig(f.from_si(*p)),
-                f.name,
-                plain(u.metres(*at))
-            ));
-        }
-        let at = |x: Option<f64>| {
-            x.map_or(String::new(), |x| {
-                format!(" at x = {} {l}", fig(u.metres(x)))
-            })
-        };
-        let r = mr.result.as_ref();
-        s.push_str(&format!(
-            "- Mmax = {} {}{}\n- Vmax = {} {}{}\n",
-            fig(m.from_si(mr.m_max)),
-            m.name,
-            at(r.map(|r| r.m_max_at)),
-            fig(f.from_si(mr.v_max)),
+    }
+    out.push(own(load));
+    for (p, at) in &mb.points {
+        out.push(own(format!(
+            "point load {} {} at {} {l}",
+            fig(f.from_si(*p)),
             f.name,
-            at(r.map(|r| r.v_max_at)),
-        ));
-        match mr.deflection_max {
-            Some(dm) => s.push_str(&format!(
-                "- δmax = {} {}{} against δallow = L/{} = {} {} (ratio {})\n",
-                fig(d.from_si(dm)),
-                d.name,
-                at(r.map(|r| r.deflection_at)),
-                plain(mb.deflection_limit),
-                fig(d.from_si(mr.deflection_allowed)),
-                d.name,
-                fig(dm / mr.deflection_allowed)
-            )),
-            None => s.push_str("- deflection not computed: no modulus of elasticity given\n"),
-        }
-        let fy = a.section.materials.first().and_then(|m| m.fy);
-        s.push_str(&format!(
-            "- σb = Mmax / min(Sx,top, Sx,bot) = {} {}",
-            fig(st.from_si(mr.stress_max)),
-            st.name
-        ));
-        match fy {
-            Some(fy) => s.push_str(&format!(
-                " against fy = {} {} (ratio {})\n",
-                fig(st.from_si(fy)),
-                st.name,
-                fig(mr.stress_max / fy)
-            )),
-            None => s.push_str(" (no fy given)\n"),
-        }
-        match mr.utilization {
-            Some(x) => s.push_str(&format!(
-                "- utilisation = max(σb/fy, δmax/δallow) = {}\n",
-                fig(x)
-            )),
-            None => s.push_str("- utilisation not formed (neither fy nor E given)\n"),
-        }
-        match (mr.mcr, mr.beta_x, a.section.materials.first()) {
-            (Some(x), Some(bx), Some(mat)) => {
-                let side = match mr.mcr_side {
-                    Some(Compressed::PlusY) => "+y side in compression (sagging, s = −1)",
-                    Some(Compressed::MinusY) => "−y side in compression (hogging, s = +1)",
-                    None => "the lower of the values for either side in compression (the moment takes both signs, or none)",
-                };
-                let g_from = match mat.g_source {
-                    ShearModulus::Given => "as given".to_string(),
-                    ShearModulus::FromNu(nu) => format!("E/(2(1 + ν)), ν = {}", plain(nu)),
-                    ShearModulus::DefaultNu => format!("E/(2(1 + ν)), ν = {DEFAULT_NU} assumed"),
-                };
-                s.push_str(&format!(
-                    "- Mcr = {} {}: elastic lateral-torsional buckling of the simple span, \
+            plain(u.metres(*at))
+        )));
+    }
+    let at = |x: Option<f64>| {
+        x.map_or(String::new(), |x| {
+            format!(" at x = {} {l}", fig(u.metres(x)))
+        })
+    };
+    let r = mr.result.as_ref();
+    out.push(own(format!(
+        "Mmax = {} {}{}",
+        fig(m.from_si(mr.m_max)),
+        m.name,
+        at(r.map(|r| r.m_max_at)),
+    )));
+    out.push(own(format!(
+        "Vmax = {} {}{}",
+        fig(f.from_si(mr.v_max)),
+        f.name,
+        at(r.map(|r| r.v_max_at)),
+    )));
+    out.push(own(match mr.deflection_max {
+        Some(dm) => format!(
+            "δmax = {} {}{} against δallow = L/{} = {} {} (ratio {})",
+            fig(d.from_si(dm)),
+            d.name,
+            at(r.map(|r| r.deflection_at)),
+            plain(mb.deflection_limit),
+            fig(d.from_si(mr.deflection_allowed)),
+            d.name,
+            fig(dm / mr.deflection_allowed)
+        ),
+        None => "deflection not computed: no modulus of elasticity given".into(),
+    }));
+    let fy = a.section.materials.first().and_then(|m| m.fy);
+    let mut sb = format!(
+        "σb = Mmax / min(Sx,top, Sx,bot) = {} {}",
+        fig(st.from_si(mr.stress_max)),
+        st.name
+    );
+    match fy {
+        Some(fy) => sb.push_str(&format!(
+            " against fy = {} {} (ratio {})",
+            fig(st.from_si(fy)),
+            st.name,
+            fig(mr.stress_max / fy)
+        )),
+        None => sb.push_str(" (no fy given)"),
+    }
+    out.push(own(sb));
+    out.push(own(match mr.utilization {
+        Some(x) => format!("utilisation = max(σb/fy, δmax/δallow) = {}", fig(x)),
+        None => "utilisation not formed (neither fy nor E given)".into(),
+    }));
+    out.push(match (mr.mcr, mr.beta_x, a.section.materials.first()) {
+        (Some(x), Some(bx), Some(mat)) => {
+            let side = match mr.mcr_side {
+                Some(Compressed::PlusY) => "+y side in compression (sagging, s = −1)",
+                Some(Compressed::MinusY) => "−y side in compression (hogging, s = +1)",
+                None => "the lower of the values for either side in compression (the moment takes both signs, or none)",
+            };
+            let g_from = match mat.g_source {
+                ShearModulus::Given => "as given".to_string(),
+                ShearModulus::FromNu(nu) => format!("E/(2(1 + ν)), ν = {}", plain(nu)),
+                ShearModulus::DefaultNu => format!("E/(2(1 + ν)), ν = {DEFAULT_NU} assumed"),
+            };
+            vec![
+                Span::Own(format!(
+                    "Mcr = {} {}: elastic lateral-torsional buckling of the simple span, \
 Mcr = c1·(π²EIy/L²)·(s·βx/2 + √((βx/2)² + Cw/Iy + GJL²/(π²EIy))) (Trahair, Flexural-Torsional \
 Buckling of Structures, ch. 7; Timoshenko & Gere when βx = 0). Assumed: ends free to warp and \
-prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of {} ({g_from}), \
-βx = {} {l} with the finite-element shear centre, {side}\n",
+prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of ",
                     fig(m.from_si(x)),
                     m.name,
                     plain(mb.c1),
@@ -649,15 +659,18 @@ prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of {}
                     },
                     fig(st.from_si(mat.g)),
                     st.name,
-                    inline(&mat.name),
+                )),
+                Span::User(mat.name.clone()),
+                Span::Own(format!(
+                    " ({g_from}), βx = {} {l} with the finite-element shear centre, {side}",
                     fig(u.metres(bx)),
-                ));
-            }
-            _ => s.push_str(&format!(
-                "- Mcr not computed: {}\n",
-                mr.mcr_note.as_deref().unwrap_or("no value")
-            )),
+                )),
+            ]
         }
-        s.push('\n');
-    }
+        _ => own(format!(
+            "Mcr not computed: {}",
+            mr.mcr_note.as_deref().unwrap_or("no value")
+        )),
+    });
+    out
 }

@@ -4,6 +4,7 @@
 //! they share. Nothing here computes a property; [`composite`] only lays the
 //! composite-area sums out part by part.
 
+pub mod blocks;
 pub mod composite;
 pub mod html;
 pub mod json;

@@ -1,12 +1,263 @@
-//! The results of an analysis as labelled rows (quantity, symbol, value, unit), in
-//! output units. The `kern calc` table, the Markdown sheet and the workbench's result
-//! panel all show these rows, so they always agree.
+//! The one table of results: every quantity kern reports, one line each — its group,
+//! symbol, meaning, JSON path, unit dimension and accessor ([`QUANTITIES`]). The
+//! `kern calc` table, the JSON of `kern calc --json`, the calculation sheet (Markdown
+//! and HTML), the SVG's labels and the workbench's result panel all render from it, so
+//! they always agree. Adding a result is one line in [`QUANTITIES`] (and, if it opens
+//! a new group, its name in [`GROUPS`]).
+//!
+//! One rule for finite-element noise ([`fe_zero`]): a coordinate closer to zero than
+//! the solve's estimated error (relative to the section's size) is zero, in every view.
 
 use super::out::OutUnits;
 use crate::analysis::Analysis;
 use crate::checks::shear_flow::Flow;
+use crate::geom::Pt;
 
-/// One result.
+/// What an accessor finds for one quantity.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Cell {
+    /// Not part of this analysis (torsion not run, no member): no row, no JSON key.
+    Absent,
+    /// Part of the analysis but not formed: a row showing "—", JSON `null`.
+    Null,
+    /// A value in the file's units (lengths) or SI (forces, moments, stresses, mass).
+    Num(f64),
+    /// Text for JSON only (the torsion method).
+    Text(String),
+    /// A count for JSON only (finite elements).
+    Count(usize),
+}
+
+impl From<Option<f64>> for Cell {
+    fn from(x: Option<f64>) -> Cell {
+        x.map_or(Cell::Null, Cell::Num)
+    }
+}
+
+/// The unit dimension of a quantity: how a value is converted to output units and
+/// labelled.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Dim {
+    /// A file length to this power (1 length, 2 area, 4 second moment, 6 warping).
+    L(i32),
+    /// A length given in metres.
+    Metres,
+    /// Degrees.
+    Deg,
+    /// A fraction: JSON gives it as it stands, the views in percent.
+    Fraction,
+    /// A pure number.
+    One,
+    Mass,
+    Force,
+    Moment,
+    Stress,
+    Deflection,
+    /// Not a number (text, counts, the `null` of an object not formed).
+    None,
+}
+
+impl Dim {
+    /// `x` in output units, as JSON gives it.
+    pub fn json(self, x: f64, u: &OutUnits) -> f64 {
+        match self {
+            Dim::L(p) => u.geo(x, p),
+            Dim::Metres => u.metres(x),
+            Dim::Mass => u.mass().from_si(x),
+            Dim::Force => u.force().from_si(x),
+            Dim::Moment => u.moment().from_si(x),
+            Dim::Stress => u.stress().from_si(x),
+            Dim::Deflection => u.deflection().from_si(x),
+            Dim::Deg | Dim::Fraction | Dim::One | Dim::None => x,
+        }
+    }
+    /// `x` as the views show it.
+    pub fn shown(self, x: f64, u: &OutUnits) -> f64 {
+        match self {
+            Dim::Fraction => 100.0 * x,
+            _ => self.json(x, u),
+        }
+    }
+    /// The unit's label in the views.
+    pub fn label(self, u: &OutUnits) -> String {
+        match self {
+            Dim::L(p) => u.label(p),
+            Dim::Metres => u.label(1),
+            Dim::Deg => "°".into(),
+            Dim::Fraction => "%".into(),
+            Dim::One | Dim::None => String::new(),
+            Dim::Mass => u.mass().name.into(),
+            Dim::Force => u.force().name.into(),
+            Dim::Moment => u.moment().name.into(),
+            Dim::Stress => u.stress().name.into(),
+            Dim::Deflection => u.deflection().name.into(),
+        }
+    }
+}
+
+/// One quantity of the table.
+pub struct Quantity {
+    pub group: &'static str,
+    /// Symbol in the views, unique within a section; `""` for JSON-only entries.
+    pub symbol: &'static str,
+    pub meaning: &'static str,
+    /// Dotted path in the JSON object (FORMAT.md).
+    pub path: &'static str,
+    pub dim: Dim,
+    pub get: fn(&Analysis) -> Cell,
+}
+
+impl Quantity {
+    /// Shown as a row in the views (not only in JSON).
+    pub fn shown(&self) -> bool {
+        !self.symbol.is_empty()
+    }
+}
+
+/// Display order of the groups in the views.
+pub const GROUPS: [&str; 12] = [
+    "Area",
+    "Centroid",
+    "Second moments",
+    "Principal axes",
+    "Elastic moduli",
+    "Plastic moduli",
+    "Radii of gyration",
+    "Mass",
+    "Torsion",
+    "Stresses",
+    "Member",
+    "Connections",
+];
+
+fn num(x: f64) -> Cell {
+    Cell::Num(x)
+}
+fn plastic(a: &Analysis, f: fn(&crate::props::Plastic) -> f64) -> Cell {
+    a.props.plastic.as_ref().map_or(Cell::Absent, |z| num(f(z)))
+}
+fn plastic_null(a: &Analysis) -> Cell {
+    if a.props.plastic.is_none() {
+        Cell::Null
+    } else {
+        Cell::Absent
+    }
+}
+fn torsion(a: &Analysis, f: fn(&Analysis, &crate::fe::Torsion) -> Cell) -> Cell {
+    match &a.torsion {
+        Some(Ok(t)) => f(a, t),
+        _ => Cell::Absent,
+    }
+}
+fn torsion_null(a: &Analysis) -> Cell {
+    if matches!(a.torsion, Some(Err(_))) {
+        Cell::Null
+    } else {
+        Cell::Absent
+    }
+}
+fn beta(a: &Analysis, f: fn((f64, f64)) -> f64) -> Cell {
+    match (&a.torsion, a.beta()) {
+        (Some(Ok(_)), Some(b)) => num(f(b)),
+        _ => Cell::Absent,
+    }
+}
+fn beta_null(a: &Analysis) -> Cell {
+    match (&a.torsion, a.beta()) {
+        (Some(Ok(_)), None) => Cell::Null,
+        _ => Cell::Absent,
+    }
+}
+fn stress(a: &Analysis, f: fn(&crate::analysis::StressResult) -> Cell) -> Cell {
+    a.stress.as_ref().map_or(Cell::Absent, f)
+}
+fn member(a: &Analysis, f: fn(&crate::analysis::MemberResult) -> Cell) -> Cell {
+    a.member.as_ref().map_or(Cell::Absent, f)
+}
+
+/// The shear centre with finite-element noise removed ([`fe_zero`]), when torsion
+/// was solved.
+pub fn shear_centre(a: &Analysis) -> Option<Pt> {
+    let t = a.torsion.as_ref()?.as_ref().ok()?;
+    Some(Pt::new(
+        fe_zero(a, t.shear_centre.x, t.rel_error),
+        fe_zero(a, t.shear_centre.y, t.rel_error),
+    ))
+}
+
+/// A finite-element coordinate closer to zero than its estimated error `err`
+/// (relative, taken to the section's size and never below 1e-6) is zero to the
+/// figures shown: a symmetric section's shear centre, say.
+pub fn fe_zero(a: &Analysis, x: f64, err: f64) -> f64 {
+    let b = a.props.bounds;
+    let size = (b[1] - b[0]).max(b[3] - b[2]);
+    if x.abs() < err.max(1e-6) * size {
+        0.0
+    } else {
+        x
+    }
+}
+
+/// Every quantity, in JSON order (FORMAT.md); the views show the ones with a symbol,
+/// grouped in [`GROUPS`] order.
+#[rustfmt::skip]
+pub static QUANTITIES: &[Quantity] = &[
+    Quantity { group: "Area", symbol: "A", meaning: "net area (voids subtracted, other materials by modular ratio)", path: "area", dim: Dim::L(2), get: |a| num(a.props.area) },
+    Quantity { group: "Centroid", symbol: "x̄", meaning: "centroid, x", path: "centroid.x", dim: Dim::L(1), get: |a| num(a.props.centroid.x) },
+    Quantity { group: "Centroid", symbol: "ȳ", meaning: "centroid, y", path: "centroid.y", dim: Dim::L(1), get: |a| num(a.props.centroid.y) },
+    Quantity { group: "Bounds", symbol: "", meaning: "least x of the section", path: "bounds.xmin", dim: Dim::L(1), get: |a| num(a.props.bounds[0]) },
+    Quantity { group: "Bounds", symbol: "", meaning: "greatest x of the section", path: "bounds.xmax", dim: Dim::L(1), get: |a| num(a.props.bounds[1]) },
+    Quantity { group: "Bounds", symbol: "", meaning: "least y of the section", path: "bounds.ymin", dim: Dim::L(1), get: |a| num(a.props.bounds[2]) },
+    Quantity { group: "Bounds", symbol: "", meaning: "greatest y of the section", path: "bounds.ymax", dim: Dim::L(1), get: |a| num(a.props.bounds[3]) },
+    Quantity { group: "Second moments", symbol: "Ixx", meaning: "about the centroidal axis parallel to x", path: "inertia.xx", dim: Dim::L(4), get: |a| num(a.props.ixx) },
+    Quantity { group: "Second moments", symbol: "Iyy", meaning: "about the centroidal axis parallel to y", path: "inertia.yy", dim: Dim::L(4), get: |a| num(a.props.iyy) },
+    Quantity { group: "Second moments", symbol: "Ixy", meaning: "product of inertia about the centroid", path: "inertia.xy", dim: Dim::L(4), get: |a| num(a.props.ixy) },
+    Quantity { group: "Principal axes", symbol: "I1", meaning: "major principal second moment", path: "principal.i1", dim: Dim::L(4), get: |a| num(a.props.principal.i1) },
+    Quantity { group: "Principal axes", symbol: "I2", meaning: "minor principal second moment", path: "principal.i2", dim: Dim::L(4), get: |a| num(a.props.principal.i2) },
+    Quantity { group: "Principal axes", symbol: "θ", meaning: "angle from +x to the major axis, counter-clockwise", path: "principal.angle_deg", dim: Dim::Deg, get: |a| num(a.props.principal.angle_deg) },
+    Quantity { group: "Elastic moduli", symbol: "Sx,top", meaning: "Ixx / (ymax − ȳ)", path: "elastic_modulus.x_top", dim: Dim::L(3), get: |a| num(a.props.elastic.x_top) },
+    Quantity { group: "Elastic moduli", symbol: "Sx,bot", meaning: "Ixx / (ȳ − ymin)", path: "elastic_modulus.x_bottom", dim: Dim::L(3), get: |a| num(a.props.elastic.x_bottom) },
+    Quantity { group: "Elastic moduli", symbol: "Sy,left", meaning: "Iyy / (x̄ − xmin)", path: "elastic_modulus.y_left", dim: Dim::L(3), get: |a| num(a.props.elastic.y_left) },
+    Quantity { group: "Elastic moduli", symbol: "Sy,right", meaning: "Iyy / (xmax − x̄)", path: "elastic_modulus.y_right", dim: Dim::L(3), get: |a| num(a.props.elastic.y_right) },
+    Quantity { group: "Plastic moduli", symbol: "", meaning: "no plastic moduli (not formed)", path: "plastic_modulus", dim: Dim::None, get: plastic_null },
+    Quantity { group: "Plastic moduli", symbol: "Zx", meaning: "plastic modulus about the axis parallel to x", path: "plastic_modulus.x", dim: Dim::L(3), get: |a| plastic(a, |z| z.zx) },
+    Quantity { group: "Plastic moduli", symbol: "Zy", meaning: "plastic modulus about the axis parallel to y", path: "plastic_modulus.y", dim: Dim::L(3), get: |a| plastic(a, |z| z.zy) },
+    Quantity { group: "Plastic moduli", symbol: "", meaning: "no plastic neutral axes (not formed)", path: "plastic_axis", dim: Dim::None, get: plastic_null },
+    Quantity { group: "Plastic moduli", symbol: "yp", meaning: "height of the plastic neutral axis", path: "plastic_axis.y", dim: Dim::L(1), get: |a| plastic(a, |z| z.y) },
+    Quantity { group: "Plastic moduli", symbol: "xp", meaning: "position of the plastic neutral axis parallel to y", path: "plastic_axis.x", dim: Dim::L(1), get: |a| plastic(a, |z| z.x) },
+    Quantity { group: "Radii of gyration", symbol: "rx", meaning: "√(Ixx/A)", path: "gyration.x", dim: Dim::L(1), get: |a| num(a.props.gyration.x) },
+    Quantity { group: "Radii of gyration", symbol: "ry", meaning: "√(Iyy/A)", path: "gyration.y", dim: Dim::L(1), get: |a| num(a.props.gyration.y) },
+    Quantity { group: "Radii of gyration", symbol: "rmin", meaning: "√(I2/A)", path: "gyration.min", dim: Dim::L(1), get: |a| num(a.props.gyration.min) },
+    Quantity { group: "Torsion", symbol: "", meaning: "torsion failed (the warning says why)", path: "torsion", dim: Dim::None, get: torsion_null },
+    Quantity { group: "Torsion", symbol: "J", meaning: "Saint-Venant torsion constant", path: "torsion.j", dim: Dim::L(4), get: |a| torsion(a, |_, t| num(t.j)) },
+    Quantity { group: "Torsion", symbol: "Cw", meaning: "warping constant about the shear centre", path: "torsion.cw", dim: Dim::L(6), get: |a| torsion(a, |_, t| num(t.cw)) },
+    Quantity { group: "Torsion", symbol: "xs", meaning: "shear centre, x", path: "torsion.shear_centre.x", dim: Dim::L(1), get: |a| shear_centre(a).map_or(Cell::Absent, |s| num(s.x)) },
+    Quantity { group: "Torsion", symbol: "ys", meaning: "shear centre, y", path: "torsion.shear_centre.y", dim: Dim::L(1), get: |a| shear_centre(a).map_or(Cell::Absent, |s| num(s.y)) },
+    Quantity { group: "Torsion", symbol: "", meaning: "finite-element method", path: "torsion.method", dim: Dim::None, get: |a| torsion(a, |_, t| Cell::Text(t.method.clone())) },
+    Quantity { group: "Torsion", symbol: "err", meaning: "estimated relative error of J and Cw", path: "torsion.rel_error", dim: Dim::Fraction, get: |a| torsion(a, |_, t| num(t.rel_error)) },
+    Quantity { group: "Torsion", symbol: "", meaning: "finite elements", path: "torsion.elements", dim: Dim::None, get: |a| torsion(a, |_, t| Cell::Count(t.elements)) },
+    Quantity { group: "Torsion", symbol: "", meaning: "no monosymmetry constants", path: "torsion.beta", dim: Dim::None, get: beta_null },
+    Quantity { group: "Torsion", symbol: "", meaning: "monosymmetry constant βx", path: "torsion.beta.x", dim: Dim::L(1), get: |a| beta(a, |b| b.0) },
+    Quantity { group: "Torsion", symbol: "", meaning: "monosymmetry constant βy", path: "torsion.beta.y", dim: Dim::L(1), get: |a| beta(a, |b| b.1) },
+    Quantity { group: "Mass", symbol: "m", meaning: "mass per length", path: "mass_per_length", dim: Dim::Mass, get: |a| a.mass_per_metre().map_or(Cell::Absent, num) },
+    Quantity { group: "Stresses", symbol: "σmax", meaning: "largest normal stress (tension +)", path: "stress.max_tension.value", dim: Dim::Stress, get: |a| stress(a, |s| num(s.extremes.max_tension.value)) },
+    Quantity { group: "Stresses", symbol: "", meaning: "where the largest stress is, x", path: "stress.max_tension.x", dim: Dim::L(1), get: |a| stress(a, |s| num(s.extremes.max_tension.x)) },
+    Quantity { group: "Stresses", symbol: "", meaning: "where the largest stress is, y", path: "stress.max_tension.y", dim: Dim::L(1), get: |a| stress(a, |s| num(s.extremes.max_tension.y)) },
+    Quantity { group: "Stresses", symbol: "σmin", meaning: "smallest normal stress (compression −)", path: "stress.max_compression.value", dim: Dim::Stress, get: |a| stress(a, |s| num(s.extremes.max_compression.value)) },
+    Quantity { group: "Stresses", symbol: "", meaning: "where the smallest stress is, x", path: "stress.max_compression.x", dim: Dim::L(1), get: |a| stress(a, |s| num(s.extremes.max_compression.x)) },
+    Quantity { group: "Stresses", symbol: "", meaning: "where the smallest stress is, y", path: "stress.max_compression.y", dim: Dim::L(1), get: |a| stress(a, |s| num(s.extremes.max_compression.y)) },
+    Quantity { group: "Stresses", symbol: "NA", meaning: "angle of the neutral axis from +x", path: "stress.neutral_axis_angle_deg", dim: Dim::Deg, get: |a| stress(a, |s| s.neutral_axis_angle_deg.into()) },
+    Quantity { group: "Member", symbol: "Mmax", meaning: "largest bending moment", path: "member.m_max", dim: Dim::Moment, get: |a| member(a, |m| num(m.m_max)) },
+    Quantity { group: "Member", symbol: "Vmax", meaning: "largest shear force", path: "member.v_max", dim: Dim::Force, get: |a| member(a, |m| num(m.v_max)) },
+    Quantity { group: "Member", symbol: "δmax", meaning: "largest deflection", path: "member.deflection_max", dim: Dim::Deflection, get: |a| member(a, |m| m.deflection_max.into()) },
+    Quantity { group: "Member", symbol: "δallow", meaning: "span / deflection limit", path: "member.deflection_allowed", dim: Dim::Deflection, get: |a| member(a, |m| num(m.deflection_allowed)) },
+    Quantity { group: "Member", symbol: "σb", meaning: "bending stress Mmax / min(Sx)", path: "member.stress_max", dim: Dim::Stress, get: |a| member(a, |m| num(m.stress_max)) },
+    Quantity { group: "Member", symbol: "util", meaning: "utilisation: max(σb/fy, δ/δallow)", path: "member.utilization", dim: Dim::One, get: |a| member(a, |m| m.utilization.into()) },
+    Quantity { group: "Member", symbol: "Mcr", meaning: "elastic critical moment (LTB), simple span, load at the shear centre", path: "member.mcr", dim: Dim::Moment, get: |a| member(a, |m| m.mcr.into()) },
+    Quantity { group: "Member", symbol: "", meaning: "monosymmetry constant βx used for Mcr", path: "member.beta_x", dim: Dim::Metres, get: |a| member(a, |m| m.beta_x.into()) },
+];
+
+/// One result as the views show it.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Row {
     /// The group heading the row belongs to (e.g. "Second moments").
@@ -19,344 +270,109 @@ pub struct Row {
     pub meaning: &'static str,
 }
 
-/// Rows for every property, then torsion, stresses and the member check when present.
+/// The rows of every shown quantity present in `a`, grouped in [`GROUPS`] order, then
+/// the connections', in output units; a value that is not a finite number is `None`.
 pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
-    let p = &a.props;
-    let mut out = Vec::new();
-    let mut add = |group: &'static str,
-                   symbol: &str,
-                   value: Option<f64>,
-                   unit: String,
-                   meaning: &'static str| {
-        out.push(Row {
-            group,
-            symbol: symbol.to_string(),
-            value: value.filter(|v| v.is_finite()),
-            unit,
-            meaning,
-        });
-    };
-    let (l1, l2, l3, l4, l6) = (u.label(1), u.label(2), u.label(3), u.label(4), u.label(6));
-    let g = |x: f64, pw| Some(u.geo(x, pw));
-    // A finite-element coordinate closer to zero than its estimated error (relative to
-    // the section's size) is zero to the figures shown: a symmetric section's shear
-    // centre, say.
-    let size = (p.bounds[1] - p.bounds[0]).max(p.bounds[3] - p.bounds[2]);
-    let fe_coord = |x: f64, err: f64| {
-        g(
-            if x.abs() < err.max(1e-6) * size {
-                0.0
-            } else {
-                x
-            },
-            1,
-        )
-    };
-    add(
-        "Area",
-        "A",
-        g(p.area, 2),
-        l2.clone(),
-        "net area (voids subtracted, other materials by modular ratio)",
-    );
-    add(
-        "Centroid",
-        "x̄",
-        g(p.centroid.x, 1),
-        l1.clone(),
-        "centroid, x",
-    );
-    add(
-        "Centroid",
-        "ȳ",
-        g(p.centroid.y, 1),
-        l1.clone(),
-        "centroid, y",
-    );
-    add(
-        "Second moments",
-        "Ixx",
-        g(p.ixx, 4),
-        l4.clone(),
-        "about the centroidal axis parallel to x",
-    );
-    add(
-        "Second moments",
-        "Iyy",
-        g(p.iyy, 4),
-        l4.clone(),
-        "about the centroidal axis parallel to y",
-    );
-    add(
-        "Second moments",
-        "Ixy",
-        g(p.ixy, 4),
-        l4.clone(),
-        "product of inertia about the centroid",
-    );
-    add(
-        "Principal axes",
-        "I1",
-        g(p.principal.i1, 4),
-        l4.clone(),
-        "major principal second moment",
-    );
-    add(
-        "Principal axes",
-        "I2",
-        g(p.principal.i2, 4),
-        l4.clone(),
-        "minor principal second moment",
-    );
-    add(
-        "Principal axes",
-        "θ",
-        Some(p.principal.angle_deg),
-        "°".into(),
-        "angle from +x to the major axis, counter-clockwise",
-    );
-    add(
-        "Elastic moduli",
-        "Sx,top",
-        g(p.elastic.x_top, 3),
-        l3.clone(),
-        "Ixx / (ymax − ȳ)",
-    );
-    add(
-        "Elastic moduli",
-        "Sx,bot",
-        g(p.elastic.x_bottom, 3),
-        l3.clone(),
-        "Ixx / (ȳ − ymin)",
-    );
-    add(
-        "Elastic moduli",
-        "Sy,left",
-        g(p.elastic.y_left, 3),
-        l3.clone(),
-        "Iyy / (x̄ − xmin)",
-    );
-    add(
-        "Elastic moduli",
-        "Sy,right",
-        g(p.elastic.y_right, 3),
-        l3.clone(),
-        "Iyy / (xmax − x̄)",
-    );
-    if let Some(z) = p.plastic {
-        add(
-            "Plastic moduli",
-            "Zx",
-            g(z.zx, 3),
-            l3.clone(),
-            "plastic modulus about the axis parallel to x",
-        );
-        add(
-            "Plastic moduli",
-            "Zy",
-            g(z.zy, 3),
-            l3.clone(),
-            "plastic modulus about the axis parallel to y",
-        );
-        add(
-            "Plastic moduli",
-            "yp",
-            g(z.y, 1),
-            l1.clone(),
-            "height of the plastic neutral axis",
-        );
-        add(
-            "Plastic moduli",
-            "xp",
-            g(z.x, 1),
-            l1.clone(),
-            "position of the plastic neutral axis parallel to y",
-        );
-    }
-    add(
-        "Radii of gyration",
-        "rx",
-        g(p.gyration.x, 1),
-        l1.clone(),
-        "√(Ixx/A)",
-    );
-    add(
-        "Radii of gyration",
-        "ry",
-        g(p.gyration.y, 1),
-        l1.clone(),
-        "√(Iyy/A)",
-    );
-    add(
-        "Radii of gyration",
-        "rmin",
-        g(p.gyration.min, 1),
-        l1.clone(),
-        "√(I2/A)",
-    );
-    if let Some(m) = a.mass_per_metre() {
-        add(
-            "Mass",
-            "m",
-            Some(u.mass().from_si(m)),
-            u.mass().name.into(),
-            "mass per length",
-        );
-    }
-    if let Some(Ok(t)) = &a.torsion {
-        add(
-            "Torsion",
-            "J",
-            g(t.j, 4),
-            l4.clone(),
-            "Saint-Venant torsion constant",
-        );
-        add(
-            "Torsion",
-            "Cw",
-            g(t.cw, 6),
-            l6.clone(),
-            "warping constant about the shear centre",
-        );
-        add(
-            "Torsion",
-            "xs",
-            fe_coord(t.shear_centre.x, t.rel_error),
-            l1.clone(),
-            "shear centre, x",
-        );
-        add(
-            "Torsion",
-            "ys",
-            fe_coord(t.shear_centre.y, t.rel_error),
-            l1.clone(),
-            "shear centre, y",
-        );
-        add(
-            "Torsion",
-            "err",
-            Some(100.0 * t.rel_error),
-            "%".into(),
-            "estimated relative error of J and Cw",
-        );
-    }
-    let su = u.stress();
-    if let Some(s) = &a.stress {
-        add(
-            "Stresses",
-            "σmax",
-            Some(su.from_si(s.extremes.max_tension.value)),
-            su.name.into(),
-            "largest normal stress (tension +)",
-        );
-        add(
-            "Stresses",
-            "σmin",
-            Some(su.from_si(s.extremes.max_compression.value)),
-            su.name.into(),
-            "smallest normal stress (compression −)",
-        );
-        add(
-            "Stresses",
-            "NA",
-            s.neutral_axis_angle_deg,
-            "°".into(),
-            "angle of the neutral axis from +x",
-        );
-    }
-    if let Some(m) = &a.member {
-        let d = u.deflection();
-        add(
-            "Member",
-            "Mmax",
-            Some(u.moment().from_si(m.m_max)),
-            u.moment().name.into(),
-            "largest bending moment",
-        );
-        add(
-            "Member",
-            "Vmax",
-            Some(u.force().from_si(m.v_max)),
-            u.force().name.into(),
-            "largest shear force",
-        );
-        add(
-            "Member",
-            "δmax",
-            m.deflection_max.map(|x| d.from_si(x)),
-            d.name.into(),
-            "largest deflection",
-        );
-        add(
-            "Member",
-            "δallow",
-            Some(d.from_si(m.deflection_allowed)),
-            d.name.into(),
-            "span / deflection limit",
-        );
-        add(
-            "Member",
-            "σb",
-            Some(su.from_si(m.stress_max)),
-            su.name.into(),
-            "bending stress Mmax / min(Sx)",
-        );
-        add(
-            "Member",
-            "util",
-            m.utilization,
-            "".into(),
-            "utilisation: max(σb/fy, δ/δallow)",
-        );
-        add(
-            "Member",
-            "Mcr",
-            m.mcr.map(|x| u.moment().from_si(x)),
-            u.moment().name.into(),
-            "elastic critical moment (LTB), simple span, load at the shear centre",
-        );
-    }
+    let mut out: Vec<Row> = QUANTITIES
+        .iter()
+        .filter(|q| q.shown())
+        .filter_map(|q| {
+            let value = match (q.get)(a) {
+                Cell::Num(x) => Some(q.dim.shown(x, u)),
+                Cell::Null => None,
+                _ => return None,
+            };
+            Some(Row {
+                group: q.group,
+                symbol: q.symbol.to_string(),
+                value: value.filter(|v| v.is_finite()),
+                unit: q.dim.label(u),
+                meaning: q.meaning,
+            })
+        })
+        .collect();
+    out.sort_by_key(|r| GROUPS.iter().position(|g| *g == r.group));
+    out.extend(connection_rows(a, u));
+    out
+}
+
+/// The rows of the joints between parts: length, and the shear flow under the actions
+/// and at the member's Vmax when those are given.
+fn connection_rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
     let qu = u.shear_flow();
     let shear_given = a
         .section
         .actions
         .is_some_and(|x| x.vx.is_some() || x.vy.is_some());
+    let closed_note = "joint on a closed cell: flow needs the flexure solution (not computed)";
+    let mut out = Vec::new();
     for c in &a.connections {
         let pair = format!("{}–{}", a.pieces[c.joint.a].name, a.pieces[c.joint.b].name);
-        add(
-            "Connections",
-            &format!("L {pair}"),
-            g(c.joint.length, 1),
-            l1.clone(),
-            "length of the boundary the two parts share",
-        );
         let closed = c.flow == Flow::ClosedCell;
+        let row = |symbol: String, value: Option<f64>, unit: String, meaning| Row {
+            group: "Connections",
+            symbol,
+            value: value.filter(|v| v.is_finite()),
+            unit,
+            meaning,
+        };
+        out.push(row(
+            format!("L {pair}"),
+            Some(u.geo(c.joint.length, 1)),
+            u.label(1),
+            "length of the boundary the two parts share",
+        ));
         if shear_given {
-            add(
-                "Connections",
-                &format!("q {pair}"),
+            out.push(row(
+                format!("q {pair}"),
                 a.connection_flow(c).map(|q| qu.from_si(q)),
                 qu.name.into(),
                 if closed {
-                    "joint on a closed cell: flow needs the flexure solution (not computed)"
+                    closed_note
                 } else {
                     "shear flow across the joint under Vx, Vy of [actions]"
                 },
-            );
+            ));
         }
         if a.member.is_some() {
-            add(
-                "Connections",
-                &format!("q@Vmax {pair}"),
+            out.push(row(
+                format!("q@Vmax {pair}"),
                 a.connection_flow_at_vmax(c).map(|q| qu.from_si(q)),
                 qu.name.into(),
                 if closed {
-                    "joint on a closed cell: flow needs the flexure solution (not computed)"
+                    closed_note
                 } else {
                     "shear flow across the joint at the member's Vmax (vertical shear)"
                 },
-            );
+            ));
         }
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_table_is_well_formed() {
+        // One quantity per JSON path and per shown symbol; every group has a place.
+        let mut paths: Vec<&str> = QUANTITIES.iter().map(|q| q.path).collect();
+        paths.sort_unstable();
+        let n = paths.len();
+        paths.dedup();
+        assert_eq!(paths.len(), n, "a JSON path twice");
+        let mut syms: Vec<&str> = QUANTITIES
+            .iter()
+            .filter(|q| q.shown())
+            .map(|q| q.symbol)
+            .collect();
+        syms.sort_unstable();
+        let n = syms.len();
+        syms.dedup();
+        assert_eq!(syms.len(), n, "a symbol twice");
+        for q in QUANTITIES.iter().filter(|q| q.shown()) {
+            assert!(GROUPS.contains(&q.group), "{} has no place", q.group);
+        }
+    }
 }

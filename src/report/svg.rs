@@ -245,8 +245,8 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         }
     }
     // The shear centre, when torsion is known.
-    if let Some(Ok(t)) = &a.torsion {
-        let (sx, sy) = (v.x(t.shear_centre.x), v.y(t.shear_centre.y));
+    if let Some(sc) = super::rows::shear_centre(a) {
+        let (sx, sy) = (v.x(sc.x), v.y(sc.y));
         s.push_str(&format!(
             "<rect x=\"{}\" y=\"{}\" width=\"8\" height=\"8\" fill=\"none\" stroke=\"#b36b00\" stroke-width=\"1.4\" transform=\"rotate(45 {} {})\"/>\n",
             n(sx - 4.0),
@@ -258,8 +258,8 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
             "<text x=\"{}\" y=\"{}\" fill=\"#b36b00\">S ({}, {}) {l}</text>\n",
             n(sx + 9.0),
             n(sy + 16.0),
-            val(t.shear_centre.x),
-            val(t.shear_centre.y)
+            val(sc.x),
+            val(sc.y)
         ));
         legend.push("S: shear centre");
     }
