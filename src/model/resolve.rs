@@ -64,6 +64,8 @@ pub struct Part {
     pub shape: Shape,
     pub placement: Placement,
     pub void: bool,
+    /// A local void (FORMAT.md "Gross and net"); `hole` implies `void`.
+    pub hole: bool,
     pub enabled: bool,
     pub material: Option<usize>,
 }
@@ -513,6 +515,7 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
             flip_y: p.flip_y,
         },
         void: p.void,
+        hole: p.hole,
         enabled: p.enabled,
         material,
     })

@@ -12,25 +12,15 @@ use serde_json::{json, Value};
 
 /// The JSON object for one analysed file.
 pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
-    let p = &a.props;
     let g = |x: f64, pw: i32| u.geo(x, pw);
     let mut o = json!({
         "file": clean(file),
         "title": clean(a.section.title.as_deref().unwrap_or_default()),
         "units": u.length.name(),
-        "area": g(p.area, 2),
-        "centroid": { "x": g(p.centroid.x, 1), "y": g(p.centroid.y, 1) },
-        "bounds": { "xmin": g(p.bounds[0], 1), "xmax": g(p.bounds[1], 1), "ymin": g(p.bounds[2], 1), "ymax": g(p.bounds[3], 1) },
-        "inertia": { "xx": g(p.ixx, 4), "yy": g(p.iyy, 4), "xy": g(p.ixy, 4) },
-        "principal": { "i1": g(p.principal.i1, 4), "i2": g(p.principal.i2, 4), "angle_deg": p.principal.angle_deg },
-        "elastic_modulus": {
-            "x_top": g(p.elastic.x_top, 3), "x_bottom": g(p.elastic.x_bottom, 3),
-            "y_left": g(p.elastic.y_left, 3), "y_right": g(p.elastic.y_right, 3)
-        },
-        "plastic_modulus": p.plastic.map(|z| json!({ "x": g(z.zx, 3), "y": g(z.zy, 3) })),
-        "plastic_axis": p.plastic.map(|z| json!({ "y": g(z.y, 1), "x": g(z.x, 1) })),
-        "gyration": { "x": g(p.gyration.x, 1), "y": g(p.gyration.y, 1), "min": g(p.gyration.min, 1) },
     });
+    if let (Some(obj), Value::Object(props)) = (o.as_object_mut(), section_json(&a.props, u)) {
+        obj.extend(props);
+    }
     let Some(obj) = o.as_object_mut() else {
         return o;
     };
@@ -50,6 +40,14 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
             obj.insert("torsion".into(), Value::Null);
         }
         None => {}
+    }
+    if let Some(n) = &a.net {
+        let mut net = section_json(&n.props, u);
+        if let Some(o) = net.as_object_mut() {
+            o.remove("bounds");
+            o.remove("plastic_axis");
+        }
+        obj.insert("net".into(), net);
     }
     if let Some(m) = a.mass_per_metre() {
         obj.insert("mass_per_length".into(), json!(u.mass().from_si(m)));
@@ -86,6 +84,9 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
                 "beta_x": m.beta_x.map(|x| u.metres(x)),
             }),
         );
+        if let (Some(gm), Some(mo)) = (&m.governing_material, obj.get_mut("member")) {
+            mo["governing_material"] = json!(clean(gm));
+        }
     }
     let qu = u.shear_flow();
     let connections: Vec<Value> = a
@@ -112,4 +113,23 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
         json!(a.warnings.iter().map(|w| clean(w)).collect::<Vec<_>>()),
     );
     o
+}
+
+/// The properties of one section (gross or net) under FORMAT.md's keys.
+fn section_json(p: &crate::props::Properties, u: &OutUnits) -> Value {
+    let g = |x: f64, pw: i32| u.geo(x, pw);
+    json!({
+        "area": g(p.area, 2),
+        "centroid": { "x": g(p.centroid.x, 1), "y": g(p.centroid.y, 1) },
+        "bounds": { "xmin": g(p.bounds[0], 1), "xmax": g(p.bounds[1], 1), "ymin": g(p.bounds[2], 1), "ymax": g(p.bounds[3], 1) },
+        "inertia": { "xx": g(p.ixx, 4), "yy": g(p.iyy, 4), "xy": g(p.ixy, 4) },
+        "principal": { "i1": g(p.principal.i1, 4), "i2": g(p.principal.i2, 4), "angle_deg": p.principal.angle_deg },
+        "elastic_modulus": {
+            "x_top": g(p.elastic.x_top, 3), "x_bottom": g(p.elastic.x_bottom, 3),
+            "y_left": g(p.elastic.y_left, 3), "y_right": g(p.elastic.y_right, 3)
+        },
+        "plastic_modulus": p.plastic.map(|z| json!({ "x": g(z.zx, 3), "y": g(z.zy, 3) })),
+        "plastic_axis": p.plastic.map(|z| json!({ "y": g(z.y, 1), "x": g(z.x, 1) })),
+        "gyration": { "x": g(p.gyration.x, 1), "y": g(p.gyration.y, 1), "min": g(p.gyration.min, 1) },
+    })
 }
