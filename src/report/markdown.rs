@@ -7,7 +7,7 @@
 use super::composite::{terms, totals};
 use super::out::OutUnits;
 use super::rows::rows;
-use super::table::FIGURES;
+use super::table::{section_of, FIGURES};
 use super::CAUTION;
 use crate::analysis::{Analysis, GRAVITY};
 use crate::checks::ltb::Compressed;
@@ -213,10 +213,11 @@ with its modular ratio n = E / E_ref.\n\n",
             if pl.flip_y {
                 flips.push("y");
             }
-            let kind = match (p.enabled, p.void) {
-                (false, _) => "disabled",
-                (true, true) => "void",
-                (true, false) => "solid",
+            let kind = match (p.enabled, p.void, p.hole) {
+                (false, _, _) => "disabled",
+                (true, _, true) => "hole (net section only)",
+                (true, true, false) => "void",
+                (true, false, false) => "solid",
             };
             vec![
                 format!("{}", i + 1),
@@ -359,10 +360,14 @@ fn results(s: &mut String, a: &Analysis, u: &OutUnits) {
     let body: Vec<Vec<String>> = rs
         .iter()
         .map(|r| {
-            let head = if r.group != group { r.group } else { "" };
+            let head = match (r.group != group, a.net.is_some()) {
+                (false, _) => String::new(),
+                (true, false) => r.group.to_string(),
+                (true, true) => format!("{} ({})", r.group, section_of(r.group)),
+            };
             group = r.group;
             vec![
-                head.to_string(),
+                head,
                 inline(&r.symbol),
                 r.value.map_or("—".into(), fig),
                 r.unit.clone(),
@@ -370,6 +375,13 @@ fn results(s: &mut String, a: &Analysis, u: &OutUnits) {
             ]
         })
         .collect();
+    if a.net.is_some() {
+        s.push_str(
+            "The section has holes: the gross section leaves them out and gives stiffness, \
+torsion, the shear centre, Mcr, self-weight and deflections; the net section subtracts them and \
+gives the stresses and the member's bending stress. Each group names its section.\n\n",
+        );
+    }
     table(s, &["group", "symbol", "value", "unit", "meaning"], &body);
     match &a.torsion {
         None => s.push_str("Torsion was not computed for this sheet.\n\n"),
@@ -596,24 +608,33 @@ formula for unsymmetric sections.\n\n",
             )),
             None => s.push_str("- deflection not computed: no modulus of elasticity given\n"),
         }
-        let fy = a.section.materials.first().and_then(|m| m.fy);
-        s.push_str(&format!(
-            "- σb = Mmax / min(Sx,top, Sx,bot) = {} {}",
-            fig(st.from_si(mr.stress_max)),
-            st.name
-        ));
-        match fy {
-            Some(fy) => s.push_str(&format!(
-                " against fy = {} {} (ratio {})\n",
-                fig(st.from_si(fy)),
-                st.name,
-                fig(mr.stress_max / fy)
-            )),
-            None => s.push_str(" (no fy given)\n"),
+        let net = if a.net.is_some() { ", net section" } else { "" };
+        for f in &mr.fibres {
+            let name = f
+                .material
+                .as_deref()
+                .map_or(String::new(), |m| format!(" in {}", inline(m)));
+            s.push_str(&format!(
+                "- σb{name} = n·Mmax·c/Ixx = {} {} (c to its own farthest fibre{net})",
+                fig(st.from_si(f.stress)),
+                st.name
+            ));
+            match f.fy {
+                Some(fy) => s.push_str(&format!(
+                    " against fy = {} {} (ratio {})\n",
+                    fig(st.from_si(fy)),
+                    st.name,
+                    fig(f.stress / fy)
+                )),
+                None => s.push_str(" (no fy given: not in the utilisation)\n"),
+            }
+        }
+        if let Some(gm) = &mr.governing_material {
+            s.push_str(&format!("- governing material: {}\n", inline(gm)));
         }
         match mr.utilization {
             Some(x) => s.push_str(&format!(
-                "- utilisation = max(σb/fy, δmax/δallow) = {}\n",
+                "- utilisation = max(σb/fy of each material, δmax/δallow) = {}\n",
                 fig(x)
             )),
             None => s.push_str("- utilisation not formed (neither fy nor E given)\n"),

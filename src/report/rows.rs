@@ -194,6 +194,11 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
         l1.clone(),
         "√(I2/A)",
     );
+    if let Some(n) = &a.net {
+        for r in net_rows(&n.props, u) {
+            add(r.group, &r.symbol, r.value, r.unit, r.meaning);
+        }
+    }
     if let Some(m) = a.mass_per_metre() {
         add(
             "Mass",
@@ -299,14 +304,14 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
             "σb",
             Some(su.from_si(m.stress_max)),
             su.name.into(),
-            "bending stress Mmax / min(Sx)",
+            "bending stress: the largest n·Mmax·c/Ixx over the materials",
         );
         add(
             "Member",
             "util",
             m.utilization,
             "".into(),
-            "utilisation: max(σb/fy, δ/δallow)",
+            "utilisation: max(σ/fy of each material, δ/δallow)",
         );
         add(
             "Member",
@@ -358,5 +363,85 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
             );
         }
     }
+    out
+}
+
+/// The group of rows for the net section (holes subtracted; FORMAT.md "Gross and
+/// net"), symbols marked ",net" so they never match a gross row.
+fn net_rows(p: &crate::props::Properties, u: &OutUnits) -> Vec<Row> {
+    let g = |x: f64, pw| Some(u.geo(x, pw)).filter(|v| v.is_finite());
+    let row = |symbol: &str, value: Option<f64>, pw: i32, meaning: &'static str| Row {
+        group: "Net section",
+        symbol: format!("{symbol},net"),
+        value,
+        unit: u.label(pw),
+        meaning,
+    };
+    let mut out = vec![
+        row("A", g(p.area, 2), 2, "area with the holes subtracted"),
+        row("x̄", g(p.centroid.x, 1), 1, "centroid of the net section, x"),
+        row("ȳ", g(p.centroid.y, 1), 1, "centroid of the net section, y"),
+        row(
+            "Ixx",
+            g(p.ixx, 4),
+            4,
+            "net, about its centroidal axis parallel to x",
+        ),
+        row(
+            "Iyy",
+            g(p.iyy, 4),
+            4,
+            "net, about its centroidal axis parallel to y",
+        ),
+        row(
+            "Ixy",
+            g(p.ixy, 4),
+            4,
+            "net product of inertia about its centroid",
+        ),
+        row(
+            "I1",
+            g(p.principal.i1, 4),
+            4,
+            "net major principal second moment",
+        ),
+        row(
+            "I2",
+            g(p.principal.i2, 4),
+            4,
+            "net minor principal second moment",
+        ),
+        row("Sx,top", g(p.elastic.x_top, 3), 3, "net Ixx / (ymax − ȳ)"),
+        row(
+            "Sx,bot",
+            g(p.elastic.x_bottom, 3),
+            3,
+            "net Ixx / (ȳ − ymin)",
+        ),
+        row("Sy,left", g(p.elastic.y_left, 3), 3, "net Iyy / (x̄ − xmin)"),
+        row(
+            "Sy,right",
+            g(p.elastic.y_right, 3),
+            3,
+            "net Iyy / (xmax − x̄)",
+        ),
+    ];
+    if let Some(z) = p.plastic {
+        out.push(row(
+            "Zx",
+            g(z.zx, 3),
+            3,
+            "net plastic modulus, axis parallel to x",
+        ));
+        out.push(row(
+            "Zy",
+            g(z.zy, 3),
+            3,
+            "net plastic modulus, axis parallel to y",
+        ));
+    }
+    out.push(row("rx", g(p.gyration.x, 1), 1, "net √(Ixx/A)"));
+    out.push(row("ry", g(p.gyration.y, 1), 1, "net √(Iyy/A)"));
+    out.push(row("rmin", g(p.gyration.min, 1), 1, "net √(I2/A)"));
     out
 }
