@@ -197,7 +197,6 @@ impl Analysis {
         match &t {
             Ok(t) => {
                 self.warnings.extend(t.warnings.iter().cloned());
-                self.warnings.extend(self.shear_ratio_note());
             }
             Err(e) => self.warnings.push(format!("torsion not computed: {e}")),
         }
@@ -300,26 +299,6 @@ impl Analysis {
         }
         notes.extend(self.member.as_ref().and_then(|m| m.mcr_warning.clone()));
         notes
-    }
-
-    /// A warning when the materials in use have shear moduli that are not in the ratio
-    /// of their E: torsion weights each part by n = E/E_ref (one ν for all), so J, Cw
-    /// and the shear centre are then approximate.
-    fn shear_ratio_note(&self) -> Option<String> {
-        let mats = &self.section.materials;
-        let r = mats.first()?;
-        let off = self
-            .pieces
-            .iter()
-            .filter_map(|p| p.material.and_then(|i| mats.get(i)))
-            .find(|m| ((m.g / r.g) - (m.e / r.e)).abs() > 1e-6 * (m.e / r.e))?;
-        Some(format!(
-            "torsion weights each part by E/E_ref, but material {} has G/G_ref = {} against \
-E/E_ref = {} (a different Poisson's ratio): J, Cw and the shear centre are approximate",
-            off.name,
-            crate::numfmt::sig(off.g / r.g, 4),
-            crate::numfmt::sig(off.e / r.e, 4)
-        ))
     }
 
     /// The monosymmetry constants (βx, βy) in the file's length unit, with the

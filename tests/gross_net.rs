@@ -106,9 +106,7 @@ fn no_holes_no_net() {
 #[test]
 fn hole_with_void_false_is_an_error_at_the_key() {
     let text = "format = 1\nunits = \"mm\"\n[[parts]]\nshape = \"rect\"\nb = 10\nh = 20\n[[parts]]\nshape = \"circle\"\nd = 2\nhole = true\nvoid = false\n";
-    let d = Analysis::of_text(text, &Options::default())
-        .err()
-        .expect("an error");
+    let d = Analysis::of_text(text, &Options::default()).expect_err("an error");
     assert!(d.message.contains("hole = true"), "{}", d.message);
     assert_eq!(&text[d.span.clone()], "false");
     // `hole = true` alone is a void, and `void = true` with it is fine.
@@ -209,4 +207,42 @@ fn net_section_json_keys() {
     ] {
         assert!(j["net"][k].is_object(), "net.{k}");
     }
+}
+
+#[test]
+fn torsion_weighs_materials_by_g_not_e() {
+    // A 40 mm rod in a 80 × 20 mm tube of another material: the rings do not warp, so
+    // J = Σ (Gᵢ/G_ref)·π(rₒ⁴ − rᵢ⁴)/2 (Timoshenko & Goodier, circular shafts). The tube
+    // (reference) has E = 200 GPa, ν = 0.3, G = 76.92 GPa; the rod E = 100 GPa,
+    // ν = 0.25, G = 40 GPa: G ratio 0.52 where the E ratio is 0.5.
+    let body = r#"
+[[materials]]
+name = "tube"
+E = "200 GPa"
+nu = 0.3
+[[materials]]
+name = "rod"
+E = "100 GPa"
+nu = 0.25
+[[parts]]
+shape = "pipe"
+d = 80
+t = 20
+material = "tube"
+[[parts]]
+shape = "circle"
+d = 40
+material = "rod"
+"#;
+    let opts = Options {
+        torsion: Some(TorsionOptions::default()),
+    };
+    let a = calc_with(body, &opts).unwrap_or_else(|m| panic!("{m}"));
+    let Some(Ok(t)) = &a.torsion else {
+        panic!("torsion not solved")
+    };
+    let ratio = (100.0 / 2.5) / (200.0 / 2.6);
+    let annulus = |ro: f64, ri: f64| PI / 2.0 * (ro.powi(4) - ri.powi(4));
+    close(t.j, ratio * annulus(20.0, 0.0) + annulus(40.0, 20.0), 1e-3);
+    assert!(!a.warnings.iter().any(|w| w.contains("approximate")));
 }
