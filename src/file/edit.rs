@@ -103,6 +103,12 @@ pub enum Edit {
         part: usize,
         flag: Flag,
     },
+    /// The part made a hole (`hole = true`: a void at some cross-sections only, left
+    /// out of the gross section), or a hole made a void everywhere again (`hole =
+    /// false`, `void = true`).
+    ToggleHole {
+        part: usize,
+    },
     /// A part of `shape` appended with default sizes (in `unit`), at the origin.
     AddPart {
         shape: ShapeKind,
@@ -157,6 +163,16 @@ impl Edit {
                     .and_then(Item::as_bool)
                     .unwrap_or(flag.default());
                 set_key(t, flag.key(), Value::from(!now));
+                Ok(())
+            }
+            Edit::ToggleHole { part } => {
+                let t = part_mut(doc, *part)?;
+                let hole = t.get("hole").and_then(Item::as_bool).unwrap_or(false);
+                set_key(t, "hole", Value::from(!hole));
+                // A hole is a void: `void = false` written out would contradict it.
+                if hole || t.get("void").is_some() {
+                    set_key(t, "void", Value::from(true));
+                }
                 Ok(())
             }
             Edit::AddPart { shape, name, unit } => add_part(doc, *shape, name, *unit),

@@ -105,6 +105,7 @@ pub enum Cmd {
     CoarseUp,
     CoarseDown,
     ToggleVoid,
+    ToggleHole,
     ToggleEnabled,
     AddPart,
     ChangeShape,
@@ -266,6 +267,13 @@ pub const KEYS: &[Binding] = &[
         Cmd::ToggleVoid,
         WHATIF,
         "make the part a void or a solid again",
+    ),
+    b(
+        Main,
+        &[ch('V')],
+        Cmd::ToggleHole,
+        WHATIF,
+        "make the part a hole (net section only) or a void everywhere again",
     ),
     b(
         Main,
