@@ -222,6 +222,11 @@ impl Analysis {
         }
     }
 
+    /// Every enabled piece, holes included (for drawings).
+    pub fn all_pieces(&self) -> &[Piece] {
+        self.stress_section().0
+    }
+
     fn stresses(&self) -> Option<StressResult> {
         let act = self.section.actions?;
         let (_, props) = self.stress_section();

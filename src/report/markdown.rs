@@ -518,13 +518,18 @@ fn checks(s: &mut String, a: &Analysis, u: &OutUnits) {
         s.push_str(&format!(
             "N = {} {}, Mx = {} {}, My = {} {} (tension positive; positive Mx compresses the \
 +y fibres, positive My the +x fibres). σ = N/A + a·(x − x̄) + b·(y − ȳ), the flexure \
-formula for unsymmetric sections.\n\n",
+formula for unsymmetric sections{}.\n\n",
             fig(f.from_si(act.n)),
             f.name,
             fig(m.from_si(act.mx)),
             m.name,
             fig(m.from_si(act.my)),
-            m.name
+            m.name,
+            if a.net.is_some() {
+                ", on the net section (holes subtracted)"
+            } else {
+                ""
+            }
         ));
         extreme_lines(s, &st.extremes, u, "");
         match st.neutral_axis_angle_deg {

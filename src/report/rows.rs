@@ -57,7 +57,7 @@ pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
         "A",
         g(p.area, 2),
         l2.clone(),
-        "net area (voids subtracted, other materials by modular ratio)",
+        "area (voids subtracted, other materials by modular ratio)",
     );
     add(
         "Centroid",
