@@ -302,6 +302,17 @@ impl Analysis {
         if self.section.materials.is_empty() {
             notes.push("the member check has no modulus of elasticity: add [[materials]] with E for deflections".to_string());
         }
+        if let Some(m) = &self.member {
+            if m.fibres.iter().any(|f| f.fy.is_some()) {
+                notes.extend(m.fibres.iter().filter(|f| f.fy.is_none()).map(|f| {
+                    format!(
+                        "material {} has no fy: its bending stress is not in the member's \
+utilization; give its fy",
+                        f.material.as_deref().unwrap_or("(none)")
+                    )
+                }));
+            }
+        }
         notes.extend(self.member.as_ref().and_then(|m| m.mcr_warning.clone()));
         notes
     }

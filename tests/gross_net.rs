@@ -246,3 +246,36 @@ material = "rod"
     close(t.j, ratio * annulus(20.0, 0.0) + annulus(40.0, 20.0), 1e-3);
     assert!(!a.warnings.iter().any(|w| w.contains("approximate")));
 }
+
+#[test]
+fn the_calc_table_names_each_group_s_section() {
+    let a = calc(&format!("{PLATE}[actions]\nMx = \"10 kN*m\"\n"));
+    let u = kern::report::out::OutUnits::new(a.section.units, None);
+    let t = kern::report::table::to_table("plate.toml", &a, &u);
+    for want in [
+        "(2 holes)",
+        "Second moments (gross)",
+        "Net section (net)",
+        "Stresses (net)",
+        "Ixx,net",
+    ] {
+        assert!(t.contains(want), "{want} missing in\n{t}");
+    }
+    // Without holes, one set of properties and no section names.
+    let plain = calc("[[parts]]\nshape = \"rect\"\nb = 10\nh = 20\n");
+    let t = kern::report::table::to_table("p.toml", &plain, &u);
+    assert!(!t.contains("(gross)") && !t.contains("Net section"));
+}
+
+#[test]
+fn a_material_without_fy_is_named_in_a_warning() {
+    let a = calc(&FLITCH.replacen("fy = \"20 MPa\"\n", "", 1));
+    assert!(
+        a.warnings
+            .iter()
+            .any(|w| w.contains("timber") && w.contains("no fy")),
+        "{:?}",
+        a.warnings
+    );
+    assert!(!calc(FLITCH).warnings.iter().any(|w| w.contains("no fy")));
+}

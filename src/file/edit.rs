@@ -444,7 +444,7 @@ fn add_part(
 }
 
 /// Changes part `i` to `shape`. What places the part stays as written — `name`, `at`,
-/// `anchor`, `rotate`, the flips, `void`, `enabled`, `material` — and so do the
+/// `anchor`, `rotate`, the flips, `void`, `hole`, `enabled`, `material` — and so do the
 /// dimension keys the new shape shares (with their comments); the keys it does not have
 /// go, and its missing required dimensions come in at the default sizes of a new part
 /// (converted to `unit`). The dimensions stand where the old ones stood (right after
