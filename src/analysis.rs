@@ -14,7 +14,7 @@ use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
 use crate::checks::shear_flow::{self, Connection};
 use crate::checks::stress::{extremes, Extremes, StressField};
 use crate::fe::{torsion, Torsion, TorsionOptions};
-use crate::geom::{joints, Piece, Pt, Seg};
+use crate::geom::{joints, solid_bounds, Piece, Pt, Seg};
 use crate::geom::{LoadHeight, Resolved};
 use crate::model::units::Dim;
 use crate::model::{Diagnostic, Document, Warning};
@@ -51,9 +51,15 @@ pub struct MemberResult {
     /// `None` without a modulus of elasticity.
     pub deflection_max: Option<f64>,
     pub deflection_allowed: f64,
+    /// The largest bending stress over the materials, `n_i·M·c_i/Ixx` (net section).
     pub stress_max: f64,
-    /// `max(stress/fy, δ/δ_allowed)` over the ratios that can be formed.
+    /// The bending stress of each material in use, in file order of the materials.
+    pub fibres: Vec<FibreStress>,
+    /// `max(σ_i/fy_i, δ/δ_allowed)` over the ratios that can be formed.
     pub utilization: Option<f64>,
+    /// The material whose ratio decides the utilization (or, without fy, that has the
+    /// largest stress), when there are several materials.
+    pub governing_material: Option<String>,
     /// Elastic critical moment for lateral-torsional buckling (simple span only), N·m.
     pub mcr: Option<f64>,
     /// The monosymmetry constant βx used for `mcr`, m; present when the section
@@ -70,13 +76,40 @@ pub struct MemberResult {
     pub self_weight: f64,
 }
 
+/// The net section (FORMAT.md "Gross and net"): the enabled pieces with the holes
+/// subtracted, and its properties. Stresses under `[actions]` and the member's bending
+/// stress use it; everything else uses the gross section.
+#[derive(Debug, Clone)]
+pub struct NetSection {
+    pub pieces: Vec<Piece>,
+    pub props: Properties,
+}
+
+/// One material's bending stress in the member check: `σ_i = n_i·M·c_i/Ixx`, with
+/// `c_i` the distance from the neutral axis to that material's own farthest fibre
+/// (either side) and Ixx of the transformed (net) section (Gere & Goodno, Mechanics of
+/// Materials, composite beams: the transformed-section method).
+#[derive(Debug, Clone, PartialEq)]
+pub struct FibreStress {
+    /// Material name; `None` for a section without materials.
+    pub material: Option<String>,
+    /// Pa.
+    pub stress: f64,
+    /// Pa, when the material gives one.
+    pub fy: Option<f64>,
+}
+
 /// Everything known about one section.
 #[derive(Debug, Clone)]
 pub struct Analysis {
     pub document: Document,
     pub section: Resolved,
+    /// The gross section's pieces: holes left out.
     pub pieces: Vec<Piece>,
+    /// The gross section's properties (the only section when there are no holes).
     pub props: Properties,
+    /// The net section, present only when a part has `hole = true`.
+    pub net: Option<NetSection>,
     /// `None` when skipped; `Some(Err)` when the solve failed (the message says why).
     pub torsion: Option<Result<Torsion, Warning>>,
     pub stress: Option<StressResult>,
@@ -94,22 +127,37 @@ impl Analysis {
     /// Computes a section from a document.
     pub fn of_document(document: Document, opts: &Options) -> Result<Analysis, Diagnostic> {
         let section = Resolved::resolve(&document)?;
-        let pieces = section.pieces();
-        let props = Properties::compute(&pieces).map_err(|m| {
-            // Point at the first void: that is where the area went (else the top).
-            let span = pieces
-                .iter()
-                .find(|p| p.void)
-                .and_then(|p| document.parts.get(p.part))
-                .map_or(0..1, |p| p.span.clone());
-            Diagnostic::new(span, m)
-        })?;
+        let all = section.pieces();
+        let is_hole = |p: &Piece| section.parts.get(p.part).is_some_and(|q| q.hole);
+        let pieces: Vec<Piece> = all.iter().filter(|p| !is_hole(p)).cloned().collect();
+        // Point at the first void (or hole): that is where the area went (else the top).
+        let compute = |pieces: &[Piece], first: &dyn Fn(&Piece) -> bool| {
+            Properties::compute(pieces).map_err(|m| {
+                let span = pieces
+                    .iter()
+                    .find(|p| first(p))
+                    .and_then(|p| document.parts.get(p.part))
+                    .map_or(0..1, |p| p.span.clone());
+                Diagnostic::new(span, m)
+            })
+        };
+        let props = compute(&pieces, &|p| p.void)?;
+        let net = if all.iter().any(is_hole) {
+            let props = compute(&all, &is_hole)?;
+            Some(NetSection {
+                pieces: all.clone(),
+                props,
+            })
+        } else {
+            None
+        };
         let contacts = joints::contacts(&pieces);
         let connections = shear_flow::connections(&pieces, &contacts, &props.centroidal());
         let shear_given = section
             .actions
             .is_some_and(|a| a.vx.is_some() || a.vy.is_some());
-        let mut notes = warnings(&pieces);
+        // Overlaps and voids outside solid material, holes included.
+        let mut notes = warnings(&all);
         notes.extend(
             shear_flow::warnings(&pieces, &contacts, &connections, shear_given)
                 .into_iter()
@@ -123,6 +171,7 @@ impl Analysis {
             section,
             pieces,
             props,
+            net,
             torsion: None,
             stress: None,
             member: None,
@@ -143,7 +192,6 @@ impl Analysis {
         match &t {
             Ok(t) => {
                 self.warnings.extend(t.warnings.iter().cloned());
-                self.warnings.extend(self.shear_ratio_note());
             }
             Err(e) => self.warnings.push(Warning::NoTorsion(Box::new(e.clone()))),
         }
@@ -162,9 +210,24 @@ impl Analysis {
         self.section.units.to_si(value, dim)
     }
 
+    /// The section stresses are taken on: the net one when there are holes, else the
+    /// (only) gross one.
+    pub fn stress_section(&self) -> (&[Piece], &Properties) {
+        match &self.net {
+            Some(n) => (&n.pieces, &n.props),
+            None => (&self.pieces, &self.props),
+        }
+    }
+
+    /// Every enabled piece, holes included (for drawings).
+    pub fn all_pieces(&self) -> &[Piece] {
+        self.stress_section().0
+    }
+
     fn stresses(&self) -> Option<StressResult> {
         let act = self.section.actions?;
-        let field = StressField::new(&self.props.centroidal(), &act, self.section.units.metres())?;
+        let (_, props) = self.stress_section();
+        let field = StressField::new(&props.centroidal(), &act, self.section.units.metres())?;
         let candidates = extreme_candidates(&self.pieces, &field, None);
         let ext = extremes(&field, &candidates)?;
         let mats: Vec<usize> = {
@@ -236,26 +299,19 @@ impl Analysis {
         if self.section.materials.is_empty() {
             notes.push("the member check has no modulus of elasticity: add [[materials]] with E for deflections".to_string());
         }
+        if let Some(m) = &self.member {
+            if m.fibres.iter().any(|f| f.fy.is_some()) {
+                notes.extend(m.fibres.iter().filter(|f| f.fy.is_none()).map(|f| {
+                    format!(
+                        "material {} has no fy: its bending stress is not in the member's \
+utilization; give its fy",
+                        f.material.as_deref().unwrap_or("(none)")
+                    )
+                }));
+            }
+        }
         notes.extend(self.member.as_ref().and_then(|m| m.mcr_warning.clone()));
         notes
-    }
-
-    /// A warning when the materials in use have shear moduli that are not in the ratio
-    /// of their E: torsion weights each part by n = E/E_ref (one ν for all), so J, Cw
-    /// and the shear centre are then approximate.
-    fn shear_ratio_note(&self) -> Option<Warning> {
-        let mats = &self.section.materials;
-        let r = mats.first()?;
-        let off = self
-            .pieces
-            .iter()
-            .filter_map(|p| p.material.and_then(|i| mats.get(i)))
-            .find(|m| ((m.g / r.g) - (m.e / r.e)).abs() > 1e-6 * (m.e / r.e))?;
-        Some(Warning::ShearRatio {
-            material: off.name.clone(),
-            g_ratio: off.g / r.g,
-            e_ratio: off.e / r.e,
-        })
     }
 
     /// The monosymmetry constants (βx, βy) in the file's length unit, with the
@@ -370,10 +426,38 @@ uses holds only for such sections"
         }
     }
 
+    /// The bending stress `n_i·M·c_i/Ixx` of each material in use under moment `m` (N·m),
+    /// on the net section, c_i to the material's own farthest fibre on either side.
+    fn fibre_stresses(&self, m: f64) -> Vec<FibreStress> {
+        let (pieces, props) = self.stress_section();
+        let mut groups: Vec<Option<usize>> = pieces
+            .iter()
+            .filter(|p| !p.void)
+            .map(|p| p.material)
+            .collect();
+        groups.sort_unstable();
+        groups.dedup();
+        let i = self.si(props.ixx, Dim::SecondMoment);
+        groups
+            .into_iter()
+            .filter_map(|g| {
+                let own = pieces.iter().filter(|p| !p.void && p.material == g);
+                let n = own.clone().next()?.n;
+                let [_, _, ymin, ymax] = solid_bounds(&own.cloned().collect::<Vec<_>>())?;
+                let c = (ymax - props.centroid.y).max(props.centroid.y - ymin);
+                let mat = g.and_then(|k| self.section.materials.get(k));
+                Some(FibreStress {
+                    material: mat.map(|m| m.name.clone()),
+                    stress: n * m * self.si(c, Dim::Length) / i,
+                    fy: mat.and_then(|m| m.fy),
+                })
+            })
+            .collect()
+    }
+
     fn member_check(&self) -> Option<MemberResult> {
         let mb = self.section.member.as_ref()?;
         let e = self.section.materials.first().map(|mat| mat.e);
-        let fy = self.section.materials.first().and_then(|mat| mat.fy);
         let self_weight = if mb.self_weight {
             self.mass_per_metre().unwrap_or(0.0) * GRAVITY
         } else {
@@ -395,16 +479,30 @@ uses holds only for such sections"
             .map_or((f64::NAN, f64::NAN), |r| (r.m_max, r.v_max));
         let deflection_max = e.and(result.as_ref().map(|r| r.deflection_max));
         let deflection_allowed = mb.length / mb.deflection_limit;
-        let s_min = self.si(
-            self.props.elastic.x_top.min(self.props.elastic.x_bottom),
-            Dim::Modulus,
-        );
-        let stress_max = m_max / s_min;
+        let fibres = self.fibre_stresses(m_max);
+        let stress_max = fibres.iter().map(|f| f.stress).fold(f64::NAN, f64::max);
+        let ratio = |f: &FibreStress| f.fy.map(|fy| f.stress / fy);
+        let governing = fibres
+            .iter()
+            .filter_map(|f| ratio(f).map(|r| (r, f)))
+            .reduce(|a, b| if b.0 > a.0 { b } else { a });
         let ratios = [
-            fy.map(|f| stress_max / f),
+            governing.map(|g| g.0),
             deflection_max.map(|d| d / deflection_allowed),
         ];
         let utilization = ratios.iter().flatten().copied().reduce(f64::max);
+        let governing_material = if fibres.len() > 1 {
+            governing
+                .map(|g| g.1)
+                .or_else(|| {
+                    fibres
+                        .iter()
+                        .reduce(|a, b| if b.stress > a.stress { b } else { a })
+                })
+                .and_then(|f| f.material.clone())
+        } else {
+            None
+        };
         let mut out = MemberResult {
             beam,
             result,
@@ -413,7 +511,9 @@ uses holds only for such sections"
             deflection_max,
             deflection_allowed,
             stress_max,
+            fibres,
             utilization,
+            governing_material,
             mcr: None,
             beta_x: None,
             mcr_side: None,

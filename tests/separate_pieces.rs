@@ -31,12 +31,11 @@
 //! include A_i·d² terms of a shear connection that does not exist). A single connected
 //! section is the special case of one piece. This is what the finite-element warping
 //! field gives when each piece's mean is removed separately and the Trefftz conditions
-//! use the pieces' own second moments; the functions below recover exactly that from
-//! kern's published results (J, Cw, shear centre) and the pieces' second moments.
+//! use the pieces' own second moments, which is what kern computes (src/fe/torsion.rs):
+//! the tests compare kern's reported shear centre and Cw with the hand values directly.
 
 use kern::fe::{torsion, Torsion, TorsionOptions};
 use kern::geom::{Contour, Piece, Pt};
-use kern::props::Properties;
 
 /// Centroidal second moments by hand: a list of rectangles (x0, y0, x1, y1), summed
 /// with the parallel axis theorem (Gere & Goodno, Mechanics of Materials, App. E case 1).
@@ -96,31 +95,6 @@ fn hand_pieces(ps: &[Hand]) -> (Pt, f64) {
     (Pt::new(xs, ys), cw)
 }
 
-/// The same definition from kern's finite-element results for the whole section: the
-/// Trefftz moments I_ωx = Iyy·ys − Ixy·xs, I_ωy = Ixy·ys − Ixx·xs (centroidal, composite
-/// moments, inverting METHODS.md's formulas) and K = ∫ω² dA from Cw = K − 2ys·I_ωx +
-/// 2xs·I_ωy + ys²·Iyy − 2xs·ys·Ixy + xs²·Ixx; then the shear centre and Cw with the
-/// pieces' own sums Sxx, Syy, Sxy in place of the composite moments. (Exact when the
-/// finite-element field has zero mean over each piece, as kern's has.)
-fn from_fe(composite: &Properties, own: &[(f64, f64, f64)], t: &Torsion) -> (Pt, f64) {
-    let c = composite.centroid;
-    let (xs, ys) = (t.shear_centre.x - c.x, t.shear_centre.y - c.y);
-    let (ixx, iyy, ixy) = (composite.ixx, composite.iyy, composite.ixy);
-    let iwx = iyy * ys - ixy * xs;
-    let iwy = ixy * ys - ixx * xs;
-    let k = t.cw + 2.0 * ys * iwx - 2.0 * xs * iwy - ys * ys * iyy + 2.0 * xs * ys * ixy
-        - xs * xs * ixx;
-    let sxx: f64 = own.iter().map(|o| o.0).sum();
-    let syy: f64 = own.iter().map(|o| o.1).sum();
-    let sxy: f64 = own.iter().map(|o| o.2).sum();
-    let d = sxx * syy - sxy * sxy;
-    let xs2 = (sxy * iwx - syy * iwy) / d;
-    let ys2 = (sxx * iwx - sxy * iwy) / d;
-    let cw = k - 2.0 * ys2 * iwx + 2.0 * xs2 * iwy + ys2 * ys2 * syy - 2.0 * xs2 * ys2 * sxy
-        + xs2 * xs2 * sxx;
-    (Pt::new(xs2 + c.x, ys2 + c.y), cw)
-}
-
 /// kern's pieces from rectangles (each piece the union of its rectangles, drawn as one
 /// polygon by the caller).
 fn piece(name: &str, pts: &[(f64, f64)]) -> Piece {
@@ -128,10 +102,8 @@ fn piece(name: &str, pts: &[(f64, f64)]) -> Piece {
     Piece::plain(name, vec![Contour::polygon(&pts)], false)
 }
 
-fn fe(pieces: &[Piece]) -> (Properties, Torsion) {
-    let p = Properties::compute(pieces).unwrap();
-    let t = torsion(pieces, &TorsionOptions::default()).unwrap();
-    (p, t)
+fn fe(pieces: &[Piece]) -> Torsion {
+    torsion(pieces, &TorsionOptions::default()).unwrap()
 }
 
 #[track_caller]
@@ -162,10 +134,9 @@ fn two_unequal_flat_plates() {
     };
     let (h1, p1) = plate(-20.0, 0.0, 100.0);
     let (h2, p2) = plate(30.0, 10.0, 60.0);
-    let own = [(h1.ixx, h1.iyy, h1.ixy), (h2.ixx, h2.iyy, h2.ixy)];
     let (sc_hand, cw_hand) = hand_pieces(&[h1, h2]);
-    let (props, tor) = fe(&[p1, p2]);
-    let (sc, cw) = from_fe(&props, &own, &tor);
+    let tor = fe(&[p1, p2]);
+    let (sc, cw) = (tor.shear_centre, tor.cw);
     close(cw, cw_hand, 2e-3, "Cw");
     assert!((sc.x - sc_hand.x).abs() < 1e-2, "{sc:?} {sc_hand:?}");
     assert!((sc.y - sc_hand.y).abs() < 1e-1, "{sc:?} {sc_hand:?}");
@@ -177,7 +148,7 @@ fn two_unequal_flat_plates() {
 /// Cw = t³(b'³ + h'³)/36 with centre-line leg lengths b' = b − t/2, h' = h − t/2
 /// (Galambos, Guide to Stability Design Criteria, from memory; 0.20 in⁶ per angle at
 /// t = 0.3125 in, 0.0036 in⁶ at t = 0.08 in).
-fn angle(x0: f64, h: f64, b: f64, t: f64, right: bool) -> (Hand, Piece, (f64, f64, f64)) {
+fn angle(x0: f64, h: f64, b: f64, t: f64, right: bool) -> (Hand, Piece) {
     let s = if right { 1.0 } else { -1.0 };
     let xs = |x: f64| x0 + s * x;
     let mut rs = [(xs(0.0), 0.0, xs(t), h), (xs(t), 0.0, xs(b), t)];
@@ -208,7 +179,6 @@ fn angle(x0: f64, h: f64, b: f64, t: f64, right: bool) -> (Hand, Piece, (f64, f6
             cw: t.powi(3) * (bc.powi(3) + hc.powi(3)) / 36.0,
         },
         piece("angle", &pts),
-        (ixx, iyy, ixy),
     )
 }
 
@@ -218,17 +188,17 @@ fn two_angles_back_to_back_converge_to_the_hand_value() {
     // pointing outward) without root fillets, at two thicknesses: kern's finite-element
     // field, read with the pieces' own second moments, approaches the thin-walled value
     // as the legs get thinner. (Measured when written, t = 0.3125 in: hand ys = 0.547 in,
-    // Cw = 2.107 in⁶; from the FE field 0.570 in, 2.074 in⁶; kern's reported values,
-    // which use the composite moments, 1.258 in and 7.74 in⁶. t = 0.08 in: hand 0.2965,
-    // 0.2090; FE field 0.2980, 0.2086.)
+    // Cw = 2.107 in⁶; kern 0.570 in, 2.074 in⁶ (before it used the pieces' own moments
+    // it reported 1.258 in and 7.74 in⁶). t = 0.08 in: hand 0.2965, 0.2090; kern
+    // 0.2980, 0.2086.)
     let gap = 0.375;
     let mut gaps = Vec::new();
     for t in [0.3125, 0.08] {
-        let (hl, pl, ol) = angle(-gap / 2.0, 6.0, 3.5, t, false);
-        let (hr, pr, or) = angle(gap / 2.0, 6.0, 3.5, t, true);
+        let (hl, pl) = angle(-gap / 2.0, 6.0, 3.5, t, false);
+        let (hr, pr) = angle(gap / 2.0, 6.0, 3.5, t, true);
         let (sc_hand, cw_hand) = hand_pieces(&[hl, hr]);
-        let (props, tor) = fe(&[pl, pr]);
-        let (sc, cw) = from_fe(&props, &[ol, or], &tor);
+        let tor = fe(&[pl, pr]);
+        let (sc, cw) = (tor.shear_centre, tor.cw);
         assert!(sc.x.abs() < 1e-6 && sc_hand.x.abs() < 1e-12);
         gaps.push(
             ((cw - cw_hand) / cw_hand)
@@ -239,6 +209,10 @@ fn two_angles_back_to_back_converge_to_the_hand_value() {
             // The figures of the hand derivation: ys ≈ 0.59 in, Cw ≈ 2.2 in⁶.
             assert!((sc_hand.y - 0.59).abs() < 0.06, "{sc_hand:?}");
             assert!((cw_hand - 2.2).abs() < 0.25, "{cw_hand}");
+            // kern's own figures (measured when the pieces' own moments went in):
+            // ys ≈ 0.57 in, Cw ≈ 2.07 in⁶ (the pieces are 0.375 in apart about x = 0).
+            assert!((sc.y - 0.570).abs() < 0.005, "{sc:?}");
+            assert!((cw - 2.074).abs() < 0.01, "{cw}");
         }
     }
     assert!(gaps[1] < 0.02, "{gaps:?}");
@@ -288,19 +262,13 @@ fn two_channels_back_to_back() {
                 cw: cw_own,
             },
             piece("channel", &pts),
-            (ixx, iyy, ixy),
         )
     };
-    let (hl, pl, ol) = channel(false);
-    let (hr, pr, or) = channel(true);
+    let (hl, pl) = channel(false);
+    let (hr, pr) = channel(true);
     let (sc_hand, cw_hand) = hand_pieces(&[hl, hr]);
-    let (props, tor) = fe(&[pl, pr]);
-    let (sc, cw) = from_fe(&props, &[ol, or], &tor);
+    let tor = fe(&[pl, pr]);
+    let (sc, cw) = (tor.shear_centre, tor.cw);
     close(cw, cw_hand, 2e-2, "Cw");
     assert!((sc.y - sc_hand.y).abs() < 1e-3 * d && sc.x.abs() < 1e-6 * d);
-    // The pair is symmetric about x = 0 and each channel about its own mid-height, so the
-    // pole-shift terms have zero mean over each piece and the composite moments give the
-    // same shear centre: here kern's reported Cw is the hand value too. (Not so for the
-    // angles and the unequal plates above, where the pieces' own second moments matter.)
-    close(tor.cw, cw_hand, 2e-2, "Cw as kern reports it");
 }

@@ -168,6 +168,26 @@ fn undo_and_redo_walk_the_history() {
 }
 
 #[test]
+fn marks_a_void_as_a_hole_and_back() {
+    // A hole counts only for the net section (FORMAT.md "Gross and net"): the gross
+    // area is the plain part's again, the net one keeps the hole subtracted.
+    let mut a = app(GIRDER);
+    run(&mut a, Cmd::AddPart);
+    repeat(&mut a, Cmd::Down, 11);
+    run(&mut a, Cmd::Commit);
+    let pipe = PI / 4.0 * (100.0f64.powi(2) - 90.0f64.powi(2));
+    run(&mut a, Cmd::ToggleVoid);
+    run(&mut a, Cmd::ToggleHole);
+    assert!(a.text.contains("hole = true"), "{}", a.text);
+    assert!((a.analysis.props.area - 13800.0).abs() < 1e-6);
+    let net = a.analysis.net.as_ref().expect("a net section");
+    assert!((net.props.area - (13800.0 - pipe)).abs() < 1e-6);
+    run(&mut a, Cmd::ToggleHole);
+    assert!(a.analysis.net.is_none());
+    assert!((a.analysis.props.area - (13800.0 - pipe)).abs() < 1e-6);
+}
+
+#[test]
 fn adds_copies_moves_and_deletes_parts() {
     let mut a = app(GIRDER);
     run(&mut a, Cmd::AddPart);
@@ -946,4 +966,23 @@ fn the_smallest_window_never_cuts_a_unit() {
     let s = screen(&a, 40, 12);
     assert!(!s.contains(" m│"), "a millimetre value cut to metres:\n{s}");
     insta::assert_snapshot!("mezzanine-girder-40x12", s);
+}
+
+#[test]
+fn the_baseline_gets_its_torsion_when_edited_before_the_first_solve_ends() {
+    // An edit right after opening cancels the solve of the file as opened; the
+    // baseline is then solved after the current section, so the change column of J,
+    // Cw and the shear centre has both sides.
+    let solver = Solver::Thread(kern::tui::worker::Worker::spawn());
+    let mut a = App::new(GIRDER.to_string(), None, Config::default(), solver).expect("valid");
+    run(&mut a, Cmd::StepUp);
+    let t0 = std::time::Instant::now();
+    while (a.analysis.torsion.is_none() || a.baseline.torsion.is_none())
+        && t0.elapsed() < std::time::Duration::from_secs(120)
+    {
+        a.poll_solver();
+        std::thread::sleep(std::time::Duration::from_millis(20));
+    }
+    assert!(matches!(a.baseline.torsion, Some(Ok(_))));
+    assert!(matches!(a.analysis.torsion, Some(Ok(_))));
 }

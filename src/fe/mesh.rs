@@ -75,8 +75,11 @@ pub struct Mesh {
     pub nodes: Vec<Pt>,
     /// Corners counter-clockwise, then the mid-sides of edges 0–1, 1–2, 2–0.
     pub elems: Vec<[u32; 6]>,
-    /// Modular ratio of each element's material (shear moduli scale alike, one ν).
+    /// Modular ratio `E/E_ref` of each element's material (warping normal stresses).
     pub weight: Vec<f64>,
+    /// Shear modulus ratio `G/G_ref` of each element's material (the Saint-Venant
+    /// shear stresses).
+    pub shear: Vec<f64>,
     /// The arc each element edge lies on, or [`NO_ARC`].
     pub edge_arc: Vec<[u32; 3]>,
     /// Whether the element may be curved (a mid-side off its chord).
@@ -102,7 +105,8 @@ struct Outline {
     /// `[xmin, xmax, ymin, ymax]` of the loops: points outside are outside.
     bounds: [f64; 4],
     void: bool,
-    n: f64,
+    /// `[E/E_ref, G/G_ref]` of the piece.
+    n: [f64; 2],
 }
 
 impl Outline {
@@ -116,9 +120,9 @@ impl Outline {
     }
 }
 
-/// What the region holds at a point: `None` outside, else the modular ratio of the
-/// part on top there.
-fn classify(outlines: &[Outline], p: Pt) -> Option<f64> {
+/// What the region holds at a point: `None` outside, else the ratios `[E/E_ref,
+/// G/G_ref]` of the part on top there.
+fn classify(outlines: &[Outline], p: Pt) -> Option<[f64; 2]> {
     let mut solid = None;
     for o in outlines {
         if o.winding(p) != 0 {
@@ -210,7 +214,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
                 loops,
                 bounds,
                 void: p.void,
-                n: p.n,
+                n: [p.n, p.g],
             });
         }
     }
@@ -370,7 +374,8 @@ struct Tri {
     v: [usize; 3],
     /// Whether each edge (0–1, 1–2, 2–0) is a constraint edge.
     constraint: [bool; 3],
-    n: f64,
+    /// `[E/E_ref, G/G_ref]`.
+    n: [f64; 2],
     area: f64,
 }
 
@@ -665,7 +670,8 @@ fn build(
         origin,
         nodes,
         elems,
-        weight: tris.iter().map(|t| t.n).collect(),
+        weight: tris.iter().map(|t| t.n[0]).collect(),
+        shear: tris.iter().map(|t| t.n[1]).collect(),
         edge_arc,
         curved,
         arcs,
@@ -751,6 +757,7 @@ impl Mesh {
         let mut edge_arc = Vec::with_capacity(4 * ne);
         let mut curved = Vec::with_capacity(4 * ne);
         let mut weight = Vec::with_capacity(4 * ne);
+        let mut shear = Vec::with_capacity(4 * ne);
         let place = |e: &[u32; 6], k: usize, nodes: &[Pt]| -> Pt {
             let mut p = Pt::default();
             for i in 0..6 {
@@ -798,6 +805,7 @@ impl Mesh {
             for _ in 0..4 {
                 curved.push(self.curved[ei]);
                 weight.push(self.weight[ei]);
+                shear.push(self.shear[ei]);
             }
         }
         let mut component = self.component.clone();
@@ -813,6 +821,7 @@ impl Mesh {
             nodes,
             elems,
             weight,
+            shear,
             edge_arc,
             curved,
             arcs: self.arcs.clone(),

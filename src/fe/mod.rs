@@ -3,16 +3,17 @@
 //!
 //! The region is the union of the solid pieces minus the voids (not the signed sum the
 //! composite-area method uses); overlapping solids count once, and where they overlap
-//! the part listed last gives the material. Each element is weighted by its modular
-//! ratio n: with one Poisson's ratio ν for all materials, G_i = E_i/(2(1 + ν)), so
-//! G_i/G_ref = n_i and J is transformed to the reference material like the second
-//! moments are.
+//! the part listed last gives the material. Each element carries its shear modulus
+//! ratio G_i/G_ref for the Saint-Venant problem (J, transformed to the reference
+//! material's G) and its modular ratio n_i = E_i/E_ref for the warping normal stresses
+//! (the shear centre and Cw, transformed to the reference E like the second moments).
 //!
 //! Parts that do not touch (disconnected components of the region) share the twist,
 //! the centroid and the bending axes, but each warps freely: its warping function has
 //! its own arbitrary constant, held at zero at one node and then set so that its mean
 //! over the component is zero. J is then the sum of the components' own J; the shear
-//! centre and Cw come from the combined warping field by the Trefftz formulas. Parts
+//! centre and Cw come from the combined warping field by the Trefftz formulas with the
+//! components' own second moments (they bend together but warp apart; see [`torsion`]). Parts
 //! joined by battens or lacing, which the region does not show, are stiffer than this.
 //!
 //! Outlines traced with hundreds of straight edges (a polygon from a drawing) are

@@ -268,9 +268,10 @@ fn outline_covers_the_region() {
     assert!(mesh_outline(&[], 1000).is_empty());
 }
 
-/// A solid part of modular ratio `n`.
+/// A solid part of modular ratio `n` and the same shear modulus ratio (one ν).
 fn with_n(mut p: Piece, n: f64) -> Piece {
     p.n = n;
+    p.g = n;
     p
 }
 
@@ -306,6 +307,25 @@ fn concentric_rings_of_two_materials_add_up() {
     let annulus = |ro: f64, ri: f64| PI / 2.0 * (ro.powi(4) - ri.powi(4));
     let exact = 2.0 * annulus(20.0, 0.0) + annulus(40.0, 20.0);
     check_j("rings", &r, exact);
+}
+
+#[test]
+fn concentric_rings_weigh_torsion_by_shear_modulus() {
+    // The same rings with a core of another Poisson's ratio: E_core/E_ref = 2 but
+    // G_core/G_ref = 1.5. The Saint-Venant shear stresses are G·θ′·r in each ring, so
+    // J = Σ (Gᵢ/G_ref)·π(rₒ⁴ − rᵢ⁴)/2 (Timoshenko & Goodier, circular shafts); E plays
+    // no part.
+    let mut core = solid(Shape::Circle { d: 40.0 }).remove(0);
+    core.n = 2.0;
+    core.g = 1.5;
+    let ring = solid(Shape::Pipe { d: 80.0, t: 20.0 }).remove(0);
+    let r = run(&[ring, core]);
+    let annulus = |ro: f64, ri: f64| PI / 2.0 * (ro.powi(4) - ri.powi(4));
+    check_j(
+        "rings, two ν",
+        &r,
+        1.5 * annulus(20.0, 0.0) + annulus(40.0, 20.0),
+    );
 }
 
 #[test]

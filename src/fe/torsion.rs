@@ -5,10 +5,21 @@
 //!
 //! Coordinates are about the centroid of the mesh itself, and the second moments in the
 //! formulas are those of the mesh, from the same quadrature, so that J, the shear
-//! centre and Cw are consistent with the geometry actually solved. Every integral
-//! carries the element's modular ratio n: with one Poisson's ratio for all materials
-//! G_i/G_ref = E_i/E_ref = n_i, so n weights both the stiffness (shear) and the
-//! warping normal stresses.
+//! centre and Cw are consistent with the geometry actually solved. The Saint-Venant
+//! problem (stiffness, load, J) carries each element's shear modulus ratio G_i/G_ref
+//! (the shear stresses are G·θ′·(∇ω + (−y, x))); the warping normal stresses are
+//! E·θ″·ω_S, so the Trefftz integrals, the second moments and Cw carry the modular
+//! ratio n_i = E_i/E_ref (FORMAT.md "Materials").
+//!
+//! Separate pieces (components of the mesh) bend together but warp separately, so
+//! the shear centre and Cw use each component's own centroidal second moments
+//! (docs/separate-pieces.md): with ω of zero mean on each component,
+//! I_ωx = ∫x·ω, I_ωy = ∫y·ω, Sxx, Syy, Sxy the sums of the components' own
+//! moments, D′ = Sxx·Syy − Sxy², xs = (Sxy·I_ωx − Syy·I_ωy)/D′,
+//! ys = (Sxx·I_ωx − Sxy·I_ωy)/D′, ω_S = ω − ys·X_i + xs·Y_i on component i (X_i, Y_i
+//! about its own centroid) and Cw = Σ_i ∫_i ω_S². One component is the ordinary
+//! Trefftz definition (Trefftz 1935; Pilkey, Analysis and Design of Elastic Beams, 2002,
+//! ch. 6).
 
 use super::mesh::Mesh;
 use super::p2::{at, Rule};
@@ -116,18 +127,31 @@ fn solve(
     }
     let c = Pt::new(s[1] / s[0], s[2] / s[0]);
     // About the centroid: Iyy = ∫x², Ixx = ∫y², Ixy = ∫xy.
-    let iyy = s[3] - s[0] * c.x * c.x;
-    let ixx = s[4] - s[0] * c.y * c.y;
-    let ixy = s[5] - s[0] * c.x * c.y;
-    let ip = ixx + iyy;
+    // The polar moment ∫(G/G_ref)·r² dA about that centroid, for J.
+    let nq = r4.points();
+    let ip: f64 = pts
+        .chunks_exact(nq)
+        .zip(m.weight.iter().zip(&m.shear))
+        .map(|(pe, (&n, &g))| {
+            let r2: f64 = pe
+                .iter()
+                .map(|&[da, x, y]| da * ((x - c.x).powi(2) + (y - c.y).powi(2)))
+                .sum();
+            if n > 0.0 {
+                r2 * g / n
+            } else {
+                0.0
+            }
+        })
+        .sum();
     let nn = m.nodes.len();
     let mut k = Csr::pattern(nn, &m.elems);
     let mut f = vec![0.0; nn];
-    // Stiffness ∫n∇Nᵢ·∇Nⱼ dA and load ∫n(y ∂Nᵢ/∂x − x ∂Nᵢ/∂y) dA.
+    // Stiffness ∫g∇Nᵢ·∇Nⱼ dA and load ∫g(y ∂Nᵢ/∂x − x ∂Nᵢ/∂y) dA, g = G/G_ref.
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
         let rule = if m.curved[ei] { &r4 } else { &r2 };
-        let n = m.weight[ei];
+        let n = m.shear[ei];
         let mut ke = [[0.0; 6]; 6];
         for q in 0..rule.points() {
             let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
@@ -195,49 +219,85 @@ fn solve(
     let uku: f64 = ku.iter().zip(&u).map(|(a, b)| a * b).sum();
     let j = ip - (2.0 * fu - uku);
     // ω at the quadrature points; each component's warping made zero-mean (the
-    // constant is arbitrary).
-    let nq = r4.points();
+    // constant is arbitrary), with each component's own n-weighted area moments
+    // [A, ∫x, ∫y, ∫x², ∫y², ∫xy] about the mesh centroid.
     let mut w = Vec::with_capacity(pts.len());
-    let mut mean = vec![[0.0; 2]; m.pinned.len()];
+    let mut own = vec![[0.0; 7]; m.pinned.len()];
+    let comp_of = |k: usize| m.component[m.elems[k / nq][0] as usize] as usize;
     for (e, pe) in m.elems.iter().zip(pts.chunks_exact(nq)) {
         let comp = m.component[e[0] as usize] as usize;
-        for (q, &[da, ..]) in pe.iter().enumerate() {
+        for (q, &[da, x, y]) in pe.iter().enumerate() {
             let wq: f64 = (0..6).map(|i| r4.n[q][i] * u[e[i] as usize]).sum();
             w.push(wq);
-            if let Some(mc) = mean.get_mut(comp) {
-                mc[0] += da * wq;
-                mc[1] += da;
+            if let Some(o) = own.get_mut(comp) {
+                let (x, y) = (x - c.x, y - c.y);
+                for (v, t) in o.iter_mut().zip([wq, 1.0, x, y, x * x, y * y, x * y]) {
+                    *v += da * t;
+                }
             }
         }
     }
-    let mean: Vec<f64> = mean
+    // Per component: [∫ω, A, x̄_i, ȳ_i, Iyy_i, Ixx_i, Ixy_i], its own centroid and moments.
+    let own: Vec<[f64; 7]> = own
         .iter()
-        .map(|mc| if mc[1] > 0.0 { mc[0] / mc[1] } else { 0.0 })
+        .map(|o| {
+            if o[1] <= 0.0 {
+                return [0.0; 7];
+            }
+            let (cx, cy) = (o[2] / o[1], o[3] / o[1]);
+            [
+                o[0] / o[1],
+                o[1],
+                cx,
+                cy,
+                o[4] - o[1] * cx * cx,
+                o[5] - o[1] * cy * cy,
+                o[6] - o[1] * cx * cy,
+            ]
+        })
         .collect();
+    let zero = [0.0; 7];
+    let own_of = |k: usize| own.get(comp_of(k)).unwrap_or(&zero);
     for (k, wq) in w.iter_mut().enumerate() {
-        let e = m.elems[k / nq];
-        *wq -= mean[m.component[e[0] as usize] as usize];
+        *wq -= own_of(k)[0];
     }
-    // Trefftz: I_ωx = ∫xω, I_ωy = ∫yω about the centroid.
+    // Trefftz with the components' own second moments: I_ωx = ∫xω, I_ωy = ∫yω.
     let (mut iwx, mut iwy) = (0.0, 0.0);
     for (&[da, x, y], &wq) in pts.iter().zip(&w) {
         iwx += da * (x - c.x) * wq;
         iwy += da * (y - c.y) * wq;
     }
-    let d = ixx * iyy - ixy * ixy;
+    let (syy, sxx, sxy) = own
+        .iter()
+        .fold((0.0, 0.0, 0.0), |s, o| (s.0 + o[4], s.1 + o[5], s.2 + o[6]));
+    let d = sxx * syy - sxy * sxy;
     let (xs, ys) = if d > 0.0 {
-        ((ixy * iwx - iyy * iwy) / d, (ixx * iwx - ixy * iwy) / d)
+        ((sxy * iwx - syy * iwy) / d, (sxx * iwx - sxy * iwy) / d)
     } else {
         (0.0, 0.0)
     };
-    // Cw = ∫ω_S² − (∫ω_S)²/A with ω_S = ω − y_s·x + x_s·y.
-    let (mut s1, mut s2) = (0.0, 0.0);
-    for (&[da, x, y], &wq) in pts.iter().zip(&w) {
-        let ws = wq - ys * (x - c.x) + xs * (y - c.y);
-        s1 += da * ws;
-        s2 += da * ws * ws;
+    // Cw = Σ_i [∫_i ω_S² − (∫_i ω_S)²/A_i], ω_S = ω − ys·X_i + xs·Y_i on component i.
+    let mut sums = vec![[0.0; 2]; own.len()];
+    for (k, (&[da, x, y], &wq)) in pts.iter().zip(&w).enumerate() {
+        let o = own_of(k);
+        let (xi, yi) = (x - c.x - o[2], y - c.y - o[3]);
+        let ws = wq - ys * xi + xs * yi;
+        if let Some(sm) = sums.get_mut(comp_of(k)) {
+            sm[0] += da * ws;
+            sm[1] += da * ws * ws;
+        }
     }
-    let cw = s2 - s1 * s1 / s[0];
+    let cw: f64 = sums
+        .iter()
+        .zip(&own)
+        .map(|(sm, o)| {
+            if o[1] > 0.0 {
+                sm[1] - sm[0] * sm[0] / o[1]
+            } else {
+                sm[1]
+            }
+        })
+        .sum();
     ladder.u = u;
     Ok(Level {
         j,

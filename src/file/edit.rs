@@ -103,6 +103,12 @@ pub enum Edit {
         part: usize,
         flag: Flag,
     },
+    /// The part made a hole (`hole = true`: a void at some cross-sections only, left
+    /// out of the gross section), or a hole made a void everywhere again (`hole =
+    /// false`, `void = true`).
+    ToggleHole {
+        part: usize,
+    },
     /// A part of `shape` appended with default sizes (in `unit`), at the origin.
     AddPart {
         shape: ShapeKind,
@@ -157,6 +163,16 @@ impl Edit {
                     .and_then(Item::as_bool)
                     .unwrap_or(flag.default());
                 set_key(t, flag.key(), Value::from(!now));
+                Ok(())
+            }
+            Edit::ToggleHole { part } => {
+                let t = part_mut(doc, *part)?;
+                let hole = t.get("hole").and_then(Item::as_bool).unwrap_or(false);
+                set_key(t, "hole", Value::from(!hole));
+                // A hole is a void: `void = false` written out would contradict it.
+                if hole || t.get("void").is_some() {
+                    set_key(t, "void", Value::from(true));
+                }
                 Ok(())
             }
             Edit::AddPart { shape, name, unit } => add_part(doc, *shape, name, *unit),
@@ -428,7 +444,7 @@ fn add_part(
 }
 
 /// Changes part `i` to `shape`. What places the part stays as written — `name`, `at`,
-/// `anchor`, `rotate`, the flips, `void`, `enabled`, `material` — and so do the
+/// `anchor`, `rotate`, the flips, `void`, `hole`, `enabled`, `material` — and so do the
 /// dimension keys the new shape shares (with their comments); the keys it does not have
 /// go, and its missing required dimensions come in at the default sizes of a new part
 /// (converted to `unit`). The dimensions stand where the old ones stood (right after

@@ -24,7 +24,8 @@ const TOP_KEYS: &[&str] = &[
     "member",
 ];
 const PART_KEYS: &[&str] = &[
-    "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "enabled", "material",
+    "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "hole", "enabled",
+    "material",
 ];
 const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density", "G", "nu"];
 const ACTION_KEYS: &[&str] = &["N", "Mx", "My", "Vx", "Vy", "T"];
@@ -556,6 +557,15 @@ impl Reader<'_> {
                 )
             })?),
         };
+        let hole = self.opt_bool(t, "hole", false, sp.clone())?;
+        if hole && !self.opt_bool(t, "void", true, sp.clone())? {
+            let at = t.get("void").map_or(sp.clone(), |i| span(i, sp.clone()));
+            return Err(Diagnostic::new(
+                at,
+                "a part with `hole = true` is a void (a hole exists only at some cross-sections); \
+remove `void = false` or set `hole = false`",
+            ));
+        }
         Ok(PartDoc {
             name: self.opt_str(t, "name", sp.clone())?.map(|s| s.0),
             shape: kind,
@@ -571,7 +581,8 @@ impl Reader<'_> {
             rotate: self.opt_val(t, "rotate", sp.clone())?,
             flip_x: self.opt_bool(t, "flip_x", false, sp.clone())?,
             flip_y: self.opt_bool(t, "flip_y", false, sp.clone())?,
-            void: self.opt_bool(t, "void", false, sp.clone())?,
+            void: self.opt_bool(t, "void", false, sp.clone())? || hole,
+            hole,
             enabled: self.opt_bool(t, "enabled", true, sp.clone())?,
             material: self.opt_str(t, "material", sp.clone())?,
             span: sp,

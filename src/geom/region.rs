@@ -13,6 +13,8 @@ pub struct Piece {
     pub void: bool,
     /// Modular ratio `n = E / E_ref` (1 when no materials are given).
     pub n: f64,
+    /// Shear modulus ratio `G / G_ref` (1 when no materials are given), for torsion.
+    pub g: f64,
     /// Weight for the plastic properties: `fy / fy_ref` when every material in use has
     /// a yield strength, otherwise the modular ratio.
     pub strength: f64,
@@ -31,6 +33,7 @@ impl Piece {
             contours,
             void,
             n: 1.0,
+            g: 1.0,
             strength: 1.0,
             density: None,
             material: None,

@@ -63,6 +63,8 @@ pub struct Part {
     pub shape: Shape,
     pub placement: Placement,
     pub void: bool,
+    /// A local void (FORMAT.md "Gross and net"); `hole` implies `void`.
+    pub hole: bool,
     pub enabled: bool,
     pub material: Option<usize>,
 }
@@ -352,10 +354,12 @@ impl Resolved {
     }
 
     /// The enabled parts placed in the section frame, with their weights: modular
-    /// ratio `n = E/E_ref` (the first material is the reference) and, for the plastic
+    /// ratio `n = E/E_ref` (the first material is the reference), the shear modulus
+    /// ratio `G/G_ref` for torsion (FORMAT.md "Materials") and, for the plastic
     /// properties, `fy/fy_ref` when every material in use gives `fy` (otherwise `n`).
     pub fn pieces(&self) -> Vec<Piece> {
         let e_ref = self.materials.first().map_or(1.0, |m| m.e);
+        let g_ref = self.materials.first().map_or(1.0, |m| m.g);
         let used: Vec<&Material> = self
             .parts
             .iter()
@@ -376,6 +380,7 @@ impl Resolved {
             .map(|(i, p)| {
                 let mat = p.material.and_then(|m| self.materials.get(m));
                 let n = mat.map_or(1.0, |m| m.e / e_ref);
+                let g = mat.map_or(1.0, |m| m.g / g_ref);
                 let strength = match mat.and_then(|m| m.fy) {
                     Some(fy) if by_strength => fy / fy_ref,
                     _ => n,
@@ -386,6 +391,7 @@ impl Resolved {
                     contours: p.placement.apply(&p.shape.contours()),
                     void: p.void,
                     n,
+                    g,
                     strength,
                     density: mat.and_then(|m| m.density),
                     material: p.material,
@@ -513,6 +519,7 @@ fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part
             flip_y: p.flip_y,
         },
         void: p.void,
+        hole: p.hole,
         enabled: p.enabled,
         material,
     })

@@ -45,7 +45,11 @@ pub struct PartDoc {
     pub rotate: Option<Val>,
     pub flip_x: bool,
     pub flip_y: bool,
+    /// Subtracted everywhere, or (with `hole`) at some cross-sections only.
     pub void: bool,
+    /// A local void (bolt hole, web opening): left out of the gross section,
+    /// subtracted for the net one. `hole` implies `void`.
+    pub hole: bool,
     pub enabled: bool,
     pub material: Option<(String, Span)>,
     /// The part's table in the file.

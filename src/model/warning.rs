@@ -28,12 +28,6 @@ pub enum Warning {
     /// The region torsion meshes differs in area from the signed sum of the parts by
     /// `percent` %.
     RegionArea { percent: f64 },
-    /// A material whose G/G_ref differs from its E/E_ref.
-    ShearRatio {
-        material: String,
-        g_ratio: f64,
-        e_ratio: f64,
-    },
     /// Features `ratio` times smaller than the section: a `feature` wide in a section
     /// `span` across (file unit), below the mesh's floor `floor` (a fraction of the span).
     TinyFeature {

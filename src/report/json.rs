@@ -8,7 +8,7 @@
 //! either.
 
 use super::out::OutUnits;
-use super::rows::{Cell, QUANTITIES};
+use super::rows::{net_view, Cell, Quantity, QUANTITIES};
 use crate::analysis::Analysis;
 use crate::checks::stress::StressPoint;
 use crate::text::clean;
@@ -33,6 +33,17 @@ fn insert(o: &mut Map<String, Value>, path: &str, v: Value) {
     }
 }
 
+/// The JSON value of quantity `q` of `a`, if `a` has it.
+fn value(q: &Quantity, a: &Analysis, u: &OutUnits) -> Option<Value> {
+    Some(match (q.get)(a) {
+        Cell::Absent => return None,
+        Cell::Null => Value::Null,
+        Cell::Num(x) => json!(q.dim.json(x, u)),
+        Cell::Text(t) => json!(clean(&t)),
+        Cell::Count(n) => json!(n),
+    })
+}
+
 /// The JSON object for one analysed file.
 pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
     let mut o = Map::new();
@@ -43,14 +54,9 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
     );
     o.insert("units".into(), json!(u.length.name()));
     for q in QUANTITIES {
-        let v = match (q.get)(a) {
-            Cell::Absent => continue,
-            Cell::Null => Value::Null,
-            Cell::Num(x) => json!(q.dim.json(x, u)),
-            Cell::Text(t) => json!(t),
-            Cell::Count(n) => json!(n),
-        };
-        insert(&mut o, q.path, v);
+        if let Some(v) = value(q, a, u) {
+            insert(&mut o, q.path, v);
+        }
     }
     let g = |x: f64, pw: i32| u.geo(x, pw);
     let stress_unit = u.stress();
@@ -79,6 +85,15 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
         })
         .collect();
     o.insert("connections".into(), Value::Array(connections));
+    if let Some(n) = net_view(a) {
+        let mut net = Map::new();
+        for q in QUANTITIES.iter().filter(|q| q.in_net()) {
+            if let Some(v) = value(q, &n, u) {
+                insert(&mut net, q.path, v);
+            }
+        }
+        o.insert("net".into(), Value::Object(net));
+    }
     o.insert(
         "quantity_units".into(),
         json!({ "force": u.force().name, "moment": u.moment().name, "stress": stress_unit.name, "deflection": u.deflection().name, "shear_flow": qu.name }),

@@ -9,7 +9,7 @@ use super::blocks::{self, own, user, Block, Line, Span};
 use super::composite::{terms, totals};
 use super::out::OutUnits;
 use super::rows::rows;
-use super::table::FIGURES;
+use super::table::{section_of, FIGURES};
 use super::CAUTION;
 use crate::analysis::{Analysis, GRAVITY};
 use crate::checks::ltb::Compressed;
@@ -208,10 +208,11 @@ fn inputs(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
             if pl.flip_y {
                 flips.push("y");
             }
-            let kind = match (p.enabled, p.void) {
-                (false, _) => "disabled",
-                (true, true) => "void",
-                (true, false) => "solid",
+            let kind = match (p.enabled, p.void, p.hole) {
+                (false, _, _) => "disabled",
+                (true, _, true) => "hole (net section only)",
+                (true, true, false) => "void",
+                (true, false, false) => "solid",
             };
             let mut row = vec![own(format!("{}", i + 1)), user(&p.name)];
             row.extend(cells(vec![
@@ -366,7 +367,11 @@ fn results(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
     let body: Vec<Vec<Line>> = rs
         .iter()
         .map(|r| {
-            let head = if r.group != group { r.group } else { "" };
+            let head = match (r.group != group, a.net.is_some()) {
+                (false, _) => String::new(),
+                (true, false) => r.group.to_string(),
+                (true, true) => format!("{} ({})", r.group, section_of(r.group)),
+            };
             group = r.group;
             vec![
                 own(head),
@@ -377,6 +382,13 @@ fn results(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
             ]
         })
         .collect();
+    if a.net.is_some() {
+        s.push(Block::Para(own(
+            "The section has holes: the gross section leaves them out and gives stiffness, \
+torsion, the shear centre, Mcr, self-weight and deflections; the net section subtracts them and \
+gives the stresses and the member's bending stress. Each group names its section.",
+        )));
+    }
     table(s, &["group", "symbol", "value", "unit", "meaning"], body);
     s.push(Block::Para(match &a.torsion {
         None => own("Torsion was not computed for this sheet."),
@@ -512,13 +524,18 @@ fn checks(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
         s.push(Block::Para(own(format!(
             "N = {} {}, Mx = {} {}, My = {} {} (tension positive; positive Mx compresses the \
 +y fibres, positive My the +x fibres). σ = N/A + a·(x − x̄) + b·(y − ȳ), the flexure \
-formula for unsymmetric sections.",
+formula for unsymmetric sections{}.",
             fig(f.from_si(act.n)),
             f.name,
             fig(m.from_si(act.mx)),
             m.name,
             fig(m.from_si(act.my)),
-            m.name
+            m.name,
+            if a.net.is_some() {
+                ", on the net section (holes subtracted)"
+            } else {
+                ""
+            }
         ))));
         let mut items = Vec::new();
         extreme_lines(&mut items, &st.extremes, u, &Vec::new());
@@ -611,24 +628,41 @@ fn member_lines(
         ),
         None => "deflection not computed: no modulus of elasticity given".into(),
     }));
-    let fy = a.section.materials.first().and_then(|m| m.fy);
-    let mut sb = format!(
-        "σb = Mmax / min(Sx,top, Sx,bot) = {} {}",
-        fig(st.from_si(mr.stress_max)),
-        st.name
-    );
-    match fy {
-        Some(fy) => sb.push_str(&format!(
-            " against fy = {} {} (ratio {})",
-            fig(st.from_si(fy)),
-            st.name,
-            fig(mr.stress_max / fy)
-        )),
-        None => sb.push_str(" (no fy given)"),
+    let net = if a.net.is_some() { ", net section" } else { "" };
+    for fb in &mr.fibres {
+        let mut line = vec![Span::Own("σb".into())];
+        if let Some(name) = &fb.material {
+            line.push(Span::Own(" in ".into()));
+            line.push(Span::User(name.clone()));
+        }
+        let mut rest = format!(
+            " = n·Mmax·c/Ixx = {} {} (c to its own farthest fibre{net})",
+            fig(st.from_si(fb.stress)),
+            st.name
+        );
+        match fb.fy {
+            Some(fy) => rest.push_str(&format!(
+                " against fy = {} {} (ratio {})",
+                fig(st.from_si(fy)),
+                st.name,
+                fig(fb.stress / fy)
+            )),
+            None => rest.push_str(" (no fy given: not in the utilisation)"),
+        }
+        line.push(Span::Own(rest));
+        out.push(line);
     }
-    out.push(own(sb));
+    if let Some(gm) = &mr.governing_material {
+        out.push(vec![
+            Span::Own("governing material: ".into()),
+            Span::User(gm.clone()),
+        ]);
+    }
     out.push(own(match mr.utilization {
-        Some(x) => format!("utilisation = max(σb/fy, δmax/δallow) = {}", fig(x)),
+        Some(x) => format!(
+            "utilisation = max(σb/fy of each material, δmax/δallow) = {}",
+            fig(x)
+        ),
         None => "utilisation not formed (neither fy nor E given)".into(),
     }));
     out.push(match (mr.mcr, mr.beta_x, a.section.materials.first()) {

@@ -112,10 +112,37 @@ impl Quantity {
     pub fn shown(&self) -> bool {
         !self.symbol.is_empty()
     }
+
+    /// One of the section's own properties, which the net section repeats (FORMAT.md
+    /// `net`: area, centroid, inertia, principal, elastic and plastic moduli, gyration).
+    pub fn in_net(&self) -> bool {
+        let head = self.path.split('.').next().unwrap_or_default();
+        NET_KEYS.contains(&head)
+    }
+}
+
+/// The top-level JSON keys the net section repeats.
+const NET_KEYS: [&str; 7] = [
+    "area",
+    "centroid",
+    "inertia",
+    "principal",
+    "elastic_modulus",
+    "plastic_modulus",
+    "gyration",
+];
+
+/// The analysis seen through its net section (holes subtracted), when it has holes:
+/// the same quantities then read the net properties.
+pub fn net_view(a: &Analysis) -> Option<Analysis> {
+    let n = a.net.as_ref()?;
+    let mut v = a.clone();
+    v.props = n.props.clone();
+    Some(v)
 }
 
 /// Display order of the groups in the views.
-pub const GROUPS: [&str; 12] = [
+pub const GROUPS: [&str; 13] = [
     "Area",
     "Centroid",
     "Second moments",
@@ -123,6 +150,7 @@ pub const GROUPS: [&str; 12] = [
     "Elastic moduli",
     "Plastic moduli",
     "Radii of gyration",
+    "Net section",
     "Mass",
     "Torsion",
     "Stresses",
@@ -202,7 +230,7 @@ pub fn fe_zero(a: &Analysis, x: f64, err: f64) -> f64 {
 /// grouped in [`GROUPS`] order.
 #[rustfmt::skip]
 pub static QUANTITIES: &[Quantity] = &[
-    Quantity { group: "Area", symbol: "A", meaning: "net area (voids subtracted, other materials by modular ratio)", path: "area", dim: Dim::L(2), get: |a| num(a.props.area) },
+    Quantity { group: "Area", symbol: "A", meaning: "area (voids subtracted, other materials by modular ratio)", path: "area", dim: Dim::L(2), get: |a| num(a.props.area) },
     Quantity { group: "Centroid", symbol: "x̄", meaning: "centroid, x", path: "centroid.x", dim: Dim::L(1), get: |a| num(a.props.centroid.x) },
     Quantity { group: "Centroid", symbol: "ȳ", meaning: "centroid, y", path: "centroid.y", dim: Dim::L(1), get: |a| num(a.props.centroid.y) },
     Quantity { group: "Bounds", symbol: "", meaning: "least x of the section", path: "bounds.xmin", dim: Dim::L(1), get: |a| num(a.props.bounds[0]) },
@@ -251,10 +279,11 @@ pub static QUANTITIES: &[Quantity] = &[
     Quantity { group: "Member", symbol: "Vmax", meaning: "largest shear force", path: "member.v_max", dim: Dim::Force, get: |a| member(a, |m| num(m.v_max)) },
     Quantity { group: "Member", symbol: "δmax", meaning: "largest deflection", path: "member.deflection_max", dim: Dim::Deflection, get: |a| member(a, |m| m.deflection_max.into()) },
     Quantity { group: "Member", symbol: "δallow", meaning: "span / deflection limit", path: "member.deflection_allowed", dim: Dim::Deflection, get: |a| member(a, |m| num(m.deflection_allowed)) },
-    Quantity { group: "Member", symbol: "σb", meaning: "bending stress Mmax / min(Sx)", path: "member.stress_max", dim: Dim::Stress, get: |a| member(a, |m| num(m.stress_max)) },
-    Quantity { group: "Member", symbol: "util", meaning: "utilisation: max(σb/fy, δ/δallow)", path: "member.utilization", dim: Dim::One, get: |a| member(a, |m| m.utilization.into()) },
+    Quantity { group: "Member", symbol: "σb", meaning: "bending stress: the largest n·Mmax·c/Ixx over the materials", path: "member.stress_max", dim: Dim::Stress, get: |a| member(a, |m| num(m.stress_max)) },
+    Quantity { group: "Member", symbol: "util", meaning: "utilisation: max(σ/fy of each material, δ/δallow)", path: "member.utilization", dim: Dim::One, get: |a| member(a, |m| m.utilization.into()) },
     Quantity { group: "Member", symbol: "Mcr", meaning: "elastic critical moment (LTB), simple span, load at the shear centre", path: "member.mcr", dim: Dim::Moment, get: |a| member(a, |m| m.mcr.into()) },
     Quantity { group: "Member", symbol: "", meaning: "monosymmetry constant βx used for Mcr", path: "member.beta_x", dim: Dim::Metres, get: |a| member(a, |m| m.beta_x.into()) },
+    Quantity { group: "Member", symbol: "", meaning: "the material whose stress governs", path: "member.governing_material", dim: Dim::None, get: |a| member(a, |m| m.governing_material.clone().map_or(Cell::Absent, Cell::Text)) },
 ];
 
 /// One result as the views show it.
@@ -273,27 +302,44 @@ pub struct Row {
 /// The rows of every shown quantity present in `a`, grouped in [`GROUPS`] order, then
 /// the connections', in output units; a value that is not a finite number is `None`.
 pub fn rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
-    let mut out: Vec<Row> = QUANTITIES
-        .iter()
-        .filter(|q| q.shown())
-        .filter_map(|q| {
-            let value = match (q.get)(a) {
-                Cell::Num(x) => Some(q.dim.shown(x, u)),
-                Cell::Null => None,
-                _ => return None,
-            };
-            Some(Row {
-                group: q.group,
-                symbol: q.symbol.to_string(),
-                value: value.filter(|v| v.is_finite()),
-                unit: q.dim.label(u),
-                meaning: q.meaning,
-            })
-        })
-        .collect();
+    let mut out: Vec<Row> = QUANTITIES.iter().filter_map(|q| row(q, a, u)).collect();
+    // With holes, the net section's own properties again, in a group of their own and
+    // with symbols marked ",net" so a baseline never matches them to gross rows.
+    if let Some(n) = net_view(a) {
+        out.extend(
+            QUANTITIES
+                .iter()
+                .filter(|q| q.in_net())
+                .filter_map(|q| row(q, &n, u))
+                .map(|r| Row {
+                    group: "Net section",
+                    symbol: format!("{},net", r.symbol),
+                    ..r
+                }),
+        );
+    }
     out.sort_by_key(|r| GROUPS.iter().position(|g| *g == r.group));
     out.extend(connection_rows(a, u));
     out
+}
+
+/// The row of quantity `q` of `a`, if it is shown and `a` has it.
+fn row(q: &Quantity, a: &Analysis, u: &OutUnits) -> Option<Row> {
+    if !q.shown() {
+        return None;
+    }
+    let value = match (q.get)(a) {
+        Cell::Num(x) => Some(q.dim.shown(x, u)),
+        Cell::Null => None,
+        _ => return None,
+    };
+    Some(Row {
+        group: q.group,
+        symbol: q.symbol.to_string(),
+        value: value.filter(|v| v.is_finite()),
+        unit: q.dim.label(u),
+        meaning: q.meaning,
+    })
 }
 
 /// The rows of the joints between parts: length, and the shear flow under the actions

@@ -135,7 +135,7 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
     ));
     // Parts: solids first, then voids over them.
     for void in [false, true] {
-        for piece in a.pieces.iter().filter(|q| q.void == void) {
+        for piece in a.all_pieces().iter().filter(|q| q.void == void) {
             let d: Vec<String> = piece.contours.iter().map(|c| contour_path(c, &v)).collect();
             let style = if void {
                 "fill=\"url(#hatch)\" stroke=\"#1f3550\" stroke-width=\"1.2\" stroke-dasharray=\"5 3\""

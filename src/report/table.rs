@@ -16,12 +16,14 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
     let title = clean(a.section.title.as_deref().unwrap_or("(untitled section)"));
     let file = clean(file);
     let n = a.section.parts.len();
-    let voids = a
-        .section
-        .parts
-        .iter()
-        .filter(|p| p.void && p.enabled)
-        .count();
+    let count = |hole: bool| {
+        a.section
+            .parts
+            .iter()
+            .filter(|p| p.void && p.enabled && p.hole == hole)
+            .count()
+    };
+    let (voids, holes) = (count(false), count(true));
     s.push_str(&format!(
         "{title}\n  {file} · lengths in {} · {n} part{}",
         u.length.name(),
@@ -33,7 +35,18 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
             if voids == 1 { "" } else { "s" }
         ));
     }
+    if holes > 0 {
+        s.push_str(&format!(
+            " ({holes} hole{})",
+            if holes == 1 { "" } else { "s" }
+        ));
+    }
     s.push('\n');
+    if a.net.is_some() {
+        s.push_str(
+            "  holes present: each group says its section — gross (holes left out) or net (holes subtracted)\n",
+        );
+    }
     let rs = rows(a, u);
     // Symbols may hold part names (a joint's): cleaned like every text from the file.
     let syms: Vec<String> = rs.iter().map(|r| clean(&r.symbol)).collect();
@@ -44,13 +57,36 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
         .collect();
     let wval = vals.iter().map(|v| v.chars().count()).max().unwrap_or(0);
     let mut group = "";
-    for ((r, v), sym) in rs.iter().zip(&vals).zip(&syms) {
-        let head = if r.group != group { r.group } else { "" };
-        group = r.group;
+    let heads: Vec<String> = rs
+        .iter()
+        .map(|r| {
+            let head = match (r.group != group, a.net.is_some()) {
+                (false, _) => String::new(),
+                (true, false) => r.group.to_string(),
+                (true, true) => format!("{} ({})", r.group, section_of(r.group)),
+            };
+            group = r.group;
+            head
+        })
+        .collect();
+    let whead = heads
+        .iter()
+        .map(|h| h.chars().count())
+        .max()
+        .unwrap_or(0)
+        .max(18);
+    for (((r, v), sym), head) in rs.iter().zip(&vals).zip(&syms).zip(&heads) {
         s.push_str(&format!(
-            "  {head:<18} {sym:<wsym$}  {v:>wval$} {unit}\n",
+            "  {head:<whead$} {sym:<wsym$}  {v:>wval$} {unit}\n",
             unit = r.unit
         ));
+    }
+    if let Some(gm) = a
+        .member
+        .as_ref()
+        .and_then(|m| m.governing_material.as_deref())
+    {
+        s.push_str(&format!("  member: governing material {}\n", clean(gm)));
     }
     if let Some(Ok(t)) = &a.torsion {
         s.push_str(&format!(
@@ -62,4 +98,14 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
         s.push_str(&format!("  warning: {}\n", clean(&w.to_string())));
     }
     s
+}
+
+/// Which section (FORMAT.md "Gross and net") a group of rows is taken on, when the
+/// section has holes.
+pub fn section_of(group: &str) -> &'static str {
+    match group {
+        "Net section" | "Stresses" => "net",
+        "Member" => "σb net, deflection gross",
+        _ => "gross",
+    }
 }

@@ -56,13 +56,6 @@ impl fmt::Display for Warning {
                  differs from the signed sum of the parts by {}%",
                 sig(*percent, 2)
             ),
-            Warning::ShearRatio { material, g_ratio, e_ratio } => write!(
-                f,
-                "torsion weights each part by E/E_ref, but material {material} has G/G_ref = {} against \
-E/E_ref = {} (a different Poisson's ratio): J, Cw and the shear centre are approximate",
-                sig(*g_ratio, 4),
-                sig(*e_ratio, 4)
-            ),
             Warning::TinyFeature { ratio: r, feature, span, floor } => write!(
                 f,
                 "features {} times smaller than the section (a wall, gap or tip {} wide, the \

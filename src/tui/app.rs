@@ -224,6 +224,8 @@ pub struct App {
     /// A background solve for the current text is under way.
     pub solving: bool,
     generation: u64,
+    /// The generation of a background solve for the baseline, when one is under way.
+    baseline_job: Option<u64>,
     pub quit: bool,
     /// Quit once the pending save succeeds.
     pub quit_after_save: bool,
@@ -270,6 +272,7 @@ impl App {
             solver,
             solving: false,
             generation: 0,
+            baseline_job: None,
             quit: false,
             quit_after_save: false,
         };
@@ -455,11 +458,36 @@ impl App {
     }
 
     fn take_torsion(&mut self, r: Result<crate::fe::Torsion, crate::model::Warning>) {
-        if self.text == self.baseline_text && self.baseline.torsion.is_none() {
+        if self.baseline.torsion.is_none() && self.baseline.pieces == self.analysis.pieces {
             self.baseline.set_torsion(r.clone());
         }
         self.analysis.set_torsion(r);
         self.solving = false;
+        self.solve_baseline();
+    }
+
+    /// Solves the baseline's torsion like any other state's when it has none (edited
+    /// before its own solve finished), after the current section's.
+    fn solve_baseline(&mut self) {
+        if self.baseline.torsion.is_some() {
+            return;
+        }
+        match &mut self.solver {
+            Solver::Off => {}
+            Solver::Inline => {
+                let opts = TorsionOptions {
+                    tol: crate::fe::DEFAULT_TOL,
+                    cancel: None,
+                };
+                let r = torsion(&self.baseline.pieces, &opts);
+                self.baseline.set_torsion(r);
+            }
+            Solver::Thread(w) => {
+                self.generation += 1;
+                self.baseline_job = Some(self.generation);
+                w.submit(self.generation, self.baseline.pieces.clone());
+            }
+        }
     }
 
     /// Takes a finished background solve, if any; returns whether anything changed.
@@ -470,7 +498,11 @@ impl App {
         match w.poll() {
             Poll::Nothing => false,
             Poll::Finished(d) => {
-                if d.generation == self.generation {
+                if Some(d.generation) == self.baseline_job {
+                    self.baseline_job = None;
+                    self.baseline.set_torsion(d.result);
+                    true
+                } else if d.generation == self.generation {
                     self.take_torsion(d.result);
                     true
                 } else {

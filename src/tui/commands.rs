@@ -42,6 +42,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::CoarseUp => step(app, 2, 1.0),
         Cmd::CoarseDown => step(app, 2, -1.0),
         Cmd::ToggleVoid => parts::toggle(app, Flag::Void),
+        Cmd::ToggleHole => parts::toggle_hole(app),
         Cmd::ToggleEnabled => parts::toggle(app, Flag::Enabled),
         Cmd::AddPart => parts::open_picker(app, false),
         Cmd::ChangeShape => parts::open_picker(app, true),

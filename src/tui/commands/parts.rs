@@ -133,6 +133,26 @@ pub fn toggle(app: &mut App, flag: Flag) {
     }
 }
 
+/// Makes the selected part a hole (net section only) or a void everywhere again.
+pub fn toggle_hole(app: &mut App) {
+    if selected(app).is_none() {
+        return;
+    }
+    if app.edit(Edit::ToggleHole { part: app.part }) {
+        let hole = app
+            .analysis
+            .document
+            .parts
+            .get(app.part)
+            .is_some_and(|p| p.hole);
+        app.note(if hole {
+            "part now a hole: subtracted for the net section (stresses), left out of the gross one"
+        } else {
+            "part now a void everywhere (subtracted from every section)"
+        });
+    }
+}
+
 /// Sets the selected part's anchor to the next (`by` = 1) or previous (−1) one of
 /// [`Anchor::ALL`].
 pub fn cycle_anchor(app: &mut App, by: i64) {

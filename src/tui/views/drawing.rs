@@ -110,7 +110,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         }
     }
     let selected = (app.focus == Focus::Parts).then_some(app.part);
-    let mut pieces: Vec<_> = a.pieces.iter().collect();
+    let mut pieces: Vec<_> = a.all_pieces().iter().collect();
     // The selected part last, so that it shows over the others.
     pieces.sort_by_key(|p| Some(p.part) == selected);
     for p in pieces {
@@ -200,7 +200,7 @@ fn legend(app: &App, per_cell: f64, area: Rect, buf: &mut Buffer) {
     if app.show_mesh {
         keys.push(format!("{} mesh", th.glyph("⠿", ",")));
     }
-    if a.pieces.iter().any(|p| p.void) {
+    if a.all_pieces().iter().any(|p| p.void) {
         keys.push(th.glyph("╌ void", "o void").into());
     }
     text.push_str("  ");

@@ -58,8 +58,19 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         plain(format!("Torsion: {}", clean(&m.to_string())), th.muted);
     }
     // Symbol, value, unit and change; narrower on a narrow panel.
-    let (sym_w, val_w, unit_w) = if w >= 33 { (8, 10, 6) } else { (7, 10, 5) };
-    let meaning_w = w.saturating_sub(sym_w + val_w + 1 + unit_w + 8 + 2);
+    // A unit is never cut: its column is as wide as the widest unit shown. Where the
+    // columns do not fit, the change goes first, then value and unit share one field
+    // (a value that still does not fit shows as `…`, never in part).
+    let (sym_w, val_w) = if w >= 33 { (8, 10) } else { (7, 10) };
+    let unit_w = now
+        .iter()
+        .map(|r| Line::raw(th.text(&r.unit)).width())
+        .max()
+        .unwrap_or(0);
+    let columns = sym_w + val_w + 1 + unit_w;
+    let (show_change, together) = (w >= columns + 8, w < columns);
+    let sym_w = if together { sym_w.min(w / 3) } else { sym_w };
+    let meaning_w = w.saturating_sub(columns + 8 + 2);
     let mut group = "";
     for r in &now {
         if r.group != group && meaning_w < 20 {
@@ -80,14 +91,19 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         let value = r
             .value
             .map_or(th.glyph("—", "-").to_string(), |v| sig(v, 4));
-        let mut spans = vec![
-            Span::raw(fit(&th.text(&r.symbol), sym_w)),
-            Span::raw(fit_right(&value, val_w)),
-            Span::raw(" "),
-            Span::styled(fit(&th.text(&r.unit), unit_w), th.muted),
-            Span::styled(fit_right(&th.text(&chg), 8), chg_style),
-        ];
-        if meaning_w >= 20 {
+        let mut spans = vec![Span::raw(fit(&th.text(&r.symbol), sym_w))];
+        if together {
+            let both = format!("{value} {}", th.text(&r.unit));
+            spans.push(Span::raw(fit_right(both.trim_end(), w - sym_w)));
+        } else {
+            spans.push(Span::raw(fit_right(&value, val_w)));
+            spans.push(Span::raw(" "));
+            spans.push(Span::styled(fit(&th.text(&r.unit), unit_w), th.muted));
+        }
+        if show_change {
+            spans.push(Span::styled(fit_right(&th.text(&chg), 8), chg_style));
+        }
+        if show_change && meaning_w >= 20 {
             spans.push(Span::raw("  "));
             spans.push(Span::styled(fit(&th.text(r.meaning), meaning_w), th.muted));
         }
