@@ -75,7 +75,7 @@ pub fn to_json(file: &str, a: &Analysis, u: &OutUnits) -> Value {
         .iter()
         .map(|c| {
             let mut j = json!({
-                "parts": [&a.pieces[c.joint.a].name, &a.pieces[c.joint.b].name],
+                "parts": [clean(&a.pieces[c.joint.a].name), clean(&a.pieces[c.joint.b].name)],
                 "length": g(c.joint.length, 1),
             });
             if let Some(q) = a.connection_flow(c) {
