@@ -9,7 +9,7 @@ use super::blocks::{self, own, user, Block, Line, Span};
 use super::composite::{terms, totals};
 use super::out::OutUnits;
 use super::rows::rows;
-use super::table::{section_of, FIGURES};
+use super::table::{group_heads, FIGURES};
 use super::CAUTION;
 use crate::analysis::{Analysis, GRAVITY};
 use crate::checks::ltb::Compressed;
@@ -363,16 +363,11 @@ axis theorem then gives I = Σ(I_own + A·d²).",
 fn results(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
     s.push(Block::Heading(2, own("Results")));
     let rs = rows(a, u);
-    let mut group = "";
+    let heads = group_heads(&rs, a.net.is_some());
     let body: Vec<Vec<Line>> = rs
         .iter()
-        .map(|r| {
-            let head = match (r.group != group, a.net.is_some()) {
-                (false, _) => String::new(),
-                (true, false) => r.group.to_string(),
-                (true, true) => format!("{} ({})", r.group, section_of(r.group)),
-            };
-            group = r.group;
+        .zip(heads)
+        .map(|(r, head)| {
             vec![
                 own(head),
                 user(&r.symbol),

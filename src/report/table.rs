@@ -1,7 +1,7 @@
 //! The aligned, unit-labelled table that `kern calc` prints for people.
 
 use super::out::OutUnits;
-use super::rows::rows;
+use super::rows::{rows, Row};
 use crate::analysis::Analysis;
 use crate::numfmt::sig;
 use crate::text::clean;
@@ -56,19 +56,7 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
         .map(|r| r.value.map_or("—".into(), |v| sig(v, FIGURES)))
         .collect();
     let wval = vals.iter().map(|v| v.chars().count()).max().unwrap_or(0);
-    let mut group = "";
-    let heads: Vec<String> = rs
-        .iter()
-        .map(|r| {
-            let head = match (r.group != group, a.net.is_some()) {
-                (false, _) => String::new(),
-                (true, false) => r.group.to_string(),
-                (true, true) => format!("{} ({})", r.group, section_of(r.group)),
-            };
-            group = r.group;
-            head
-        })
-        .collect();
+    let heads = group_heads(&rs, a.net.is_some());
     let whead = heads
         .iter()
         .map(|h| h.chars().count())
@@ -108,4 +96,21 @@ pub fn section_of(group: &str) -> &'static str {
         "Member" => "σb net, deflection gross",
         _ => "gross",
     }
+}
+
+/// The group heading each row stands under: the group's name on its first row (with
+/// the section it is taken on when there are holes), empty on the others.
+pub fn group_heads(rows: &[Row], holes: bool) -> Vec<String> {
+    let mut group = "";
+    rows.iter()
+        .map(|r| {
+            let head = match (r.group != group, holes) {
+                (false, _) => String::new(),
+                (true, false) => r.group.to_string(),
+                (true, true) => format!("{} ({})", r.group, section_of(r.group)),
+            };
+            group = r.group;
+            head
+        })
+        .collect()
 }

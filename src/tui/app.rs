@@ -443,11 +443,7 @@ impl App {
         match &mut self.solver {
             Solver::Off => {}
             Solver::Inline => {
-                let opts = TorsionOptions {
-                    tol: crate::fe::DEFAULT_TOL,
-                    cancel: None,
-                };
-                let r = torsion(&self.analysis.pieces, &opts);
+                let r = solve_here(&self.analysis.pieces);
                 self.take_torsion(r);
             }
             Solver::Thread(w) => {
@@ -475,11 +471,7 @@ impl App {
         match &mut self.solver {
             Solver::Off => {}
             Solver::Inline => {
-                let opts = TorsionOptions {
-                    tol: crate::fe::DEFAULT_TOL,
-                    cancel: None,
-                };
-                let r = torsion(&self.baseline.pieces, &opts);
+                let r = solve_here(&self.baseline.pieces);
                 self.baseline.set_torsion(r);
             }
             Solver::Thread(w) => {
@@ -551,4 +543,13 @@ impl App {
         self.baseline_text = self.text.clone();
         self.baseline_label = label;
     }
+}
+
+/// The torsion solve on this thread, to the default tolerance (the inline solver).
+fn solve_here(pieces: &[crate::geom::Piece]) -> Result<crate::fe::Torsion, crate::model::Warning> {
+    let opts = TorsionOptions {
+        tol: crate::fe::DEFAULT_TOL,
+        cancel: None,
+    };
+    torsion(pieces, &opts)
 }
