@@ -258,7 +258,7 @@ fn the_calc_table_names_each_group_s_section() {
     for want in [
         "(2 holes)",
         "Second moments (gross)",
-        "Net section (net)",
+        "  Net section  ",
         "Stresses (net)",
         "Ixx,net",
     ] {

@@ -106,8 +106,10 @@ pub fn group_heads(rows: &[Row], holes: bool) -> Vec<String> {
         .map(|r| {
             let head = match (r.group != group, holes) {
                 (false, _) => String::new(),
-                (true, false) => r.group.to_string(),
-                (true, true) => format!("{} ({})", r.group, section_of(r.group)),
+                (true, true) if r.group != "Net section" => {
+                    format!("{} ({})", r.group, section_of(r.group))
+                }
+                (true, _) => r.group.to_string(),
             };
             group = r.group;
             head
