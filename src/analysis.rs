@@ -17,6 +17,7 @@ use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{joints, solid_bounds, Piece, Pt, Seg};
 use crate::geom::{LoadHeight, Resolved};
 use crate::model::units::Dim;
+use crate::model::warning::McrRefusal;
 use crate::model::{Diagnostic, Document, Warning};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
@@ -68,12 +69,19 @@ pub struct MemberResult {
     /// The side in compression that `mcr` was formed for; `None` when the moment
     /// takes both signs (or none) along the span and the lower of the two is given.
     pub mcr_side: Option<Compressed>,
-    /// Why there is no `mcr`, in words.
-    pub mcr_note: Option<String>,
-    /// The same, when it belongs in the warnings.
-    pub mcr_warning: Option<String>,
+    /// Why there is no `mcr`.
+    pub mcr_note: Option<McrRefusal>,
     /// Self-weight added to the uniform load, N/m.
     pub self_weight: f64,
+}
+
+impl MemberResult {
+    /// The warning for a missing Mcr, when the reason is one the user should hear of.
+    pub fn mcr_warning(&self) -> Option<Warning> {
+        (self.mcr_note.clone())
+            .filter(McrRefusal::warns)
+            .map(Warning::McrNotComputed)
+    }
 }
 
 /// The net section (FORMAT.md "Gross and net"): the enabled pieces with the holes
@@ -158,11 +166,12 @@ impl Analysis {
             .is_some_and(|a| a.vx.is_some() || a.vy.is_some());
         // Overlaps and voids outside solid material, holes included.
         let mut notes = warnings(&all);
-        notes.extend(
-            shear_flow::warnings(&pieces, &contacts, &connections, shear_given)
-                .into_iter()
-                .map(Warning::Note),
-        );
+        notes.extend(shear_flow::warnings(
+            &pieces,
+            &contacts,
+            &connections,
+            shear_given,
+        ));
         let mut a = Analysis {
             warnings: notes,
             connections,
@@ -178,8 +187,7 @@ impl Analysis {
         };
         a.stress = a.stresses();
         a.member = a.member_check();
-        a.warnings
-            .extend(a.member_notes().into_iter().map(Warning::Note));
+        a.warnings.extend(a.member_notes());
         if let Some(o) = &opts.torsion {
             a.set_torsion(torsion(&a.pieces, o));
         }
@@ -197,9 +205,7 @@ impl Analysis {
         }
         self.torsion = Some(t);
         self.member = self.member_check();
-        let warning = (self.member.as_ref())
-            .and_then(|m| m.mcr_warning.clone())
-            .map(Warning::Note);
+        let warning = (self.member.as_ref()).and_then(MemberResult::mcr_warning);
         if let Some(w) = warning.filter(|w| !self.warnings.contains(w)) {
             self.warnings.push(w);
         }
@@ -288,29 +294,27 @@ impl Analysis {
     }
 
     /// What the member check had to leave out, in words.
-    fn member_notes(&self) -> Vec<String> {
+    fn member_notes(&self) -> Vec<Warning> {
         let Some(mb) = &self.section.member else {
             return Vec::new();
         };
         let mut notes = Vec::new();
         if mb.self_weight && self.mass_per_metre().is_none() {
-            notes.push("self_weight is on but not every part has a material with a density; self-weight left out".to_string());
+            notes.push(Warning::SelfWeightNoDensity);
         }
         if self.section.materials.is_empty() {
-            notes.push("the member check has no modulus of elasticity: add [[materials]] with E for deflections".to_string());
+            notes.push(Warning::MemberNoModulus);
         }
         if let Some(m) = &self.member {
             if m.fibres.iter().any(|f| f.fy.is_some()) {
                 notes.extend(m.fibres.iter().filter(|f| f.fy.is_none()).map(|f| {
-                    format!(
-                        "material {} has no fy: its bending stress is not in the member's \
-utilization; give its fy",
-                        f.material.as_deref().unwrap_or("(none)")
-                    )
+                    Warning::MaterialNoFy {
+                        material: f.material.clone(),
+                    }
                 }));
             }
         }
-        notes.extend(self.member.as_ref().and_then(|m| m.mcr_warning.clone()));
+        notes.extend(self.member.as_ref().and_then(MemberResult::mcr_warning));
         notes
     }
 
@@ -331,73 +335,39 @@ utilization; give its fy",
     /// Mcr of the member in N·m with βx in m and the side in compression, or why there
     /// is none. The moment diagram decides the side: sagging compresses +y (s = −1),
     /// hogging −y (s = +1); a diagram of both signs (or none) takes the lower value.
-    fn critical_moment(&self, beam: &Beam) -> Result<(f64, f64, Option<Compressed>), Refusal> {
-        let quiet = |s: &str| Err(Refusal::quiet(s));
-        let mb = self
-            .section
-            .member
-            .as_ref()
-            .ok_or_else(|| Refusal::quiet("no [member]"))?;
+    fn critical_moment(&self, beam: &Beam) -> Result<(f64, f64, Option<Compressed>), McrRefusal> {
+        let mb = self.section.member.as_ref().ok_or(McrRefusal::NoMember)?;
         if mb.support != Support::Simple {
-            return quiet(
-                "the formula is for a simple span (ends free to warp, twist prevented); other \
-end conditions need effective lengths and a published method that kern does not apply",
-            );
+            return Err(McrRefusal::NotSimpleSpan);
         }
         if mb.load_height != LoadHeight::ShearCentre {
-            let name = if mb.load_height == LoadHeight::Top {
-                "top"
-            } else {
-                "bottom"
-            };
-            return Err(Refusal::warn(format!(
-                "[member] load_height = \"{name}\": a load above or below \
-the shear centre needs a load-height method (tabulated for given load cases, e.g. in the SSRC \
-guide) that kern does not implement; use load_height = \"shear_centre\" for the value with \
-the load at the shear centre"
-            )));
+            return Err(McrRefusal::LoadHeight {
+                top: mb.load_height == LoadHeight::Top,
+            });
         }
         let Some(mat) = self.section.materials.first() else {
-            return quiet("it needs a modulus of elasticity: add [[materials]] with E");
+            return Err(McrRefusal::NoModulus);
         };
         let t = match &self.torsion {
-            None => return quiet("it needs the torsion results (J, Cw, shear centre)"),
-            Some(Err(_)) => {
-                return quiet("the torsion results (J, Cw, shear centre) could not be computed")
-            }
+            None => return Err(McrRefusal::NoTorsion),
+            Some(Err(_)) => return Err(McrRefusal::TorsionFailed),
             Some(Ok(t)) => t,
         };
         let pieces = crate::fe::mesh::base(&self.pieces, 1.0)
             .map(|b| b.mesh.pinned.len())
             .unwrap_or(1);
         if pieces > 1 {
-            return Err(Refusal::warn(format!(
-                "the section is {pieces} separate pieces; how they buckle \
-together depends on how and how often they are connected along the span (each piece also \
-buckles on its own between connections), and no single Mcr of the cross-section describes \
-that; check the pieces and their connections by a method for built-up members"
-            )));
+            return Err(McrRefusal::SeparatePieces { count: pieces });
         }
         let p = &self.props;
         if p.ixy.abs() > 1e-9 * (p.ixx * p.iyy).sqrt() {
-            return Err(Refusal::warn(
-                "the section is not symmetric about an axis parallel to y \
-(Ixy ≠ 0), and the formula kern uses holds only for such sections"
-                    .to_string(),
-            ));
+            return Err(McrRefusal::Asymmetric);
         }
         let size = (p.bounds[1] - p.bounds[0]).max(p.bounds[3] - p.bounds[2]);
         if (t.shear_centre.x - p.centroid.x).abs() > t.rel_error.max(1e-9) * size {
-            return Err(Refusal::warn(
-                "the shear centre is off the vertical axis through the \
-centroid, so the section is not symmetric about an axis parallel to y, and the formula kern \
-uses holds only for such sections"
-                    .to_string(),
-            ));
+            return Err(McrRefusal::ShearCentreOff);
         }
-        let (beta_x, _) = self
-            .beta()
-            .ok_or_else(|| Refusal::quiet("no torsion results"))?;
+        let (beta_x, _) = self.beta().ok_or(McrRefusal::NoTorsionResults)?;
         let b = Buckling {
             e: mat.e,
             g: mat.g,
@@ -422,7 +392,7 @@ uses holds only for such sections"
         };
         match mcr {
             Some(x) => Ok((x, b.beta_x, side)),
-            None => quiet("J and Cw are both zero, or a value is not finite"),
+            None => Err(McrRefusal::NoFiniteValue),
         }
     }
 
@@ -518,7 +488,6 @@ uses holds only for such sections"
             beta_x: None,
             mcr_side: None,
             mcr_note: None,
-            mcr_warning: None,
             self_weight,
         };
         match self.critical_moment(&out.beam) {
@@ -527,10 +496,7 @@ uses holds only for such sections"
                 out.beta_x = Some(beta_x);
                 out.mcr_side = side;
             }
-            Err(r) => {
-                out.mcr_note = Some(r.text);
-                out.mcr_warning = r.warning;
-            }
+            Err(r) => out.mcr_note = Some(r),
         }
         Some(out)
     }
@@ -549,28 +515,6 @@ fn moment_signs(beam: &Beam) -> (bool, bool) {
         peak > 0.0 && d.iter().any(|r| r.2 > tol),
         peak > 0.0 && d.iter().any(|r| r.2 < -tol),
     )
-}
-
-/// Why Mcr is absent: the reason in words, and a warning when the user should hear of
-/// it in the warnings list (not for what simply was not asked, like torsion skipped).
-struct Refusal {
-    text: String,
-    warning: Option<String>,
-}
-
-impl Refusal {
-    fn quiet(text: &str) -> Refusal {
-        Refusal {
-            text: text.to_string(),
-            warning: None,
-        }
-    }
-    fn warn(text: String) -> Refusal {
-        Refusal {
-            warning: Some(format!("Mcr not computed: {text}")),
-            text,
-        }
-    }
 }
 
 /// Points where a linear stress field can take its extremes over the solid parts

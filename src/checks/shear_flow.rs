@@ -27,6 +27,7 @@
 use crate::geom::joints::{Contacts, Joint};
 use crate::geom::simple::winding;
 use crate::geom::{Piece, Pt};
+use crate::model::Warning;
 use crate::props::{Centroidal, Moments};
 
 /// The part of the section on one side of a bridge joint, about the section centroid
@@ -309,22 +310,20 @@ pub fn warnings(
     contacts: &Contacts,
     conns: &[Connection],
     shear_given: bool,
-) -> Vec<String> {
-    let name = |i: usize| pieces[i].name.as_str();
+) -> Vec<Warning> {
+    let name = |i: usize| pieces[i].name.clone();
     let mut out = Vec::new();
     if contacts.gave_up {
-        out.push(format!(
-            "connections not looked for: more than {} pairs of parts lie on one another (stacked or overlapping parts); no joint or shear flow is given",
-            crate::geom::joints::MAX_PAIRS
-        ));
+        out.push(Warning::ConnectionsNotLooked {
+            max_pairs: crate::geom::joints::MAX_PAIRS,
+        });
         return out;
     }
     for &(a, b) in &contacts.points {
-        out.push(format!(
-            "parts `{}` and `{}` touch only at a point: no joint there can carry longitudinal shear",
-            name(a),
-            name(b)
-        ));
+        out.push(Warning::PointContact {
+            a: name(a),
+            b: name(b),
+        });
     }
     let solids: Vec<usize> = (0..pieces.len()).filter(|&i| !pieces[i].void).collect();
     let alone: Vec<usize> = solids
@@ -333,47 +332,38 @@ pub fn warnings(
         .filter(|&i| !contacts.joints.iter().any(|j| j.a == i || j.b == i))
         .collect();
     if solids.len() > 1 && alone.len() == solids.len() {
-        out.push(format!(
-            "no two of the {} solid parts share a boundary: the properties assume they act together, which needs connections along the member (battens, packs, bolts)",
-            solids.len()
-        ));
+        out.push(Warning::NoSharedBoundary {
+            solids: solids.len(),
+        });
     } else if solids.len() > 1 && !alone.is_empty() {
-        let names: Vec<String> = alone.iter().map(|&i| format!("`{}`", name(i))).collect();
-        out.push(format!(
-            "{} {} no boundary with another solid part: each needs its own connection to the rest, or is a separate member (the properties assume the parts act together)",
-            if names.len() == 1 { "part" } else { "parts" },
-            if names.len() == 1 {
-                format!("{} shares", names[0])
-            } else {
-                format!("{} share", names.join(", "))
-            }
-        ));
+        out.push(Warning::PartsAlone {
+            parts: alone.iter().map(|&i| name(i)).collect(),
+        });
     }
     if !shear_given {
         return out;
     }
-    let closed: Vec<String> = conns
+    let joints: Vec<(String, String)> = conns
         .iter()
         .filter(|c| c.flow == Flow::ClosedCell)
-        .map(|c| format!("`{}`–`{}`", name(c.joint.a), name(c.joint.b)))
+        .map(|c| (name(c.joint.a), name(c.joint.b)))
         .collect();
-    if !closed.is_empty() {
-        out.push(format!(
-            "the shear flow across joints on a closed cell ({}) needs the finite-element flexure solution, which is not yet computed: no flow is given for them",
-            closed.join(", ")
-        ));
+    if !joints.is_empty() {
+        out.push(Warning::ClosedCellFlow { joints });
     }
     for c in conns {
-        let joint = format!("`{}`–`{}`", name(c.joint.a), name(c.joint.b));
+        let (a, b) = (name(c.joint.a), name(c.joint.b));
         match c.flow {
-            Flow::VoidAcross(v) => out.push(format!(
-                "void `{}` lies in parts on both sides of the joint {joint}: the flow across it is not computed",
-                name(v)
-            )),
-            Flow::StrayVoid(v) => out.push(format!(
-                "void `{}` is in no solid part, so the sides of the joint {joint} cannot be told its share: the flow across it is not computed",
-                name(v)
-            )),
+            Flow::VoidAcross(v) => out.push(Warning::VoidAcrossJoint {
+                void: name(v),
+                a,
+                b,
+            }),
+            Flow::StrayVoid(v) => out.push(Warning::StrayVoidAtJoint {
+                void: name(v),
+                a,
+                b,
+            }),
             _ => {}
         }
     }

@@ -141,15 +141,14 @@ type Cdt = ConstrainedDelaunayTriangulation<Point2<f64>>;
 /// Builds the base mesh of the region of `pieces`. `size` scales the largest element
 /// area allowed (1 for the default).
 pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
-    let bounds = crate::geom::solid_bounds(pieces)
-        .ok_or("there is no enabled solid part to mesh for torsion")?;
+    let bounds = crate::geom::solid_bounds(pieces).ok_or(Warning::NoSolidPart)?;
     if !bounds.iter().all(|v| v.is_finite()) {
-        return Err("the section extent is not finite".into());
+        return Err(Warning::ExtentNotFinite);
     }
     let origin = Pt::new(0.5 * (bounds[0] + bounds[1]), 0.5 * (bounds[2] + bounds[3]));
     let span = (bounds[1] - bounds[0]).max(bounds[3] - bounds[2]);
     if span <= 0.0 {
-        return Err("the section has no extent to mesh for torsion".into());
+        return Err(Warning::NoExtent);
     }
     let eps = 1e-9 * span;
     let mut simplified = (0usize, 0usize);
@@ -219,7 +218,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
         }
     }
     if !outlines.iter().any(|o| !o.void) {
-        return Err("the solid parts have no area to mesh for torsion".into());
+        return Err(Warning::NoSolidArea);
     }
     let mut all = Cdt::new();
     let mut snap = Snap::new(eps);
@@ -252,7 +251,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
     let region = region_triangles(&cdt, &outlines);
     let area: f64 = region.iter().map(|t| t.area).sum();
     if area <= 0.0 {
-        return Err("the region of the section (solids minus voids) is empty".into());
+        return Err(Warning::EmptyRegion);
     }
     // The thinnest feature: the smallest altitude of the region's triangles before
     // refinement (a wall, a sliver between an outline and a hole, a needle's tip).
@@ -347,7 +346,7 @@ impl Snap {
         &mut self,
         cdt: &mut Cdt,
         p: Pt,
-    ) -> Result<spade::handles::FixedVertexHandle, String> {
+    ) -> Result<spade::handles::FixedVertexHandle, Warning> {
         let key = (
             (p.x / self.eps).floor() as i64,
             (p.y / self.eps).floor() as i64,
@@ -363,7 +362,9 @@ impl Snap {
         }
         let h = cdt
             .insert(Point2::new(p.x, p.y))
-            .map_err(|e| format!("cannot mesh the section for torsion: {e:?}"))?;
+            .map_err(|e| Warning::CannotMesh {
+                cause: format!("{e:?}"),
+            })?;
         self.grid.entry(key).or_default().push((p, h));
         Ok(h)
     }
@@ -412,7 +413,7 @@ fn grade_corners(
     chords: &[(Pt, Pt, u32)],
     eps: f64,
     snap: &mut Snap,
-) -> Result<(), String> {
+) -> Result<(), Warning> {
     let tris = region_triangles(cdt, outlines);
     let nv = cdt.num_vertices();
     let mut angle = vec![0.0; nv];
@@ -440,13 +441,10 @@ fn grade_corners(
         })
         .collect();
     if corners.len() * 40 > BASE_VERTICES {
-        return Err(format!(
-            "the section has {} re-entrant corners, and grading the torsion mesh at them \
-             would take more than the solver's budget of {} added nodes: simplify the \
-             section (fewer holes or parts)",
-            corners.len(),
-            BASE_VERTICES
-        ));
+        return Err(Warning::TooManyCorners {
+            corners: corners.len(),
+            budget: BASE_VERTICES,
+        });
     }
     let mut extra = Vec::new();
     for v in corners {

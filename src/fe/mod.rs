@@ -64,7 +64,8 @@ pub const DEFAULT_TOL: f64 = 1e-3;
 pub struct TorsionOptions {
     /// Target relative error of J and Cw (default [`DEFAULT_TOL`]).
     pub tol: f64,
-    /// When set to true by another thread, the solver stops with `Err("cancelled")`.
+    /// When set to true by another thread, the solver stops with
+    /// `Err(Warning::Cancelled)`.
     pub cancel: Option<Arc<AtomicBool>>,
 }
 
@@ -143,31 +144,24 @@ impl Budget {
 }
 
 /// Computes J, the shear centre and Cw of the region of `pieces` to the tolerance of
-/// `opts`. Errors: `"cancelled"`, or why there is nothing to mesh.
+/// `opts`. Errors: [`Warning::Cancelled`], or why there is nothing to mesh or solve.
 pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warning> {
     let cancel = opts.cancel.as_deref();
     let cancelled = || cancel.is_some_and(|c| c.load(Ordering::Relaxed));
     let fail = |f: Failure| match f {
-        Failure::Cancelled => "cancelled".to_string(),
-        Failure::Degenerate => "the torsion mesh has a degenerate element".to_string(),
-        Failure::Stalled { elements } => format!(
-            "the solver did not converge on the mesh of {elements} elements (outlines that \
-             touch at a point or meet at a hairline angle make cusps); move the parts apart \
-             or overlap them clearly"
-        ),
-        Failure::TooLarge { entries, flops } => format!(
-            "the base mesh's direct solve would hold {} entries and take {:.0e} operations, \
-             past the solver's budget ({} entries, {:.0e} operations); simplify the section \
-             (fewer holes or corners)",
+        Failure::Cancelled => Warning::Cancelled,
+        Failure::Degenerate => Warning::DegenerateElement,
+        Failure::Stalled { elements } => Warning::Stalled { elements },
+        Failure::TooLarge { entries, flops } => Warning::SolveTooLarge {
             entries,
             flops,
-            solve::MAX_ENVELOPE,
-            solve::MAX_FLOPS
-        ),
+            max_entries: solve::MAX_ENVELOPE,
+            max_flops: solve::MAX_FLOPS,
+        },
     };
     let budget = Budget::DEFAULT;
     if cancelled() {
-        return Err("cancelled".into());
+        return Err(Warning::Cancelled);
     }
     let base = mesh::base(pieces, 1.0)?;
     let mut warnings = base.warnings;
@@ -184,7 +178,7 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
     };
     loop {
         if cancelled() {
-            return Err("cancelled".into());
+            return Err(Warning::Cancelled);
         }
         let level = ladder.solve(&mesh, step.take(), cancel).map_err(fail)?;
         if levels.is_empty() {
@@ -200,23 +194,19 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
                 return Ok(finish(est, &mesh, warnings));
             }
             if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
-                warnings.push(format!(
-                    "torsion: the estimated error {:.1e} is above the tolerance {:.1e} on the finest mesh allowed",
-                    est.rel_error, tol
-                ).into());
+                warnings.push(Warning::AboveTolerance {
+                    error: est.rel_error,
+                    tol,
+                });
                 return Ok(finish(est, &mesh, warnings));
             }
         } else if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
-            return Err(format!(
-                "an error estimate needs three meshes, and the next ({} elements) is past \
-                 the solver's budget of {} elements, {} nodes and {} MB; simplify the \
-                 section (fewer holes or corners)",
-                4 * mesh.elems.len(),
-                budget.elements,
-                budget.nodes,
-                budget.bytes >> 20
-            )
-            .into());
+            return Err(Warning::NextMeshPastBudget {
+                elements: 4 * mesh.elems.len(),
+                max_elements: budget.elements,
+                max_nodes: budget.nodes,
+                mb: budget.bytes >> 20,
+            });
         }
         let fine = mesh.refine();
         step = Some(mesh.prolongation(&fine));

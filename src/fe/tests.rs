@@ -244,7 +244,7 @@ fn cancellation_flag_stops_the_solver() {
         cancel: Some(flag),
     };
     let r = torsion(&solid(Shape::Rect { b: 10.0, h: 5.0 }), &opts);
-    assert_eq!(r, Err("cancelled".into()));
+    assert_eq!(r, Err(crate::model::Warning::Cancelled));
 }
 
 #[test]

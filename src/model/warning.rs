@@ -47,8 +47,111 @@ pub enum Warning {
     },
     /// Torsion was not computed, for the reason inside.
     NoTorsion(Box<Warning>),
-    /// A warning already in words (it carries no figure a view would format).
-    Note(String),
+    /// The torsion solve was cancelled (a newer one replaced it).
+    Cancelled,
+    /// Grading the mesh at `corners` re-entrant corners would take more than the
+    /// `budget` of added nodes.
+    TooManyCorners { corners: usize, budget: usize },
+    /// The torsion solver failed (it panicked) on this section.
+    SolverFailed,
+    /// There is no enabled solid part to mesh.
+    NoSolidPart,
+    /// The mesher refused a point, for the `cause` it gave.
+    CannotMesh { cause: String },
+    /// The section's extent is not finite, so there is nothing to mesh.
+    ExtentNotFinite,
+    /// The section has no extent to mesh.
+    NoExtent,
+    /// The solid parts have no area to mesh.
+    NoSolidArea,
+    /// The region (solids minus voids) is empty.
+    EmptyRegion,
+    /// The torsion mesh has a degenerate element.
+    DegenerateElement,
+    /// The iterative solver did not converge on a mesh of `elements` elements.
+    Stalled { elements: usize },
+    /// The base mesh's direct solve would hold `entries` entries and take `flops`
+    /// operations, past the budget of `max_entries` entries and `max_flops` operations.
+    SolveTooLarge {
+        entries: usize,
+        flops: f64,
+        max_entries: usize,
+        max_flops: f64,
+    },
+    /// The estimated relative error `error` is above the tolerance `tol` on the finest
+    /// mesh the budget allows.
+    AboveTolerance { error: f64, tol: f64 },
+    /// An error estimate needs three meshes and the next one (`elements` elements) is
+    /// past the budget of `max_elements` elements, `max_nodes` nodes and `mb` MB.
+    NextMeshPastBudget {
+        elements: usize,
+        max_elements: usize,
+        max_nodes: usize,
+        mb: usize,
+    },
+    /// More than `max_pairs` pairs of parts lie on one another: no connection looked for.
+    ConnectionsNotLooked { max_pairs: usize },
+    /// Parts `a` and `b` touch only at a point.
+    PointContact { a: String, b: String },
+    /// None of the `solids` solid parts shares a boundary with another.
+    NoSharedBoundary { solids: usize },
+    /// The solid `parts` share no boundary with another solid part (the others do).
+    PartsAlone { parts: Vec<String> },
+    /// Joints (pairs of part names) on a closed cell, whose flow is not computed.
+    ClosedCellFlow { joints: Vec<(String, String)> },
+    /// Void `void` lies in parts on both sides of the joint `a`–`b`.
+    VoidAcrossJoint { void: String, a: String, b: String },
+    /// Void `void` is in no solid part, so the joint `a`–`b` cannot be given its share.
+    StrayVoidAtJoint { void: String, a: String, b: String },
+    /// `[member] self_weight` is on but not every part has a density.
+    SelfWeightNoDensity,
+    /// The member check has no modulus of elasticity (no materials).
+    MemberNoModulus,
+    /// Material `material` (`None`: parts without one) has no fy, among materials that do.
+    MaterialNoFy { material: Option<String> },
+    /// Mcr was not computed, for a reason the user should hear of.
+    McrNotComputed(McrRefusal),
+}
+
+/// Why the elastic critical moment Mcr is not computed.
+#[derive(Debug, Clone, PartialEq)]
+pub enum McrRefusal {
+    /// There is no `[member]`.
+    NoMember,
+    /// The support is not a simple span.
+    NotSimpleSpan,
+    /// The load is applied at the top (`top`) or bottom flange, not the shear centre.
+    LoadHeight { top: bool },
+    /// No material gives a modulus of elasticity.
+    NoModulus,
+    /// Torsion was not asked for.
+    NoTorsion,
+    /// Torsion could not be computed.
+    TorsionFailed,
+    /// The section is in `count` separate pieces.
+    SeparatePieces { count: usize },
+    /// Ixy ≠ 0: not symmetric about an axis parallel to y.
+    Asymmetric,
+    /// The shear centre is off the vertical axis through the centroid.
+    ShearCentreOff,
+    /// The torsion results are missing (no βx).
+    NoTorsionResults,
+    /// J and Cw are both zero, or a value is not finite.
+    NoFiniteValue,
+}
+
+impl McrRefusal {
+    /// Whether the user should hear of it in the warnings (not for what simply was
+    /// not asked, like torsion skipped).
+    pub fn warns(&self) -> bool {
+        matches!(
+            self,
+            McrRefusal::LoadHeight { .. }
+                | McrRefusal::SeparatePieces { .. }
+                | McrRefusal::Asymmetric
+                | McrRefusal::ShearCentreOff
+        )
+    }
 }
 
 /// The kinds a [`Warning::More`] counts.
@@ -57,16 +160,4 @@ pub enum More {
     PartsWithNoArea,
     Overlaps,
     VoidsOutside,
-}
-
-impl From<String> for Warning {
-    fn from(s: String) -> Warning {
-        Warning::Note(s)
-    }
-}
-
-impl From<&str> for Warning {
-    fn from(s: &str) -> Warning {
-        Warning::Note(s.to_string())
-    }
 }

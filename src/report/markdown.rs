@@ -698,7 +698,7 @@ prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of ",
         }
         _ => own(format!(
             "Mcr not computed: {}",
-            mr.mcr_note.as_deref().unwrap_or("no value")
+            mr.mcr_note.as_ref().map_or("no value".to_string(), |r| r.to_string())
         )),
     });
     out

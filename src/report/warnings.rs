@@ -2,7 +2,7 @@
 //! table, the JSON, the calculation sheet and the workbench all print `Display`.
 //! Figures get significant figures here ([`sig`]), never in the core.
 
-use crate::model::warning::{More, Warning};
+use crate::model::warning::{McrRefusal, More, Warning};
 use crate::numfmt::sig;
 use std::fmt;
 
@@ -75,7 +75,172 @@ impl fmt::Display for Warning {
                 sig(*span, 3)
             ),
             Warning::NoTorsion(why) => write!(f, "torsion not computed: {why}"),
-            Warning::Note(s) => f.write_str(s),
+            Warning::Cancelled => f.write_str("cancelled"),
+            Warning::TooManyCorners { corners, budget } => write!(
+                f,
+                "the section has {corners} re-entrant corners, and grading the torsion mesh at them \
+                 would take more than the solver's budget of {budget} added nodes: simplify the \
+                 section (fewer holes or parts)"
+            ),
+            Warning::SolverFailed => f.write_str("the torsion solver failed on this section"),
+            Warning::NoSolidPart => {
+                f.write_str("there is no enabled solid part to mesh for torsion")
+            }
+            Warning::CannotMesh { cause } => {
+                write!(f, "cannot mesh the section for torsion: {cause}")
+            }
+            Warning::ExtentNotFinite => f.write_str("the section extent is not finite"),
+            Warning::NoExtent => f.write_str("the section has no extent to mesh for torsion"),
+            Warning::NoSolidArea => {
+                f.write_str("the solid parts have no area to mesh for torsion")
+            }
+            Warning::EmptyRegion => {
+                f.write_str("the region of the section (solids minus voids) is empty")
+            }
+            Warning::DegenerateElement => f.write_str("the torsion mesh has a degenerate element"),
+            Warning::Stalled { elements } => write!(
+                f,
+                "the solver did not converge on the mesh of {elements} elements (outlines that \
+                 touch at a point or meet at a hairline angle make cusps); move the parts apart \
+                 or overlap them clearly"
+            ),
+            Warning::SolveTooLarge {
+                entries,
+                flops,
+                max_entries,
+                max_flops,
+            } => write!(
+                f,
+                "the base mesh's direct solve would hold {entries} entries and take {flops:.0e} operations, \
+                 past the solver's budget ({max_entries} entries, {max_flops:.0e} operations); simplify the section \
+                 (fewer holes or corners)"
+            ),
+            Warning::AboveTolerance { error, tol } => write!(
+                f,
+                "torsion: the estimated error {error:.1e} is above the tolerance {tol:.1e} on the finest mesh allowed"
+            ),
+            Warning::NextMeshPastBudget {
+                elements,
+                max_elements,
+                max_nodes,
+                mb,
+            } => write!(
+                f,
+                "an error estimate needs three meshes, and the next ({elements} elements) is past \
+                 the solver's budget of {max_elements} elements, {max_nodes} nodes and {mb} MB; simplify the \
+                 section (fewer holes or corners)"
+            ),
+            Warning::ConnectionsNotLooked { max_pairs } => write!(
+                f,
+                "connections not looked for: more than {max_pairs} pairs of parts lie on one another (stacked or overlapping parts); no joint or shear flow is given"
+            ),
+            Warning::PointContact { a, b } => write!(
+                f,
+                "parts `{a}` and `{b}` touch only at a point: no joint there can carry longitudinal shear"
+            ),
+            Warning::NoSharedBoundary { solids } => write!(
+                f,
+                "no two of the {solids} solid parts share a boundary: the properties assume they act together, which needs connections along the member (battens, packs, bolts)"
+            ),
+            Warning::PartsAlone { parts } => {
+                let names: Vec<String> = parts.iter().map(|n| format!("`{n}`")).collect();
+                let (kind, verb) = if names.len() == 1 {
+                    ("part", "shares")
+                } else {
+                    ("parts", "share")
+                };
+                write!(
+                    f,
+                    "{kind} {} {verb} no boundary with another solid part: each needs its own connection to the rest, or is a separate member (the properties assume the parts act together)",
+                    names.join(", ")
+                )
+            }
+            Warning::ClosedCellFlow { joints } => {
+                let names: Vec<String> = joints.iter().map(|(a, b)| joint(a, b)).collect();
+                write!(
+                    f,
+                    "the shear flow across joints on a closed cell ({}) needs the finite-element flexure solution, which is not yet computed: no flow is given for them",
+                    names.join(", ")
+                )
+            }
+            Warning::VoidAcrossJoint { void, a, b } => write!(
+                f,
+                "void `{void}` lies in parts on both sides of the joint {}: the flow across it is not computed",
+                joint(a, b)
+            ),
+            Warning::StrayVoidAtJoint { void, a, b } => write!(
+                f,
+                "void `{void}` is in no solid part, so the sides of the joint {} cannot be told its share: the flow across it is not computed",
+                joint(a, b)
+            ),
+            Warning::SelfWeightNoDensity => f.write_str(
+                "self_weight is on but not every part has a material with a density; self-weight left out",
+            ),
+            Warning::MemberNoModulus => f.write_str(
+                "the member check has no modulus of elasticity: add [[materials]] with E for deflections",
+            ),
+            Warning::MaterialNoFy { material } => write!(
+                f,
+                "material {} has no fy: its bending stress is not in the member's \
+utilization; give its fy",
+                material.as_deref().unwrap_or("(none)")
+            ),
+            Warning::McrNotComputed(why) => write!(f, "Mcr not computed: {why}"),
+        }
+    }
+}
+
+/// A joint between parts `a` and `b`: `` `a`–`b` ``.
+fn joint(a: &str, b: &str) -> String {
+    format!("`{a}`–`{b}`")
+}
+
+/// Why Mcr is absent, in the words of the member check and of its warning.
+impl fmt::Display for McrRefusal {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            McrRefusal::NoMember => f.write_str("no [member]"),
+            McrRefusal::NotSimpleSpan => f.write_str(
+                "the formula is for a simple span (ends free to warp, twist prevented); other \
+end conditions need effective lengths and a published method that kern does not apply",
+            ),
+            McrRefusal::LoadHeight { top } => write!(
+                f,
+                "[member] load_height = \"{}\": a load above or below \
+the shear centre needs a load-height method (tabulated for given load cases, e.g. in the SSRC \
+guide) that kern does not implement; use load_height = \"shear_centre\" for the value with \
+the load at the shear centre",
+                if *top { "top" } else { "bottom" }
+            ),
+            McrRefusal::NoModulus => {
+                f.write_str("it needs a modulus of elasticity: add [[materials]] with E")
+            }
+            McrRefusal::NoTorsion => {
+                f.write_str("it needs the torsion results (J, Cw, shear centre)")
+            }
+            McrRefusal::TorsionFailed => {
+                f.write_str("the torsion results (J, Cw, shear centre) could not be computed")
+            }
+            McrRefusal::SeparatePieces { count } => write!(
+                f,
+                "the section is {count} separate pieces; how they buckle \
+together depends on how and how often they are connected along the span (each piece also \
+buckles on its own between connections), and no single Mcr of the cross-section describes \
+that; check the pieces and their connections by a method for built-up members"
+            ),
+            McrRefusal::Asymmetric => f.write_str(
+                "the section is not symmetric about an axis parallel to y \
+(Ixy ≠ 0), and the formula kern uses holds only for such sections",
+            ),
+            McrRefusal::ShearCentreOff => f.write_str(
+                "the shear centre is off the vertical axis through the \
+centroid, so the section is not symmetric about an axis parallel to y, and the formula kern \
+uses holds only for such sections",
+            ),
+            McrRefusal::NoTorsionResults => f.write_str("no torsion results"),
+            McrRefusal::NoFiniteValue => {
+                f.write_str("J and Cw are both zero, or a value is not finite")
+            }
         }
     }
 }

@@ -54,7 +54,7 @@ impl Worker {
                     cancel: Some(job.cancel.clone()),
                 };
                 let result = std::panic::catch_unwind(|| torsion(&job.pieces, &opts))
-                    .unwrap_or_else(|_| Err("the torsion solver failed on this section".into()));
+                    .unwrap_or(Err(crate::model::Warning::SolverFailed));
                 if job.cancel.load(Ordering::Relaxed) {
                     continue;
                 }
