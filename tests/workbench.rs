@@ -959,12 +959,16 @@ fn the_caution_takes_one_line_at_80_columns_and_stays() {
 }
 
 /// At the smallest window (40×12) a value is shown whole with its unit or as `…`, never
-/// cut into another unit: `352.0 mm` must not show as `352.0 m`.
+/// cut into another unit: `352.0 mm` must not show as `352.0 m`. There is no room for
+/// a drawing there: the parts table takes the column and one line says so, rather than
+/// an empty pane.
 #[test]
 fn the_smallest_window_never_cuts_a_unit() {
     let a = app(&section("mezzanine-girder.toml"));
     let s = screen(&a, 40, 12);
     assert!(!s.contains(" m│"), "a millimetre value cut to metres:\n{s}");
+    assert!(s.contains("drawing needs more room"), "{s}");
+    assert!(!s.contains("Section to scale"), "{s}");
     insta::assert_snapshot!("mezzanine-girder-40x12", s);
 }
 
@@ -985,4 +989,45 @@ fn the_baseline_gets_its_torsion_when_edited_before_the_first_solve_ends() {
     }
     assert!(matches!(a.baseline.torsion, Some(Ok(_))));
     assert!(matches!(a.analysis.torsion, Some(Ok(_))));
+}
+
+/// At 80 columns the legend wraps onto the lines it needs, so every mark drawn is
+/// explained: the neutral axis under `[actions]` and the void outline included.
+#[test]
+fn the_legend_explains_every_mark_at_80_columns() {
+    let girder = screen(&app(&section("mezzanine-girder.toml")), 80, 24);
+    for key in [
+        "centroid",
+        "axes",
+        "kern",
+        "T C extreme fibres",
+        "neutral axis",
+    ] {
+        assert!(girder.contains(key), "{key} missing:\n{girder}");
+    }
+    let plank = screen(&app(&section("cored-plank.toml")), 80, 24);
+    assert!(plank.contains("╌ void"), "{plank}");
+}
+
+/// In ASCII mode (one character a cell) the bolt holes of the hanger's flange still
+/// show in the void's character, not hidden under the flange's outline.
+#[test]
+fn ascii_mode_draws_holes_and_voids() {
+    for name in ["canopy-hanger.toml", "cored-plank.toml"] {
+        let mut a = app(&section(name));
+        run(&mut a, Cmd::ToggleAscii);
+        let s = screen(&a, 80, 24);
+        // The drawing pane's rows, less its legend.
+        let drawing: String = s
+            .lines()
+            .skip_while(|l| !l.contains("Section to scale"))
+            .skip(1)
+            .take_while(|l| !l.starts_with("\"+-"))
+            .filter(|l| !l.contains("centroid") && !l.contains("void"))
+            .map(|l| l.chars().skip(2).take(43).collect::<String>())
+            .collect();
+        assert!(!drawing.is_empty(), "{name}: no drawing:\n{s}");
+        assert!(drawing.contains('o'), "{name}: no void drawn:\n{s}");
+        assert!(s.contains("o void"), "{name}: legend\n{s}");
+    }
 }

@@ -1,7 +1,9 @@
 //! A small rasteriser for the drawing: lines and marks on a grid of terminal cells,
 //! each cell holding 2 × 4 dots (braille) or one dot (plain ASCII). Every cell keeps
 //! the highest [`Ink`] drawn in it, which decides its colour (and its character in
-//! ASCII mode). Pure: the view turns the grid into buffer cells.
+//! ASCII mode); in ASCII mode a void's outline outranks every other ink, so a hole
+//! that shares its cells with a flange's outline still shows. Pure: the view turns
+//! the grid into buffer cells.
 
 use super::theme::Ink;
 
@@ -81,7 +83,8 @@ impl Raster {
         let (kx, ky) = (self.kx, self.ky);
         if let Some(c) = self.cell_mut(x / kx, y / ky) {
             c.bits |= if kx == 2 { BRAILLE[y % 4][x % 2] } else { 1 };
-            if c.ink.is_none_or(|i| i <= ink) {
+            let rank = |i: Ink| (kx == 1 && i == Ink::Void, i);
+            if c.ink.is_none_or(|i| rank(i) <= rank(ink)) {
                 c.ink = Some(ink);
             }
         }
@@ -106,10 +109,12 @@ impl Raster {
             if gap {
                 continue;
             }
+            // Dot i covers [i, i + 1), as for a mark: a line and a mark through one
+            // point share its dot, and an edge on the view's border stays inside.
             let t = i as f64 / n as f64;
             self.dot(
-                (a.0 + t * dx).round() as i64,
-                (a.1 + t * dy).round() as i64,
+                (a.0 + t * dx).floor() as i64,
+                (a.1 + t * dy).floor() as i64,
                 ink,
             );
         }
@@ -169,5 +174,28 @@ mod tests {
         r.line((0.0, 0.0), (3.0, 0.0), Ink::Solid, Dash::Solid);
         let row: String = (0..4).filter_map(|x| r.char_at(x, 0, |_| '#')).collect();
         assert_eq!(row, "####");
+    }
+
+    /// One character per cell cannot show both a flange's outline and a hole in it:
+    /// the hole wins, so it never vanishes into the solid (in braille both show).
+    #[test]
+    fn ascii_void_outranks_the_solid_it_shares_a_cell_with() {
+        let ch = |i: Ink| if i == Ink::Void { 'o' } else { '#' };
+        for first_void in [true, false] {
+            let mut r = Raster::new(1, 1, false);
+            let inks = if first_void {
+                [Ink::Void, Ink::Selected]
+            } else {
+                [Ink::Selected, Ink::Void]
+            };
+            for i in inks {
+                r.dot(0, 0, i);
+            }
+            assert_eq!(r.char_at(0, 0, ch), Some('o'));
+        }
+        let mut r = Raster::new(1, 1, true);
+        r.dot(0, 0, Ink::Void);
+        r.dot(1, 0, Ink::Solid);
+        assert_eq!(r.cell(0, 0).unwrap().ink, Some(Ink::Solid));
     }
 }

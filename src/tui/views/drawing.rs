@@ -58,24 +58,46 @@ impl View {
     }
 }
 
-/// Draws the section into `area` (the last line holds the scale and the legend).
-pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
-    if area.width < 4 || area.height < 3 {
-        return;
-    }
-    let th = &app.theme;
+/// Fewest rows of drawing worth showing, above the legend.
+const MIN_ROWS: usize = 3;
+
+/// The drawing's grid, its view and the legend's lines, fitted to `area`: the legend
+/// takes the lines it needs at this width, the drawing the rest. `None` when fewer
+/// than [`MIN_ROWS`] rows would be left or there is nothing to draw.
+fn plan(app: &App, area: Rect) -> Option<(Raster, View, Vec<String>)> {
     let a = &app.analysis;
-    let mut r = Raster::new(area.width as usize, area.height as usize - 1, !th.ascii);
-    let Some(b) = a
+    let b = a
         .pieces
         .iter()
         .filter_map(|p| p.bounds())
         .reduce(crate::geom::contour::union_bounds)
-        .or_else(|| solid_bounds(&a.pieces))
-    else {
+        .or_else(|| solid_bounds(&a.pieces))?;
+    let (w, h) = (area.width as usize, area.height as usize);
+    // The scale bar's length follows the fit, and the legend's lines the bar: take the
+    // first count of legend lines that holds the legend drawn at that fit.
+    for n in 1..h.saturating_sub(MIN_ROWS - 1) {
+        let r = Raster::new(w, h - n, !app.theme.ascii);
+        let v = View::fit(b, &r)?;
+        let lines = legend(app, v.sx * r.kx as f64, area.width);
+        if lines.len() <= n {
+            return Some((r, v, lines));
+        }
+    }
+    None
+}
+
+/// Whether the drawing has room in `area` (the pane's inside).
+pub fn fits(app: &App, area: Rect) -> bool {
+    plan(app, area).is_some()
+}
+
+/// Draws the section into `area`, the legend on its last lines.
+pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
+    let Some((mut r, v, legend)) = plan(app, area) else {
         return;
     };
-    let Some(v) = View::fit(b, &r) else { return };
+    let th = &app.theme;
+    let a = &app.analysis;
     let vb = v.bounds(&r);
     let line = |r: &mut Raster, p: (f64, f64), q: (f64, f64), ink, dash| {
         r.line(v.at(p.0, p.1), v.at(q.0, q.1), ink, dash)
@@ -121,7 +143,12 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         } else {
             Ink::Solid
         };
-        let dash = if p.void { Dash::Dashed } else { Dash::Solid };
+        // In ASCII mode the void's own character marks it; gaps would only lose it.
+        let dash = if p.void && !th.ascii {
+            Dash::Dashed
+        } else {
+            Dash::Solid
+        };
         for contour in &p.contours {
             let pts = contour.facets(FACET);
             for (i, q) in pts.iter().enumerate() {
@@ -149,7 +176,10 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         th.glyph("⊕", "+").chars().next().unwrap_or('+'),
     );
     blit(&r, area, buf, th);
-    legend(app, v.sx * r.kx as f64, area, buf);
+    let top = area.bottom() - legend.len() as u16;
+    for (i, text) in legend.iter().enumerate() {
+        buf.set_stringn(area.x, top + i as u16, text, area.width as usize, th.muted);
+    }
 }
 
 fn blit(r: &Raster, area: Rect, buf: &mut Buffer, th: &Theme) {
@@ -170,23 +200,25 @@ fn blit(r: &Raster, area: Rect, buf: &mut Buffer, th: &Theme) {
     }
 }
 
-/// The bottom line: a scale bar of a round length, then what the marks mean.
-/// `per_cell` is the drawing's scale in file units per cell width.
-fn legend(app: &App, per_cell: f64, area: Rect, buf: &mut Buffer) {
+/// The legend: a scale bar of a round length, then what each mark drawn means, as
+/// whole entries wrapped onto the lines of `width` they need. `per_cell` is the
+/// drawing's scale in file units per cell width.
+fn legend(app: &App, per_cell: f64, width: u16) -> Vec<String> {
     let th = &app.theme;
-    let y = area.bottom().saturating_sub(1);
-    let len = nice_step(per_cell * (area.width as f64 / 4.0).max(2.0));
-    let cells = ((len / per_cell).round() as usize).clamp(2, area.width as usize);
+    let len = nice_step(per_cell * (width as f64 / 4.0).max(2.0));
+    let cells = ((len / per_cell).round() as usize).clamp(2, width as usize);
     let unit = app.analysis.section.units.name();
     let bar = if th.ascii {
         format!("|{}|", "-".repeat(cells.saturating_sub(2)))
     } else {
         format!("├{}┤", "─".repeat(cells.saturating_sub(2)))
     };
-    let mut text = format!("{bar} {} {unit}", crate::numfmt::sig(len, 3));
     let a = &app.analysis;
-    let mut keys = vec![format!("{} centroid", th.glyph("⊕", "+"))];
-    keys.push(format!("{} axes", th.glyph("┄", ".")));
+    let mut keys = vec![
+        format!("{bar} {} {unit}", crate::numfmt::sig(len, 3)),
+        format!("{} centroid", th.glyph("⊕", "+")),
+        format!("{} axes", th.glyph("┄", ".")),
+    ];
     if !a.kern.is_empty() {
         keys.push(format!("{} kern", th.glyph("·", ":")));
     }
@@ -203,7 +235,17 @@ fn legend(app: &App, per_cell: f64, area: Rect, buf: &mut Buffer) {
     if a.all_pieces().iter().any(|p| p.void) {
         keys.push(th.glyph("╌ void", "o void").into());
     }
-    text.push_str("  ");
-    text.push_str(&keys.join("  "));
-    buf.set_stringn(area.x, y, th.text(&text), area.width as usize, th.muted);
+    let width = width as usize;
+    let mut lines: Vec<String> = Vec::new();
+    for key in keys.iter().map(|k| th.text(k)) {
+        let gap = |l: &String| l.chars().count() + 2 + key.chars().count() <= width;
+        match lines.last_mut() {
+            Some(l) if gap(l) => {
+                l.push_str("  ");
+                l.push_str(&key);
+            }
+            _ => lines.push(key),
+        }
+    }
+    lines
 }

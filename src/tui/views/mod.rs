@@ -38,17 +38,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     title_line(app, title, buf);
     let [left, right] =
         Layout::horizontal([Constraint::Percentage(58), Constraint::Percentage(42)]).areas(main);
-    let n_parts = app.analysis.document.parts.len() as u16;
-    let [parts_area, drawing_area] = Layout::vertical([
-        Constraint::Max(n_parts.saturating_add(3).max(5)),
-        Constraint::Min(3),
-    ])
-    .areas(left);
-    parts::render(app, parts_area, buf);
-    let block = pane(&app.theme, "Section to scale", false);
-    let inner = block.inner(drawing_area);
-    block.render(drawing_area, buf);
-    drawing::render(app, inner, buf);
+    left_column(app, left, buf);
     let [params_area, panel_area] = right_panes(app, right);
     let params_h = params_area.height;
     if params_h > 0 {
@@ -66,6 +56,43 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         | Mode::AskBaseline
         | Mode::AskVoid(_) => help::question(app, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
+    }
+}
+
+/// The parts table over the drawing. Where the drawing has no room even with the table
+/// at its smallest, the table takes the column and the last line says why there is no
+/// drawing.
+fn left_column(app: &App, left: Rect, buf: &mut Buffer) {
+    let block = pane(&app.theme, "Section to scale", false);
+    let n_parts = app.analysis.document.parts.len() as u16;
+    let wanted = n_parts.saturating_add(3).max(5);
+    let split = |parts_h: u16| {
+        Layout::vertical([Constraint::Max(parts_h), Constraint::Min(3)]).areas::<2>(left)
+    };
+    let [parts_area, drawing_area] = split(wanted);
+    let roomy = |d: Rect| drawing::fits(app, block.inner(d));
+    let areas = if roomy(drawing_area) {
+        Some((parts_area, drawing_area))
+    } else {
+        Some(split(5))
+            .filter(|[_, d]| roomy(*d))
+            .map(|[p, d]| (p, d))
+    };
+    match areas {
+        Some((parts_area, drawing_area)) => {
+            parts::render(app, parts_area, buf);
+            let inner = block.inner(drawing_area);
+            block.render(drawing_area, buf);
+            drawing::render(app, inner, buf);
+        }
+        None => {
+            let [parts_area, note] =
+                Layout::vertical([Constraint::Min(0), Constraint::Length(1)]).areas(left);
+            parts::render(app, parts_area, buf);
+            let th = &app.theme;
+            let text = fit("drawing needs more room", note.width as usize);
+            buf.set_stringn(note.x, note.y, text, note.width as usize, th.muted);
+        }
     }
 }
 
