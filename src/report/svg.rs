@@ -276,13 +276,13 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         yb = n(cy + 9.0)
     ));
     s.push_str(&format!(
-        "<text x=\"{}\" y=\"{}\">C ({}, {}) {l}</text>\n",
+        "<text x=\"{}\" y=\"{}\">⊕ ({}, {}) {l}</text>\n",
         n(cx + 10.0),
         n(cy - 8.0),
         val(c.x),
         val(c.y)
     ));
-    legend.push("C: centroid");
+    legend.push("⊕: centroid");
     legend.push("drawn to scale");
     let mut foot = yd + 46.0;
     for line in wrap(
