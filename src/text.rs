@@ -46,19 +46,15 @@ pub fn clean(s: &str) -> String {
 /// assert_eq!(xml("<b>\x01&\"'"), "&lt;b&gt;&amp;&quot;&#39;");
 /// ```
 pub fn xml(s: &str) -> String {
-    let mut out = String::with_capacity(s.len());
-    for c in clean(s).chars() {
-        match c {
-            '&' => out.push_str("&amp;"),
-            '<' => out.push_str("&lt;"),
-            '>' => out.push_str("&gt;"),
-            '"' => out.push_str("&quot;"),
-            '\'' => out.push_str("&#39;"),
-            '\u{fffe}' | '\u{ffff}' => {}
-            c => out.push(c),
-        }
-    }
-    out
+    escaped(s, |c| match c {
+        '&' => Some("&amp;"),
+        '<' => Some("&lt;"),
+        '>' => Some("&gt;"),
+        '"' => Some("&quot;"),
+        '\'' => Some("&#39;"),
+        '\u{fffe}' | '\u{ffff}' => Some(""),
+        _ => None,
+    })
 }
 
 /// `s` cleaned and made literal text in Markdown (one line, one table cell): `< > &`
@@ -72,17 +68,32 @@ pub fn xml(s: &str) -> String {
 /// assert_eq!(markdown("a|b*c_`"), "a\\|b\\*c\\_\\`");
 /// ```
 pub fn markdown(s: &str) -> String {
+    escaped(s, |c| match c {
+        '&' => Some("&amp;"),
+        '<' => Some("&lt;"),
+        '>' => Some("&gt;"),
+        '\\' => Some("\\\\"),
+        '`' => Some("\\`"),
+        '*' => Some("\\*"),
+        '_' => Some("\\_"),
+        '|' => Some("\\|"),
+        '[' => Some("\\["),
+        ']' => Some("\\]"),
+        '#' => Some("\\#"),
+        '~' => Some("\\~"),
+        '!' => Some("\\!"),
+        _ => None,
+    })
+}
+
+/// [`clean`]`(s)` with each character that `esc` names replaced by its escaped form;
+/// the one loop behind [`xml`] and [`markdown`].
+fn escaped(s: &str, esc: impl Fn(char) -> Option<&'static str>) -> String {
     let mut out = String::with_capacity(s.len());
     for c in clean(s).chars() {
-        match c {
-            '&' => out.push_str("&amp;"),
-            '<' => out.push_str("&lt;"),
-            '>' => out.push_str("&gt;"),
-            '\\' | '`' | '*' | '_' | '|' | '[' | ']' | '#' | '~' | '!' => {
-                out.push('\\');
-                out.push(c);
-            }
-            c => out.push(c),
+        match esc(c) {
+            Some(e) => out.push_str(e),
+            None => out.push(c),
         }
     }
     out

@@ -54,7 +54,7 @@ impl Compressed {
 ///
 /// ```
 /// use kern::checks::ltb::beta;
-/// use kern::geom::{Contour, Pt};
+/// use kern::geom::{BoundaryIntegral, Contour, Pt};
 /// use kern::props::{cubic::Cubic, Moments};
 /// // A rectangle is doubly symmetric: βx = βy = 0 with the shear centre at the centroid.
 /// let r = Contour::rounded_rect(0.0, 0.0, 4.0, 10.0, 0.0);
@@ -113,7 +113,7 @@ pub fn mcr(b: &Buckling, side: Compressed) -> Option<f64> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::geom::Contour;
+    use crate::geom::{BoundaryIntegral, Contour};
     use crate::props::Moments;
 
     fn close(a: f64, b: f64, tol: f64) -> bool {

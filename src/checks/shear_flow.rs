@@ -26,6 +26,7 @@
 
 use crate::geom::joints::{Contacts, Joint};
 use crate::geom::simple::winding;
+use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::Warning;
 use crate::props::{Centroidal, Moments};

@@ -49,6 +49,7 @@ pub mod p2;
 pub mod solve;
 pub mod torsion;
 
+use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::Warning;
 use std::sync::atomic::{AtomicBool, Ordering};

@@ -18,6 +18,7 @@ pub mod simple;
 pub mod trig;
 
 pub use contour::{Contour, Pt, Seg, Turn};
+pub use moments::BoundaryIntegral;
 pub use place::{Anchor, Placement};
 pub use region::{solid_bounds, Piece};
 pub use resolve::{LoadHeight, Material, Member, Part, Resolved, ShearModulus};

@@ -23,7 +23,7 @@ use super::{Contour, Pt, Seg};
 /// `ixx = ∫y² dA`, `iyy = ∫x² dA`, `ixy = ∫xy dA`.
 ///
 /// ```
-/// use kern::geom::{Contour, Pt};
+/// use kern::geom::{BoundaryIntegral, Contour, Pt};
 /// use kern::props::Moments;
 /// // A 5 × 6 rectangle with a corner at the origin: A = 30, ∫y² dA = b·h³/3 = 360.
 /// let r = Contour::rounded_rect(0.0, 0.0, 5.0, 6.0, 0.0);
@@ -53,10 +53,37 @@ pub struct Centroidal {
     pub ixy: f64,
 }
 
-impl Moments {
+/// An area integral that adds up: over a closed boundary segment by segment (Green's
+/// theorem, each segment's share exact), and over parts with a weight (−1 for a void,
+/// the modular ratio for another material). The second moments ([`Moments`]) and the
+/// third ([`crate::props::cubic::Cubic`]) are two of them.
+pub trait BoundaryIntegral: Default {
+    /// The share of one boundary segment of the closed-contour integral.
+    fn of_seg(s: &Seg) -> Self;
+
+    /// `self + w·o`: the composite sum with weight `w`.
+    fn plus(&self, o: &Self, w: f64) -> Self;
+
+    /// Over one closed contour.
+    fn of_contour(c: &Contour) -> Self {
+        c.segs
+            .iter()
+            .map(Self::of_seg)
+            .fold(Self::default(), |s, m| s.plus(&m, 1.0))
+    }
+
+    /// Over several contours (an outline and its holes).
+    fn of_contours(cs: &[Contour]) -> Self {
+        cs.iter()
+            .map(Self::of_contour)
+            .fold(Self::default(), |s, m| s.plus(&m, 1.0))
+    }
+}
+
+impl BoundaryIntegral for Moments {
     /// Moments of the region to the left of one boundary segment (its share of the
     /// closed-contour integral).
-    pub fn of_seg(s: &Seg) -> Moments {
+    fn of_seg(s: &Seg) -> Moments {
         match *s {
             Seg::Line(p, q) => {
                 let c = p.cross(q);
@@ -88,22 +115,9 @@ impl Moments {
         }
     }
 
-    pub fn of_contour(c: &Contour) -> Moments {
-        c.segs
-            .iter()
-            .map(Moments::of_seg)
-            .fold(Moments::default(), |s, m| s.plus(&m, 1.0))
-    }
-
-    pub fn of_contours(cs: &[Contour]) -> Moments {
-        cs.iter()
-            .map(Moments::of_contour)
-            .fold(Moments::default(), |s, m| s.plus(&m, 1.0))
-    }
-
     /// `self + w·o`: the composite sum with weight `w` (−1 for a void, the modular
     /// ratio for another material).
-    pub fn plus(&self, o: &Moments, w: f64) -> Moments {
+    fn plus(&self, o: &Moments, w: f64) -> Moments {
         Moments {
             a: self.a + w * o.a,
             sx: self.sx + w * o.sx,
@@ -113,7 +127,9 @@ impl Moments {
             ixy: self.ixy + w * o.ixy,
         }
     }
+}
 
+impl Moments {
     /// `(x̄, ȳ) = (∫x dA / A, ∫y dA / A)`; `None` when the area is not positive.
     pub fn centroid(&self) -> Option<Pt> {
         (self.a > 0.0 && self.a.is_finite()).then(|| Pt::new(self.sx / self.a, self.sy / self.a))

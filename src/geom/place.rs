@@ -2,6 +2,7 @@
 //! then rotate about `at` (docs/format.md, "Placement").
 
 use super::contour::{union_bounds, Contour, Pt, Turn};
+use crate::geom::BoundaryIntegral;
 
 pub use crate::model::anchor::Anchor;
 

@@ -22,13 +22,13 @@
 
 use crate::geom::moments::Moments;
 use crate::geom::trig::TrigPoly;
-use crate::geom::{Contour, Seg};
+use crate::geom::{BoundaryIntegral, Seg};
 
 /// Third area moments: `xxx = ∫x³ dA`, `xxy = ∫x²y dA`, `xyy = ∫xy² dA`, `yyy = ∫y³ dA`
 /// (about the origin, or about the centroid after [`Cubic::central`]).
 ///
 /// ```
-/// use kern::geom::Contour;
+/// use kern::geom::{BoundaryIntegral, Contour};
 /// use kern::props::cubic::Cubic;
 /// // A 2 × 3 rectangle with a corner at the origin: ∫y³ dA = b·h⁴/4 = 40.5.
 /// let c = Cubic::of_contour(&Contour::rounded_rect(0.0, 0.0, 2.0, 3.0, 0.0));
@@ -54,9 +54,9 @@ fn triple(f: (f64, f64), g: (f64, f64), h: (f64, f64)) -> f64 {
             / 12.0
 }
 
-impl Cubic {
+impl BoundaryIntegral for Cubic {
     /// The share of one boundary segment of the closed-contour integral.
-    pub fn of_seg(s: &Seg) -> Cubic {
+    fn of_seg(s: &Seg) -> Cubic {
         match *s {
             Seg::Line(p, q) => {
                 let k = p.cross(q) / 5.0;
@@ -86,22 +86,9 @@ impl Cubic {
         }
     }
 
-    pub fn of_contour(c: &Contour) -> Cubic {
-        c.segs
-            .iter()
-            .map(Cubic::of_seg)
-            .fold(Cubic::default(), |s, m| s.plus(&m, 1.0))
-    }
-
-    pub fn of_contours(cs: &[Contour]) -> Cubic {
-        cs.iter()
-            .map(Cubic::of_contour)
-            .fold(Cubic::default(), |s, m| s.plus(&m, 1.0))
-    }
-
     /// `self + w·o`: the composite sum with weight `w` (−1 for a void, the modular
     /// ratio for another material).
-    pub fn plus(&self, o: &Cubic, w: f64) -> Cubic {
+    fn plus(&self, o: &Cubic, w: f64) -> Cubic {
         Cubic {
             xxx: self.xxx + w * o.xxx,
             xxy: self.xxy + w * o.xxy,
@@ -109,7 +96,9 @@ impl Cubic {
             yyy: self.yyy + w * o.yyy,
         }
     }
+}
 
+impl Cubic {
     /// About the centroid of `m` (the lower moments of the same region, same origin):
     /// `∫X³ = ∫x³ − 3x̄∫x² + 3x̄²∫x − x̄³A` with `X = x − x̄`, and alike for the mixed
     /// ones. `None` when the area is not positive.
@@ -130,7 +119,7 @@ impl Cubic {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::geom::Pt;
+    use crate::geom::{Contour, Pt};
     use std::f64::consts::PI;
 
     fn close(a: f64, b: f64, tol: f64, scale: f64) -> bool {

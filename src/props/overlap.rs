@@ -7,6 +7,7 @@
 //! inside P (edges the two share in the same direction are counted once). Curved
 //! edges are cut into chords of at most 3°, which is ample for a warning.
 
+use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::warning::{More, Warning};
 

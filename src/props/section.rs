@@ -8,6 +8,7 @@ use super::cubic::Cubic;
 use super::plastic::{plastic_axis_x, plastic_axis_y, Weighted};
 use super::principal::Principal;
 use crate::geom::moments::{Centroidal, Moments};
+use crate::geom::BoundaryIntegral;
 use crate::geom::{solid_bounds, Contour, Piece, Pt};
 
 /// Elastic section moduli to the extreme fibres: `Ixx/(ymax − ȳ)`, `Ixx/(ȳ − ymin)`,

@@ -8,6 +8,7 @@
 //! [`crate::props`] has already computed, for people to follow the arithmetic.
 
 use crate::analysis::Analysis;
+use crate::geom::BoundaryIntegral;
 use crate::props::Moments;
 
 /// One part's line of the table. `a`, `ixx_own` and `iyy_own` carry the part's weight
