@@ -2,13 +2,20 @@
 //! through the library and returns the process exit status (0 success, 2 an invalid
 //! section file, 1 any other failure).
 
+pub mod check;
+pub mod diff;
+pub mod seek;
+pub mod sensitivity;
+mod source;
+pub mod sweep;
+
 use crate::analysis::{Analysis, Options};
 pub use crate::file::load::{diagnostic_line, load, say};
 use crate::model::units::LengthUnit;
+pub use crate::parallel::parallel_map;
 use crate::report::out::OutUnits;
 use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
 use crate::text::clean;
-pub use crate::parallel::parallel_map;
 use std::io::{ErrorKind, Write};
 use std::path::{Path, PathBuf};
 

@@ -134,7 +134,13 @@ pub fn check(a: &Analysis) -> Result<Verdict, Diagnostic> {
         } else {
             s.per_material
                 .iter()
-                .map(|(n, e)| (Some(n.as_str()), e.max_tension.value, e.max_compression.value))
+                .map(|(n, e)| {
+                    (
+                        Some(n.as_str()),
+                        e.max_tension.value,
+                        e.max_compression.value,
+                    )
+                })
                 .collect()
         };
         for (name, t, c) in per {
@@ -187,8 +193,9 @@ pub fn check(a: &Analysis) -> Result<Verdict, Diagnostic> {
                 let q = result_key(key).map_err(|m| Diagnostic::new(key_span.clone(), m))?;
                 let limit = match &v.value {
                     Value::Number(x) => *x,
-                    Value::Expr(s) => parse_value(s, q, a)
-                        .map_err(|m| Diagnostic::new(v.span.clone(), m))?,
+                    Value::Expr(s) => {
+                        parse_value(s, q, a).map_err(|m| Diagnostic::new(v.span.clone(), m))?
+                    }
                 };
                 let unit = if q.dim == Dim::Fraction {
                     String::new()
@@ -233,7 +240,11 @@ mod tests {
         assert!(!v.pass());
         assert!(v.figures[0].missing.is_some());
         let e = verdict("[limits.max]\ninertia.x = 1\n").unwrap_err();
-        assert!(e.message.contains("did you mean `inertia.xx`"), "{}", e.message);
+        assert!(
+            e.message.contains("did you mean `inertia.xx`"),
+            "{}",
+            e.message
+        );
         assert!(verdict("[limits]\nutilization = 1.2\n").is_err());
     }
 }

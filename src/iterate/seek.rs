@@ -151,10 +151,9 @@ pub fn seek(probe: &Probe, q: &Quantity, target: f64, range: Range) -> Result<So
     let found = brent(&mut eval, (a, ga), (b, gb), gtol);
     match found {
         Found::Root { x, g } => {
-            let analysis = probe.analyse(x).map_err(|failure| SeekError::Inside {
-                value: x,
-                failure,
-            })?;
+            let analysis = probe
+                .analyse(x)
+                .map_err(|failure| SeekError::Inside { value: x, failure })?;
             Ok(Solved {
                 value: x,
                 result: read(q, &analysis).unwrap_or(target + g),
@@ -168,7 +167,10 @@ pub fn seek(probe: &Probe, q: &Quantity, target: f64, range: Range) -> Result<So
         }),
         Found::Failed { x } => Err(SeekError::Inside {
             value: x,
-            failure: probe.result(q, x).err().unwrap_or(Failure::NoResult(q.path.into())),
+            failure: probe
+                .result(q, x)
+                .err()
+                .unwrap_or(Failure::NoResult(q.path.into())),
         }),
     }
 }
@@ -210,7 +212,11 @@ mod tests {
         let target = 8e8;
         let s = seek(&p, q, target, Range::FromCurrent).unwrap();
         let want = (12.0 * target / 100.0_f64).cbrt();
-        assert!((s.value - want).abs() <= 1e-9 * want, "{} vs {want}", s.value);
+        assert!(
+            (s.value - want).abs() <= 1e-9 * want,
+            "{} vs {want}",
+            s.value
+        );
         assert!((s.result - target).abs() <= 1e-9 * target);
         let s = seek(&p, q, target, Range::Within(100.0, 1000.0)).unwrap();
         assert!((s.value - want).abs() <= 1e-9 * want);

@@ -151,7 +151,11 @@ pub fn sensitivities(
         let (ka, kb) = (key(a), key(b));
         ka.0.cmp(&kb.0).then(ka.1.total_cmp(&kb.1))
     });
-    Ok(Sensitivities { result, mass, rates })
+    Ok(Sensitivities {
+        result,
+        mass,
+        rates,
+    })
 }
 
 #[cfg(test)]

@@ -210,7 +210,10 @@ mod tests {
             panic!("an unknown key was found")
         };
         assert!(e.contains("did you mean `inertia.xx`"), "{e}");
-        assert!(result_key("torsion.method").is_err(), "text is not a result");
+        assert!(
+            result_key("torsion.method").is_err(),
+            "text is not a result"
+        );
     }
 
     #[test]
