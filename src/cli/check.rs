@@ -42,7 +42,7 @@ fn options(src: &Source) -> Options {
     }
 }
 
-fn one(path: &PathBuf) -> Outcome {
+fn one(path: &std::path::Path) -> Outcome {
     let src = match Source::open(path) {
         Ok(s) => s,
         Err(line) => return Outcome::Invalid(line),
@@ -101,7 +101,7 @@ fn figure_json(f: &Figure) -> Value {
 
 /// `kern check`.
 pub fn check(args: &CheckArgs) -> i32 {
-    let results = parallel_map(&args.files, one);
+    let results = parallel_map(&args.files, |p| one(p));
     let mut out = String::new();
     let (mut failed, mut invalid) = (0, 0);
     for (path, r) in args.files.iter().zip(results) {

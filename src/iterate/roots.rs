@@ -165,7 +165,7 @@ mod tests {
 
     #[test]
     fn a_failing_value_inside_the_bracket_is_reported() {
-        let mut g = |x: f64| (x < 0.5 || x > 0.6).then_some(x - 0.55);
+        let mut g = |x: f64| (!(0.5..=0.6).contains(&x)).then_some(x - 0.55);
         assert!(matches!(
             brent(&mut g, (0.0, -0.55), (1.0, 0.45), 1e-12),
             Found::Failed { .. }

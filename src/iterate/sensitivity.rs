@@ -168,7 +168,7 @@ mod tests {
         let text = "format = 1\nunits = \"mm\"\n[params]\nb = 100\nh = 300\nx = 0\n[[materials]]\nname = \"steel\"\nE = \"200 GPa\"\ndensity = \"7850 kg/m3\"\n[[parts]]\nshape = \"rect\"\nb = \"b\"\nh = \"h\"\nat = [\"x\", 0]\n";
         let d = crate::file::parse(text).unwrap();
         let q = result_key("inertia.xx").unwrap();
-        let s = sensitivities(&d, &q, &Options::default()).unwrap();
+        let s = sensitivities(&d, q, &Options::default()).unwrap();
         // Ixx = b·h³/12: ∂/∂h = b·h²/4, ∂/∂b = h³/12 (Gere & Goodno, App. E case 1);
         // m = ρ·b·h, so ∂m/∂h = ρ·b and ∂m/∂b = ρ·h (kg/m with b, h in mm: ρ·1e-6).
         let rho = 7850.0 * 1e-6;
