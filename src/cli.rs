@@ -12,8 +12,10 @@ pub mod sweep;
 use crate::analysis::{Analysis, Options};
 pub use crate::file::load::{diagnostic_line, load, say};
 use crate::model::units::LengthUnit;
+use crate::numfmt::Numbers;
 pub use crate::parallel::parallel_map;
 use crate::report::out::OutUnits;
+use crate::report::rows::Notation;
 use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
 use crate::text::clean;
 use std::io::{ErrorKind, Write};
@@ -25,6 +27,9 @@ pub struct CalcArgs {
     pub files: Vec<PathBuf>,
     pub json: bool,
     pub units: Option<LengthUnit>,
+    /// How the table writes numbers and symbols (JSON ignores both).
+    pub numbers: Numbers,
+    pub notation: Notation,
     pub options: Options,
 }
 
@@ -87,7 +92,8 @@ fn calc_output(
                 done.status = 1;
             }
             Ok(Ok(a)) => {
-                let u = OutUnits::new(a.section.units, args.units);
+                let u =
+                    OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
                 let name = path.display().to_string();
                 if args.json {
                     out.push_str(&to_json(&name, &a, &u).to_string());
@@ -124,6 +130,8 @@ pub struct ReportArgs {
     /// A self-contained HTML page instead of Markdown.
     pub html: bool,
     pub units: Option<LengthUnit>,
+    pub numbers: Numbers,
+    pub notation: Notation,
     pub options: Options,
 }
 
@@ -136,7 +144,7 @@ pub fn report(args: &ReportArgs) -> i32 {
             return 2;
         }
     };
-    let u = OutUnits::new(a.section.units, args.units);
+    let u = OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
     let blocks = markdown::blocks(&args.file.display().to_string(), &a, &u);
     let text = if args.html {
         let title = a.section.title.as_deref().unwrap_or("(untitled section)");
@@ -148,11 +156,17 @@ pub fn report(args: &ReportArgs) -> i32 {
 }
 
 /// `kern svg`: the drawing of one file, to `out` or stdout, labelled in `units` (the
-/// file's own unit when `None`).
-pub fn svg(file: &Path, out: Option<&Path>, units: Option<LengthUnit>, options: &Options) -> i32 {
+/// file's own unit when `None`) with numbers written as `numbers`.
+pub fn svg(
+    file: &Path,
+    out: Option<&Path>,
+    units: Option<LengthUnit>,
+    numbers: Numbers,
+    options: &Options,
+) -> i32 {
     match load(file, options) {
         Ok(a) => {
-            let u = OutUnits::new(a.section.units, units);
+            let u = OutUnits::new(a.section.units, units).written(numbers, Notation::default());
             emit(out, &drawing::drawing(&a, &u))
         }
         Err(line) => {

@@ -10,6 +10,8 @@ use kern::cli::sweep::SweepArgs;
 use kern::cli::{calc, print_out, report, svg, CalcArgs, ReportArgs};
 use kern::fe::TorsionOptions;
 use kern::model::units::LengthUnit;
+use kern::numfmt::Numbers;
+use kern::report::rows::Notation;
 use std::path::PathBuf;
 
 /// Design and check beam and column cross-sections in the terminal.
@@ -20,6 +22,14 @@ struct Cli {
     verb: Option<Verb>,
     /// A section file to open in the workbench (without one, a bundled demo opens).
     file: Option<PathBuf>,
+    /// How numbers are written: engineering (13 800, 687.0×10⁶; the default, or the
+    /// config file's), scientific (6.870e8) or plain (687000000). JSON is never affected.
+    #[arg(long, global = true, value_parser = parse_numbers)]
+    numbers: Option<Numbers>,
+    /// Symbols of moduli and axes: xy (Sx, Zx, Ixx about x–y; the default) or yz
+    /// (Wel,y, Wpl,y, Iy about y–z, z vertical). JSON is never affected.
+    #[arg(long, global = true, value_parser = parse_notation)]
+    notation: Option<Notation>,
 }
 
 #[derive(Subcommand)]
@@ -154,6 +164,14 @@ enum Verb {
     Keys,
 }
 
+fn parse_numbers(s: &str) -> Result<Numbers, String> {
+    Numbers::parse(s).ok_or_else(|| format!("unknown form `{s}`; use {}", Numbers::NAMES))
+}
+
+fn parse_notation(s: &str) -> Result<Notation, String> {
+    Notation::parse(s).ok_or_else(|| format!("unknown notation `{s}`; use {}", Notation::NAMES))
+}
+
 fn parse_unit(s: &str) -> Result<LengthUnit, String> {
     LengthUnit::parse(s).ok_or_else(|| format!("unknown unit `{s}`; use mm, cm, m, in or ft"))
 }
@@ -167,6 +185,10 @@ fn torsion_options(no_torsion: bool) -> Options {
 
 fn main() {
     let cli = Cli::parse();
+    let (numbers, notation) = (
+        cli.numbers.unwrap_or_default(),
+        cli.notation.unwrap_or_default(),
+    );
     let status = match cli.verb {
         Some(Verb::Calc {
             files,
@@ -193,6 +215,8 @@ fn main() {
                     files,
                     json,
                     units,
+                    numbers,
+                    notation,
                     options: Options { torsion },
                 })
             }
@@ -208,6 +232,8 @@ fn main() {
             out,
             html,
             units,
+            numbers,
+            notation,
             options: torsion_options(no_torsion),
         }),
         Some(Verb::Svg {
@@ -215,7 +241,13 @@ fn main() {
             out,
             units,
             no_torsion,
-        }) => svg(&file, out.as_deref(), units, &torsion_options(no_torsion)),
+        }) => svg(
+            &file,
+            out.as_deref(),
+            units,
+            numbers,
+            &torsion_options(no_torsion),
+        ),
         Some(Verb::Sweep {
             file,
             param,
@@ -268,7 +300,7 @@ fn main() {
         }),
         Some(Verb::Check { files, json }) => kern::cli::check::check(&CheckArgs { files, json }),
         Some(Verb::Keys) => print_out(&kern::tui::keys::markdown()),
-        None => kern::tui::run(cli.file),
+        None => kern::tui::run(cli.file, cli.numbers, cli.notation),
     };
     std::process::exit(status);
 }

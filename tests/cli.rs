@@ -339,3 +339,42 @@ fn svg_takes_units_like_report_and_calc_help_names_the_format_file() {
         "{help}"
     );
 }
+
+/// `--numbers` and `--notation` change how the table writes results and never the
+/// JSON. The girder's area is 300·16 + 500·10 + 250·16 = 13 800 mm² (sum of its three
+/// rectangles, by hand); engineering form groups it by a thin space (ISO 80000-1).
+#[test]
+fn numbers_and_notation_change_the_table_and_never_the_json() {
+    let f = "sections/mezzanine-girder.toml";
+    let text = |args: &[&str]| String::from_utf8_lossy(&kern(args).stdout).to_string();
+    let eng = text(&["calc", f, "--no-torsion"]);
+    assert!(
+        eng.contains("13\u{202f}800 mm²") && eng.contains("687.0×10⁶ mm⁴"),
+        "{eng}"
+    );
+    let sci = text(&["calc", f, "--no-torsion", "--numbers", "scientific"]);
+    assert!(sci.contains("1.380e4 mm²"), "{sci}");
+    let plain = text(&["calc", "--numbers", "plain", f, "--no-torsion"]);
+    assert!(plain.contains("687000000 mm⁴"), "{plain}");
+    let yz = text(&["calc", f, "--no-torsion", "--notation", "yz"]);
+    assert!(
+        yz.contains("Wel,y,top") && yz.contains("Wpl,y") && !yz.contains("Sx,top"),
+        "{yz}"
+    );
+    assert!(yz.contains("z vertical"), "the table states its axes: {yz}");
+    let json = text(&["calc", f, "--no-torsion", "--json"]);
+    let other = text(&[
+        "calc",
+        f,
+        "--no-torsion",
+        "--json",
+        "--numbers",
+        "plain",
+        "--notation",
+        "yz",
+    ]);
+    assert_eq!(json, other);
+    let bad = kern(&["calc", f, "--numbers", "pretty"]);
+    assert_eq!(bad.status.code(), Some(2), "clap's usage error");
+    assert!(String::from_utf8_lossy(&bad.stderr).contains("engineering, scientific or plain"));
+}

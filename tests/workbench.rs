@@ -1031,3 +1031,60 @@ fn ascii_mode_draws_holes_and_voids() {
         assert!(s.contains("o void"), "{name}: legend\n{s}");
     }
 }
+
+/// The change column reads the right way. A wider top flange takes compression off
+/// the girder's top fibre, so σmin (negative) rises towards zero: its magnitude is
+/// lower, shown `↓` although the signed value went up. J, Cw, the shear centre and
+/// Mcr keep a change (the baseline's torsion is solved too); the finite-element
+/// error estimate has none; a coordinate that stays at zero reads `=`.
+#[test]
+fn changes_read_as_magnitudes_for_stresses_and_every_result_keeps_one() {
+    let mut a = App::new(GIRDER.to_string(), None, Config::default(), Solver::Inline)
+        .expect("valid section");
+    let before = a.analysis.stress.as_ref().unwrap().extremes.max_compression.value;
+    run(&mut a, Cmd::SwitchList);
+    repeat(&mut a, Cmd::StepUp, 4);
+    let after = a.analysis.stress.as_ref().unwrap().extremes.max_compression.value;
+    assert!(before < after && after < 0.0, "{before} → {after}");
+    let s = screen(&a, 120, 90);
+    let line = |sym: &str| {
+        s.lines()
+            .find_map(|l| {
+                let panel = l.split("││").nth(1)?;
+                panel.starts_with(&format!("{sym} ")).then(|| panel.to_string())
+            })
+            .unwrap_or_else(|| panic!("no row {sym}:\n{s}"))
+    };
+    assert!(line("σmin").contains('↓'), "{}", line("σmin"));
+    for sym in ["J", "Cw", "ys", "Mcr", "Sx,top"] {
+        let l = line(sym);
+        assert!(l.contains('↑') || l.contains('↓'), "{sym}: {l}");
+    }
+    assert!(line("xs").contains(" ="), "{}", line("xs"));
+    let err = line("err");
+    assert!(!err.contains('↑') && !err.contains('↓') && !err.contains(" ="), "{err}");
+    assert!(s.contains("↑ higher ↓ lower"), "the legend: {s}");
+}
+
+/// The results pane's title fits its border at 80 columns (it was cut to
+/// "(change vs file as ope"), and says it all where there is room.
+#[test]
+fn the_results_title_fits_at_80_columns() {
+    let a = app(GIRDER);
+    let s = screen(&a, 80, 24);
+    assert!(s.contains("Results  (vs file as opened)"), "{s}");
+    let s = screen(&a, 120, 40);
+    assert!(s.contains("Results  (change vs file as opened)"), "{s}");
+}
+
+/// With `notation = "yz"` the panel names the moduli W and the axes y–z, from the
+/// same table as the calc table and the sheet.
+#[test]
+fn the_panel_takes_the_notation_and_number_form_of_the_config() {
+    let config = kern::tui::config::Config::parse("notation = \"yz\"\nnumbers = \"scientific\"")
+        .expect("valid config");
+    let a = App::new(GIRDER.to_string(), None, config, Solver::Off).expect("valid section");
+    let s = screen(&a, 120, 40);
+    assert!(s.contains("Wel,y,top") && s.contains("Iz ") && !s.contains("Sx,top"), "{s}");
+    assert!(s.contains("6.870e8"), "{s}");
+}

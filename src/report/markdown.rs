@@ -76,9 +76,9 @@ fn plain(x: f64) -> String {
     }
 }
 
-/// A result to the sheet's significant figures.
-fn fig(x: f64) -> String {
-    sig(x, FIGURES)
+/// A result to the sheet's significant figures, in the chosen form of numbers.
+fn fig(u: &OutUnits, x: f64) -> String {
+    u.num(x, FIGURES)
 }
 
 /// A table from a header of kern's own words and rows of lines.
@@ -159,10 +159,10 @@ fn inputs(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
             .map(|m| {
                 let mut row = vec![user(&m.name)];
                 row.extend(cells(vec![
-                    fig(st.from_si(m.e)),
-                    m.fy.map_or("—".into(), |f| fig(st.from_si(f))),
-                    m.density.map_or("—".into(), |d| fig(rho.from_si(d))),
-                    fig(st.from_si(m.g)),
+                    fig(u, st.from_si(m.e)),
+                    m.fy.map_or("—".into(), |f| fig(u, st.from_si(f))),
+                    m.density.map_or("—".into(), |d| fig(u, rho.from_si(d))),
+                    fig(u, st.from_si(m.g)),
                     match m.g_source {
                         ShearModulus::Given => "as given".to_string(),
                         ShearModulus::FromNu(nu) => format!("E/(2(1 + ν)), ν = {}", plain(nu)),
@@ -268,7 +268,7 @@ ratio n. A is the weighted area, (x_i, y_i) the part's own centroid, Ixx,own and
 weighted second moments about its own centroid, dy = y_i − ȳ and dx = x_i − x̄. The parallel \
 axis theorem then gives I = Σ(I_own + A·d²).",
     )));
-    let g = |x: f64, p: i32| fig(u.geo(x, p));
+    let g = |x: f64, p: i32| fig(u, u.geo(x, p));
     let mut body: Vec<Vec<Line>> = ts
         .iter()
         .map(|t| {
@@ -371,7 +371,7 @@ fn results(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
             vec![
                 own(head),
                 user(&r.symbol),
-                own(r.value.map_or("—".into(), fig)),
+                own(r.value.map_or("—".into(), |v| fig(u, v))),
                 own(r.unit.clone()),
                 own(r.meaning),
             ]
@@ -384,6 +384,10 @@ torsion, the shear centre, Mcr, self-weight and deflections; the net section sub
 gives the stresses and the member's bending stress. Each group names its section.",
         )));
     }
+    s.push(Block::Para(own(format!(
+        "Axes and symbols: {}.",
+        u.notation.note()
+    ))));
     table(s, &["group", "symbol", "value", "unit", "meaning"], body);
     s.push(Block::Para(match &a.torsion {
         None => own("Torsion was not computed for this sheet."),
@@ -414,10 +418,10 @@ fn extreme_lines(out: &mut Vec<Line>, e: &Extremes, u: &OutUnits, prefix: &Line)
         let mut line = prefix.clone();
         line.push(Span::Own(format!(
             "{what} = {} {} at ({}, {}) {l}",
-            fig(st.from_si(p.value)),
+            fig(u, st.from_si(p.value)),
             st.name,
-            fig(u.geo(p.x, 1)),
-            fig(u.geo(p.y, 1)),
+            fig(u, u.geo(p.x, 1)),
+            fig(u, u.geo(p.y, 1)),
         )));
         out.push(line);
     }
@@ -459,21 +463,21 @@ is not given. Flows in {}.",
                     (
                         side,
                         cells(vec![
-                            fig(u.geo(cut.area, 2)),
-                            fig(u.geo(cut.centroid.x, 1)),
-                            fig(u.geo(cut.centroid.y, 1)),
-                            fig(u.geo(cut.qx, 3)),
-                            fig(u.geo(cut.qy, 3)),
+                            fig(u, u.geo(cut.area, 2)),
+                            fig(u, u.geo(cut.centroid.x, 1)),
+                            fig(u, u.geo(cut.centroid.y, 1)),
+                            fig(u, u.geo(cut.qx, 3)),
+                            fig(u, u.geo(cut.qy, 3)),
                         ]),
                     )
                 }
                 Flow::ClosedCell => (own("closed cell"), none()),
                 Flow::VoidAcross(_) | Flow::StrayVoid(_) => (own("a void lies across"), none()),
             };
-            let q = |v: Option<f64>| own(v.map_or("—".into(), |q| fig(qu.from_si(q))));
+            let q = |v: Option<f64>| own(v.map_or("—".into(), |q| fig(u, qu.from_si(q))));
             let mut row = vec![
                 vec![name(c.joint.a), Span::Own(" – ".into()), name(c.joint.b)],
-                own(fig(u.geo(c.joint.length, 1))),
+                own(fig(u, u.geo(c.joint.length, 1))),
                 side,
             ];
             row.extend(rest);
@@ -520,11 +524,11 @@ fn checks(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
             "N = {} {}, Mx = {} {}, My = {} {} (tension positive; positive Mx compresses the \
 +y fibres, positive My the +x fibres). σ = N/A + a·(x − x̄) + b·(y − ȳ), the flexure \
 formula for unsymmetric sections{}.",
-            fig(f.from_si(act.n)),
+            fig(u, f.from_si(act.n)),
             f.name,
-            fig(m.from_si(act.mx)),
+            fig(u, m.from_si(act.mx)),
             m.name,
-            fig(m.from_si(act.my)),
+            fig(u, m.from_si(act.my)),
             m.name,
             if a.net.is_some() {
                 ", on the net section (holes subtracted)"
@@ -535,7 +539,7 @@ formula for unsymmetric sections{}.",
         let mut items = Vec::new();
         extreme_lines(&mut items, &st.extremes, u, &Vec::new());
         items.push(own(match st.neutral_axis_angle_deg {
-            Some(d) => format!("neutral axis at {}° from +x, counter-clockwise", fig(d)),
+            Some(d) => format!("neutral axis at {}° from +x, counter-clockwise", fig(u, d)),
             None => "no neutral axis (axial force only)".into(),
         }));
         for (name, e) in &st.per_material {
@@ -575,11 +579,11 @@ fn member_lines(
         "{support}, span L = {} {l}",
         plain(u.metres(mb.length))
     ))];
-    let mut load = format!("uniform load {} {}", fig(w.from_si(mb.udl)), w.name);
+    let mut load = format!("uniform load {} {}", fig(u, w.from_si(mb.udl)), w.name);
     if mb.self_weight {
         load.push_str(&format!(
             ", plus self-weight {} {} (mass × g, g = {GRAVITY} m/s²)",
-            fig(w.from_si(mr.self_weight)),
+            fig(u, w.from_si(mr.self_weight)),
             w.name
         ));
     }
@@ -587,39 +591,39 @@ fn member_lines(
     for (p, at) in &mb.points {
         out.push(own(format!(
             "point load {} {} at {} {l}",
-            fig(f.from_si(*p)),
+            fig(u, f.from_si(*p)),
             f.name,
             plain(u.metres(*at))
         )));
     }
     let at = |x: Option<f64>| {
         x.map_or(String::new(), |x| {
-            format!(" at x = {} {l}", fig(u.metres(x)))
+            format!(" at x = {} {l}", fig(u, u.metres(x)))
         })
     };
     let r = mr.result.as_ref();
     out.push(own(format!(
         "Mmax = {} {}{}",
-        fig(m.from_si(mr.m_max)),
+        fig(u, m.from_si(mr.m_max)),
         m.name,
         at(r.map(|r| r.m_max_at)),
     )));
     out.push(own(format!(
         "Vmax = {} {}{}",
-        fig(f.from_si(mr.v_max)),
+        fig(u, f.from_si(mr.v_max)),
         f.name,
         at(r.map(|r| r.v_max_at)),
     )));
     out.push(own(match mr.deflection_max {
         Some(dm) => format!(
             "δmax = {} {}{} against δallow = L/{} = {} {} (ratio {})",
-            fig(d.from_si(dm)),
+            fig(u, d.from_si(dm)),
             d.name,
             at(r.map(|r| r.deflection_at)),
             plain(mb.deflection_limit),
-            fig(d.from_si(mr.deflection_allowed)),
+            fig(u, d.from_si(mr.deflection_allowed)),
             d.name,
-            fig(dm / mr.deflection_allowed)
+            fig(u, dm / mr.deflection_allowed)
         ),
         None => "deflection not computed: no modulus of elasticity given".into(),
     }));
@@ -632,15 +636,15 @@ fn member_lines(
         }
         let mut rest = format!(
             " = n·Mmax·c/Ixx = {} {} (c to its own farthest fibre{net})",
-            fig(st.from_si(fb.stress)),
+            fig(u, st.from_si(fb.stress)),
             st.name
         );
         match fb.fy {
             Some(fy) => rest.push_str(&format!(
                 " against fy = {} {} (ratio {})",
-                fig(st.from_si(fy)),
+                fig(u, st.from_si(fy)),
                 st.name,
-                fig(fb.stress / fy)
+                fig(u, fb.stress / fy)
             )),
             None => rest.push_str(" (no fy given: not in the utilisation)"),
         }
@@ -656,7 +660,7 @@ fn member_lines(
     out.push(own(match mr.utilization {
         Some(x) => format!(
             "utilisation = max(σb/fy of each material, δmax/δallow) = {}",
-            fig(x)
+            fig(u, x)
         ),
         None => "utilisation not formed (neither fy nor E given)".into(),
     }));
@@ -678,7 +682,7 @@ fn member_lines(
 Mcr = c1·(π²EIy/L²)·(s·βx/2 + √((βx/2)² + Cw/Iy + GJL²/(π²EIy))) (Trahair, Flexural-Torsional \
 Buckling of Structures, ch. 7; Timoshenko & Gere when βx = 0). Assumed: ends free to warp and \
 prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of ",
-                    fig(m.from_si(x)),
+                    fig(u, m.from_si(x)),
                     m.name,
                     plain(mb.c1),
                     if mb.c1 == 1.0 {
@@ -686,13 +690,13 @@ prevented from twisting, load at the shear centre, c1 = {} ({}), G = {} {} of ",
                     } else {
                         "moment-gradient factor as given"
                     },
-                    fig(st.from_si(mat.g)),
+                    fig(u, st.from_si(mat.g)),
                     st.name,
                 )),
                 Span::User(mat.name.clone()),
                 Span::Own(format!(
                     " ({g_from}), βx = {} {l} with the finite-element shear centre, {side}",
-                    fig(u.metres(bx)),
+                    fig(u, u.metres(bx)),
                 )),
             ]
         }

@@ -1,10 +1,13 @@
 //! Output units: lengths in the file's unit (or the one asked for with `--units`),
 //! forces, moments and stresses in kN, kN·m, MPa for metric lengths and kip, kip·ft,
-//! ksi for US customary ones (FORMAT.md, `quantity_units`).
+//! ksi for US customary ones (FORMAT.md, `quantity_units`); and how the views write
+//! numbers and symbols (`numfmt::Numbers`, `rows::Notation`), which JSON ignores.
 
+use super::rows::Notation;
 use crate::model::units::{
     display_unit, mass_per_length_unit, DisplayUnit, Kind, LengthUnit, System,
 };
+use crate::numfmt::Numbers;
 
 /// How to express results.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -13,6 +16,10 @@ pub struct OutUnits {
     /// Output length units per file length unit.
     k: f64,
     pub system: System,
+    /// The form of numbers in the views.
+    pub numbers: Numbers,
+    /// The letters of moduli and axes in the views.
+    pub notation: Notation,
 }
 
 impl OutUnits {
@@ -22,7 +29,23 @@ impl OutUnits {
             length,
             k: file.metres() / length.metres(),
             system: System::of(length),
+            numbers: Numbers::default(),
+            notation: Notation::default(),
         }
+    }
+
+    /// The same units, with numbers and symbols written as given.
+    pub fn written(self, numbers: Numbers, notation: Notation) -> OutUnits {
+        OutUnits {
+            numbers,
+            notation,
+            ..self
+        }
+    }
+
+    /// `x` to `figs` significant figures in the chosen form of numbers.
+    pub fn num(&self, x: f64, figs: usize) -> String {
+        self.numbers.show(x, figs)
     }
 
     /// A file quantity of length dimension `power` (1 length, 2 area, 4 second moment…).

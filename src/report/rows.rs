@@ -5,6 +5,11 @@
 //! they always agree. Adding a result is one line in [`QUANTITIES`] (and, if it opens
 //! a new group, its name in [`GROUPS`]).
 //!
+//! Two notations ([`Notation`]): the S/Z letters about x–y axes, and W_el/W_pl about
+//! y–z axes (y horizontal along the file's x, z vertical along the file's y). A
+//! quantity's symbol and meaning hold the x–y text and, after a `|` where the y–z
+//! text differs, that one (`"Ixx|Iy"`).
+//!
 //! One rule for finite-element noise ([`fe_zero`]): a coordinate closer to zero than
 //! the solve's estimated error (relative to the section's size) is zero, in every view.
 
@@ -12,6 +17,51 @@ use super::out::OutUnits;
 use crate::analysis::Analysis;
 use crate::checks::shear_flow::Flow;
 use crate::geom::Pt;
+use crate::numfmt::Compare;
+
+/// The letters of the moduli and axes in the views (JSON keys never change).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Notation {
+    /// Sx, Zx, Ixx…: elastic modulus S, plastic modulus Z, axes x (horizontal) and y.
+    #[default]
+    Xy,
+    /// Wel,y, Wpl,y, Iy…: elastic and plastic moduli W, axes y (horizontal, the file's
+    /// x) and z (vertical, the file's y); here Z is no modulus but the vertical axis.
+    Yz,
+}
+
+impl Notation {
+    /// The names the CLI flag and the config file take.
+    pub const NAMES: &'static str = "xy (S, Z about x–y) or yz (Wel, Wpl about y–z)";
+
+    pub fn parse(s: &str) -> Option<Notation> {
+        match s {
+            "xy" => Some(Notation::Xy),
+            "yz" => Some(Notation::Yz),
+            _ => None,
+        }
+    }
+
+    /// One line stating the notation and its axes, for the sheet and the table.
+    pub fn note(self) -> &'static str {
+        match self {
+            Notation::Xy => "x horizontal, y vertical; S elastic and Z plastic moduli",
+            Notation::Yz => {
+                "y horizontal (the file's x), z vertical (the file's y); Wel elastic and Wpl \
+plastic moduli"
+            }
+        }
+    }
+
+    /// The part of `text` for this notation: before a `|` for x–y, after it for y–z.
+    fn pick(self, text: &'static str) -> &'static str {
+        match (text.split_once('|'), self) {
+            (None, _) => text,
+            (Some((xy, _)), Notation::Xy) => xy,
+            (Some((_, yz)), Notation::Yz) => yz,
+        }
+    }
+}
 
 /// What an accessor finds for one quantity.
 #[derive(Debug, Clone, PartialEq)]
@@ -98,8 +148,10 @@ impl Dim {
 /// One quantity of the table.
 pub struct Quantity {
     pub group: &'static str,
-    /// Symbol in the views, unique within a section; `""` for JSON-only entries.
+    /// Symbol in the views, unique within a section; `""` for JSON-only entries. With
+    /// a `|`, the x–y symbol then the y–z one ([`Notation`]).
     pub symbol: &'static str,
+    /// What it means; with a `|`, in x–y then in y–z terms.
     pub meaning: &'static str,
     /// Dotted path in the JSON object (FORMAT.md).
     pub path: &'static str,
@@ -111,6 +163,39 @@ impl Quantity {
     /// Shown as a row in the views (not only in JSON).
     pub fn shown(&self) -> bool {
         !self.symbol.is_empty()
+    }
+
+    /// The symbol in notation `n`.
+    pub fn symbol_in(&self, n: Notation) -> &'static str {
+        n.pick(self.symbol)
+    }
+
+    /// The meaning in notation `n`.
+    pub fn meaning_in(&self, n: Notation) -> &'static str {
+        n.pick(self.meaning)
+    }
+
+    /// How its change against a baseline reads: a difference for coordinates and
+    /// angles (their zero is a choice of origin), the change of magnitude for stresses
+    /// (−116.9 → −99.5 MPa is a lower stress), none for the finite-element error
+    /// estimate (it grades a solve, not the section), else relative.
+    pub fn compare(&self) -> Compare {
+        let coordinate = [
+            "centroid.",
+            "plastic_axis.",
+            "torsion.shear_centre.",
+            "stress.max_",
+        ]
+        .iter()
+        .any(|p| self.path.starts_with(p))
+            && !self.path.ends_with(".value");
+        match self.dim {
+            _ if self.path == "torsion.rel_error" => Compare::Omit,
+            Dim::Deg => Compare::Difference,
+            _ if coordinate => Compare::Difference,
+            Dim::Stress => Compare::Magnitude,
+            _ => Compare::Relative,
+        }
     }
 
     /// One of the section's own properties, which the net section repeats (FORMAT.md
@@ -231,36 +316,36 @@ pub fn fe_zero(a: &Analysis, x: f64, err: f64) -> f64 {
 #[rustfmt::skip]
 pub static QUANTITIES: &[Quantity] = &[
     Quantity { group: "Area", symbol: "A", meaning: "area (voids subtracted, other materials by modular ratio)", path: "area", dim: Dim::L(2), get: |a| num(a.props.area) },
-    Quantity { group: "Centroid", symbol: "x̄", meaning: "centroid, x", path: "centroid.x", dim: Dim::L(1), get: |a| num(a.props.centroid.x) },
-    Quantity { group: "Centroid", symbol: "ȳ", meaning: "centroid, y", path: "centroid.y", dim: Dim::L(1), get: |a| num(a.props.centroid.y) },
+    Quantity { group: "Centroid", symbol: "x̄|ȳ", meaning: "centroid, x|centroid, y (horizontal)", path: "centroid.x", dim: Dim::L(1), get: |a| num(a.props.centroid.x) },
+    Quantity { group: "Centroid", symbol: "ȳ|z̄", meaning: "centroid, y|centroid, z (vertical)", path: "centroid.y", dim: Dim::L(1), get: |a| num(a.props.centroid.y) },
     Quantity { group: "Bounds", symbol: "", meaning: "least x of the section", path: "bounds.xmin", dim: Dim::L(1), get: |a| num(a.props.bounds[0]) },
     Quantity { group: "Bounds", symbol: "", meaning: "greatest x of the section", path: "bounds.xmax", dim: Dim::L(1), get: |a| num(a.props.bounds[1]) },
     Quantity { group: "Bounds", symbol: "", meaning: "least y of the section", path: "bounds.ymin", dim: Dim::L(1), get: |a| num(a.props.bounds[2]) },
     Quantity { group: "Bounds", symbol: "", meaning: "greatest y of the section", path: "bounds.ymax", dim: Dim::L(1), get: |a| num(a.props.bounds[3]) },
-    Quantity { group: "Second moments", symbol: "Ixx", meaning: "about the centroidal axis parallel to x", path: "inertia.xx", dim: Dim::L(4), get: |a| num(a.props.ixx) },
-    Quantity { group: "Second moments", symbol: "Iyy", meaning: "about the centroidal axis parallel to y", path: "inertia.yy", dim: Dim::L(4), get: |a| num(a.props.iyy) },
-    Quantity { group: "Second moments", symbol: "Ixy", meaning: "product of inertia about the centroid", path: "inertia.xy", dim: Dim::L(4), get: |a| num(a.props.ixy) },
+    Quantity { group: "Second moments", symbol: "Ixx|Iy", meaning: "about the centroidal axis parallel to x|about the centroidal axis parallel to y (horizontal)", path: "inertia.xx", dim: Dim::L(4), get: |a| num(a.props.ixx) },
+    Quantity { group: "Second moments", symbol: "Iyy|Iz", meaning: "about the centroidal axis parallel to y|about the centroidal axis parallel to z (vertical)", path: "inertia.yy", dim: Dim::L(4), get: |a| num(a.props.iyy) },
+    Quantity { group: "Second moments", symbol: "Ixy|Iyz", meaning: "product of inertia about the centroid", path: "inertia.xy", dim: Dim::L(4), get: |a| num(a.props.ixy) },
     Quantity { group: "Principal axes", symbol: "I1", meaning: "major principal second moment", path: "principal.i1", dim: Dim::L(4), get: |a| num(a.props.principal.i1) },
     Quantity { group: "Principal axes", symbol: "I2", meaning: "minor principal second moment", path: "principal.i2", dim: Dim::L(4), get: |a| num(a.props.principal.i2) },
-    Quantity { group: "Principal axes", symbol: "θ", meaning: "angle from +x to the major axis, counter-clockwise", path: "principal.angle_deg", dim: Dim::Deg, get: |a| num(a.props.principal.angle_deg) },
-    Quantity { group: "Elastic moduli", symbol: "Sx,top", meaning: "Ixx / (ymax − ȳ)", path: "elastic_modulus.x_top", dim: Dim::L(3), get: |a| num(a.props.elastic.x_top) },
-    Quantity { group: "Elastic moduli", symbol: "Sx,bot", meaning: "Ixx / (ȳ − ymin)", path: "elastic_modulus.x_bottom", dim: Dim::L(3), get: |a| num(a.props.elastic.x_bottom) },
-    Quantity { group: "Elastic moduli", symbol: "Sy,left", meaning: "Iyy / (x̄ − xmin)", path: "elastic_modulus.y_left", dim: Dim::L(3), get: |a| num(a.props.elastic.y_left) },
-    Quantity { group: "Elastic moduli", symbol: "Sy,right", meaning: "Iyy / (xmax − x̄)", path: "elastic_modulus.y_right", dim: Dim::L(3), get: |a| num(a.props.elastic.y_right) },
+    Quantity { group: "Principal axes", symbol: "θ", meaning: "angle from +x to the major axis, counter-clockwise|angle from +y to the major axis, counter-clockwise", path: "principal.angle_deg", dim: Dim::Deg, get: |a| num(a.props.principal.angle_deg) },
+    Quantity { group: "Elastic moduli", symbol: "Sx,top|Wel,y,top", meaning: "Ixx / (ymax − ȳ)|Iy / (zmax − z̄)", path: "elastic_modulus.x_top", dim: Dim::L(3), get: |a| num(a.props.elastic.x_top) },
+    Quantity { group: "Elastic moduli", symbol: "Sx,bot|Wel,y,bot", meaning: "Ixx / (ȳ − ymin)|Iy / (z̄ − zmin)", path: "elastic_modulus.x_bottom", dim: Dim::L(3), get: |a| num(a.props.elastic.x_bottom) },
+    Quantity { group: "Elastic moduli", symbol: "Sy,left|Wel,z,left", meaning: "Iyy / (x̄ − xmin)|Iz / (ȳ − ymin)", path: "elastic_modulus.y_left", dim: Dim::L(3), get: |a| num(a.props.elastic.y_left) },
+    Quantity { group: "Elastic moduli", symbol: "Sy,right|Wel,z,right", meaning: "Iyy / (xmax − x̄)|Iz / (ymax − ȳ)", path: "elastic_modulus.y_right", dim: Dim::L(3), get: |a| num(a.props.elastic.y_right) },
     Quantity { group: "Plastic moduli", symbol: "", meaning: "no plastic moduli (not formed)", path: "plastic_modulus", dim: Dim::None, get: plastic_null },
-    Quantity { group: "Plastic moduli", symbol: "Zx", meaning: "plastic modulus about the axis parallel to x", path: "plastic_modulus.x", dim: Dim::L(3), get: |a| plastic(a, |z| z.zx) },
-    Quantity { group: "Plastic moduli", symbol: "Zy", meaning: "plastic modulus about the axis parallel to y", path: "plastic_modulus.y", dim: Dim::L(3), get: |a| plastic(a, |z| z.zy) },
+    Quantity { group: "Plastic moduli", symbol: "Zx|Wpl,y", meaning: "plastic modulus about the axis parallel to x|plastic modulus about the axis parallel to y", path: "plastic_modulus.x", dim: Dim::L(3), get: |a| plastic(a, |z| z.zx) },
+    Quantity { group: "Plastic moduli", symbol: "Zy|Wpl,z", meaning: "plastic modulus about the axis parallel to y|plastic modulus about the axis parallel to z", path: "plastic_modulus.y", dim: Dim::L(3), get: |a| plastic(a, |z| z.zy) },
     Quantity { group: "Plastic moduli", symbol: "", meaning: "no plastic neutral axes (not formed)", path: "plastic_axis", dim: Dim::None, get: plastic_null },
-    Quantity { group: "Plastic moduli", symbol: "yp", meaning: "height of the plastic neutral axis", path: "plastic_axis.y", dim: Dim::L(1), get: |a| plastic(a, |z| z.y) },
-    Quantity { group: "Plastic moduli", symbol: "xp", meaning: "position of the plastic neutral axis parallel to y", path: "plastic_axis.x", dim: Dim::L(1), get: |a| plastic(a, |z| z.x) },
-    Quantity { group: "Radii of gyration", symbol: "rx", meaning: "√(Ixx/A)", path: "gyration.x", dim: Dim::L(1), get: |a| num(a.props.gyration.x) },
-    Quantity { group: "Radii of gyration", symbol: "ry", meaning: "√(Iyy/A)", path: "gyration.y", dim: Dim::L(1), get: |a| num(a.props.gyration.y) },
-    Quantity { group: "Radii of gyration", symbol: "rmin", meaning: "√(I2/A)", path: "gyration.min", dim: Dim::L(1), get: |a| num(a.props.gyration.min) },
+    Quantity { group: "Plastic moduli", symbol: "yp|zp", meaning: "height of the plastic neutral axis", path: "plastic_axis.y", dim: Dim::L(1), get: |a| plastic(a, |z| z.y) },
+    Quantity { group: "Plastic moduli", symbol: "xp|yp", meaning: "position of the plastic neutral axis parallel to y|position of the plastic neutral axis parallel to z", path: "plastic_axis.x", dim: Dim::L(1), get: |a| plastic(a, |z| z.x) },
+    Quantity { group: "Radii of gyration", symbol: "rx|iy", meaning: "√(Ixx/A)|√(Iy/A)", path: "gyration.x", dim: Dim::L(1), get: |a| num(a.props.gyration.x) },
+    Quantity { group: "Radii of gyration", symbol: "ry|iz", meaning: "√(Iyy/A)|√(Iz/A)", path: "gyration.y", dim: Dim::L(1), get: |a| num(a.props.gyration.y) },
+    Quantity { group: "Radii of gyration", symbol: "rmin|imin", meaning: "√(I2/A)", path: "gyration.min", dim: Dim::L(1), get: |a| num(a.props.gyration.min) },
     Quantity { group: "Torsion", symbol: "", meaning: "torsion failed (the warning says why)", path: "torsion", dim: Dim::None, get: torsion_null },
-    Quantity { group: "Torsion", symbol: "J", meaning: "Saint-Venant torsion constant", path: "torsion.j", dim: Dim::L(4), get: |a| torsion(a, |_, t| num(t.j)) },
-    Quantity { group: "Torsion", symbol: "Cw", meaning: "warping constant about the shear centre", path: "torsion.cw", dim: Dim::L(6), get: |a| torsion(a, |_, t| num(t.cw)) },
-    Quantity { group: "Torsion", symbol: "xs", meaning: "shear centre, x", path: "torsion.shear_centre.x", dim: Dim::L(1), get: |a| shear_centre(a).map_or(Cell::Absent, |s| num(s.x)) },
-    Quantity { group: "Torsion", symbol: "ys", meaning: "shear centre, y", path: "torsion.shear_centre.y", dim: Dim::L(1), get: |a| shear_centre(a).map_or(Cell::Absent, |s| num(s.y)) },
+    Quantity { group: "Torsion", symbol: "J|IT", meaning: "Saint-Venant torsion constant", path: "torsion.j", dim: Dim::L(4), get: |a| torsion(a, |_, t| num(t.j)) },
+    Quantity { group: "Torsion", symbol: "Cw|Iw", meaning: "warping constant about the shear centre", path: "torsion.cw", dim: Dim::L(6), get: |a| torsion(a, |_, t| num(t.cw)) },
+    Quantity { group: "Torsion", symbol: "xs|ys", meaning: "shear centre, x|shear centre, y (horizontal)", path: "torsion.shear_centre.x", dim: Dim::L(1), get: |a| shear_centre(a).map_or(Cell::Absent, |s| num(s.x)) },
+    Quantity { group: "Torsion", symbol: "ys|zs", meaning: "shear centre, y|shear centre, z (vertical)", path: "torsion.shear_centre.y", dim: Dim::L(1), get: |a| shear_centre(a).map_or(Cell::Absent, |s| num(s.y)) },
     Quantity { group: "Torsion", symbol: "", meaning: "finite-element method", path: "torsion.method", dim: Dim::None, get: |a| torsion(a, |_, t| Cell::Text(t.method.clone())) },
     Quantity { group: "Torsion", symbol: "err", meaning: "estimated relative error of J and Cw", path: "torsion.rel_error", dim: Dim::Fraction, get: |a| torsion(a, |_, t| num(t.rel_error)) },
     Quantity { group: "Torsion", symbol: "", meaning: "finite elements", path: "torsion.elements", dim: Dim::None, get: |a| torsion(a, |_, t| Cell::Count(t.elements)) },
@@ -274,12 +359,12 @@ pub static QUANTITIES: &[Quantity] = &[
     Quantity { group: "Stresses", symbol: "σmin", meaning: "smallest normal stress (compression −)", path: "stress.max_compression.value", dim: Dim::Stress, get: |a| stress(a, |s| num(s.extremes.max_compression.value)) },
     Quantity { group: "Stresses", symbol: "", meaning: "where the smallest stress is, x", path: "stress.max_compression.x", dim: Dim::L(1), get: |a| stress(a, |s| num(s.extremes.max_compression.x)) },
     Quantity { group: "Stresses", symbol: "", meaning: "where the smallest stress is, y", path: "stress.max_compression.y", dim: Dim::L(1), get: |a| stress(a, |s| num(s.extremes.max_compression.y)) },
-    Quantity { group: "Stresses", symbol: "NA", meaning: "angle of the neutral axis from +x", path: "stress.neutral_axis_angle_deg", dim: Dim::Deg, get: |a| stress(a, |s| s.neutral_axis_angle_deg.into()) },
+    Quantity { group: "Stresses", symbol: "NA", meaning: "angle of the neutral axis from +x|angle of the neutral axis from +y", path: "stress.neutral_axis_angle_deg", dim: Dim::Deg, get: |a| stress(a, |s| s.neutral_axis_angle_deg.into()) },
     Quantity { group: "Member", symbol: "Mmax", meaning: "largest bending moment", path: "member.m_max", dim: Dim::Moment, get: |a| member(a, |m| num(m.m_max)) },
     Quantity { group: "Member", symbol: "Vmax", meaning: "largest shear force", path: "member.v_max", dim: Dim::Force, get: |a| member(a, |m| num(m.v_max)) },
     Quantity { group: "Member", symbol: "δmax", meaning: "largest deflection", path: "member.deflection_max", dim: Dim::Deflection, get: |a| member(a, |m| m.deflection_max.into()) },
     Quantity { group: "Member", symbol: "δallow", meaning: "span / deflection limit", path: "member.deflection_allowed", dim: Dim::Deflection, get: |a| member(a, |m| num(m.deflection_allowed)) },
-    Quantity { group: "Member", symbol: "σb", meaning: "bending stress: the largest n·Mmax·c/Ixx over the materials", path: "member.stress_max", dim: Dim::Stress, get: |a| member(a, |m| num(m.stress_max)) },
+    Quantity { group: "Member", symbol: "σb", meaning: "bending stress: the largest n·Mmax·c/Ixx over the materials|bending stress: the largest n·Mmax·c/Iy over the materials", path: "member.stress_max", dim: Dim::Stress, get: |a| member(a, |m| num(m.stress_max)) },
     Quantity { group: "Member", symbol: "util", meaning: "utilisation: max(σ/fy of each material, δ/δallow)", path: "member.utilization", dim: Dim::One, get: |a| member(a, |m| m.utilization.into()) },
     Quantity { group: "Member", symbol: "Mcr", meaning: "elastic critical moment (LTB), simple span, load at the shear centre", path: "member.mcr", dim: Dim::Moment, get: |a| member(a, |m| m.mcr.into()) },
     Quantity { group: "Member", symbol: "", meaning: "monosymmetry constant βx used for Mcr", path: "member.beta_x", dim: Dim::Metres, get: |a| member(a, |m| m.beta_x.into()) },
@@ -297,6 +382,8 @@ pub struct Row {
     pub unit: String,
     /// What the row means, in words.
     pub meaning: &'static str,
+    /// How its change against a baseline reads.
+    pub compare: Compare,
 }
 
 /// The rows of every shown quantity present in `a`, grouped in [`GROUPS`] order, then
@@ -335,10 +422,11 @@ fn row(q: &Quantity, a: &Analysis, u: &OutUnits) -> Option<Row> {
     };
     Some(Row {
         group: q.group,
-        symbol: q.symbol.to_string(),
+        symbol: q.symbol_in(u.notation).to_string(),
         value: value.filter(|v| v.is_finite()),
         unit: q.dim.label(u),
-        meaning: q.meaning,
+        meaning: q.meaning_in(u.notation),
+        compare: q.compare(),
     })
 }
 
@@ -361,6 +449,7 @@ fn connection_rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
             value: value.filter(|v| v.is_finite()),
             unit,
             meaning,
+            compare: Compare::Relative,
         };
         out.push(row(
             format!("L {pair}"),
@@ -402,23 +491,48 @@ mod tests {
 
     #[test]
     fn the_table_is_well_formed() {
-        // One quantity per JSON path and per shown symbol; every group has a place.
+        // One quantity per JSON path and per shown symbol in each notation; every
+        // group has a place.
         let mut paths: Vec<&str> = QUANTITIES.iter().map(|q| q.path).collect();
         paths.sort_unstable();
         let n = paths.len();
         paths.dedup();
         assert_eq!(paths.len(), n, "a JSON path twice");
-        let mut syms: Vec<&str> = QUANTITIES
-            .iter()
-            .filter(|q| q.shown())
-            .map(|q| q.symbol)
-            .collect();
-        syms.sort_unstable();
-        let n = syms.len();
-        syms.dedup();
-        assert_eq!(syms.len(), n, "a symbol twice");
+        for notation in [Notation::Xy, Notation::Yz] {
+            let mut syms: Vec<&str> = QUANTITIES
+                .iter()
+                .filter(|q| q.shown())
+                .map(|q| q.symbol_in(notation))
+                .collect();
+            syms.sort_unstable();
+            let n = syms.len();
+            syms.dedup();
+            assert_eq!(syms.len(), n, "a symbol twice in {notation:?}");
+        }
+        for q in QUANTITIES {
+            assert!(q.symbol.matches('|').count() <= 1 && q.meaning.matches('|').count() <= 1);
+        }
         for q in QUANTITIES.iter().filter(|q| q.shown()) {
             assert!(GROUPS.contains(&q.group), "{} has no place", q.group);
         }
+    }
+
+    #[test]
+    fn the_yz_notation_names_the_moduli_w() {
+        // EN 1993-1-1 §1.6 symbols: Wel,y / Wpl,y about the major (horizontal y) axis,
+        // Iy, Iz second moments, IT and Iw the torsion and warping constants.
+        let sym = |path: &str, n: Notation| {
+            QUANTITIES
+                .iter()
+                .find(|q| q.path == path)
+                .unwrap()
+                .symbol_in(n)
+        };
+        assert_eq!(sym("elastic_modulus.x_top", Notation::Xy), "Sx,top");
+        assert_eq!(sym("elastic_modulus.x_top", Notation::Yz), "Wel,y,top");
+        assert_eq!(sym("plastic_modulus.x", Notation::Yz), "Wpl,y");
+        assert_eq!(sym("inertia.yy", Notation::Yz), "Iz");
+        assert_eq!(sym("torsion.cw", Notation::Yz), "Iw");
+        assert_eq!(sym("area", Notation::Yz), "A");
     }
 }

@@ -13,7 +13,6 @@ use super::CAUTION;
 use crate::analysis::Analysis;
 use crate::geom::contour::clip_line;
 use crate::geom::{Contour, Pt, Seg};
-use crate::numfmt::sig;
 use crate::text::xml;
 use std::f64::consts::FRAC_PI_2;
 
@@ -111,7 +110,7 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
     // the caution.
     let height = bottom + DIM_GAP + 120.0;
     let l = u.length.name();
-    let val = |x: f64| sig(u.geo(x, 1), FIGURES);
+    let val = |x: f64| u.num(u.geo(x, 1), FIGURES);
     let mut s = String::new();
     s.push_str(&format!(
         "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" font-family=\"sans-serif\" font-size=\"12\">\n",

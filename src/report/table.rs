@@ -1,9 +1,8 @@
 //! The aligned, unit-labelled table that `kern calc` prints for people.
 
 use super::out::OutUnits;
-use super::rows::{rows, Row};
+use super::rows::{rows, Notation, Row};
 use crate::analysis::Analysis;
-use crate::numfmt::sig;
 use crate::text::clean;
 
 /// Significant figures shown in tables.
@@ -47,13 +46,16 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
             "  holes present: each group says its section — gross (holes left out) or net (holes subtracted)\n",
         );
     }
+    if u.notation == Notation::Yz {
+        s.push_str(&format!("  axes and symbols: {}\n", u.notation.note()));
+    }
     let rs = rows(a, u);
     // Symbols may hold part names (a joint's): cleaned like every text from the file.
     let syms: Vec<String> = rs.iter().map(|r| clean(&r.symbol)).collect();
     let wsym = syms.iter().map(|s| s.chars().count()).max().unwrap_or(0);
     let vals: Vec<String> = rs
         .iter()
-        .map(|r| r.value.map_or("—".into(), |v| sig(v, FIGURES)))
+        .map(|r| r.value.map_or("—".into(), |v| u.num(v, FIGURES)))
         .collect();
     let wval = vals.iter().map(|v| v.chars().count()).max().unwrap_or(0);
     let heads = group_heads(&rs, a.net.is_some());

@@ -288,6 +288,7 @@ impl App {
     /// Output units of the results.
     pub fn units(&self) -> OutUnits {
         OutUnits::new(self.analysis.section.units, self.config.units)
+            .written(self.config.numbers, self.config.notation)
     }
 
     /// The columns of the parts table.

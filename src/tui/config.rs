@@ -8,11 +8,15 @@
 //! coarse_step = 25      # step of } and {
 //! ascii = false         # plain-ASCII borders and drawing for bare terminals
 //! colour = true         # false (or the NO_COLOR variable) draws without colours
+//! numbers = "engineering"  # engineering (13 800, 687.0×10⁶), scientific (6.870e8) or plain
+//! notation = "xy"       # xy: Sx, Zx, Ixx about x–y; yz: Wel,y, Wpl,y, Iy about y–z
 //! [colours]             # any of: accent solid void selected centroid axes neutral kern shear warning
 //! solid = "cyan"        # a colour name or #rrggbb
 //! ```
 
 use crate::model::units::LengthUnit;
+use crate::numfmt::Numbers;
+use crate::report::rows::Notation;
 use ratatui::style::Color;
 use std::path::PathBuf;
 use std::str::FromStr;
@@ -26,6 +30,10 @@ pub struct Config {
     pub steps: [f64; 3],
     pub ascii: bool,
     pub colour: bool,
+    /// The form of numbers in the results.
+    pub numbers: Numbers,
+    /// The letters of moduli and axes in the results.
+    pub notation: Notation,
     /// Colour overrides by role name.
     pub colours: Vec<(String, Color)>,
 }
@@ -37,6 +45,8 @@ impl Default for Config {
             steps: [1.0, 5.0, 25.0],
             ascii: false,
             colour: true,
+            numbers: Numbers::default(),
+            notation: Notation::default(),
             colours: Vec::new(),
         }
     }
@@ -97,6 +107,14 @@ impl Config {
                 "coarse_step" => c.steps[2] = num()?,
                 "ascii" => c.ascii = flag()?,
                 "colour" | "color" => c.colour = flag()?,
+                "numbers" => {
+                    let n = item.as_str().and_then(Numbers::parse);
+                    c.numbers = n.ok_or(format!("`numbers` must be one of {}", Numbers::NAMES))?;
+                }
+                "notation" => {
+                    let n = item.as_str().and_then(Notation::parse);
+                    c.notation = n.ok_or(format!("`notation` must be {}", Notation::NAMES))?;
+                }
                 "colours" | "colors" => {
                     let t = item.as_table_like().ok_or("`colours` must be a table")?;
                     for (role, v) in t.iter() {
@@ -138,6 +156,10 @@ mod tests {
             vec![("solid".to_string(), Color::Rgb(255, 0, 0))]
         );
         assert!(Config::parse("stpe = 3").is_err());
+        let c = Config::parse("numbers = \"plain\"\nnotation = \"yz\"").unwrap();
+        assert_eq!((c.numbers, c.notation), (Numbers::Plain, Notation::Yz));
+        assert!(Config::parse("numbers = \"sci\"").is_err());
+        assert!(Config::parse("notation = \"eu\"").is_err());
         assert!(Config::parse("step = -1").is_err());
         assert_eq!(Config::parse("").unwrap(), Config::default());
     }

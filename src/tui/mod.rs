@@ -18,6 +18,8 @@ pub mod views;
 pub mod worker;
 
 use crate::file::input::{read_text, ReadError};
+use crate::numfmt::Numbers;
+use crate::report::rows::Notation;
 use app::{App, Mode, Solver};
 use config::Config;
 use crossterm::event::{self, Event, KeyEvent, KeyEventKind};
@@ -59,8 +61,9 @@ pub fn starter(path: &std::path::Path) -> String {
 const SOLVE_POLL: Duration = Duration::from_millis(100);
 
 /// Opens the workbench on `path` (the demo if `None`); returns the exit status: 2 for a
-/// file that cannot be read or is not a valid section, as `kern calc` says it.
-pub fn run(path: Option<PathBuf>) -> i32 {
+/// file that cannot be read or is not a valid section, as `kern calc` says it. The form
+/// of numbers and the notation, when given, override the config file's.
+pub fn run(path: Option<PathBuf>, numbers: Option<Numbers>, notation: Option<Notation>) -> i32 {
     let mut new_file = None;
     let text = match &path {
         None => DEMO.to_string(),
@@ -76,7 +79,9 @@ pub fn run(path: Option<PathBuf>) -> i32 {
             }
         },
     };
-    let (config, config_err) = Config::load();
+    let (mut config, config_err) = Config::load();
+    config.numbers = numbers.unwrap_or(config.numbers);
+    config.notation = notation.unwrap_or(config.notation);
     let mut app = match App::new(
         text.clone(),
         path.clone(),

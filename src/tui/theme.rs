@@ -169,18 +169,27 @@ impl Theme {
     }
 
     /// `s` as drawn: unchanged, or in ASCII mode with superscripts, Greek letters and
-    /// other symbols spelled out (`mm⁴` → `mm^4`, `x̄` → `xc`).
+    /// other symbols spelled out (`mm⁴` → `mm^4`, `x̄` → `xc`, `687.0×10⁶` → `687.0x10^6`).
     pub fn text(&self, s: &str) -> String {
         if !self.ascii {
             return s.to_string();
         }
+        const SUPERSCRIPTS: &str = "⁰¹²³⁴⁵⁶⁷⁸⁹⁻";
         let mut out = String::with_capacity(s.len());
+        let mut raised = false;
         for c in s.chars() {
+            // A run of superscripts is one power: `10⁻⁶` → `10^-6`.
+            if let Some(i) = SUPERSCRIPTS.chars().position(|x| x == c) {
+                if !raised {
+                    out.push('^');
+                }
+                out.push(char::from(b"0123456789-"[i]));
+                raised = true;
+                continue;
+            }
+            raised = false;
             match c {
-                '²' => out.push_str("^2"),
-                '³' => out.push_str("^3"),
-                '⁴' => out.push_str("^4"),
-                '⁶' => out.push_str("^6"),
+                '\u{202f}' | '\u{2009}' => out.push(' '),
                 '\u{304}' => out.push('c'),
                 'ȳ' => out.push_str("yc"),
                 'θ' => out.push_str("theta"),
