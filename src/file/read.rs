@@ -7,8 +7,8 @@ use crate::model::document::ActionsDoc;
 use crate::model::schema::{shape_names, ShapeKind, SPECS};
 use crate::model::units::LengthUnit;
 use crate::model::{
-    Anchor, Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, StringMaps, Val,
-    Value,
+    Anchor, Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, SheetDoc, Span,
+    StringMaps, Val, Value,
 };
 use std::cell::{Cell, RefCell};
 use toml_edit::{ImDocument, Item, TableLike};
@@ -22,6 +22,7 @@ const TOP_KEYS: &[&str] = &[
     "parts",
     "actions",
     "member",
+    "sheet",
 ];
 const PART_KEYS: &[&str] = &[
     "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "hole", "enabled",
@@ -29,6 +30,9 @@ const PART_KEYS: &[&str] = &[
 ];
 const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density", "G", "nu"];
 const ACTION_KEYS: &[&str] = &["N", "Mx", "My", "Vx", "Vy", "T"];
+const SHEET_KEYS: &[&str] = &[
+    "project", "job", "element", "by", "checked", "date", "revision",
+];
 const MEMBER_KEYS: &[&str] = &[
     "span",
     "support",
@@ -162,6 +166,10 @@ fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Docume
         None => None,
         Some(item) => Some(r.member(r.table(item, "member", 0..1)?, span(item, 0..1))?),
     };
+    let sheet = match root.get("sheet") {
+        None => None,
+        Some(item) => Some(r.sheet(r.table(item, "sheet", 0..1)?, span(item, 0..1))?),
+    };
     Ok(Document {
         title,
         units,
@@ -171,6 +179,7 @@ fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Docume
         parts,
         actions,
         member,
+        sheet,
         string_maps: r.maps.into_inner(),
     })
 }
@@ -586,6 +595,21 @@ remove `void = false` or set `hole = false`",
             enabled: self.opt_bool(t, "enabled", true, sp.clone())?,
             material: self.opt_str(t, "material", sp.clone())?,
             span: sp,
+        })
+    }
+
+    /// `[sheet]`: every field an optional string.
+    fn sheet(&self, t: &dyn TableLike, sp: Span) -> Result<SheetDoc, Diagnostic> {
+        self.known_keys(t, SHEET_KEYS, "[sheet]", sp.clone())?;
+        let f = |key: &str| self.opt_str(t, key, sp.clone());
+        Ok(SheetDoc {
+            project: f("project")?,
+            job: f("job")?,
+            element: f("element")?,
+            by: f("by")?,
+            checked: f("checked")?,
+            date: f("date")?,
+            revision: f("revision")?,
         })
     }
 
