@@ -1,8 +1,11 @@
 //! `kern svg`: the section drawn to scale as a self-contained SVG image — every
 //! enabled part's exact outline (circular arcs as SVG arcs), voids hatched with a dashed
-//! outline, the overall width and depth dimensioned, the centroid, the principal axes,
-//! the shear centre when torsion is known, the kern, the neutral axis under the
-//! actions, a legend and the caution.
+//! outline, the overall width and depth dimensioned, each part's own sizes (chains of
+//! the parts' edges above and left of the section, the holes' centres in an outer
+//! chain, each round hole's diameter beside it, the parts numbered and listed with
+//! their dimensions below), the centroid, the principal axes, the shear centre when
+//! torsion is known, the kern, the neutral axis under the actions, a legend and the
+//! caution.
 //!
 //! The file's y axis points up; SVG's points down, so every y is flipped. Coordinates
 //! are written with two decimals, so the same section always gives the same bytes.
