@@ -11,6 +11,7 @@ pub mod sweep;
 
 use crate::analysis::{Analysis, Options};
 pub use crate::file::load::{diagnostic_line, load, say};
+use crate::file::save::{save, Overwrite, SaveError};
 use crate::model::units::LengthUnit;
 use crate::numfmt::Numbers;
 pub use crate::parallel::parallel_map;
@@ -145,14 +146,35 @@ pub fn report(args: &ReportArgs) -> i32 {
         }
     };
     let u = OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
-    let blocks = markdown::blocks(&args.file.display().to_string(), &a, &u);
-    let text = if args.html {
+    let mut blocks = markdown::blocks(&args.file.display().to_string(), &a, &u);
+    let picture = drawing::drawing(&a, &u);
+    if args.html {
         let title = a.section.title.as_deref().unwrap_or("(untitled section)");
-        html::page(title, &blocks, &drawing::drawing(&a, &u))
-    } else {
-        crate::report::blocks::markdown(&blocks)
-    };
-    emit(args.out.as_deref(), &text)
+        return emit(args.out.as_deref(), &html::page(title, &blocks, &picture));
+    }
+    // A Markdown sheet written to a file gets its drawing beside it, linked by name;
+    // the drawing is written first, so the link never points at nothing.
+    if let Some(out) = args.out.as_deref() {
+        let svg = out.with_extension("svg");
+        if svg == out {
+            say(&clean(&format!(
+                "{}: a Markdown sheet cannot be named .svg (its drawing is written beside it \
+under that name); name it .md",
+                out.display()
+            )));
+            return 1;
+        }
+        let status = emit(Some(&svg), &picture);
+        if status != 0 {
+            return status;
+        }
+        let name = svg.file_name().map(|n| n.to_string_lossy().into_owned());
+        crate::report::blocks::link_drawing(&mut blocks, &name.unwrap_or_default());
+    }
+    emit(
+        args.out.as_deref(),
+        &crate::report::blocks::markdown(&blocks),
+    )
 }
 
 /// `kern svg`: the drawing of one file, to `out` or stdout, labelled in `units` (the
@@ -176,12 +198,26 @@ pub fn svg(
     }
 }
 
-/// Writes `text` to the file `out`, or to stdout; a failure to write is status 1.
+/// Writes `text` to the file `out` (an atomic, secure save: [`save`]), or to stdout; a
+/// failure to write is status 1. A read-only file is refused, never replaced.
 fn emit(out: Option<&Path>, text: &str) -> i32 {
     match out {
         None => print_out(text),
-        Some(p) => match std::fs::write(p, text) {
-            Ok(()) => 0,
+        Some(p) => match save(p, text, Overwrite::Writable) {
+            Ok(saved) => {
+                if let Some(w) = saved.warning {
+                    say(&clean(&format!("{}: {w}", p.display())));
+                }
+                0
+            }
+            Err(SaveError::ReadOnly(_)) => {
+                say(&clean(&format!(
+                    "{}: the file is read-only; kern does not replace it (make it writable or \
+choose another name with -o)",
+                    p.display()
+                )));
+                1
+            }
             Err(e) => {
                 say(&clean(&format!(
                     "{}: cannot write the file: {e}",

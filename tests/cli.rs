@@ -377,4 +377,56 @@ fn numbers_and_notation_change_the_table_and_never_the_json() {
     let bad = kern(&["calc", f, "--numbers", "pretty"]);
     assert_eq!(bad.status.code(), Some(2), "clap's usage error");
     assert!(String::from_utf8_lossy(&bad.stderr).contains("engineering, scientific or plain"));
+/// `kern report FILE -o sheet.md` writes the drawing beside the sheet as sheet.svg and
+/// links it; stdout keeps the mark and says where the drawing goes; HTML holds it
+/// inline. A Markdown sheet named .svg is refused (it would be its own drawing).
+#[test]
+fn report_writes_its_drawing_beside_the_sheet() {
+    let d = scratch("report-drawing");
+    let md = d.join("sheet.md");
+    let f = "sections/loading-bay-beam.toml";
+    let out = kern(&["report", f, "--no-torsion", "-o", &md.to_string_lossy()]);
+    assert!(out.status.success(), "{out:?}");
+    let sheet = std::fs::read_to_string(&md).unwrap();
+    let svg = std::fs::read_to_string(d.join("sheet.svg")).unwrap();
+    assert!(sheet.contains("![The section drawn to scale](sheet.svg)"));
+    assert!(!sheet.contains("<!-- drawing -->"));
+    assert!(svg.starts_with("<svg") && svg.contains("Caution"));
+    let stdout = kern(&["report", f, "--no-torsion"]);
+    let stdout = String::from_utf8_lossy(&stdout.stdout);
+    assert!(stdout.contains("<!-- drawing -->") && stdout.contains("-o sheet.md"));
+    let html = d.join("sheet.html");
+    let out = kern(&[
+        "report",
+        f,
+        "--no-torsion",
+        "--html",
+        "-o",
+        &html.to_string_lossy(),
+    ]);
+    assert!(out.status.success());
+    assert!(std::fs::read_to_string(&html).unwrap().contains("<svg"));
+    let bad = kern(&[
+        "report",
+        f,
+        "--no-torsion",
+        "-o",
+        &d.join("x.svg").to_string_lossy(),
+    ]);
+    assert_eq!(bad.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&bad.stderr).contains("name it .md"));
+    assert!(!d.join("x.svg").exists());
+    let _ = std::fs::remove_dir_all(d);
+}
+
+/// The calc table's "—" for Mcr of a propped span says why (the method is for a simple
+/// span: Trahair, Flexural-Torsional Buckling of Structures, ch. 7).
+#[test]
+fn calc_says_why_mcr_is_missing() {
+    let out = kern(&["calc", "sections/loading-bay-beam.toml"]);
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(
+        text.contains("note: Mcr —: not computed: the formula is for a simple span"),
+        "{text}"
+    );
 }

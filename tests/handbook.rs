@@ -475,3 +475,55 @@ fn zed_against_its_three_rectangles_and_fillet_spandrels() {
     let theta = (-2.0 * q.ixy).atan2(q.ixx - q.iyy).to_degrees() / 2.0;
     close(q.principal.angle_deg, theta, 1e-11);
 }
+
+// --- Moduli about the principal axes ------------------------------------------------
+// In the principal frame the product of inertia vanishes and the flexure formula is
+// σ = M·v/I about each axis (Gere & Goodno, Mechanics of Materials, §6.5), so the
+// modulus to a fibre is I/(its distance from the axis); the distances below are
+// derived by hand from the outline.
+
+#[test]
+fn principal_moduli_of_a_rotated_rectangle() {
+    // b = 200, h = 100 turned 30°: the principal axes turn with it, I1 = h·b³/12 about
+    // the axis across the long side (at 120°, reported as −60°), the extreme fibres at
+    // b/2 from it; I2 = b·h³/12 with fibres at h/2. So S1 = h·b²/6 and S2 = b·h²/6 on
+    // either side.
+    let a = calc("[[parts]]\nshape = \"rect\"\nb = 200\nh = 100\nrotate = 30\n");
+    let p = &a.props;
+    close(p.principal.angle_deg, -60.0, 1e-12);
+    let s = p.principal_elastic.expect("inclined axes");
+    for (got, want) in [
+        (s.s1_pos, 100.0 * 200.0 * 200.0 / 6.0),
+        (s.s1_neg, 100.0 * 200.0 * 200.0 / 6.0),
+        (s.s2_pos, 200.0 * 100.0 * 100.0 / 6.0),
+        (s.s2_neg, 200.0 * 100.0 * 100.0 / 6.0),
+    ] {
+        close(got, want, 1e-12);
+    }
+    // Not turned: the principal axes are x and y, and the moduli are Sx and Sy.
+    let a = calc("[[parts]]\nshape = \"rect\"\nb = 200\nh = 100\n");
+    assert!(a.props.principal_elastic.is_none());
+}
+
+#[test]
+fn principal_moduli_of_an_equal_angle() {
+    // L 100×100×10 without a root radius. The centroid is at c = (b² + bt − t²)/(2(2b − t))
+    // from each back (first moments of the two legs). Axis 1 is the axis of symmetry
+    // (45°): Ixy < 0, so I(45°) = avg + |Ixy| is the largest. With u along 45° and v
+    // along 135° from the centroid, the toes (b, 0) and (0, b) are at v = ∓b/√2, the
+    // heel at u = −√2·c and the toe tips (b, t), (t, b) at u = (b + t − 2c)/√2.
+    let (b, t) = (100.0_f64, 10.0_f64);
+    let a = calc(&format!(
+        "[[parts]]\nshape = \"angle\"\nh = {b}\nb = {b}\nt = {t}\nanchor = \"origin\"\n"
+    ));
+    let p = &a.props;
+    close(p.principal.angle_deg, 45.0, 1e-12);
+    let c = (b * b + b * t - t * t) / (2.0 * (2.0 * b - t));
+    close(p.centroid.x, c, 1e-12);
+    let s = p.principal_elastic.expect("inclined axes");
+    let r2 = 2f64.sqrt();
+    close(s.s1_pos, p.principal.i1 / (b / r2), 1e-12);
+    close(s.s1_neg, p.principal.i1 / (b / r2), 1e-12);
+    close(s.s2_pos, p.principal.i2 / ((b + t - 2.0 * c) / r2), 1e-12);
+    close(s.s2_neg, p.principal.i2 / (r2 * c), 1e-12);
+}

@@ -913,3 +913,34 @@ proptest! {
         survives(&t);
     }
 }
+
+/// `[sheet]` (docs/format.md "Sheet"): a typo gets the likely key, a value that is not a
+/// string says so, both at the value's line; a file without `[sheet]` stays valid.
+#[test]
+fn sheet_fields_are_checked_like_the_rest() {
+    let body = "[[parts]]\nshape = \"rect\"\nb = 100\nh = 200\n[sheet]\n";
+    expect(
+        &with(&format!("{body}projcet = \"Bay 4\"\n")),
+        8,
+        Some(1),
+        &["projcet", "did you mean `project`"],
+    );
+    expect(
+        &with(&format!("{body}job = 2026\n")),
+        8,
+        Some(7),
+        &["`job` must be a string"],
+    );
+    expect(
+        &with("sheet = 3\n"),
+        3,
+        Some(9),
+        &["`sheet` must be a table"],
+    );
+    let doc = kern::file::read::parse(&with(body)).expect("an empty [sheet] is valid");
+    assert!(doc
+        .sheet
+        .is_some_and(|s| s.fields().iter().all(|f| f.1.is_none())));
+    let old = kern::file::read::parse(&rect("")).expect("no [sheet] is valid");
+    assert!(old.sheet.is_none());
+}

@@ -6,11 +6,14 @@ use kern::report::composite::{terms, totals};
 use kern::report::out::OutUnits;
 use kern::report::{html, markdown, svg, CAUTION};
 
-/// The two sections: the mezzanine girder (three plates) and a lintel with two round
-/// cores (voids with arcs) and a disabled part.
-const FILES: [&str; 2] = [
+/// The three sections: the mezzanine girder (three plates), a lintel with two round
+/// cores (voids with arcs) and a disabled part, and the loading bay's door head beam
+/// (a rolled I with root fillets and a cover plate, a propped span, and a `[sheet]`
+/// header with two fields left blank).
+const FILES: [&str; 3] = [
     "sections/mezzanine-girder.toml",
     "tests/fixtures/cored-lintel.toml",
+    "sections/loading-bay-beam.toml",
 ];
 
 /// Analysed without the torsion solve, so every output is deterministic.
@@ -111,8 +114,9 @@ fn the_caution_is_in_every_output() {
             "{f}: top and bottom of the sheet"
         );
         assert!(drawing.contains(CAUTION), "{f}: svg");
-        // Once in the drawing, twice in the sheet around it.
-        assert_eq!(page.matches(CAUTION).count(), 3, "{f}: html");
+        // Once in the drawing, twice in the sheet around it, once in the printed
+        // pages' footer.
+        assert_eq!(page.matches(CAUTION).count(), 4, "{f}: html");
         assert!(page.contains("<svg") && !page.contains(markdown::DRAWING_MARK));
     }
 }
@@ -262,4 +266,83 @@ fn markup_in_names_stays_text() {
     assert!(page.contains("**web** `x`"), "name shown as written");
     assert!(!page.contains("<strong>web"));
     assert!(kern::report::blocks::markdown(&b).contains("\\*\\*web\\*\\* \\`x\\`"));
+}
+
+/// The header from `[sheet]`: given fields as written, missing ones a line to fill in
+/// by hand, in both writers; markup in a field stays text (escaped in Markdown and
+/// HTML alike).
+#[test]
+fn the_sheet_opens_with_its_header() {
+    let text = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("sections/loading-bay-beam.toml"),
+    )
+    .expect("fixture readable")
+    .replace("Door head beam DH1", "<b>DH1</b> | **x**\\u001b[31m");
+    let a = kern::file::load::analyse(&text, &Options::default()).expect("valid");
+    let u = units(&a);
+    let b = markdown::blocks("bay", &a, &u);
+    let md = kern::report::blocks::markdown(&b);
+    let head: Vec<&str> = md.lines().take(5).collect();
+    assert_eq!(
+        head[0], "| **Project** | Loading bay, unit 4 | **Job no.** | 2026-014 |",
+        "{md}"
+    );
+    assert!(
+        head[2].contains("&lt;b&gt;DH1&lt;/b&gt; \\| \\*\\*x\\*\\*"),
+        "{}",
+        head[2]
+    );
+    assert!(!md.contains('\u{1b}'));
+    assert!(
+        head[2].contains("**Revision** | \\_\\_"),
+        "blank: {}",
+        head[2]
+    );
+    assert!(
+        head[3].contains("**Checked** | \\_\\_"),
+        "blank: {}",
+        head[3]
+    );
+    assert!(
+        head[4].starts_with("| **Date** | 2026-12-02 |"),
+        "{}",
+        head[4]
+    );
+    let page = html::page("t", &b, "");
+    assert!(page.contains("<th>Element</th><td>&lt;b&gt;DH1&lt;/b&gt; | **x**"));
+    assert!(page.contains("<th>Checked</th><td class=\"fill\"></td>"));
+    assert!(!page.contains("<b>") && !page.contains('\u{1b}'));
+    // A file without [sheet] gets every line blank.
+    let a = analyse("tests/fixtures/cored-lintel.toml");
+    let md = markdown::sheet("l", &a, &units(&a));
+    assert_eq!(md.lines().next().unwrap().matches(" | \\_").count(), 2);
+}
+
+/// The moduli about the principal axes reach every view of an inclined section (the
+/// JSON under `principal_modulus`, the rows every table renders from) and none of a
+/// section whose principal axes are x and y.
+#[test]
+fn principal_moduli_in_every_view() {
+    let text =
+        "format = 1\nunits = \"mm\"\n[[parts]]\nshape = \"angle\"\nh = 150\nb = 90\nt = 10\n";
+    let a = kern::file::load::analyse(text, &Options::default()).expect("valid");
+    let u = units(&a);
+    let j = kern::report::json::to_json("l", &a, &u);
+    let s = &a.props.principal_elastic.expect("inclined");
+    // The JSON gives the core's value unchanged in the file's unit.
+    assert_eq!(j["principal_modulus"]["s2_neg"].as_f64(), Some(s.s2_neg));
+    let rows = kern::report::rows::rows(&a, &u);
+    let syms: Vec<&str> = rows.iter().map(|r| r.symbol.as_str()).collect();
+    let at = syms.iter().position(|s| *s == "S1,+").expect("row S1,+");
+    assert_eq!(&syms[at..at + 4], ["S1,+", "S1,−", "S2,+", "S2,−"]);
+    assert_eq!(
+        rows[at - 1].group,
+        "Elastic moduli",
+        "beside the elastic moduli"
+    );
+    assert!(kern::report::table::to_table("l", &a, &u).contains("S2,−"));
+    assert!(markdown::sheet("l", &a, &u).contains("S2,−"));
+    let g = analyse("sections/mezzanine-girder.toml");
+    let j = kern::report::json::to_json("g", &g, &units(&g));
+    assert!(j.get("principal_modulus").is_none());
 }

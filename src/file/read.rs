@@ -7,8 +7,8 @@ use crate::model::document::{ActionsDoc, LimitsDoc};
 use crate::model::schema::{shape_names, ShapeKind, SPECS};
 use crate::model::units::LengthUnit;
 use crate::model::{
-    Anchor, Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, Span, StringMaps, Val,
-    Value,
+    Anchor, Diagnostic, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, SheetDoc, Span,
+    StringMaps, Val, Value,
 };
 use std::cell::{Cell, RefCell};
 use toml_edit::{ImDocument, Item, TableLike};
@@ -23,6 +23,7 @@ const TOP_KEYS: &[&str] = &[
     "actions",
     "member",
     "limits",
+    "sheet",
 ];
 const PART_KEYS: &[&str] = &[
     "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "hole", "enabled",
@@ -31,6 +32,9 @@ const PART_KEYS: &[&str] = &[
 const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density", "G", "nu"];
 const ACTION_KEYS: &[&str] = &["N", "Mx", "My", "Vx", "Vy", "T"];
 const LIMIT_KEYS: &[&str] = &["utilization", "deflection_limit", "min", "max"];
+const SHEET_KEYS: &[&str] = &[
+    "project", "job", "element", "by", "checked", "date", "revision",
+];
 const MEMBER_KEYS: &[&str] = &[
     "span",
     "support",
@@ -168,6 +172,10 @@ fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Docume
         None => None,
         Some(item) => Some(r.limits(r.table(item, "limits", 0..1)?, span(item, 0..1))?),
     };
+    let sheet = match root.get("sheet") {
+        None => None,
+        Some(item) => Some(r.sheet(r.table(item, "sheet", 0..1)?, span(item, 0..1))?),
+    };
     Ok(Document {
         limits,
         title,
@@ -178,6 +186,7 @@ fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Docume
         parts,
         actions,
         member,
+        sheet,
         string_maps: r.maps.into_inner(),
     })
 }
@@ -652,6 +661,21 @@ remove `void = false` or set `hole = false`",
             }
         }
         Ok(())
+    }
+
+    /// `[sheet]`: every field an optional string.
+    fn sheet(&self, t: &dyn TableLike, sp: Span) -> Result<SheetDoc, Diagnostic> {
+        self.known_keys(t, SHEET_KEYS, "[sheet]", sp.clone())?;
+        let f = |key: &str| self.opt_str(t, key, sp.clone());
+        Ok(SheetDoc {
+            project: f("project")?,
+            job: f("job")?,
+            element: f("element")?,
+            by: f("by")?,
+            checked: f("checked")?,
+            date: f("date")?,
+            revision: f("revision")?,
+        })
     }
 
     fn member(&self, t: &dyn TableLike, sp: Span) -> Result<MemberDoc, Diagnostic> {

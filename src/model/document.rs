@@ -115,6 +115,39 @@ pub struct LimitsDoc {
     pub max: Vec<(String, Span, Val)>,
 }
 
+/// `[sheet]`: the calculation sheet's header, each field as written (a string) with its
+/// place in the file; a field not given is `None` and the sheet leaves a line to fill in.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct SheetDoc {
+    pub project: Option<(String, Span)>,
+    /// The job number, as written (it may hold letters: "2026-014/B").
+    pub job: Option<(String, Span)>,
+    pub element: Option<(String, Span)>,
+    pub by: Option<(String, Span)>,
+    pub checked: Option<(String, Span)>,
+    pub date: Option<(String, Span)>,
+    pub revision: Option<(String, Span)>,
+}
+
+impl SheetDoc {
+    /// The keys of `[sheet]` in the order the header shows them, with their labels and
+    /// values.
+    pub fn fields(&self) -> [(&'static str, Option<&str>); 7] {
+        fn v(f: &Option<(String, Span)>) -> Option<&str> {
+            f.as_ref().map(|(s, _)| s.as_str())
+        }
+        [
+            ("Project", v(&self.project)),
+            ("Job no.", v(&self.job)),
+            ("Element", v(&self.element)),
+            ("Revision", v(&self.revision)),
+            ("By", v(&self.by)),
+            ("Checked", v(&self.checked)),
+            ("Date", v(&self.date)),
+        ]
+    }
+}
+
 /// Where the text of string values stands in the file, for each string whose value is
 /// not simply the bytes between one pair of quotes (escapes such as `\t` or `\u00e9`,
 /// multi-line strings): keyed by the start of the string's span, checkpoints
@@ -136,6 +169,8 @@ pub struct Document {
     pub member: Option<MemberDoc>,
     /// `[limits]`, for `kern check`.
     pub limits: Option<LimitsDoc>,
+    /// `[sheet]`, the calculation sheet's header (absent in older files).
+    pub sheet: Option<SheetDoc>,
     /// Positions of the strings with escapes or line breaks, for error columns.
     pub string_maps: StringMaps,
 }

@@ -19,7 +19,8 @@ pub mod warning;
 pub use anchor::Anchor;
 pub use diag::{Diagnostic, Span};
 pub use document::{
-    ActionsDoc, Document, LimitsDoc, MaterialDoc, MemberDoc, PartDoc, PointDoc, StringMaps, Val,
+    ActionsDoc, Document, LimitsDoc, MaterialDoc, MemberDoc, PartDoc, PointDoc, SheetDoc,
+    StringMaps, Val,
     Value,
 };
 pub use loads::{Actions, Support};

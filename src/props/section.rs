@@ -7,6 +7,7 @@
 use super::cubic::Cubic;
 use super::plastic::{plastic_axis_x, plastic_axis_y, Weighted};
 use super::principal::Principal;
+use crate::geom::contour::{union_bounds, Turn};
 use crate::geom::moments::{Centroidal, Moments};
 use crate::geom::BoundaryIntegral;
 use crate::geom::{solid_bounds, Contour, Piece, Pt};
@@ -19,6 +20,43 @@ pub struct Elastic {
     pub x_bottom: f64,
     pub y_left: f64,
     pub y_right: f64,
+}
+
+/// Elastic section moduli about the principal axes, to the extreme fibres in the
+/// principal frame. With the centroid as origin, `u` along axis 1 (at θ from +x) and
+/// `v` along axis 2 (at θ + 90°), bending about axis 1 gives σ = M₁·v/I₁ and about axis
+/// 2 σ = M₂·u/I₂ (the flexure formula in the principal frame, where the product of
+/// inertia vanishes: Gere & Goodno, Mechanics of Materials, §6.5), so
+/// `s1_pos = I₁/v_max`, `s1_neg = I₁/(−v_min)`, `s2_pos = I₂/u_max`, `s2_neg = I₂/(−u_min)`
+/// over the solid material's outline (arcs exact).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PrincipalElastic {
+    pub s1_pos: f64,
+    pub s1_neg: f64,
+    pub s2_pos: f64,
+    pub s2_neg: f64,
+}
+
+impl PrincipalElastic {
+    /// The moduli of the solid `pieces` (contours about the same origin as the
+    /// centroid `c`) about the principal axes `p`.
+    fn of(pieces: &[Piece], local: &[Vec<Contour>], c: Pt, p: &Principal) -> Option<Self> {
+        let turn = Turn::degrees(-p.angle_deg);
+        let back = Pt::new(-c.x, -c.y);
+        let [umin, umax, vmin, vmax] = pieces
+            .iter()
+            .zip(local)
+            .filter(|(q, _)| !q.void)
+            .flat_map(|(_, cs)| cs.iter().flat_map(|k| &k.segs))
+            .map(|s| s.shifted(back).moved(turn, Pt::new(0.0, 0.0)).bounds())
+            .reduce(union_bounds)?;
+        Some(PrincipalElastic {
+            s1_pos: p.i1 / vmax,
+            s1_neg: p.i1 / -vmin,
+            s2_pos: p.i2 / umax,
+            s2_neg: p.i2 / -umin,
+        })
+    }
 }
 
 /// Plastic moduli about the plastic neutral axes parallel to x (`zx`, at height `y`)
@@ -52,6 +90,9 @@ pub struct Properties {
     pub ixy: f64,
     pub principal: Principal,
     pub elastic: Elastic,
+    /// About the principal axes; `None` when they are the x and y axes (θ = 0° or
+    /// 90°: the moduli are those of `elastic`).
+    pub principal_elastic: Option<PrincipalElastic>,
     pub plastic: Option<Plastic>,
     pub gyration: Gyration,
     /// Third moments about the centroid (`∫(x−x̄)³ dA`…), for the monosymmetry constants.
@@ -129,6 +170,9 @@ impl Properties {
             y_left: iyy / (cx - lb[0]),
             y_right: iyy / (lb[1] - cx),
         };
+        let principal_elastic = (principal.angle_deg != 0.0 && principal.angle_deg != 90.0)
+            .then(|| PrincipalElastic::of(pieces, &local, Pt::new(cx, cy), &principal))
+            .flatten();
         let weighted: Vec<Weighted> = pieces
             .iter()
             .zip(&local)
@@ -167,6 +211,7 @@ impl Properties {
             ixy,
             principal,
             elastic,
+            principal_elastic,
             plastic,
             gyration: Gyration {
                 x: (ixx / area).sqrt(),

@@ -45,18 +45,57 @@ pub enum Block {
         head: Vec<Line>,
         body: Vec<Vec<Line>>,
     },
-    /// Where the drawing goes (the HTML page holds it inline).
-    Drawing,
+    /// The sheet's header (project, job, element, by, checked, date, revision): each
+    /// label with the file's text, or `None` for a line to fill in by hand.
+    Header(Vec<(&'static str, Option<String>)>),
+    /// Where the drawing goes: the HTML page holds it inline; Markdown links the
+    /// image file named here, or marks the place with [`DRAWING_MARK`] when there is none.
+    Drawing(Option<String>),
 }
 
 /// The line where the Markdown sheet marks the drawing (an HTML comment, invisible in
 /// Markdown).
 pub const DRAWING_MARK: &str = "<!-- drawing -->";
 
+/// The sheet with its drawing linked as the image file `svg` (a name relative to the
+/// sheet), in place of the mark.
+pub fn link_drawing(blocks: &mut [Block], svg: &str) {
+    for b in blocks {
+        if let Block::Drawing(d) = b {
+            *d = Some(svg.to_string());
+        }
+    }
+}
+
+/// What a blank header field shows in Markdown: a line to write on (escaped
+/// underscores, so no emphasis starts).
+const FILL_MD: &str = "\\_\\_\\_\\_\\_\\_\\_\\_\\_\\_\\_\\_\\_\\_\\_\\_";
+
+/// The header's fields two to a row: `[label, value, label, value]`.
+pub fn header_rows(
+    fields: &[(&'static str, Option<String>)],
+) -> Vec<Vec<(&'static str, Option<String>)>> {
+    fields.chunks(2).map(<[_]>::to_vec).collect()
+}
+
 /// User text in a Markdown code span: cleaned, with no backtick to end the span
 /// early and `|` escaped for table cells (GitHub tables read `\|` inside code too).
 fn md_code(t: &str) -> String {
     format!("`{}`", clean(t).replace('`', "'").replace('|', "\\|"))
+}
+
+/// A relative file name as a Markdown link target: cleaned, with every character
+/// outside a safe set percent-encoded (so no `)` or space ends the link early).
+fn md_link(t: &str) -> String {
+    let mut out = String::new();
+    for b in clean(t).bytes() {
+        if b.is_ascii_alphanumeric() || b"-_./~".contains(&b) {
+            out.push(b as char);
+        } else {
+            out.push_str(&format!("%{b:02X}"));
+        }
+    }
+    out
 }
 
 /// A line in Markdown.
@@ -103,7 +142,32 @@ pub fn markdown(blocks: &[Block]) -> String {
                     s.push_str(&row(r));
                 }
             }
-            Block::Drawing => s.push_str(&format!("{DRAWING_MARK}\n")),
+            Block::Header(fields) => {
+                let cell = |(label, value): &(&str, Option<String>)| {
+                    let v = value
+                        .as_deref()
+                        .map_or(FILL_MD.to_string(), crate::text::markdown);
+                    format!("**{label}** | {v}")
+                };
+                for (i, r) in header_rows(fields).iter().enumerate() {
+                    let mut cells: Vec<String> = r.iter().map(cell).collect();
+                    if cells.len() == 1 {
+                        cells.push(" | ".into());
+                    }
+                    s.push_str(&format!("| {} |\n", cells.join(" | ")));
+                    if i == 0 {
+                        s.push_str("|---|---|---|---|\n");
+                    }
+                }
+            }
+            Block::Drawing(None) => s.push_str(&format!(
+                "{DRAWING_MARK}\n*The drawing is not in this text: `kern report FILE -o sheet.md` \
+writes it beside the sheet as sheet.svg, and `kern svg FILE` draws it alone.*\n"
+            )),
+            Block::Drawing(Some(file)) => s.push_str(&format!(
+                "![The section drawn to scale]({})\n",
+                md_link(file)
+            )),
         }
         parts.push(s);
     }

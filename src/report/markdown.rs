@@ -20,6 +20,7 @@ use crate::geom::resolve::DEFAULT_NU;
 use crate::geom::Shape;
 use crate::geom::ShearModulus;
 use crate::model::units::{display_unit, Kind};
+use crate::model::SheetDoc;
 use crate::numfmt::sig;
 
 pub use super::blocks::DRAWING_MARK;
@@ -33,6 +34,7 @@ pub fn sheet(file: &str, a: &Analysis, u: &OutUnits) -> String {
 pub fn blocks(file: &str, a: &Analysis, u: &OutUnits) -> Vec<Block> {
     let mut s = Vec::new();
     let title = a.section.title.as_deref().unwrap_or("(untitled section)");
+    s.push(Block::Header(header(a.document.sheet.as_ref())));
     s.push(Block::Heading(1, user(title)));
     s.push(Block::Para(vec![
         Span::Own("Calculation sheet for ".into()),
@@ -48,7 +50,7 @@ pub fn blocks(file: &str, a: &Analysis, u: &OutUnits) -> Vec<Block> {
     ]));
     s.push(Block::Quote(own(CAUTION)));
     inputs(&mut s, a, u);
-    s.push(Block::Drawing);
+    s.push(Block::Drawing(None));
     composite(&mut s, a, u);
     results(&mut s, a, u);
     checks(&mut s, a, u);
@@ -65,9 +67,20 @@ pub fn blocks(file: &str, a: &Analysis, u: &OutUnits) -> Vec<Block> {
     s
 }
 
+/// The header's fields from `[sheet]`, every one present (`None` to fill in by hand).
+fn header(sheet: Option<&SheetDoc>) -> Vec<(&'static str, Option<String>)> {
+    sheet
+        .cloned()
+        .unwrap_or_default()
+        .fields()
+        .iter()
+        .map(|(label, v)| (*label, v.map(str::to_string)))
+        .collect()
+}
+
 /// A number as an input is usually written: up to 6 significant figures, trailing
 /// zeros dropped.
-fn plain(x: f64) -> String {
+pub(super) fn plain(x: f64) -> String {
     let s = sig(x, 6);
     if s.contains('.') && !s.contains('e') {
         s.trim_end_matches('0').trim_end_matches('.').to_string()
@@ -96,7 +109,7 @@ fn cells(v: Vec<String>) -> Vec<Line> {
 
 /// The dimensions of a shape, `key = value` in the output length unit (a polygon's
 /// corners as `(x, y)`).
-fn dimensions(shape: &Shape, u: &OutUnits) -> String {
+pub(super) fn dimensions(shape: &Shape, u: &OutUnits) -> String {
     let l = |x: f64| plain(u.geo(x, 1));
     if let Shape::Polygon { points } = shape {
         return points

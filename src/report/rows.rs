@@ -227,12 +227,13 @@ pub fn net_view(a: &Analysis) -> Option<Analysis> {
 }
 
 /// Display order of the groups in the views.
-pub const GROUPS: [&str; 13] = [
+pub const GROUPS: [&str; 14] = [
     "Area",
     "Centroid",
     "Second moments",
     "Principal axes",
     "Elastic moduli",
+    "Principal moduli",
     "Plastic moduli",
     "Radii of gyration",
     "Net section",
@@ -245,6 +246,13 @@ pub const GROUPS: [&str; 13] = [
 
 fn num(x: f64) -> Cell {
     Cell::Num(x)
+}
+/// A modulus about the principal axes, present only when they are inclined to x and y.
+fn principal_modulus(a: &Analysis, f: fn(&crate::props::section::PrincipalElastic) -> f64) -> Cell {
+    a.props
+        .principal_elastic
+        .as_ref()
+        .map_or(Cell::Absent, |s| num(f(s)))
 }
 fn plastic(a: &Analysis, f: fn(&crate::props::Plastic) -> f64) -> Cell {
     a.props.plastic.as_ref().map_or(Cell::Absent, |z| num(f(z)))
@@ -369,6 +377,11 @@ pub static QUANTITIES: &[Quantity] = &[
     Quantity { group: "Member", symbol: "Mcr", meaning: "elastic critical moment (LTB), simple span, load at the shear centre", path: "member.mcr", dim: Dim::Moment, get: |a| member(a, |m| m.mcr.into()) },
     Quantity { group: "Member", symbol: "", meaning: "monosymmetry constant βx used for Mcr", path: "member.beta_x", dim: Dim::Metres, get: |a| member(a, |m| m.beta_x.into()) },
     Quantity { group: "Member", symbol: "", meaning: "the material whose stress governs", path: "member.governing_material", dim: Dim::None, get: |a| member(a, |m| m.governing_material.clone().map_or(Cell::Absent, Cell::Text)) },
+    // Not in FORMAT.md: after its keys in the JSON, beside the elastic moduli in the views.
+    Quantity { group: "Principal moduli", symbol: "S1,+", meaning: "I1 / v_max: about axis 1 to the extreme fibre on the +v side (v along axis 2, at θ + 90°)", path: "principal_modulus.s1_pos", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s1_pos) },
+    Quantity { group: "Principal moduli", symbol: "S1,−", meaning: "I1 / (−v_min): about axis 1 to the extreme fibre on the −v side", path: "principal_modulus.s1_neg", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s1_neg) },
+    Quantity { group: "Principal moduli", symbol: "S2,+", meaning: "I2 / u_max: about axis 2 to the extreme fibre on the +u side (u along axis 1, at θ)", path: "principal_modulus.s2_pos", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s2_pos) },
+    Quantity { group: "Principal moduli", symbol: "S2,−", meaning: "I2 / (−u_min): about axis 2 to the extreme fibre on the −u side", path: "principal_modulus.s2_neg", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s2_neg) },
 ];
 
 /// One result as the views show it.

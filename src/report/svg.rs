@@ -1,17 +1,23 @@
 //! `kern svg`: the section drawn to scale as a self-contained SVG image — every
 //! enabled part's exact outline (circular arcs as SVG arcs), voids hatched with a dashed
-//! outline, the overall width and depth dimensioned, the centroid, the principal axes,
-//! the shear centre when torsion is known, the kern, the neutral axis under the
-//! actions, a legend and the caution.
+//! outline, the overall width and depth dimensioned, each part's own sizes (chains of
+//! the parts' edges above and left of the section, the holes' centres in an outer
+//! chain, each round hole's diameter beside it, the parts numbered and listed with
+//! their dimensions below), the centroid, the principal axes, the shear centre when
+//! torsion is known, the kern, the neutral axis under the actions, a legend and the
+//! caution.
 //!
 //! The file's y axis points up; SVG's points down, so every y is flipped. Coordinates
 //! are written with two decimals, so the same section always gives the same bytes.
 
+use super::markdown::{dimensions, plain};
 use super::out::OutUnits;
 use super::table::FIGURES;
 use super::CAUTION;
 use crate::analysis::Analysis;
 use crate::geom::contour::clip_line;
+use crate::geom::moments::Moments;
+use crate::geom::BoundaryIntegral;
 use crate::geom::{Contour, Pt, Seg};
 use crate::text::xml;
 use std::f64::consts::FRAC_PI_2;
@@ -19,10 +25,10 @@ use std::f64::consts::FRAC_PI_2;
 /// Width of the image in px.
 const WIDTH: f64 = 760.0;
 /// The largest the section itself is drawn, px.
-const MAX_W: f64 = 540.0;
+const MAX_W: f64 = 520.0;
 const MAX_H: f64 = 460.0;
-const LEFT: f64 = 70.0;
-const TOP: f64 = 50.0;
+const LEFT: f64 = 90.0;
+const TOP: f64 = 60.0;
 /// Gap from the section to a dimension line, px.
 const DIM_GAP: f64 = 34.0;
 /// How far the axes reach beyond the section, px.
@@ -99,24 +105,17 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         (b[3] - b[2]).max(f64::MIN_POSITIVE),
     );
     let k = (MAX_W / w).min(MAX_H / h);
+    let chains = Chains::of(a, w.max(h));
     let v = View {
         k,
         ox: LEFT + (MAX_W - w * k) / 2.0,
-        oy: TOP,
+        oy: TOP + CHAIN_STEP * chains.x.len() as f64,
         b,
     };
     let bottom = v.y(b[2]);
-    // Room below the drawing for the dimension line, up to three lines of legend and
-    // the caution.
-    let height = bottom + DIM_GAP + 120.0;
     let l = u.length.name();
     let val = |x: f64| u.num(u.geo(x, 1), FIGURES);
     let mut s = String::new();
-    s.push_str(&format!(
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" font-family=\"sans-serif\" font-size=\"12\">\n",
-        w = n(WIDTH),
-        h = n(height)
-    ));
     s.push_str(concat!(
         "<defs>\n",
         "<pattern id=\"hatch\" patternUnits=\"userSpaceOnUse\" width=\"6\" height=\"6\" patternTransform=\"rotate(45)\">",
@@ -182,6 +181,64 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         "<text x=\"{tx}\" y=\"{ty}\" text-anchor=\"middle\" transform=\"rotate(-90 {tx} {ty})\">{} {l}</text>\n",
         val(h)
     ));
+    // Each part's own sizes: chains of the parts' edges above and left of the
+    // section, the holes' centres in a chain of their own, and each round hole's
+    // diameter beside it.
+    let short = |x: f64| plain(u.geo(x, 1));
+    for (i, lv) in chains.x.iter().enumerate() {
+        let at = y0 - DIM_GAP - 2.0 - CHAIN_STEP * i as f64;
+        chain(&mut s, &v, lv, true, at, y0, &short);
+    }
+    for (i, lv) in chains.y.iter().enumerate() {
+        let at = x0 - DIM_GAP - 2.0 - CHAIN_STEP * i as f64;
+        chain(&mut s, &v, lv, false, at, x0, &short);
+    }
+    for &(c, d) in &chains.round {
+        let (px, py, r) = (v.x(c.x), v.y(c.y), d / 2.0 * k);
+        s.push_str(&format!(
+            "<g stroke=\"#1f3550\" stroke-width=\"0.6\"><line x1=\"{}\" y1=\"{y}\" x2=\"{}\" y2=\"{y}\"/><line x1=\"{x}\" y1=\"{}\" x2=\"{x}\" y2=\"{}\"/></g>\n",
+            n(px - r - 3.0),
+            n(px + r + 3.0),
+            n(py - r - 3.0),
+            n(py + r + 3.0),
+            x = n(px),
+            y = n(py)
+        ));
+        s.push_str(&format!(
+            "<text x=\"{}\" y=\"{}\" font-size=\"10\">⌀{}</text>\n",
+            n(px + r * 0.71 + 4.0),
+            n(py - r * 0.71 - 4.0),
+            short(d)
+        ));
+    }
+    // Numbers of the solid parts (as in the table of parts below), when there are
+    // several, at each part's own centroid (moved off the section's centroid mark).
+    let solids: Vec<&crate::geom::Piece> = a.all_pieces().iter().filter(|q| !q.void).collect();
+    if solids.len() > 1 {
+        let (cx, cy) = (v.x(p.centroid.x), v.y(p.centroid.y));
+        for q in &solids {
+            let Some(m) = Moments::of_contours(&q.contours).centroid() else {
+                continue;
+            };
+            let (mut bx, mut by) = (v.x(m.x), v.y(m.y));
+            if (bx - cx).hypot(by - cy) < 18.0 {
+                let e = q.bounds().unwrap_or(b);
+                if e[1] - e[0] >= e[3] - e[2] {
+                    bx += (e[1] - e[0]) * k / 4.0;
+                } else {
+                    by -= (e[3] - e[2]) * k / 4.0;
+                }
+            }
+            s.push_str(&format!(
+                "<g><circle cx=\"{x}\" cy=\"{y}\" r=\"7\" fill=\"#ffffff\" stroke=\"#1f3550\" stroke-width=\"0.8\"/>\
+<text x=\"{x}\" y=\"{ty}\" font-size=\"9\" text-anchor=\"middle\">{}</text></g>\n",
+                q.part + 1,
+                x = n(bx),
+                y = n(by),
+                ty = n(by + 3.0)
+            ));
+        }
+    }
     let mut legend = vec!["filled: solid", "hatched, dashed: void"];
     // The kern, dotted.
     if a.kern.len() >= 3 {
@@ -282,6 +339,12 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         val(c.y)
     ));
     legend.push("⊕: centroid");
+    if !chains.x.is_empty() || !chains.y.is_empty() {
+        legend.push("top and left: each part's edges, hole centres in the outer row");
+    }
+    if solids.len() > 1 {
+        legend.push("circled: part number");
+    }
     legend.push("drawn to scale");
     let mut foot = yd + 46.0;
     for line in wrap(
@@ -296,6 +359,44 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         ));
         foot += 15.0;
     }
+    // The parts with their own dimensions, numbered as in the sheet.
+    foot += 6.0;
+    for (i, part) in a
+        .section
+        .parts
+        .iter()
+        .enumerate()
+        .filter(|(_, q)| q.enabled)
+    {
+        let kind = if part.hole {
+            "hole"
+        } else if part.void {
+            "void"
+        } else {
+            "solid"
+        };
+        let pl = &part.placement;
+        let mut line = format!(
+            "{}  {}: {} {} ({kind}), at ({}, {}) {}",
+            i + 1,
+            part.name,
+            part.shape.kind(),
+            dimensions(&part.shape, u),
+            short(pl.at.x),
+            short(pl.at.y),
+            pl.anchor.name()
+        );
+        if pl.rotate != 0.0 {
+            line.push_str(&format!(", rotated {}°", plain(pl.rotate)));
+        }
+        s.push_str(&format!(
+            "<text x=\"{}\" y=\"{}\" font-size=\"11\">{}</text>\n",
+            n(LEFT - 50.0),
+            n(foot),
+            xml(&clip(&line, LEGEND_CHARS))
+        ));
+        foot += 14.0;
+    }
     // The caution stays whole on one line (10 px type fits it across the page).
     s.push_str(&format!(
         "<text x=\"{}\" y=\"{}\" font-size=\"10\" fill=\"#555555\">{}</text>\n",
@@ -304,7 +405,159 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
         xml(CAUTION)
     ));
     s.push_str("</svg>\n");
-    s
+    format!(
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" font-family=\"sans-serif\" font-size=\"12\">\n{s}",
+        w = n(WIDTH),
+        h = n(foot + 14.0)
+    )
+}
+
+/// `text` cut to `width` characters, with `…` where it was cut.
+fn clip(text: &str, width: usize) -> String {
+    if text.chars().count() <= width {
+        return text.to_string();
+    }
+    let mut t: String = text.chars().take(width.saturating_sub(1)).collect();
+    t.push('…');
+    t
+}
+
+/// The chains of dimensions a section gets: rows of x levels above it and of y levels
+/// left of it (innermost first), and the round holes (centre, diameter).
+struct Chains {
+    x: Vec<Vec<f64>>,
+    y: Vec<Vec<f64>>,
+    round: Vec<(Pt, f64)>,
+}
+
+impl Chains {
+    /// The parts' edges (a row only when it says more than the overall size), then the
+    /// voids' centres (round ones) or edges from the section's edges.
+    fn of(a: &Analysis, size: f64) -> Chains {
+        let eps = 1e-9 * size;
+        let b = a.props.bounds;
+        let pieces = a.all_pieces();
+        let mut round = Vec::new();
+        let (mut hx, mut hy) = (vec![b[0], b[1]], vec![b[2], b[3]]);
+        let (mut sx, mut sy) = (Vec::new(), Vec::new());
+        for q in pieces {
+            let Some(e) = q.bounds() else { continue };
+            if !q.void {
+                sx.extend([e[0], e[1]]);
+                sy.extend([e[2], e[3]]);
+                continue;
+            }
+            match a.section.parts.get(q.part).map(|p| &p.shape) {
+                Some(crate::geom::Shape::Circle { d }) => {
+                    let c = Pt::new((e[0] + e[1]) / 2.0, (e[2] + e[3]) / 2.0);
+                    round.push((c, *d));
+                    hx.push(c.x);
+                    hy.push(c.y);
+                }
+                _ => {
+                    hx.extend([e[0], e[1]]);
+                    hy.extend([e[2], e[3]]);
+                }
+            }
+        }
+        let rows = |parts: Vec<f64>, holes: Vec<f64>| {
+            let mut out = Vec::new();
+            let parts = levels(parts, eps);
+            if parts.len() > 2 {
+                out.push(parts);
+            }
+            let holes = levels(holes, eps);
+            if holes.len() > 2 {
+                out.push(holes);
+            }
+            out
+        };
+        Chains {
+            x: rows(sx, hx),
+            y: rows(sy, hy),
+            round,
+        }
+    }
+}
+
+/// Rows of chain dimensions, px apart.
+const CHAIN_STEP: f64 = 24.0;
+/// Width of one character of 10 px type, px (for fitting a label between its ticks).
+const CHAR_W: f64 = 5.6;
+
+/// Distinct values of `xs`, sorted, closer than `eps` counted once.
+fn levels(mut xs: Vec<f64>, eps: f64) -> Vec<f64> {
+    xs.retain(|x| x.is_finite());
+    xs.sort_by(f64::total_cmp);
+    xs.dedup_by(|a, b| (*a - *b).abs() <= eps);
+    xs
+}
+
+/// A chain of dimensions between consecutive `lv` (file coordinates) along one side:
+/// above the section when `horizontal` (the line at height `at` px, extension lines from
+/// `from` px), left of it otherwise. Each step is labelled with its length; a label too
+/// long for its step is staggered one line further out, alternately, so neighbours do
+/// not collide.
+fn chain(
+    s: &mut String,
+    v: &View,
+    lv: &[f64],
+    horizontal: bool,
+    at: f64,
+    from: f64,
+    label: &dyn Fn(f64) -> String,
+) {
+    let px = |t: f64| if horizontal { v.x(t) } else { v.y(t) };
+    let line = |s: &mut String, a: (f64, f64), b: (f64, f64)| {
+        let (a, b) = if horizontal {
+            (a, b)
+        } else {
+            ((a.1, a.0), (b.1, b.0))
+        };
+        s.push_str(&format!(
+            "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\"/>",
+            n(a.0),
+            n(a.1),
+            n(b.0),
+            n(b.1)
+        ));
+    };
+    s.push_str("<g stroke=\"#333333\" stroke-width=\"0.7\" fill=\"none\">");
+    let out = if from > at { -1.0 } else { 1.0 };
+    for &t in lv {
+        let p = px(t);
+        line(s, (p, from + 3.0 * out), (p, at + 4.0 * out));
+        // A 45° tick where the extension line meets the dimension line.
+        line(s, (p - 3.0, at + 3.0), (p + 3.0, at - 3.0));
+    }
+    if let (Some(&a), Some(&b)) = (lv.first(), lv.last()) {
+        line(s, (px(a), at), (px(b), at));
+    }
+    s.push_str("</g>\n");
+    let mut staggered = false;
+    for w in lv.windows(2) {
+        let (p0, p1) = (px(w[0]), px(w[1]));
+        let text = label(w[1] - w[0]);
+        let fits = (p1 - p0).abs() >= text.chars().count() as f64 * CHAR_W + 6.0;
+        let off = if fits || !staggered { 4.0 } else { 15.0 };
+        staggered = !fits && !staggered;
+        let mid = (p0 + p1) / 2.0;
+        let d = at + off * out;
+        if horizontal {
+            s.push_str(&format!(
+                "<text x=\"{}\" y=\"{}\" font-size=\"10\" text-anchor=\"middle\">{}</text>\n",
+                n(mid),
+                n(d),
+                xml(&text)
+            ));
+        } else {
+            let (tx, ty) = (n(d), n(mid));
+            s.push_str(&format!(
+                "<text x=\"{tx}\" y=\"{ty}\" font-size=\"10\" text-anchor=\"middle\" transform=\"rotate(-90 {tx} {ty})\">{}</text>\n",
+                xml(&text)
+            ));
+        }
+    }
 }
 
 /// `text` broken at spaces into lines of at most `width` characters.

@@ -87,6 +87,13 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
     for w in &a.warnings {
         s.push_str(&format!("  warning: {}\n", clean(&w.to_string())));
     }
+    // A "—" for Mcr says why, unless a warning above already did.
+    if let Some(why) = (a.member.as_ref())
+        .and_then(|m| m.mcr_note.as_ref())
+        .filter(|r| !r.warns())
+    {
+        s.push_str(&format!("  note: Mcr —: not computed: {why}\n"));
+    }
     s
 }
 
