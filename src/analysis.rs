@@ -13,11 +13,12 @@ use crate::checks::ltb::{self, Buckling, Compressed};
 use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
 use crate::checks::shear_flow::{self, Connection};
 use crate::checks::stress::{extremes, Extremes, StressField};
+use crate::fe::flexure::{Flexure, Load, Peak};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{joints, solid_bounds, Piece, Pt, Seg};
 use crate::geom::{LoadHeight, Resolved};
 use crate::model::units::Dim;
-use crate::model::warning::McrRefusal;
+use crate::model::warning::{McrRefusal, ShearFigure};
 use crate::model::{Diagnostic, Document, Warning};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
@@ -84,6 +85,20 @@ impl MemberResult {
     }
 }
 
+/// Shear stresses from the flexure solution, in Pa at points of the file frame; a
+/// figure whose estimated error is above the tolerance is `None` (and warned of).
+#[derive(Debug, Clone, PartialEq)]
+pub struct ShearResult {
+    /// Shear areas for shear along x and y (file length²), transformed to G_ref.
+    pub areas: Option<[f64; 2]>,
+    /// With Vx, Vy or T in `[actions]`: the largest √(τzx² + τzy²) from all three.
+    pub tau_max: Option<Peak>,
+    /// With Vx, Vy or T: the largest √(σ² + 3τ²), σ from N, Mx, My (net section).
+    pub von_mises_max: Option<Peak>,
+    /// With `[member]`: the largest shear stress from Vy = Vmax alone.
+    pub member_tau: Option<Peak>,
+}
+
 /// The net section (FORMAT.md "Gross and net"): the enabled pieces with the holes
 /// subtracted, and its properties. Stresses under `[actions]` and the member's bending
 /// stress use it; everything else uses the gross section.
@@ -128,6 +143,8 @@ pub struct Analysis {
     /// Joints between solid parts, in file order of the pairs, with what statics says
     /// about the flow across each.
     pub connections: Vec<Connection>,
+    /// Shear stresses and shear areas, when the flexure solution ran with torsion.
+    pub shear: Option<ShearResult>,
     pub warnings: Vec<Warning>,
 }
 
@@ -184,12 +201,17 @@ impl Analysis {
             torsion: None,
             stress: None,
             member: None,
+            shear: None,
         };
         a.stress = a.stresses();
         a.member = a.member_check();
         a.warnings.extend(a.member_notes());
         if let Some(o) = &opts.torsion {
-            a.set_torsion(torsion(&a.pieces, o));
+            let o = TorsionOptions {
+                flexure: Some(nu_ref(&a.section)),
+                ..o.clone()
+            };
+            a.set_torsion(torsion(&a.pieces, &o));
         }
         Ok(a)
     }
@@ -205,10 +227,85 @@ impl Analysis {
         }
         self.torsion = Some(t);
         self.member = self.member_check();
+        self.shear = self.shear_result();
         let warning = (self.member.as_ref()).and_then(MemberResult::mcr_warning);
         if let Some(w) = warning.filter(|w| !self.warnings.contains(w)) {
             self.warnings.push(w);
         }
+    }
+
+    /// The flexure solution that came with torsion, if it was solved.
+    pub fn flexure(&self) -> Option<&Flexure> {
+        let t = self.torsion.as_ref()?.as_ref().ok()?;
+        t.flexure.as_ref()?.as_ref().ok()
+    }
+
+    /// Shear areas and stresses from the flexure solution, keeping only figures within
+    /// the tolerance; the warnings for the ones left out are added.
+    fn shear_result(&mut self) -> Option<ShearResult> {
+        let t = self.torsion.as_ref()?.as_ref().ok()?;
+        let flex = match t.flexure.as_ref()? {
+            Ok(f) => f,
+            Err(w) => {
+                let w = Warning::NoShear(Box::new(w.clone()));
+                if !self.warnings.contains(&w) {
+                    self.warnings.push(w);
+                }
+                return None;
+            }
+        };
+        let tol = flex.tol;
+        let mut notes = Vec::new();
+        let mut within = |figure, error: f64| {
+            let ok = error <= tol;
+            if !ok {
+                notes.push(Warning::ShearAboveTolerance { figure, error, tol });
+            }
+            ok
+        };
+        let areas = within(ShearFigure::Areas, flex.shear_area_error).then_some(flex.shear_area);
+        let u = self.section.units.metres();
+        let (u2, u3) = (u * u, u * u * u);
+        let zero = |_: Pt| 0.0;
+        let mut out = ShearResult {
+            areas,
+            tau_max: None,
+            von_mises_max: None,
+            member_tau: None,
+        };
+        if let Some(act) = self.section.actions {
+            if act.vx.is_some() || act.vy.is_some() || act.t.is_some() {
+                let field = self.stress.as_ref().map(|s| s.field);
+                let sigma = |p: Pt| field.map_or(0.0, |f| f.at(p.x, p.y));
+                let load = Load {
+                    vx: act.vx.unwrap_or(0.0) / u2,
+                    vy: act.vy.unwrap_or(0.0) / u2,
+                    t: act.t.unwrap_or(0.0) / u3,
+                    sigma: &sigma,
+                };
+                if let Some((tau, vm)) = flex.peaks(&load) {
+                    out.tau_max = within(ShearFigure::TauMax, tau.rel_error).then_some(tau);
+                    out.von_mises_max = within(ShearFigure::VonMises, vm.rel_error).then_some(vm);
+                }
+            }
+        }
+        if let Some(m) = &self.member {
+            let load = Load {
+                vx: 0.0,
+                vy: m.v_max / u2,
+                t: 0.0,
+                sigma: &zero,
+            };
+            if let Some((tau, _)) = flex.peaks(&load).filter(|_| m.v_max.is_finite()) {
+                out.member_tau = within(ShearFigure::MemberTau, tau.rel_error).then_some(tau);
+            }
+        }
+        for w in notes {
+            if !self.warnings.contains(&w) {
+                self.warnings.push(w);
+            }
+        }
+        Some(out)
     }
 
     /// A property of dimension `dim` in the file's unit, in SI.
@@ -500,6 +597,17 @@ impl Analysis {
         }
         Some(out)
     }
+}
+
+/// Poisson's ratio of the reference (first) material, ν = E/(2G) − 1 (isotropic
+/// elasticity), or the default ν without materials (docs/format.md "Materials").
+fn nu_ref(section: &Resolved) -> f64 {
+    section
+        .materials
+        .first()
+        .map_or(crate::geom::resolve::DEFAULT_NU, |m| {
+            m.e / (2.0 * m.g) - 1.0
+        })
 }
 
 /// Whether the bending moment sags (compresses +y) and whether it hogs (−y) anywhere

@@ -14,7 +14,7 @@ fuzz_target!(|data: &[u8]| {
         let opts = Options {
             torsion: Some(TorsionOptions {
                 tol: 1e-2,
-                cancel: None,
+                ..TorsionOptions::default()
             }),
         };
         if let Err(d) = kern::file::load::analyse(text, &opts) {

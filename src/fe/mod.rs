@@ -44,6 +44,7 @@
 //! (sparse matrix and PCG), [`torsion`](mod@torsion) (one mesh's results); this file holds the
 //! public API, the refinement loop and the error estimate.
 
+pub mod flexure;
 pub mod mesh;
 pub mod p2;
 pub mod solve;
@@ -68,6 +69,9 @@ pub struct TorsionOptions {
     /// When set to true by another thread, the solver stops with
     /// `Err(Warning::Cancelled)`.
     pub cancel: Option<Arc<AtomicBool>>,
+    /// Also solve the flexure problem ([`flexure`]) on the same meshes, with this
+    /// Poisson's ratio of the reference material; `None` for torsion alone.
+    pub flexure: Option<f64>,
 }
 
 impl Default for TorsionOptions {
@@ -75,6 +79,7 @@ impl Default for TorsionOptions {
         TorsionOptions {
             tol: DEFAULT_TOL,
             cancel: None,
+            flexure: None,
         }
     }
 }
@@ -95,6 +100,9 @@ pub struct Torsion {
     pub elements: usize,
     pub method: String,
     pub warnings: Vec<Warning>,
+    /// Shear stresses and shear areas on the same meshes, when asked for
+    /// ([`TorsionOptions::flexure`]); `Err` says why there are none.
+    pub flexure: Option<Result<flexure::Flexure, Warning>>,
 }
 
 /// What the solver may spend, decided before a mesh is refined or a matrix allocated.
@@ -172,6 +180,8 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
     let mut levels: Vec<Level> = Vec::new();
     let mut ladder = torsion::Ladder::default();
     let mut step = None;
+    let mut flex = opts.flexure.map(flexure::FlexLadder::new);
+    let mut flex_fail = None;
     let tol = if opts.tol.is_finite() && opts.tol > 0.0 {
         opts.tol
     } else {
@@ -182,6 +192,22 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
             return Err(Warning::Cancelled);
         }
         let level = ladder.solve(&mesh, step.take(), cancel).map_err(fail)?;
+        if let Some(fl) = flex.as_mut() {
+            let pieces = mesh.pinned.len();
+            let solved = if pieces > 1 {
+                Err(Warning::ShearPieces { count: pieces })
+            } else {
+                fl.solve(&mesh, &ladder, level.j, cancel).map_err(fail)
+            };
+            match solved {
+                Err(Warning::Cancelled) => return Err(Warning::Cancelled),
+                Err(w) => {
+                    flex = None;
+                    flex_fail = Some(w);
+                }
+                Ok(()) => {}
+            }
+        }
         if levels.is_empty() {
             warnings.extend(region_note(pieces, level.area));
         }
@@ -192,14 +218,14 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
                 ..est
             };
             if est.rel_error <= tol {
-                return Ok(finish(est, &mesh, warnings));
+                return Ok(finish(est, &mesh, warnings).with_flexure(flex, flex_fail, tol));
             }
             if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
                 warnings.push(Warning::AboveTolerance {
                     error: est.rel_error,
                     tol,
                 });
-                return Ok(finish(est, &mesh, warnings));
+                return Ok(finish(est, &mesh, warnings).with_flexure(flex, flex_fail, tol));
             }
         } else if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
             return Err(Warning::NextMeshPastBudget {
@@ -272,6 +298,24 @@ fn finish(est: Estimate, m: &mesh::Mesh, warnings: Vec<Warning>) -> Torsion {
         elements: m.elems.len(),
         method: "FE warping function, 6-node triangles, Richardson estimate".into(),
         warnings,
+        flexure: None,
+    }
+}
+
+impl Torsion {
+    /// The flexure results from the ladder that solved alongside (or why there are none).
+    fn with_flexure(
+        self,
+        flex: Option<flexure::FlexLadder>,
+        fail: Option<Warning>,
+        tol: f64,
+    ) -> Torsion {
+        let flexure = match (flex, fail) {
+            (_, Some(w)) => Some(Err(w)),
+            (Some(fl), None) => Some(fl.finish(tol).ok_or(Warning::DegenerateElement)),
+            (None, None) => None,
+        };
+        Torsion { flexure, ..self }
     }
 }
 

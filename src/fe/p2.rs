@@ -88,6 +88,13 @@ impl Rule {
         ])
     }
 
+    /// Shape functions and their reference derivatives at the given `(ξ, η)` points,
+    /// with weight zero (for values at points rather than integrals).
+    pub fn at_points(pts: &[(f64, f64)]) -> Rule {
+        let with_w: Vec<(f64, f64, f64)> = pts.iter().map(|&(a, b)| (a, b, 0.0)).collect();
+        Rule::from_points(&with_w)
+    }
+
     /// Number of points.
     pub fn points(&self) -> usize {
         self.w.len()

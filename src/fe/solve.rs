@@ -395,6 +395,12 @@ impl Multigrid {
         self.levels.last().map(|(_, a)| a)
     }
 
+    /// The prolongation onto the finest matrix's mesh, or `None` while only the base is
+    /// held (for starting another right-hand side from its coarser solution).
+    pub fn finest_prolong(&self) -> Option<&Prolong> {
+        self.levels.last().map(|(p, _)| p)
+    }
+
     /// Solves with the finest matrix: directly on the base, else by conjugate
     /// gradients from `x` with one V-cycle as preconditioner, to ‖r‖ ≤ `rtol`·‖b‖.
     /// Returns the number of iterations.

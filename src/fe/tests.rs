@@ -242,6 +242,7 @@ fn cancellation_flag_stops_the_solver() {
     let opts = TorsionOptions {
         tol: 1e-3,
         cancel: Some(flag),
+        flexure: None,
     };
     let r = torsion(&solid(Shape::Rect { b: 10.0, h: 5.0 }), &opts);
     assert_eq!(r, Err(crate::model::Warning::Cancelled));

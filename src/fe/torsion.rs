@@ -101,6 +101,17 @@ impl Ladder {
     ) -> Result<Level, Failure> {
         solve(self, m, step, cancel)
     }
+
+    /// The solver of the latest level (its finest matrix is that level's stiffness),
+    /// for further right-hand sides on the same mesh (the flexure problem).
+    pub fn solver(&self) -> Option<&Multigrid> {
+        self.mg.as_ref()
+    }
+
+    /// The warping function of the latest level, at its nodes.
+    pub fn warping(&self) -> &[f64] {
+        &self.u
+    }
 }
 
 fn solve(

@@ -89,6 +89,16 @@ pub enum Warning {
         max_nodes: usize,
         mb: usize,
     },
+    /// The flexure (shear) solution was not computed, for the reason inside.
+    NoShear(Box<Warning>),
+    /// The section is in `count` separate pieces, which share no shear flow.
+    ShearPieces { count: usize },
+    /// A shear figure is left out: its estimated relative error `error` is above `tol`.
+    ShearAboveTolerance {
+        figure: ShearFigure,
+        error: f64,
+        tol: f64,
+    },
     /// More than `max_pairs` pairs of parts lie on one another: no connection looked for.
     ConnectionsNotLooked { max_pairs: usize },
     /// Parts `a` and `b` touch only at a point.
@@ -111,6 +121,19 @@ pub enum Warning {
     MaterialNoFy { material: Option<String> },
     /// Mcr was not computed, for a reason the user should hear of.
     McrNotComputed(McrRefusal),
+}
+
+/// Which result of the flexure solution a warning is about.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ShearFigure {
+    /// The shear areas.
+    Areas,
+    /// The largest resultant shear stress.
+    TauMax,
+    /// The largest von Mises stress.
+    VonMises,
+    /// The member's largest shear stress at Vmax.
+    MemberTau,
 }
 
 /// Why the elastic critical moment Mcr is not computed.

@@ -54,6 +54,7 @@ pub fn blocks(file: &str, a: &Analysis, u: &OutUnits) -> Vec<Block> {
     composite(&mut s, a, u);
     results(&mut s, a, u);
     checks(&mut s, a, u);
+    shear(&mut s, a, u);
     connections(&mut s, a, u);
     s.push(Block::Heading(2, own("Warnings")));
     if a.warnings.is_empty() {
@@ -523,6 +524,50 @@ is not given. Flows in {}.",
         ],
         body,
     );
+}
+
+/// The shear stresses and shear areas: how they were found, or why they are not given.
+fn shear(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
+    s.push(Block::Heading(2, own("Shear")));
+    let Some(sh) = &a.shear else {
+        s.push(Block::Para(own(match &a.torsion {
+            None => {
+                "The shear areas and shear stresses need the finite-element solution, which \
+was not run for this sheet (torsion off): they are not given."
+            }
+            _ => "The shear areas and shear stresses are not available (the warnings say why).",
+        })));
+        return;
+    };
+    let nu = a.flexure().map_or(f64::NAN, |f| f.nu_ref);
+    let mut text = format!(
+        "Saint-Venant flexure solved by finite elements on the torsion mesh (Pilkey, Analysis \
+and Design of Elastic Beams, 2002, ch. 6), ν = {} for the first material. Shear areas are \
+energy-consistent, A_s = V²/(G·∫τ²/G dA), transformed to G of the first material. Shear \
+forces act through the flexural centre and T about the shear centre; the stresses are on \
+the gross region (holes left out), sampled at the mesh nodes; materials are taken as \
+isotropic. The von Mises stress √(σ² + 3τ²) adds the normal stress of N, Mx, My.",
+        fig(nu)
+    );
+    if let (Some(act), Some(p)) = (&a.section.actions, &sh.tau_max) {
+        let (f, m, st) = (u.force(), u.moment(), u.stress());
+        text.push_str(&format!(
+            " Under Vx = {} {f}, Vy = {} {f}, T = {} {m}: τmax = {} {st} at ({}, {}).",
+            fig(f.from_si(act.vx.unwrap_or(0.0))),
+            fig(f.from_si(act.vy.unwrap_or(0.0))),
+            fig(m.from_si(act.t.unwrap_or(0.0))),
+            fig(st.from_si(p.value)),
+            fig(u.geo(p.at.x, 1)),
+            fig(u.geo(p.at.y, 1)),
+            f = f.name,
+            m = m.name,
+            st = st.name,
+        ));
+    }
+    text.push_str(
+        " Flows across joints on closed cells are not given by this version (see Connections).",
+    );
+    s.push(Block::Para(own(text)));
 }
 
 fn checks(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {

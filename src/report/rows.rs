@@ -241,6 +241,7 @@ pub const GROUPS: [&str; 14] = [
     "Torsion",
     "Stresses",
     "Member",
+    "Shear",
     "Connections",
 ];
 
@@ -294,6 +295,29 @@ fn stress(a: &Analysis, f: fn(&crate::analysis::StressResult) -> Cell) -> Cell {
 }
 fn member(a: &Analysis, f: fn(&crate::analysis::MemberResult) -> Cell) -> Cell {
     a.member.as_ref().map_or(Cell::Absent, f)
+}
+/// A shear figure: absent without the flexure solution (`--no-torsion`, or it failed)
+/// without the loads it needs, or left out for its error estimate (a warning says so).
+fn shear(
+    a: &Analysis,
+    f: fn(&crate::analysis::ShearResult) -> Option<f64>,
+    needs: fn(&Analysis) -> bool,
+) -> Cell {
+    match &a.shear {
+        Some(s) if needs(a) => f(s).map_or(Cell::Absent, Cell::Num),
+        _ => Cell::Absent,
+    }
+}
+fn any_shear_action(a: &Analysis) -> bool {
+    a.section
+        .actions
+        .is_some_and(|x| x.vx.is_some() || x.vy.is_some() || x.t.is_some())
+}
+fn always(_: &Analysis) -> bool {
+    true
+}
+fn with_member(a: &Analysis) -> bool {
+    a.member.is_some()
 }
 
 /// The shear centre with finite-element noise removed ([`fe_zero`]), when torsion
@@ -382,6 +406,15 @@ pub static QUANTITIES: &[Quantity] = &[
     Quantity { group: "Principal moduli", symbol: "S1,−", meaning: "I1 / (−v_min): about axis 1 to the extreme fibre on the −v side", path: "principal_modulus.s1_neg", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s1_neg) },
     Quantity { group: "Principal moduli", symbol: "S2,+", meaning: "I2 / u_max: about axis 2 to the extreme fibre on the +u side (u along axis 1, at θ)", path: "principal_modulus.s2_pos", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s2_pos) },
     Quantity { group: "Principal moduli", symbol: "S2,−", meaning: "I2 / (−u_min): about axis 2 to the extreme fibre on the −u side", path: "principal_modulus.s2_neg", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s2_neg) },
+    Quantity { group: "Member", symbol: "τ@Vmax", meaning: "largest shear stress from Vmax (vertical shear, flexure solution)", path: "member.tau_max", dim: Dim::Stress, get: |a| shear(a, |s| s.member_tau.map(|p| p.value), with_member) },
+    Quantity { group: "Shear", symbol: "Asx|Av,y", meaning: "shear area for shear along x (energy-consistent, to G of the first material)|shear area for shear along y (energy-consistent, to G of the first material)", path: "shear_area.x", dim: Dim::L(2), get: |a| shear(a, |s| s.areas.map(|v| v[0]), always) },
+    Quantity { group: "Shear", symbol: "Asy|Av,z", meaning: "shear area for shear along y (energy-consistent, to G of the first material)|shear area for shear along z (energy-consistent, to G of the first material)", path: "shear_area.y", dim: Dim::L(2), get: |a| shear(a, |s| s.areas.map(|v| v[1]), always) },
+    Quantity { group: "Shear", symbol: "τmax", meaning: "largest resultant shear stress from Vx, Vy and T", path: "shear.tau_max.value", dim: Dim::Stress, get: |a| shear(a, |s| s.tau_max.map(|p| p.value), any_shear_action) },
+    Quantity { group: "Shear", symbol: "", meaning: "where the largest shear stress is, x", path: "shear.tau_max.x", dim: Dim::L(1), get: |a| shear(a, |s| s.tau_max.map(|p| p.at.x), any_shear_action) },
+    Quantity { group: "Shear", symbol: "", meaning: "where the largest shear stress is, y", path: "shear.tau_max.y", dim: Dim::L(1), get: |a| shear(a, |s| s.tau_max.map(|p| p.at.y), any_shear_action) },
+    Quantity { group: "Shear", symbol: "σvM", meaning: "largest von Mises stress √(σ² + 3τ²) with N, Mx, My", path: "shear.von_mises_max.value", dim: Dim::Stress, get: |a| shear(a, |s| s.von_mises_max.map(|p| p.value), any_shear_action) },
+    Quantity { group: "Shear", symbol: "", meaning: "where the largest von Mises stress is, x", path: "shear.von_mises_max.x", dim: Dim::L(1), get: |a| shear(a, |s| s.von_mises_max.map(|p| p.at.x), any_shear_action) },
+    Quantity { group: "Shear", symbol: "", meaning: "where the largest von Mises stress is, y", path: "shear.von_mises_max.y", dim: Dim::L(1), get: |a| shear(a, |s| s.von_mises_max.map(|p| p.at.y), any_shear_action) },
 ];
 
 /// One result as the views show it.

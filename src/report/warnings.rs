@@ -2,7 +2,7 @@
 //! table, the JSON, the calculation sheet and the workbench all print `Display`.
 //! Figures get significant figures here ([`sig`]), never in the core.
 
-use crate::model::warning::{McrRefusal, More, Warning};
+use crate::model::warning::{McrRefusal, More, ShearFigure, Warning};
 use crate::numfmt::sig;
 use std::fmt;
 
@@ -129,6 +129,27 @@ impl fmt::Display for Warning {
                 "an error estimate needs three meshes, and the next ({elements} elements) is past \
                  the solver's budget of {max_elements} elements, {max_nodes} nodes and {mb} MB; simplify the \
                  section (fewer holes or corners)"
+            ),
+            Warning::NoShear(why) => {
+                write!(f, "shear stresses and shear areas not computed: {why}")
+            }
+            Warning::ShearPieces { count } => write!(
+                f,
+                "the section is {count} separate pieces, which share no shear flow: shear \
+                 stresses and shear areas are not given (check each piece as its own member, \
+                 or join them)"
+            ),
+            Warning::ShearAboveTolerance { figure, error, tol } => write!(
+                f,
+                "{} not given: the estimated error {error:.1e} is above the tolerance \
+                 {tol:.1e} (a sharp re-entrant corner makes the shear stress singular there; \
+                 model the fillet or radius)",
+                match figure {
+                    ShearFigure::Areas => "the shear areas are",
+                    ShearFigure::TauMax => "the largest shear stress is",
+                    ShearFigure::VonMises => "the largest von Mises stress is",
+                    ShearFigure::MemberTau => "the member's shear stress at Vmax is",
+                }
             ),
             Warning::ConnectionsNotLooked { max_pairs } => write!(
                 f,

@@ -551,6 +551,7 @@ fn solve_here(pieces: &[crate::geom::Piece]) -> Result<crate::fe::Torsion, crate
     let opts = TorsionOptions {
         tol: crate::fe::DEFAULT_TOL,
         cancel: None,
+        flexure: None,
     };
     torsion(pieces, &opts)
 }

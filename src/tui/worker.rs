@@ -52,6 +52,7 @@ impl Worker {
                 let opts = TorsionOptions {
                     tol: crate::fe::DEFAULT_TOL,
                     cancel: Some(job.cancel.clone()),
+                    flexure: None,
                 };
                 let result = std::panic::catch_unwind(|| torsion(&job.pieces, &opts))
                     .unwrap_or(Err(crate::model::Warning::SolverFailed));

@@ -1,0 +1,526 @@
+//! The Saint-Venant flexure problem on the torsion mesh: shear stresses from Vx and Vy,
+//! the torsional shear stresses from T, and the energy-consistent shear areas.
+//!
+//! Method (Pilkey, Analysis and Design of Elastic Beams: Computational Methods, Wiley
+//! 2002, ch. 6, "shear stresses"; Timoshenko & Goodier, Theory of Elasticity, flexure of
+//! bars; the composite form derived here from the same equations). Coordinates are about
+//! the modulus-weighted centroid, second moments `Ixx`, `Iyy`, `Ixy` transformed to the
+//! reference material (E_ref), `D = Ixx·Iyy − Ixy²`. For a shear `Vx` through the
+//! flexural centre the bending stress changes along the member as ∂σ/∂z = E·(a′x + b′y)
+//! with a′, b′ from the resultant conditions, and the shear stresses are
+//!
+//! ```text
+//! τ = Vx/(2(1 + ν_ref)·D) · (g·∇Ψ − g·ν·d),   g = G/G_ref, ν the element's own ratio
+//! d = (Ixx(x² − y²)/2 − Ixy·x·y,  Ixy(x² − y²)/2 + Ixx·x·y)
+//! ∇·(g∇Ψ − gν·d) = −2(1 + ν)·g·(Ixx·x − Ixy·y)   in the region,   (g∇Ψ − gν·d)·n = 0 on its boundary
+//! ```
+//!
+//! and for `Vy` the same with x and y (and Ixx and Iyy) exchanged:
+//! `d = (Ixy(y² − x²)/2 + Iyy·x·y, Iyy(y² − x²)/2 − Ixy·x·y)`, right-hand side
+//! `−2(1 + ν)·g·(Iyy·y − Ixy·x)`. Equilibrium (∇·τ = −∂σ/∂z, τ·n = 0) makes
+//! ∫τzx dA = Vx exactly; the ν-terms satisfy compatibility (∇²τ constant in each
+//! material). With (1 + ν)·g = n·(1 + ν_ref) for isotropic materials (G = E/(2(1 + ν))),
+//! each element needs only its two ratios n = E/E_ref and g. The weak form,
+//! `∫g∇Ψ·∇v dA = ∫gν·d·∇v dA + ∫2(1 + ν)g·r·v dA`, has the stiffness of the warping
+//! function, so the torsion solve's factor and multigrid hierarchy solve it too.
+//!
+//! Torsion (Pilkey 2002 ch. 6; Timoshenko & Goodier §104): τ = T/J · g·(∂ω/∂x − y,
+//! ∂ω/∂y + x) with ω the warping function of the same mesh and J of that mesh.
+//!
+//! Shear areas, energy-consistent (Pilkey 2002, shear deformation coefficients): the
+//! strain energy per length of a unit shear, ∫τ²/(2G) dA, set equal to that of a uniform
+//! stress on the shear area, `V²/(2·G_ref·A_s)`, gives `A_s = 1/∫τ²/g dA` (τ from V = 1),
+//! transformed to G_ref. For a rectangle with ν = 0 this is 5A/6.
+//!
+//! Stresses are sampled at the nodes of the mesh, each node's value the area-weighted
+//! mean of its elements' gradients (recovered nodal stresses); at a node between two
+//! materials every element's own value is kept. Assumptions: isotropic materials,
+//! shear forces through the flexural centre, T about the shear centre, a section in one
+//! piece (separate pieces do not share a shear flow: refused by the caller).
+
+use super::mesh::Mesh;
+use super::p2::{at, Rule};
+use super::solve::Multigrid;
+use super::torsion::{Failure, Ladder};
+use crate::geom::Pt;
+use std::sync::atomic::AtomicBool;
+
+/// Relative residual of the flexure solves, as for the warping function.
+const RTOL: f64 = 1e-7;
+
+/// The shear stresses at one point from unit loads.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Sample {
+    /// Where, in the file frame.
+    pub at: Pt,
+    /// Modular ratio of the material there (for the normal stress).
+    pub n: f64,
+    /// `[τzx, τzy]` from Vx = 1, from Vy = 1 (per length²) and from T = 1 (per length³).
+    pub tau: [[f64; 2]; 3],
+}
+
+/// One mesh's flexure results.
+#[derive(Debug, Clone, PartialEq)]
+struct FlexLevel {
+    /// Shear areas for shear along x and along y (length²).
+    area: [f64; 2],
+    samples: Vec<Sample>,
+}
+
+/// The flexure results over the meshes solved.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Flexure {
+    /// Shear areas for shear along x and y (length², transformed to G_ref), extrapolated.
+    pub shear_area: [f64; 2],
+    /// Estimated relative error of the shear areas (the larger of the two).
+    pub shear_area_error: f64,
+    /// Poisson's ratio of the reference material.
+    pub nu_ref: f64,
+    /// The tolerance the solve was asked for (the torsion solve's).
+    pub tol: f64,
+    /// The last (up to three) levels, coarsest first.
+    levels: Vec<FlexLevel>,
+}
+
+/// The largest value of a stress over the section and where it occurs.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Peak {
+    pub value: f64,
+    /// In the file frame.
+    pub at: Pt,
+    /// Estimated relative error of `value` (Richardson over the last three meshes).
+    pub rel_error: f64,
+}
+
+/// The combined load on the section for [`Flexure::peaks`]: shear forces, torque and
+/// the normal stress of the reference material at a point of the file frame, in one
+/// consistent set of units (e.g. `vx` in N/m² per unit² of area gives τ in Pa).
+pub struct Load<'a> {
+    pub vx: f64,
+    pub vy: f64,
+    pub t: f64,
+    pub sigma: &'a dyn Fn(Pt) -> f64,
+}
+
+impl Flexure {
+    /// The samples of the finest mesh.
+    pub fn samples(&self) -> &[Sample] {
+        self.levels.last().map_or(&[], |l| &l.samples)
+    }
+
+    /// The largest resultant shear stress √(τzx² + τzy²) and the largest von Mises
+    /// stress √(σ² + 3τ²) (σ = n·σ_ref) under `load`, each with its estimated error;
+    /// `None` with fewer than three meshes.
+    pub fn peaks(&self, load: &Load) -> Option<(Peak, Peak)> {
+        let per: Vec<[(f64, Pt); 2]> = self.levels.iter().map(|l| peaks_of(l, load)).collect();
+        let [a, b, c] = per.get(per.len().checked_sub(3)?..)? else {
+            return None;
+        };
+        let peak = |k: usize| {
+            let (_, err) = super::richardson(a[k].0, b[k].0, c[k].0, 4.0);
+            Peak {
+                value: c[k].0,
+                at: c[k].1,
+                rel_error: err / c[k].0.abs().max(f64::MIN_POSITIVE),
+            }
+        };
+        Some((peak(0), peak(1)))
+    }
+}
+
+/// τ = √(τx² + τy²) and von Mises at every sample of a level: the largest of each.
+fn peaks_of(l: &FlexLevel, load: &Load) -> [(f64, Pt); 2] {
+    let mut best = [(0.0, Pt::new(0.0, 0.0)); 2];
+    let mut first = true;
+    for s in &l.samples {
+        let t = s.tau;
+        let tx = load.vx * t[0][0] + load.vy * t[1][0] + load.t * t[2][0];
+        let ty = load.vx * t[0][1] + load.vy * t[1][1] + load.t * t[2][1];
+        let tau = tx.hypot(ty);
+        let sigma = s.n * (load.sigma)(s.at);
+        let vm = (sigma * sigma + 3.0 * tau * tau).sqrt();
+        for (k, v) in [tau, vm].into_iter().enumerate() {
+            if first || v > best[k].0 {
+                best[k] = (v, s.at);
+            }
+        }
+        first = false;
+    }
+    best
+}
+
+/// What one level hands to the next: the flexure functions (for the next level's
+/// starting guess) and the results so far.
+pub struct FlexLadder {
+    nu_ref: f64,
+    psi: [Vec<f64>; 2],
+    levels: Vec<FlexLevel>,
+}
+
+impl FlexLadder {
+    /// Starts with ν of the reference material.
+    pub fn new(nu_ref: f64) -> FlexLadder {
+        FlexLadder {
+            nu_ref,
+            psi: [Vec::new(), Vec::new()],
+            levels: Vec::new(),
+        }
+    }
+
+    /// Solves the flexure problems on `m`, the mesh `ladder` has just solved the warping
+    /// function on (with torsion constant `j`), reusing its solver.
+    pub fn solve(
+        &mut self,
+        m: &Mesh,
+        ladder: &Ladder,
+        j: f64,
+        cancel: Option<&AtomicBool>,
+    ) -> Result<(), Failure> {
+        let mg = ladder.solver().ok_or(Failure::Degenerate)?;
+        let level = solve_level(self, m, mg, ladder.warping(), j, cancel)?;
+        self.levels.push(level);
+        if self.levels.len() > 3 {
+            self.levels.remove(0);
+        }
+        Ok(())
+    }
+
+    /// The results, shear areas extrapolated over the last three levels; `None` with
+    /// fewer than three.
+    pub fn finish(self, tol: f64) -> Option<Flexure> {
+        let [a, b, c] = self.levels.get(self.levels.len().checked_sub(3)?..)? else {
+            return None;
+        };
+        let mut area = [0.0; 2];
+        let mut err: f64 = 0.0;
+        for k in 0..2 {
+            let (v, e) = super::richardson(a.area[k], b.area[k], c.area[k], 4.0);
+            area[k] = v;
+            err = err.max(e / v.abs().max(f64::MIN_POSITIVE));
+        }
+        Some(Flexure {
+            shear_area: area,
+            shear_area_error: err,
+            nu_ref: self.nu_ref,
+            tol,
+            levels: self.levels,
+        })
+    }
+}
+
+/// The right-hand side's vector fields and scalars at local point (x, y) about the
+/// centroid: `[d for Vx, d for Vy]` and `[r for Vx, r for Vy]`.
+fn terms(i: [f64; 3], x: f64, y: f64) -> ([[f64; 2]; 2], [f64; 2]) {
+    let [ixx, iyy, ixy] = i;
+    let (h, xy) = (0.5 * (x * x - y * y), x * y);
+    (
+        [
+            [ixx * h - ixy * xy, ixy * h + ixx * xy],
+            [-ixy * h + iyy * xy, -iyy * h - ixy * xy],
+        ],
+        [ixx * x - ixy * y, iyy * y - ixy * x],
+    )
+}
+
+/// The six nodes of the reference triangle as a rule (weights zero), for the gradients
+/// at the nodes.
+fn node_rule() -> Rule {
+    Rule::at_points(&[
+        (0.0, 0.0),
+        (1.0, 0.0),
+        (0.0, 1.0),
+        (0.5, 0.0),
+        (0.5, 0.5),
+        (0.0, 0.5),
+    ])
+}
+
+fn solve_level(
+    fl: &mut FlexLadder,
+    m: &Mesh,
+    mg: &Multigrid,
+    omega: &[f64],
+    j: f64,
+    cancel: Option<&AtomicBool>,
+) -> Result<FlexLevel, Failure> {
+    let nn = m.nodes.len();
+    if omega.len() != nn || !(j > 0.0) {
+        return Err(Failure::Degenerate);
+    }
+    let r4 = Rule::degree4();
+    // n-weighted area moments about the local origin, as the torsion solve takes them.
+    let mut s = [0.0; 6];
+    for (e, &n) in m.elems.iter().zip(&m.weight) {
+        let p = e.map(|v| m.nodes[v as usize]);
+        for q in 0..r4.points() {
+            let g = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
+            let da = n * g.da;
+            for (v, t) in s
+                .iter_mut()
+                .zip([1.0, g.x, g.y, g.x * g.x, g.y * g.y, g.x * g.y])
+            {
+                *v += da * t;
+            }
+        }
+    }
+    if s[0] <= 0.0 {
+        return Err(Failure::Degenerate);
+    }
+    let c = Pt::new(s[1] / s[0], s[2] / s[0]);
+    let ixx = s[4] - s[0] * c.y * c.y;
+    let iyy = s[3] - s[0] * c.x * c.x;
+    let ixy = s[5] - s[0] * c.x * c.y;
+    let d = ixx * iyy - ixy * ixy;
+    if !(d > 0.0) {
+        return Err(Failure::Degenerate);
+    }
+    let mom = [ixx, iyy, ixy];
+    let k1 = 1.0 + fl.nu_ref;
+    // Loads ∫gν·d·∇Nᵢ + 2(1 + ν)g·r·Nᵢ, with gν = n(1 + ν_ref) − g, (1 + ν)g = n(1 + ν_ref).
+    let mut f = [vec![0.0; nn], vec![0.0; nn]];
+    for (ei, e) in m.elems.iter().enumerate() {
+        let p = e.map(|v| m.nodes[v as usize].sub(c));
+        let (n, g) = (m.weight[ei], m.shear[ei]);
+        let (gnu, w2) = (n * k1 - g, 2.0 * n * k1);
+        for q in 0..r4.points() {
+            let at_q = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
+            let (dv, r) = terms(mom, at_q.x, at_q.y);
+            for a in 0..6 {
+                let node = e[a] as usize;
+                for k in 0..2 {
+                    f[k][node] += at_q.da
+                        * (gnu * (dv[k][0] * at_q.gx[a] + dv[k][1] * at_q.gy[a])
+                            + w2 * r[k] * r4.n[q][a]);
+                }
+            }
+        }
+    }
+    for fk in &mut f {
+        for &pn in &m.pinned {
+            fk[pn as usize] = 0.0;
+        }
+    }
+    let prolong = mg.finest_prolong();
+    let mut psi = [vec![0.0; nn], vec![0.0; nn]];
+    for k in 0..2 {
+        if let Some(p) = prolong.filter(|p| p.fine() == nn && p.coarse == fl.psi[k].len()) {
+            p.apply(&fl.psi[k], &mut psi[k], false);
+            for &pn in &m.pinned {
+                psi[k][pn as usize] = 0.0;
+            }
+        }
+        mg.solve(&f[k], &mut psi[k], RTOL, cancel)?;
+        if let Some(kk) = mg.finest() {
+            let mut ku = vec![0.0; nn];
+            kk.mul(&psi[k], &mut ku);
+            let fnorm = f[k].iter().map(|v| v * v).sum::<f64>().sqrt();
+            let rnorm = (ku.iter().zip(&f[k]))
+                .map(|(a, b)| (a - b) * (a - b))
+                .sum::<f64>()
+                .sqrt();
+            if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
+                return Err(Failure::Stalled {
+                    elements: m.elems.len(),
+                });
+            }
+        }
+    }
+    // τ from unit loads at a point of element `ei` with gradients `gx`, `gy`.
+    let scale = 1.0 / (2.0 * k1 * d);
+    let tau_at = |ei: usize, e: &[u32; 6], x: f64, y: f64, gx: &[f64; 6], gy: &[f64; 6]| {
+        let (n, g) = (m.weight[ei], m.shear[ei]);
+        let gnu = n * k1 - g;
+        let grad = |u: &[f64]| {
+            (0..6).fold([0.0, 0.0], |acc, i| {
+                let v = u[e[i] as usize];
+                [acc[0] + v * gx[i], acc[1] + v * gy[i]]
+            })
+        };
+        let (dv, _) = terms(mom, x, y);
+        let mut out = [[0.0; 2]; 3];
+        for k in 0..2 {
+            let gp = grad(&psi[k]);
+            out[k] = [
+                scale * (g * gp[0] - gnu * dv[k][0]),
+                scale * (g * gp[1] - gnu * dv[k][1]),
+            ];
+        }
+        let gw = grad(omega);
+        out[2] = [g / j * (gw[0] - y), g / j * (gw[1] + x)];
+        out
+    };
+    // Energy ∫τ²/g dA of each unit shear.
+    let mut energy = [0.0; 2];
+    for (ei, e) in m.elems.iter().enumerate() {
+        let p = e.map(|v| m.nodes[v as usize].sub(c));
+        let g = m.shear[ei];
+        if g <= 0.0 {
+            continue;
+        }
+        for q in 0..r4.points() {
+            let a = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
+            let t = tau_at(ei, e, a.x, a.y, &a.gx, &a.gy);
+            for k in 0..2 {
+                energy[k] += a.da * (t[k][0] * t[k][0] + t[k][1] * t[k][1]) / g;
+            }
+        }
+    }
+    if !(energy[0] > 0.0 && energy[1] > 0.0) {
+        return Err(Failure::Degenerate);
+    }
+    let samples = recover(m, c, &tau_at)?;
+    fl.psi = psi;
+    Ok(FlexLevel {
+        area: [1.0 / energy[0], 1.0 / energy[1]],
+        samples,
+    })
+}
+
+/// Nodal stresses: each node's elements' values at it, area-weighted; at a node where
+/// materials meet, each element's own value.
+fn recover(
+    m: &Mesh,
+    c: Pt,
+    tau_at: &dyn Fn(usize, &[u32; 6], f64, f64, &[f64; 6], &[f64; 6]) -> [[f64; 2]; 3],
+) -> Result<Vec<Sample>, Failure> {
+    let rule = node_rule();
+    let nn = m.nodes.len();
+    let mut sum = vec![[[0.0; 2]; 3]; nn];
+    let mut wsum = vec![0.0; nn];
+    // The material of the first element seen at each node, and whether another meets it.
+    let mut mat: Vec<Option<[f64; 2]>> = vec![None; nn];
+    let mut mixed = vec![false; nn];
+    let mut per_elem = Vec::with_capacity(m.elems.len() * 6);
+    for (ei, e) in m.elems.iter().enumerate() {
+        let p = e.map(|v| m.nodes[v as usize].sub(c));
+        let area = tri_area(&p);
+        let here = [m.weight[ei], m.shear[ei]];
+        for q in 0..6 {
+            let a = at(&p, &rule, q).ok_or(Failure::Degenerate)?;
+            let t = tau_at(ei, e, a.x, a.y, &a.gx, &a.gy);
+            let node = e[q] as usize;
+            match mat[node] {
+                None => mat[node] = Some(here),
+                Some(h) if h != here => mixed[node] = true,
+                Some(_) => {}
+            }
+            for (s, v) in sum[node].iter_mut().zip(&t) {
+                s[0] += area * v[0];
+                s[1] += area * v[1];
+            }
+            wsum[node] += area;
+            per_elem.push((node, here[0], t));
+        }
+    }
+    let mut out = Vec::with_capacity(nn);
+    for (i, (s, &w)) in sum.iter().zip(&wsum).enumerate() {
+        if mixed[i] || w <= 0.0 {
+            continue;
+        }
+        let n = mat[i].map_or(1.0, |h| h[0]);
+        out.push(Sample {
+            at: m.nodes[i].add(m.origin),
+            n,
+            tau: s.map(|v| [v[0] / w, v[1] / w]),
+        });
+    }
+    out.extend(
+        (per_elem.into_iter())
+            .filter(|&(node, _, _)| mixed[node])
+            .map(|(node, n, tau)| Sample {
+                at: m.nodes[node].add(m.origin),
+                n,
+                tau,
+            }),
+    );
+    Ok(out)
+}
+
+/// Area of the straight triangle through an element's corners.
+fn tri_area(p: &[Pt; 6]) -> f64 {
+    let (a, b) = (p[1].sub(p[0]), p[2].sub(p[0]));
+    0.5 * (a.x * b.y - a.y * b.x).abs()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::fe::{torsion, TorsionOptions};
+    use crate::geom::{Anchor, Piece, Placement, Shape};
+
+    fn flex(shape: Shape, nu: f64) -> Flexure {
+        let pl = Placement {
+            at: Pt::default(),
+            anchor: Anchor::Center,
+            rotate: 0.0,
+            flip_x: false,
+            flip_y: false,
+        };
+        let p = vec![Piece::plain("p", pl.apply(&shape.contours()), false)];
+        let opts = TorsionOptions {
+            flexure: Some(nu),
+            ..TorsionOptions::default()
+        };
+        let t = torsion(&p, &opts).expect("torsion solves");
+        t.flexure.expect("asked for").expect("flexure solves")
+    }
+
+    fn tau_max(f: &Flexure, vx: f64, vy: f64, t: f64) -> Peak {
+        let zero = |_: Pt| 0.0;
+        let load = Load {
+            vx,
+            vy,
+            t,
+            sigma: &zero,
+        };
+        f.peaks(&load).expect("three levels").0
+    }
+
+    #[test]
+    fn rectangle_without_poisson_is_the_elementary_parabola() {
+        // ν = 0: τ = (3V/2A)(1 − 4y²/h²) exactly (Timoshenko & Goodier, Theory of
+        // Elasticity, §124: the elementary solution is exact when ν = 0), and the
+        // energy of that parabola gives A_s = 5A/6 (closed form: ∫τ² dA = 6V²/(5A)).
+        let (b, h) = (40.0, 100.0);
+        let f = flex(Shape::Rect { b, h }, 0.0);
+        let a = b * h;
+        for (k, name) in [(0, "x"), (1, "y")] {
+            let err = (f.shear_area[k] - 5.0 * a / 6.0).abs() / (5.0 * a / 6.0);
+            assert!(
+                err < 1e-6,
+                "shear area {name}: {} vs {}",
+                f.shear_area[k],
+                5.0 * a / 6.0
+            );
+        }
+        assert!(f.shear_area_error <= 1e-3);
+        for (vx, vy) in [(0.0, 1.0), (1.0, 0.0)] {
+            // Nodal stresses converge as h², slower than the energy: the accuracy asked
+            // of every shear figure is 1e-3 (docs/format.md, Accuracy).
+            let p = tau_max(&f, vx, vy, 0.0);
+            let exact = 1.5 / a;
+            let err = (p.value - exact).abs() / exact;
+            assert!(
+                err < 1e-3 && p.rel_error < 1e-3,
+                "{vx} {vy}: {} vs {exact}, estimate {:.1e}",
+                p.value,
+                p.rel_error
+            );
+        }
+        // The largest stress from Vy lies on the neutral axis, y = 0.
+        assert!(tau_max(&f, 0.0, 1.0, 0.0).at.y.abs() < 1e-9 * h);
+    }
+
+    #[test]
+    fn turning_a_rectangle_swaps_its_shear_areas() {
+        // A rectangle turned a quarter turn swaps its x and y shear areas (symmetry of
+        // the flexure problem under x ↔ y with Ixx ↔ Iyy; Timoshenko & Goodier, flexure
+        // of bars), with ν ≠ 0 so that the Poisson terms are exercised too.
+        let f = flex(Shape::Rect { b: 30.0, h: 10.0 }, 0.3);
+        let g = flex(Shape::Rect { b: 10.0, h: 30.0 }, 0.3);
+        for k in 0..2 {
+            let e = (f.shear_area[k] - g.shear_area[1 - k]).abs() / f.shear_area[k];
+            assert!(e < 1e-5, "{k}: {:?} vs {:?}", f.shear_area, g.shear_area);
+        }
+    }
+}
