@@ -377,6 +377,8 @@ fn numbers_and_notation_change_the_table_and_never_the_json() {
     let bad = kern(&["calc", f, "--numbers", "pretty"]);
     assert_eq!(bad.status.code(), Some(2), "clap's usage error");
     assert!(String::from_utf8_lossy(&bad.stderr).contains("engineering, scientific or plain"));
+}
+
 /// `kern report FILE -o sheet.md` writes the drawing beside the sheet as sheet.svg and
 /// links it; stdout keeps the mark and says where the drawing goes; HTML holds it
 /// inline. A Markdown sheet named .svg is refused (it would be its own drawing).

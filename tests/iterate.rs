@@ -375,15 +375,15 @@ fn the_textconv_recipe_shows_property_changes() {
     std::fs::write(&p, PLATE.replace("h = 200", "h = 300")).unwrap();
     let o = git(&d, &["diff", "--no-color"]).unwrap();
     let t = stdout(&o);
-    // Ixx = 100·200³/12 = 6.667e7 before, 100·300³/12 = 2.25e8 after.
+    // Ixx = 100·200³/12 = 66.67×10⁶ before, 100·300³/12 = 225.0×10⁶ after (engineering form).
     assert!(
         t.lines()
-            .any(|l| l.starts_with('-') && l.contains("Ixx") && l.contains("6.667e7")),
+            .any(|l| l.starts_with('-') && l.contains("Ixx") && l.contains("66.67×10⁶")),
         "{t}"
     );
     assert!(
         t.lines()
-            .any(|l| l.starts_with('+') && l.contains("Ixx") && l.contains("2.250e8")),
+            .any(|l| l.starts_with('+') && l.contains("Ixx") && l.contains("225.0×10⁶")),
         "{t}"
     );
 }

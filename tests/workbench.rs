@@ -1041,17 +1041,33 @@ fn ascii_mode_draws_holes_and_voids() {
 fn changes_read_as_magnitudes_for_stresses_and_every_result_keeps_one() {
     let mut a = App::new(GIRDER.to_string(), None, Config::default(), Solver::Inline)
         .expect("valid section");
-    let before = a.analysis.stress.as_ref().unwrap().extremes.max_compression.value;
+    let before = a
+        .analysis
+        .stress
+        .as_ref()
+        .unwrap()
+        .extremes
+        .max_compression
+        .value;
     run(&mut a, Cmd::SwitchList);
     repeat(&mut a, Cmd::StepUp, 4);
-    let after = a.analysis.stress.as_ref().unwrap().extremes.max_compression.value;
+    let after = a
+        .analysis
+        .stress
+        .as_ref()
+        .unwrap()
+        .extremes
+        .max_compression
+        .value;
     assert!(before < after && after < 0.0, "{before} → {after}");
     let s = screen(&a, 120, 90);
     let line = |sym: &str| {
         s.lines()
             .find_map(|l| {
                 let panel = l.split("││").nth(1)?;
-                panel.starts_with(&format!("{sym} ")).then(|| panel.to_string())
+                panel
+                    .starts_with(&format!("{sym} "))
+                    .then(|| panel.to_string())
             })
             .unwrap_or_else(|| panic!("no row {sym}:\n{s}"))
     };
@@ -1062,7 +1078,10 @@ fn changes_read_as_magnitudes_for_stresses_and_every_result_keeps_one() {
     }
     assert!(line("xs").contains(" ="), "{}", line("xs"));
     let err = line("err");
-    assert!(!err.contains('↑') && !err.contains('↓') && !err.contains(" ="), "{err}");
+    assert!(
+        !err.contains('↑') && !err.contains('↓') && !err.contains(" ="),
+        "{err}"
+    );
     assert!(s.contains("↑ higher ↓ lower"), "the legend: {s}");
 }
 
@@ -1085,6 +1104,9 @@ fn the_panel_takes_the_notation_and_number_form_of_the_config() {
         .expect("valid config");
     let a = App::new(GIRDER.to_string(), None, config, Solver::Off).expect("valid section");
     let s = screen(&a, 120, 40);
-    assert!(s.contains("Wel,y,top") && s.contains("Iz ") && !s.contains("Sx,top"), "{s}");
+    assert!(
+        s.contains("Wel,y,top") && s.contains("Iz ") && !s.contains("Sx,top"),
+        "{s}"
+    );
     assert!(s.contains("6.870e8"), "{s}");
 }

@@ -9,7 +9,7 @@ use crate::analysis::{Analysis, Options};
 use crate::file::input::MAX_BYTES;
 use crate::iterate::compare::{compare, Trend};
 use crate::model::units::LengthUnit;
-use crate::numfmt::{change, sig};
+use crate::numfmt::{change, sig, Change};
 use crate::report::json::to_json;
 use crate::report::out::OutUnits;
 use crate::report::CAUTION;
@@ -146,10 +146,11 @@ fn table(na: &str, nb: &str, a: &Analysis, b: &Analysis, units: Option<LengthUni
     for r in &rows {
         let c = &r.change;
         let v = |x: Option<f64>| x.map_or("—".to_string(), |x| sig(x, 5));
-        let pct = match (c.a, c.b) {
-            (Some(x), Some(y)) if c.stress => change(y.abs(), x.abs()),
-            (Some(x), Some(y)) => change(y, x),
-            _ => None,
+        let pct = match change(c.b, c.a, c.compare) {
+            Change::Up(s) => Some(format!("+{s}")),
+            Change::Down(s) => Some(format!("−{s}")),
+            Change::Same => Some("±0".into()),
+            Change::NotComparable | Change::Blank => None,
         };
         let words = match r.trend {
             Trend::Same => "",

@@ -5,6 +5,7 @@
 
 use crate::analysis::Analysis;
 use crate::model::units::LengthUnit;
+use crate::numfmt::Compare;
 use crate::report::out::OutUnits;
 use crate::report::rows::{rows, Row};
 
@@ -35,6 +36,8 @@ pub struct Change {
     pub b: Option<f64>,
     /// Whether the result is a stress (compared by magnitude).
     pub stress: bool,
+    /// How the change reads (the row's own rule, [`Row::compare`]).
+    pub compare: Compare,
 }
 
 impl Change {
@@ -81,7 +84,6 @@ pub struct Compared {
 pub fn compare(a: &Analysis, b: &Analysis, units: Option<LengthUnit>) -> Vec<Compared> {
     let ua = OutUnits::new(a.section.units, units);
     let ub = OutUnits::new(b.section.units, Some(ua.length));
-    let stress_unit = ua.stress().name;
     let ra = rows(a, &ua);
     let rb = rows(b, &ub);
     let make = |r: &Row, va: Option<f64>, vb: Option<f64>| Change {
@@ -91,7 +93,8 @@ pub fn compare(a: &Analysis, b: &Analysis, units: Option<LengthUnit>) -> Vec<Com
         meaning: r.meaning,
         a: va,
         b: vb,
-        stress: r.unit == stress_unit,
+        stress: r.compare == Compare::Magnitude,
+        compare: r.compare,
     };
     let mut out: Vec<Compared> = ra
         .iter()

@@ -20,8 +20,7 @@ pub use anchor::Anchor;
 pub use diag::{Diagnostic, Span};
 pub use document::{
     ActionsDoc, Document, LimitsDoc, MaterialDoc, MemberDoc, PartDoc, PointDoc, SheetDoc,
-    StringMaps, Val,
-    Value,
+    StringMaps, Val, Value,
 };
 pub use loads::{Actions, Support};
 pub use schema::{Dims, ShapeKind};

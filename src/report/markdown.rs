@@ -547,18 +547,18 @@ energy-consistent, A_s = V²/(G·∫τ²/G dA), transformed to G of the first ma
 forces act through the flexural centre and T about the shear centre; the stresses are on \
 the gross region (holes left out), sampled at the mesh nodes; materials are taken as \
 isotropic. The von Mises stress √(σ² + 3τ²) adds the normal stress of N, Mx, My.",
-        fig(nu)
+        fig(u, nu)
     );
     if let (Some(act), Some(p)) = (&a.section.actions, &sh.tau_max) {
         let (f, m, st) = (u.force(), u.moment(), u.stress());
         text.push_str(&format!(
             " Under Vx = {} {f}, Vy = {} {f}, T = {} {m}: τmax = {} {st} at ({}, {}).",
-            fig(f.from_si(act.vx.unwrap_or(0.0))),
-            fig(f.from_si(act.vy.unwrap_or(0.0))),
-            fig(m.from_si(act.t.unwrap_or(0.0))),
-            fig(st.from_si(p.value)),
-            fig(u.geo(p.at.x, 1)),
-            fig(u.geo(p.at.y, 1)),
+            fig(u, f.from_si(act.vx.unwrap_or(0.0))),
+            fig(u, f.from_si(act.vy.unwrap_or(0.0))),
+            fig(u, m.from_si(act.t.unwrap_or(0.0))),
+            fig(u, st.from_si(p.value)),
+            fig(u, u.geo(p.at.x, 1)),
+            fig(u, u.geo(p.at.y, 1)),
             f = f.name,
             m = m.name,
             st = st.name,

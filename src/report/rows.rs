@@ -227,7 +227,7 @@ pub fn net_view(a: &Analysis) -> Option<Analysis> {
 }
 
 /// Display order of the groups in the views.
-pub const GROUPS: [&str; 14] = [
+pub const GROUPS: [&str; 15] = [
     "Area",
     "Centroid",
     "Second moments",
