@@ -67,11 +67,20 @@ impl Totals {
     }
 }
 
+/// Relative to the section's extent, the size below which a length in the table is
+/// floating-point residue: the moments are exact to about 1e-12, FORMAT.md promises 1e-9.
+pub const RESIDUE: f64 = 1e-10;
+
 /// The terms of every enabled part with a positive own area, about the section's
 /// centroid. A part whose area is not positive (degenerate) contributes nothing and is
-/// left out.
+/// left out. A coordinate or distance below [`RESIDUE`] of the section's extent is the
+/// rounding residue of exact sums (a centred part's x_i comes out as ~1e-15) and is
+/// shown as the 0 it is.
 pub fn terms(a: &Analysis) -> Vec<Term> {
     let c = a.props.centroid;
+    let [x0, x1, y0, y1] = a.props.bounds;
+    let floor = RESIDUE * (x1 - x0).abs().max((y1 - y0).abs());
+    let clean = |v: f64| if v.abs() < floor { 0.0 } else { v };
     a.pieces
         .iter()
         .filter_map(|p| {
@@ -82,12 +91,12 @@ pub fn terms(a: &Analysis) -> Vec<Term> {
                 void: p.void,
                 n: p.n,
                 a: w * own.area,
-                x: own.cx,
-                y: own.cy,
+                x: clean(own.cx),
+                y: clean(own.cy),
                 ixx_own: w * own.ixx,
                 iyy_own: w * own.iyy,
-                dy: own.cy - c.y,
-                dx: own.cx - c.x,
+                dy: clean(own.cy - c.y),
+                dx: clean(own.cx - c.x),
             })
         })
         .collect()
