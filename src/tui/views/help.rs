@@ -314,6 +314,10 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
             ),
             None => return,
         },
+        Mode::AskDisk(_) => format!(
+            "{} changed on disk, and there are unsaved edits here.\n\ny  take the disk's (mine stay one undo away)\nn  keep mine (saving asks before overwriting)",
+            clean(&app.path.as_ref().map_or(String::new(), |p| p.display().to_string()))
+        ),
         Mode::AskRecover(p) => format!(
             "Unsaved edits were kept in {} when kern last stopped.\n\ny  take them (as unsaved edits; s saves)\nn  open as saved, keep the copy",
             clean(&p.display().to_string())
