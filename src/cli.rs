@@ -2,16 +2,22 @@
 //! through the library and returns the process exit status (0 success, 2 an invalid
 //! section file, 1 any other failure).
 
+pub mod check;
+pub mod diff;
+pub mod seek;
+pub mod sensitivity;
+mod source;
+pub mod sweep;
+
 use crate::analysis::{Analysis, Options};
 pub use crate::file::load::{diagnostic_line, load, say};
 use crate::model::units::LengthUnit;
+pub use crate::parallel::parallel_map;
 use crate::report::out::OutUnits;
 use crate::report::{html, json::to_json, markdown, svg as drawing, table::to_table, CAUTION};
 use crate::text::clean;
 use std::io::{ErrorKind, Write};
-use std::panic::{catch_unwind, AssertUnwindSafe};
 use std::path::{Path, PathBuf};
-use std::sync::atomic::{AtomicUsize, Ordering};
 
 /// Options of `kern calc`.
 #[derive(Debug, Clone, Default)]
@@ -20,54 +26,6 @@ pub struct CalcArgs {
     pub json: bool,
     pub units: Option<LengthUnit>,
     pub options: Options,
-}
-
-/// Runs `f` over `items` on every core, keeping the input order of the results. A
-/// panic in `f` is caught for its item alone: that slot holds the panic's message.
-pub fn parallel_map<T: Sync, R: Send>(
-    items: &[T],
-    f: impl Fn(&T) -> R + Sync,
-) -> Vec<Result<R, String>> {
-    let workers = std::thread::available_parallelism()
-        .map_or(1, |n| n.get())
-        .min(items.len().max(1));
-    let next = AtomicUsize::new(0);
-    let mut slots: Vec<Option<Result<R, String>>> = Vec::new();
-    slots.resize_with(items.len(), || None);
-    let done: Vec<Vec<(usize, Result<R, String>)>> = std::thread::scope(|s| {
-        let handles: Vec<_> = (0..workers)
-            .map(|_| {
-                s.spawn(|| {
-                    let mut mine = Vec::new();
-                    loop {
-                        let i = next.fetch_add(1, Ordering::Relaxed);
-                        let Some(item) = items.get(i) else { break };
-                        let r = catch_unwind(AssertUnwindSafe(|| f(item)));
-                        mine.push((i, r.map_err(|p| panic_message(p.as_ref()))));
-                    }
-                    mine
-                })
-            })
-            .collect();
-        // Every panic is caught above, so a worker always returns its results.
-        handles.into_iter().filter_map(|h| h.join().ok()).collect()
-    });
-    for (i, r) in done.into_iter().flatten() {
-        slots[i] = Some(r);
-    }
-    slots
-        .into_iter()
-        .map(|s| s.unwrap_or_else(|| Err("the worker thread stopped".into())))
-        .collect()
-}
-
-/// The text of a panic's payload.
-fn panic_message(payload: &(dyn std::any::Any + Send)) -> String {
-    payload
-        .downcast_ref::<&str>()
-        .map(|s| s.to_string())
-        .or_else(|| payload.downcast_ref::<String>().cloned())
-        .unwrap_or_else(|| "a panic".into())
 }
 
 /// Writes `text` to stdout: status 0, also when the reader has gone (a closed pipe, as
@@ -224,29 +182,6 @@ fn emit(out: Option<&Path>, text: &str) -> i32 {
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    /// A panic on one item is that item's error alone: every other result keeps its place.
-    #[test]
-    fn a_panicking_item_keeps_every_result_in_place() {
-        let items: Vec<usize> = (0..40).collect();
-        let r = parallel_map(&items, |&i| {
-            if i == 2 || i == 17 {
-                panic!("injected on item {i}");
-            }
-            i * 10
-        });
-        assert_eq!(r.len(), items.len());
-        for (i, x) in r.iter().enumerate() {
-            match x {
-                Ok(v) => assert_eq!(*v, i * 10),
-                Err(m) => {
-                    assert!(i == 2 || i == 17, "item {i} failed: {m}");
-                    assert_eq!(m, &format!("injected on item {i}"));
-                }
-            }
-        }
-        assert_eq!(r.iter().filter(|x| x.is_err()).count(), 2);
-    }
 
     /// `kern calc` over five files whose analysis panics on the third: the others print
     /// under their own names, the third says `FILE: internal error`, and the status is 1.

@@ -2,6 +2,11 @@
 
 use clap::{Parser, Subcommand};
 use kern::analysis::Options;
+use kern::cli::check::CheckArgs;
+use kern::cli::diff::DiffArgs;
+use kern::cli::seek::SeekArgs;
+use kern::cli::sensitivity::SensitivityArgs;
+use kern::cli::sweep::SweepArgs;
 use kern::cli::{calc, print_out, report, svg, CalcArgs, ReportArgs};
 use kern::fe::TorsionOptions;
 use kern::model::units::LengthUnit;
@@ -35,6 +40,13 @@ enum Verb {
         /// Target relative error of the torsion results.
         #[arg(long, default_value_t = kern::fe::DEFAULT_TOL)]
         torsion_tol: f64,
+        /// For every param, the rate of change of one result (--result) per unit of the
+        /// param and per kg/m of added mass, ranked.
+        #[arg(long)]
+        sensitivity: bool,
+        /// With --sensitivity: the dotted JSON key of the result (default inertia.xx).
+        #[arg(long, requires = "sensitivity")]
+        result: Option<String>,
     },
     /// Write a calculation sheet for one section file (Markdown, or HTML with --html).
     Report {
@@ -65,6 +77,79 @@ enum Verb {
         #[arg(long)]
         no_torsion: bool,
     },
+    /// A table of results against one param over evenly spaced values.
+    Sweep {
+        file: PathBuf,
+        /// The param to vary (a name in [params]).
+        #[arg(long)]
+        param: String,
+        /// The first value, in the file's length unit.
+        #[arg(long, allow_hyphen_values = true)]
+        from: f64,
+        /// The last value, in the file's length unit.
+        #[arg(long, allow_hyphen_values = true)]
+        to: f64,
+        /// How many values, both ends included (at least 2).
+        #[arg(long)]
+        steps: usize,
+        /// One `calc --json` object per value, with "sweep": {"param", "value"}.
+        #[arg(long, conflicts_with = "csv")]
+        json: bool,
+        /// Comma-separated values for a spreadsheet.
+        #[arg(long)]
+        csv: bool,
+        /// A result to show, by its dotted JSON key (repeat for more; default: a set of
+        /// the main ones).
+        #[arg(long)]
+        result: Vec<String>,
+        /// Skip the finite-element torsion solve.
+        #[arg(long)]
+        no_torsion: bool,
+    },
+    /// Find the value of a param for which a result reaches a target.
+    Seek {
+        file: PathBuf,
+        /// The param to solve for (a name in [params]).
+        #[arg(long)]
+        param: String,
+        /// KEY=VALUE: a dotted JSON key and its target, e.g. inertia.xx=8e8,
+        /// member.utilization=0.9, member.deflection_max=span/500, inertia.xx="800 cm4".
+        #[arg(long)]
+        target: String,
+        /// Search between A and B (A..B); default: out from the current value over the
+        /// positive values for which the file computes.
+        #[arg(long, allow_hyphen_values = true)]
+        within: Option<String>,
+        /// {"param", "value", "result": {calc object}}.
+        #[arg(long)]
+        json: bool,
+        /// Put the value into the file (one line changed, layout kept).
+        #[arg(long)]
+        write: bool,
+    },
+    /// Two sections' results side by side; B may be REV:PATH of A's git repository
+    /// (REV: alone is A at that revision, e.g. HEAD:).
+    Diff {
+        a: PathBuf,
+        b: String,
+        /// {"a": {calc object}, "b": {calc object}}.
+        #[arg(long)]
+        json: bool,
+        /// Express lengths in this unit: mm, cm, m, in or ft.
+        #[arg(long, value_parser = parse_unit)]
+        units: Option<LengthUnit>,
+        /// Skip the finite-element torsion solve.
+        #[arg(long)]
+        no_torsion: bool,
+    },
+    /// Check section files for CI: exit 0 all pass, 1 any fails, 2 any invalid.
+    Check {
+        #[arg(required = true)]
+        files: Vec<PathBuf>,
+        /// One JSON object per file.
+        #[arg(long)]
+        json: bool,
+    },
     /// Print the workbench's keys as Markdown (the list in README.md).
     Keys,
 }
@@ -89,17 +174,28 @@ fn main() {
             units,
             no_torsion,
             torsion_tol,
+            sensitivity,
+            result,
         }) => {
             let torsion = (!no_torsion).then(|| TorsionOptions {
                 tol: torsion_tol,
                 ..TorsionOptions::default()
             });
-            calc(&CalcArgs {
-                files,
-                json,
-                units,
-                options: Options { torsion },
-            })
+            if sensitivity {
+                kern::cli::sensitivity::sensitivity(&SensitivityArgs {
+                    files,
+                    result,
+                    json,
+                    options: Options { torsion },
+                })
+            } else {
+                calc(&CalcArgs {
+                    files,
+                    json,
+                    units,
+                    options: Options { torsion },
+                })
+            }
         }
         Some(Verb::Report {
             file,
@@ -120,6 +216,57 @@ fn main() {
             units,
             no_torsion,
         }) => svg(&file, out.as_deref(), units, &torsion_options(no_torsion)),
+        Some(Verb::Sweep {
+            file,
+            param,
+            from,
+            to,
+            steps,
+            json,
+            csv,
+            result,
+            no_torsion,
+        }) => kern::cli::sweep::sweep(&SweepArgs {
+            file,
+            param,
+            from,
+            to,
+            steps,
+            json,
+            csv,
+            results: result,
+            options: torsion_options(no_torsion),
+        }),
+        Some(Verb::Seek {
+            file,
+            param,
+            target,
+            within,
+            json,
+            write,
+        }) => kern::cli::seek::seek(&SeekArgs {
+            file,
+            param,
+            target,
+            within,
+            json,
+            write,
+            options: torsion_options(false),
+        }),
+        Some(Verb::Diff {
+            a,
+            b,
+            json,
+            units,
+            no_torsion,
+        }) => kern::cli::diff::diff(&DiffArgs {
+            a,
+            b,
+            json,
+            units,
+            options: torsion_options(no_torsion),
+        }),
+        Some(Verb::Check { files, json }) => kern::cli::check::check(&CheckArgs { files, json }),
         Some(Verb::Keys) => print_out(&kern::tui::keys::markdown()),
         None => kern::tui::run(cli.file),
     };

@@ -3,7 +3,7 @@
 //! errors, so a typo never silently changes a result.
 
 use super::fast_points::{self, Scanned};
-use crate::model::document::ActionsDoc;
+use crate::model::document::{ActionsDoc, LimitsDoc};
 use crate::model::schema::{shape_names, ShapeKind, SPECS};
 use crate::model::units::LengthUnit;
 use crate::model::{
@@ -22,6 +22,7 @@ const TOP_KEYS: &[&str] = &[
     "parts",
     "actions",
     "member",
+    "limits",
 ];
 const PART_KEYS: &[&str] = &[
     "name", "shape", "at", "anchor", "rotate", "flip_x", "flip_y", "void", "hole", "enabled",
@@ -29,6 +30,7 @@ const PART_KEYS: &[&str] = &[
 ];
 const MATERIAL_KEYS: &[&str] = &["name", "E", "fy", "density", "G", "nu"];
 const ACTION_KEYS: &[&str] = &["N", "Mx", "My", "Vx", "Vy", "T"];
+const LIMIT_KEYS: &[&str] = &["utilization", "deflection_limit", "min", "max"];
 const MEMBER_KEYS: &[&str] = &[
     "span",
     "support",
@@ -162,7 +164,12 @@ fn parse_with(text: &str, fast: &[Scanned], used: &Cell<usize>) -> Result<Docume
         None => None,
         Some(item) => Some(r.member(r.table(item, "member", 0..1)?, span(item, 0..1))?),
     };
+    let limits = match root.get("limits") {
+        None => None,
+        Some(item) => Some(r.limits(r.table(item, "limits", 0..1)?, span(item, 0..1))?),
+    };
     Ok(Document {
+        limits,
         title,
         units,
         units_span,
@@ -587,6 +594,64 @@ remove `void = false` or set `hole = false`",
             material: self.opt_str(t, "material", sp.clone())?,
             span: sp,
         })
+    }
+
+    /// `[limits]`: the two member limits and the `min` / `max` tables of results,
+    /// whose nested keys (`inertia.xx = 8e8`, or `inertia = { xx = 8e8 }`) are read
+    /// as dotted result keys.
+    fn limits(&self, t: &dyn TableLike, sp: Span) -> Result<LimitsDoc, Diagnostic> {
+        self.known_keys(t, LIMIT_KEYS, "[limits]", sp.clone())?;
+        let mut bounds = [Vec::new(), Vec::new()];
+        for (slot, name) in bounds.iter_mut().zip(["min", "max"]) {
+            if let Some(item) = t.get(name) {
+                let inner = self.table(item, &format!("limits.{name}"), sp.clone())?;
+                self.result_keys(inner, "", sp.clone(), slot, 0)?;
+            }
+        }
+        let [min, max] = bounds;
+        Ok(LimitsDoc {
+            utilization: self.opt_val(t, "utilization", sp.clone())?,
+            deflection_limit: self.opt_val(t, "deflection_limit", sp.clone())?,
+            min,
+            max,
+            span: sp,
+        })
+    }
+
+    /// The entries of a `[limits]` bound table as (dotted key, key span, value),
+    /// descending into nested tables (at most a few levels: result keys have three).
+    fn result_keys(
+        &self,
+        t: &dyn TableLike,
+        prefix: &str,
+        fallback: Span,
+        out: &mut Vec<(String, Span, Val)>,
+        depth: usize,
+    ) -> Result<(), Diagnostic> {
+        for (k, v) in t.iter() {
+            let ks = t
+                .key(k)
+                .and_then(|k| k.span())
+                .unwrap_or_else(|| span(v, fallback.clone()));
+            let path = if prefix.is_empty() {
+                k.to_string()
+            } else {
+                format!("{prefix}.{k}")
+            };
+            match v.as_table_like() {
+                Some(inner) if depth < 3 => {
+                    self.result_keys(inner, &path, ks, out, depth + 1)?;
+                }
+                Some(_) => {
+                    return Err(Diagnostic::new(
+                        ks,
+                        format!("`{path}` is nested too deeply to be a result key"),
+                    ))
+                }
+                None => out.push((path.clone(), ks.clone(), self.val(v, &path, ks)?)),
+            }
+        }
+        Ok(())
     }
 
     fn member(&self, t: &dyn TableLike, sp: Span) -> Result<MemberDoc, Diagnostic> {

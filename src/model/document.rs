@@ -98,6 +98,23 @@ pub struct ActionsDoc {
     pub t: Option<Val>,
 }
 
+/// `[limits]`: what `kern check` holds the section to, beyond utilization ≤ 1 and
+/// no stress above fy (docs/format.md "Limits"). Values are kept as written; the
+/// keys of `min` and `max` are dotted result keys of `kern calc --json`, checked
+/// against the table of results where the limits are enforced.
+#[derive(Debug, Clone, PartialEq)]
+pub struct LimitsDoc {
+    pub span: Span,
+    /// The largest member utilization allowed (at most 1).
+    pub utilization: Option<Val>,
+    /// The member's deflection may be at most span / this.
+    pub deflection_limit: Option<Val>,
+    /// Lower bounds: (dotted result key, span of the key, bound).
+    pub min: Vec<(String, Span, Val)>,
+    /// Upper bounds, as `min`.
+    pub max: Vec<(String, Span, Val)>,
+}
+
 /// Where the text of string values stands in the file, for each string whose value is
 /// not simply the bytes between one pair of quotes (escapes such as `\t` or `\u00e9`,
 /// multi-line strings): keyed by the start of the string's span, checkpoints
@@ -117,6 +134,8 @@ pub struct Document {
     pub parts: Vec<PartDoc>,
     pub actions: Option<ActionsDoc>,
     pub member: Option<MemberDoc>,
+    /// `[limits]`, for `kern check`.
+    pub limits: Option<LimitsDoc>,
     /// Positions of the strings with escapes or line breaks, for error columns.
     pub string_maps: StringMaps,
 }

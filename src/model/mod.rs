@@ -19,7 +19,8 @@ pub mod warning;
 pub use anchor::Anchor;
 pub use diag::{Diagnostic, Span};
 pub use document::{
-    ActionsDoc, Document, MaterialDoc, MemberDoc, PartDoc, PointDoc, StringMaps, Val, Value,
+    ActionsDoc, Document, LimitsDoc, MaterialDoc, MemberDoc, PartDoc, PointDoc, StringMaps, Val,
+    Value,
 };
 pub use loads::{Actions, Support};
 pub use schema::{Dims, ShapeKind};

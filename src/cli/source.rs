@@ -1,0 +1,131 @@
+//! A section file as the iterating verbs need it: its name, its text (to place an
+//! error at `FILE:LINE:COLUMN`) and its document (to change a param without writing
+//! the text again).
+
+use crate::file::input::read_text;
+use crate::file::load::diagnostic_line;
+use crate::file::parse;
+use crate::iterate::Failure;
+use crate::model::{Diagnostic, Document};
+use crate::text::clean;
+use std::path::Path;
+
+/// One section file, read and parsed.
+pub struct Source {
+    /// The name to print (the path as given).
+    pub name: String,
+    pub text: String,
+    pub doc: Document,
+}
+
+impl Source {
+    /// Reads and parses `path`; the error is the line to print (status 2).
+    pub fn open(path: &Path) -> Result<Source, String> {
+        let name = path.display().to_string();
+        let text = read_text(path).map_err(|e| clean(&e.line(path)))?;
+        Source::of_text(name, text)
+    }
+
+    /// A source from text read elsewhere (a git revision), named `name`.
+    pub fn of_text(name: String, text: String) -> Result<Source, String> {
+        let doc = parse(&text).map_err(|d| diagnostic_line(&name, &text, &d))?;
+        Ok(Source { name, text, doc })
+    }
+
+    /// The line that says where and why `d` stands in this file.
+    pub fn line(&self, d: &Diagnostic) -> String {
+        diagnostic_line(&self.name, &self.text, d)
+    }
+
+    /// The line for a failed value of a param: `FILE:LINE:COLUMN: message (at NAME = X)`.
+    pub fn failure_line(&self, f: &Failure, param: &str, x: f64) -> String {
+        let at = format!("with {param} = {x}");
+        clean(&match f {
+            Failure::Invalid(d) => format!("{} ({at})", self.line(d)),
+            other => format!("{}: {} ({at})", self.name, other.message()),
+        })
+    }
+
+    /// `FILE: message`, cleaned.
+    pub fn say_line(&self, message: &str) -> String {
+        clean(&format!("{}: {message}", self.name))
+    }
+}
+
+/// Result `q` of `a` as the views show it (output units, fractions in percent).
+pub fn shown(
+    q: &crate::report::rows::Quantity,
+    a: &crate::analysis::Analysis,
+    u: &crate::report::out::OutUnits,
+) -> Option<f64> {
+    match (q.get)(a) {
+        crate::report::rows::Cell::Num(x) => Some(q.dim.shown(x, u)).filter(|v| v.is_finite()),
+        _ => None,
+    }
+}
+
+/// The heading of a result in a table: its symbol (or key) and unit, `Ixx [mm⁴]`.
+pub fn heading(q: &crate::report::rows::Quantity, u: &crate::report::out::OutUnits) -> String {
+    let name = if q.symbol.is_empty() {
+        q.path
+    } else {
+        q.symbol
+    };
+    let unit = q.dim.label(u);
+    if unit.is_empty() {
+        name.to_string()
+    } else {
+        format!("{name} [{unit}]")
+    }
+}
+
+/// Text columns padded to their widths (counted in characters), the first column and
+/// those in `left` left-aligned, the rest right-aligned, two spaces apart.
+pub fn columns(rows: &[Vec<String>]) -> String {
+    columns_left(rows, &[])
+}
+
+/// [`columns`] with more left-aligned columns.
+pub fn columns_left(rows: &[Vec<String>], left: &[usize]) -> String {
+    let n = rows.iter().map(Vec::len).max().unwrap_or(0);
+    let width: Vec<usize> = (0..n)
+        .map(|i| {
+            rows.iter()
+                .filter_map(|r| r.get(i))
+                .map(|c| c.chars().count())
+                .max()
+                .unwrap_or(0)
+        })
+        .collect();
+    let mut out = String::new();
+    for r in rows {
+        let cells: Vec<String> = r
+            .iter()
+            .enumerate()
+            .map(|(i, c)| {
+                let pad = width[i].saturating_sub(c.chars().count());
+                if i == 0 || left.contains(&i) {
+                    format!("{c}{}", " ".repeat(pad))
+                } else {
+                    format!("{}{c}", " ".repeat(pad))
+                }
+            })
+            .collect();
+        out.push_str(cells.join("  ").trim_end());
+        out.push('\n');
+    }
+    out
+}
+
+/// `x` to `n` significant figures without trailing zeros (`200`, `262.654`, `1e-5`):
+/// for values a person typed or will type, such as a param.
+pub fn plain(x: f64, n: usize) -> String {
+    let s = crate::numfmt::sig(x, n);
+    match s.split_once('e') {
+        Some((m, e)) if m.contains('.') => {
+            format!("{}e{e}", m.trim_end_matches('0').trim_end_matches('.'))
+        }
+        None if s.contains('.') => s.trim_end_matches('0').trim_end_matches('.').to_string(),
+        _ => s,
+    }
+}
