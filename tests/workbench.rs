@@ -1237,3 +1237,49 @@ fn the_open_file_is_followed_on_disk() {
     assert_eq!(a.text, mine, "my edits are one undo away");
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+const PLATE: &str = "format = 1\nunits = \"mm\"\n\n[params]\nb = 100\nh = 200   # depth\n\n[[parts]]\nname = \"plate\"\nshape = \"rect\"\nb = \"b\"\nh = \"h\"\n";
+
+#[test]
+fn seek_finds_the_depth_a_hand_calculation_gives_and_applies_it_as_one_edit() {
+    let mut a = app(PLATE);
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::Seek);
+    typed(&mut a, "Ixx = 1e8");
+    key(&mut a, KeyCode::Enter);
+    let Mode::AskSeek(found) = a.mode.clone() else {
+        panic!("asks before taking: {:?} {:?}", a.mode, a.message)
+    };
+    // A rectangle: Ixx = b·h³/12, so h = (12·Ixx/b)^(1/3) (Gere & Goodno, App. E case 1).
+    let h = (12.0 * 1e8 / 100.0f64).cbrt();
+    assert!((found.value - h).abs() < 1e-6 * h, "{} vs {h}", found.value);
+    insta::assert_snapshot!("seek-80x24", screen(&a, 80, 24));
+    assert_eq!(a.text, PLATE, "nothing changes before the yes");
+    key(&mut a, KeyCode::Char('y'));
+    assert_eq!(
+        diff_lines(PLATE, &a.text),
+        vec![(
+            "h = 200   # depth".to_string(),
+            "h = 228.943   # depth".to_string()
+        )]
+    );
+    assert!((a.analysis.props.ixx / 1e8 - 1.0).abs() < 1e-5);
+    run(&mut a, Cmd::Undo);
+    assert_eq!(a.text, PLATE);
+    // No value of h gives a negative Ixx: refused, with the range Ixx runs over.
+    run(&mut a, Cmd::Seek);
+    typed(&mut a, "Ixx = -5");
+    key(&mut a, KeyCode::Enter);
+    let m = refusal(&a);
+    assert!(
+        m.contains("no value of h") && m.contains("runs from"),
+        "{m}"
+    );
+    key(&mut a, KeyCode::Esc);
+    // An unknown result names the nearest key.
+    run(&mut a, Cmd::Seek);
+    typed(&mut a, "inertia.xy2 = 3");
+    key(&mut a, KeyCode::Enter);
+    assert!(refusal(&a).contains("did you mean"), "{}", refusal(&a));
+}

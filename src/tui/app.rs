@@ -144,6 +144,8 @@ pub enum Target {
     NewKey(Place),
     /// A new name for a param.
     Rename(String),
+    /// A target for a param to reach (`Ixx = 8e8`).
+    Seek(String),
 }
 
 /// The shape picker: the highlighted row, and what the chosen shape is for.
@@ -181,6 +183,8 @@ pub enum Mode {
     /// The open file changed on disk while there are unsaved edits: keep them or take
     /// the file's text (this one)?
     AskDisk(String),
+    /// Take the value a seek found?
+    AskSeek(super::commands::seek::Found),
 }
 
 /// How torsion is solved.

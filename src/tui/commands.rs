@@ -4,6 +4,7 @@
 //! commands on whole parts in [`parts`].
 
 pub mod parts;
+pub mod seek;
 pub mod tables;
 
 use super::app::{App, Focus, LineEdit, Mode, Target};
@@ -99,6 +100,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         }
         Cmd::SaveAndQuit => {}
         Cmd::OpenTables => tables::open(app),
+        Cmd::Seek => seek::begin(app),
         Cmd::AddKey => tables::add(app),
         Cmd::RemoveKey => tables::remove(app),
         Cmd::Rename => tables::rename(app),
@@ -279,6 +281,13 @@ pub fn commit(app: &mut App) {
                         return;
                     }
                     return save_to(app, PathBuf::from(entry), false);
+                }
+                Target::Seek(param) => {
+                    if let Err(m) = seek::solve(app, param, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
                 }
                 Target::Key { .. } | Target::NewKey(_) | Target::Rename(_) => {
                     let taken = match tables::typed_edit(&target, &entry) {
@@ -631,6 +640,7 @@ fn answer_yes(app: &mut App) {
         }
         Mode::AskVoid(part) if part == app.part => parts::toggle(app, Flag::Void),
         Mode::AskDisk(text) => take_disk(app, text),
+        Mode::AskSeek(found) => seek::apply(app, found),
         other => app.mode = other,
     }
 }

@@ -182,7 +182,8 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskRecover(_)
         | Mode::AskBaseline
         | Mode::AskVoid(_)
-        | Mode::AskDisk(_) => Ctx::Asking,
+        | Mode::AskDisk(_)
+        | Mode::AskSeek(_) => Ctx::Asking,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

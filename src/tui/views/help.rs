@@ -318,6 +318,13 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
             "{} changed on disk, and there are unsaved edits here.\n\ny  take the disk's (mine stay one undo away)\nn  keep mine (saving asks before overwriting)",
             clean(&app.path.as_ref().map_or(String::new(), |p| p.display().to_string()))
         ),
+        Mode::AskSeek(f) => format!(
+            "{} = {} gives {} (now {}).\n\ny  take it (one edit, u undoes)\nn  go back",
+            clean(&f.param),
+            crate::file::edit::number_value(f.value),
+            f.reached,
+            f.was,
+        ),
         Mode::AskRecover(p) => format!(
             "Unsaved edits were kept in {} when kern last stopped.\n\ny  take them (as unsaved edits; s saves)\nn  open as saved, keep the copy",
             clean(&p.display().to_string())

@@ -59,7 +59,8 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         | Mode::AskRecover(_)
         | Mode::AskBaseline
         | Mode::AskVoid(_)
-        | Mode::AskDisk(_) => help::question(app, main, buf),
+        | Mode::AskDisk(_)
+        | Mode::AskSeek(_) => help::question(app, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
 }
