@@ -1283,3 +1283,26 @@ fn seek_finds_the_depth_a_hand_calculation_gives_and_applies_it_as_one_edit() {
     key(&mut a, KeyCode::Enter);
     assert!(refusal(&a).contains("did you mean"), "{}", refusal(&a));
 }
+
+#[test]
+fn params_are_ranked_by_what_they_buy() {
+    let text = PLATE.replace(
+        "\n[[parts]]",
+        "\n[[materials]]\nname = \"steel\"\nE = \"200 GPa\"\ndensity = \"7850 kg/m3\"\n\n[[parts]]",
+    );
+    let mut a = app(&text);
+    run(&mut a, Cmd::Rates);
+    key(&mut a, KeyCode::Enter);
+    let Mode::Rates(r) = a.mode.clone() else {
+        panic!("the window opens: {:?} {:?}", a.mode, a.message)
+    };
+    // Ixx = b·h³/12 and m = ρ·b·h: per kg/m, h buys (b·h²/4)/(ρ·b) and b buys
+    // (h³/12)/(ρ·h), three times less (Gere & Goodno, App. E case 1), so h ranks first.
+    let h = r.lines.iter().position(|l| l.starts_with("h:")).unwrap();
+    let b = r.lines.iter().position(|l| l.starts_with("b:")).unwrap();
+    assert!(h < b, "{:?}", r.lines);
+    insta::assert_snapshot!("rates-80x24", screen(&a, 80, 24));
+    insta::assert_snapshot!("rates-40x12", screen(&a, 40, 12));
+    run(&mut a, Cmd::Cancel);
+    assert_eq!(a.mode, Mode::Main);
+}

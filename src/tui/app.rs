@@ -146,6 +146,8 @@ pub enum Target {
     Rename(String),
     /// A target for a param to reach (`Ixx = 8e8`).
     Seek(String),
+    /// The result to rank the params by.
+    Rates,
 }
 
 /// The shape picker: the highlighted row, and what the chosen shape is for.
@@ -185,6 +187,8 @@ pub enum Mode {
     AskDisk(String),
     /// Take the value a seek found?
     AskSeek(super::commands::seek::Found),
+    /// The params ranked by what they buy of a result.
+    Rates(super::commands::rates::Rates),
 }
 
 /// How torsion is solved.

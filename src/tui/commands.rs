@@ -4,6 +4,7 @@
 //! commands on whole parts in [`parts`].
 
 pub mod parts;
+pub mod rates;
 pub mod seek;
 pub mod tables;
 
@@ -101,6 +102,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::SaveAndQuit => {}
         Cmd::OpenTables => tables::open(app),
         Cmd::Seek => seek::begin(app),
+        Cmd::Rates => rates::begin(app),
         Cmd::AddKey => tables::add(app),
         Cmd::RemoveKey => tables::remove(app),
         Cmd::Rename => tables::rename(app),
@@ -281,6 +283,13 @@ pub fn commit(app: &mut App) {
                         return;
                     }
                     return save_to(app, PathBuf::from(entry), false);
+                }
+                Target::Rates => {
+                    if let Err(m) = rates::open(app, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
                 }
                 Target::Seek(param) => {
                     if let Err(m) = seek::solve(app, param, &entry) {

@@ -183,7 +183,8 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskBaseline
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
-        | Mode::AskSeek(_) => Ctx::Asking,
+        | Mode::AskSeek(_)
+        | Mode::Rates(_) => Ctx::Asking,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

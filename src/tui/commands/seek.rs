@@ -43,14 +43,14 @@ pub fn begin(app: &mut App) {
 
 /// The result named by `key`: a symbol of the results panel (`Ixx`, `util`, `δ`) or a
 /// dotted key of `kern calc --json` (`inertia.xx`).
-fn quantity(key: &str) -> Result<&'static Quantity, String> {
+pub fn quantity(key: &str) -> Result<&'static Quantity, String> {
     numeric_keys()
         .find(|q| !q.symbol.is_empty() && q.symbol == key)
         .map_or_else(|| result_key(key), Ok)
 }
 
 /// A result's value as the panel shows it: four figures and the unit.
-fn shown(x: f64, q: &Quantity, u: &OutUnits) -> String {
+pub fn shown(x: f64, q: &Quantity, u: &OutUnits) -> String {
     match q.dim {
         Dim::Fraction | Dim::One => sig(x, 4),
         d => format!("{} {}", sig(x, 4), d.label(u)),

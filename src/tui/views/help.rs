@@ -282,6 +282,21 @@ pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     }
 }
 
+/// The params ranked by what they buy of a result (Esc or n closes).
+pub fn rates(app: &App, r: &crate::tui::commands::rates::Rates, area: Rect, buf: &mut Buffer) {
+    let th = &app.theme;
+    let win = centred(area, 76, r.lines.len() as u16 + 4);
+    Clear.render(win, buf);
+    let title = th.text(&format!("{} (Esc closes)", r.title));
+    let block = pane(th, &title, true);
+    let inner = block.inner(win);
+    block.render(win, buf);
+    let text: Vec<Line> = r.lines.iter().map(|l| Line::raw(th.text(l))).collect();
+    Paragraph::new(text)
+        .wrap(Wrap { trim: false })
+        .render(inner, buf);
+}
+
 /// The question of the moment.
 pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
