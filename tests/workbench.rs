@@ -1110,3 +1110,278 @@ fn the_panel_takes_the_notation_and_number_form_of_the_config() {
     );
     assert!(s.contains("6.870e8"), "{s}");
 }
+
+/// Opens the window of the file's keys on the row that reads `text` (the first one).
+fn to_row(a: &mut App, text: &str) {
+    use kern::tui::commands::tables::{rows, Row};
+    run(a, Cmd::OpenTables);
+    let all = rows(a.doc());
+    let at = all
+        .iter()
+        .position(|r| match r {
+            Row::Key(_, k, v) => format!("{k} = {v}") == text,
+            Row::Head(p, _) => p.label() == text,
+            Row::NewMaterial => text == "new material",
+        })
+        .unwrap_or_else(|| panic!("no row {text}: {all:?}"));
+    a.tables = Some(at);
+}
+
+#[test]
+fn the_title_units_materials_actions_and_member_are_edited_in_place() {
+    let lintel = section("garage-lintel.toml");
+    let mut a = app(&lintel);
+    to_row(
+        &mut a,
+        "title = \"Garage lintel, 2 angles 6 x 3-1/2 x 5/16\"",
+    );
+    run(&mut a, Cmd::Edit);
+    run(&mut a, Cmd::KillToStart);
+    typed(&mut a, "Garage lintel, door 2");
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(
+        diff_lines(&lintel, &a.text),
+        vec![(
+            "title = \"Garage lintel, 2 angles 6 x 3-1/2 x 5/16\"".to_string(),
+            "title = \"Garage lintel, door 2\"".to_string()
+        )]
+    );
+    assert!(a.tables.is_some(), "the window stays open for the next key");
+    // A material's modulus: the deflection 5wL⁴/(384EI) goes as 1/E (Gere & Goodno,
+    // Mechanics of Materials, App. G, simple beam under a uniform load).
+    let defl = a.analysis.member.as_ref().unwrap().deflection_max.unwrap();
+    to_row(&mut a, "E = \"29000 ksi\"");
+    run(&mut a, Cmd::Edit);
+    run(&mut a, Cmd::KillToStart);
+    typed(&mut a, "14500 ksi");
+    key(&mut a, KeyCode::Enter);
+    let now = a.analysis.member.as_ref().unwrap().deflection_max.unwrap();
+    assert!(
+        (now / defl - 2.0).abs() < 1e-9,
+        "half E, twice the deflection: {defl} → {now}"
+    );
+    // The member's span: a key that is not there is refused with the reader's hint.
+    to_row(&mut a, "[member]");
+    run(&mut a, Cmd::AddKey);
+    typed(&mut a, "spam = 3");
+    key(&mut a, KeyCode::Enter);
+    assert!(refusal(&a).contains("span"), "{}", refusal(&a));
+    key(&mut a, KeyCode::Esc);
+    // [actions] is made when the file has none, after the member.
+    to_row(&mut a, "[actions]");
+    run(&mut a, Cmd::AddKey);
+    typed(&mut a, "Mx = 20 kip*ft");
+    key(&mut a, KeyCode::Enter);
+    assert!(a.text.trim_end().ends_with("[actions]\nMx = \"20 kip*ft\""));
+    assert!(a.analysis.stress.is_some());
+    // Removing the member takes the whole table; u brings it back.
+    to_row(&mut a, "[member]");
+    run(&mut a, Cmd::RemoveKey);
+    assert!(!a.text.contains("[member]") && a.analysis.member.is_none());
+    run(&mut a, Cmd::Undo);
+    assert!(a.text.contains("[member]\nspan = \"9 ft\""));
+    // A second material, typed as key = value pairs, ahead of nothing else changing.
+    to_row(&mut a, "new material");
+    run(&mut a, Cmd::Edit);
+    typed(&mut a, "timber");
+    key(&mut a, KeyCode::End);
+    typed(&mut a, "11 GPa");
+    key(&mut a, KeyCode::Enter);
+    assert!(
+        a.text
+            .contains("[[materials]]\nname = \"timber\"\nE = \"11 GPa\"\n"),
+        "{}",
+        a.text
+    );
+    assert!(a.text.contains("# root radius"), "comments stay");
+    // Units: the numbers stay as written (the message line says so in the window).
+    to_row(&mut a, "units = \"in\"");
+    run(&mut a, Cmd::Edit);
+    run(&mut a, Cmd::KillToStart);
+    typed(&mut a, "mm");
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.analysis.section.units.name(), "mm");
+    run(&mut a, Cmd::Cancel);
+    assert!(a.tables.is_none());
+}
+
+#[test]
+fn params_are_added_renamed_with_every_use_and_removed_only_when_unused() {
+    let lintel = section("garage-lintel.toml");
+    let mut a = app(&lintel);
+    run(&mut a, Cmd::SwitchList);
+    // `t` is used by both angles: removing it is refused, naming where.
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::DeletePart);
+    let m = refusal(&a);
+    assert!(m.contains("part 1 t") && m.contains("part 2 t"), "{m}");
+    assert_eq!(a.text, lintel);
+    // Renamed (in the window of the file's keys), every use follows, and the results
+    // are the same.
+    let ixx = a.analysis.props.ixx;
+    to_row(&mut a, "t = 0.3125");
+    run(&mut a, Cmd::Rename);
+    run(&mut a, Cmd::KillToStart);
+    typed(&mut a, "t_leg");
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.text.matches("t = \"t_leg\"").count(), 2);
+    assert!(a.text.contains("t_leg = 0.3125     # leg thickness"));
+    assert_eq!(a.analysis.props.ixx, ixx);
+    // A name already taken is refused.
+    run(&mut a, Cmd::Rename);
+    run(&mut a, Cmd::KillToStart);
+    typed(&mut a, "gap");
+    key(&mut a, KeyCode::Enter);
+    assert!(refusal(&a).contains("already"), "{}", refusal(&a));
+    key(&mut a, KeyCode::Esc);
+    run(&mut a, Cmd::Cancel);
+    // Added from the params list, then removed (nothing uses it).
+    run(&mut a, Cmd::AddPart);
+    typed(&mut a, "lap = 2*t_leg");
+    key(&mut a, KeyCode::Enter);
+    assert!(a.text.contains("lap = \"2*t_leg\""));
+    run(&mut a, Cmd::Last);
+    run(&mut a, Cmd::DeletePart);
+    assert!(!a.text.contains("lap"));
+    run(&mut a, Cmd::Undo);
+    run(&mut a, Cmd::Undo);
+    run(&mut a, Cmd::Undo);
+    assert_eq!(a.text, lintel);
+}
+
+#[test]
+fn snapshots_of_the_keys_window() {
+    let mut a = app(&section("garage-lintel.toml"));
+    to_row(&mut a, "fy = \"36 ksi\"");
+    insta::assert_snapshot!("keys-80x24", screen(&a, 80, 24));
+    insta::assert_snapshot!("keys-40x12", screen(&a, 40, 12));
+    run(&mut a, Cmd::Edit);
+    insta::assert_snapshot!("keys-typing-80x24", screen(&a, 80, 24));
+}
+
+#[test]
+fn the_open_file_is_followed_on_disk() {
+    let dir = temp_dir("watch");
+    let file = dir.join("lintel.toml");
+    let lintel = section("garage-lintel.toml");
+    std::fs::write(&file, &lintel).unwrap();
+    let mut a = App::new(
+        lintel.clone(),
+        Some(file.clone()),
+        Config::default(),
+        Solver::Off,
+    )
+    .unwrap();
+    run(&mut a, Cmd::Down);
+    let baseline = a.baseline.props.ixx;
+    commands::follow_disk(&mut a);
+    assert_eq!(a.text, lintel, "nothing changed yet");
+    // Edited elsewhere, no unsaved edits here: taken, selection and baseline kept.
+    let thicker = lintel.replace("t = 0.3125", "t = 0.375");
+    std::fs::write(&file, &thicker).unwrap();
+    commands::follow_disk(&mut a);
+    assert_eq!(a.text, thicker);
+    assert!(!a.modified());
+    assert_eq!(a.part, 1);
+    assert_eq!(a.baseline.props.ixx, baseline, "the baseline stays");
+    assert!(a.analysis.props.ixx > baseline);
+    // A text that does not compute is not taken, and the message says where it is wrong.
+    std::fs::write(&file, thicker.replace("h = 6 ", "h = -6 ")).unwrap();
+    commands::follow_disk(&mut a);
+    assert_eq!(a.text, thicker);
+    let (m, err) = a.message.clone().unwrap();
+    assert!(err && m.contains("lintel.toml:"), "{m}");
+    // With unsaved edits it asks: keep mine, then take the disk's.
+    std::fs::write(&file, &lintel).unwrap();
+    commands::follow_disk(&mut a);
+    run(&mut a, Cmd::FlipX);
+    assert!(a.modified());
+    let mine = a.text.clone();
+    std::fs::write(&file, format!("{lintel}# edited elsewhere\n")).unwrap();
+    commands::follow_disk(&mut a);
+    assert!(matches!(a.mode, Mode::AskDisk(_)));
+    let real = a.path.replace(PathBuf::from("lintel.toml"));
+    insta::assert_snapshot!("disk-changed-80x24", screen(&a, 80, 24));
+    a.path = real;
+    key(&mut a, KeyCode::Char('n'));
+    assert_eq!(a.text, mine);
+    run(&mut a, Cmd::Save);
+    assert!(matches!(a.mode, Mode::AskOverwrite(_)), "saving asks first");
+    run(&mut a, Cmd::Cancel);
+    std::fs::write(&file, format!("{lintel}# edited again\n")).unwrap();
+    commands::follow_disk(&mut a);
+    key(&mut a, KeyCode::Char('y'));
+    assert!(a.text.ends_with("# edited again\n"));
+    run(&mut a, Cmd::Undo);
+    assert_eq!(a.text, mine, "my edits are one undo away");
+    std::fs::remove_dir_all(&dir).unwrap();
+}
+
+const PLATE: &str = "format = 1\nunits = \"mm\"\n\n[params]\nb = 100\nh = 200   # depth\n\n[[parts]]\nname = \"plate\"\nshape = \"rect\"\nb = \"b\"\nh = \"h\"\n";
+
+#[test]
+fn seek_finds_the_depth_a_hand_calculation_gives_and_applies_it_as_one_edit() {
+    let mut a = app(PLATE);
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::Seek);
+    typed(&mut a, "Ixx = 1e8");
+    key(&mut a, KeyCode::Enter);
+    let Mode::AskSeek(found) = a.mode.clone() else {
+        panic!("asks before taking: {:?} {:?}", a.mode, a.message)
+    };
+    // A rectangle: Ixx = b·h³/12, so h = (12·Ixx/b)^(1/3) (Gere & Goodno, App. E case 1).
+    let h = (12.0 * 1e8 / 100.0f64).cbrt();
+    assert!((found.value - h).abs() < 1e-6 * h, "{} vs {h}", found.value);
+    insta::assert_snapshot!("seek-80x24", screen(&a, 80, 24));
+    assert_eq!(a.text, PLATE, "nothing changes before the yes");
+    key(&mut a, KeyCode::Char('y'));
+    assert_eq!(
+        diff_lines(PLATE, &a.text),
+        vec![(
+            "h = 200   # depth".to_string(),
+            "h = 228.943   # depth".to_string()
+        )]
+    );
+    assert!((a.analysis.props.ixx / 1e8 - 1.0).abs() < 1e-5);
+    run(&mut a, Cmd::Undo);
+    assert_eq!(a.text, PLATE);
+    // No value of h gives a negative Ixx: refused, with the range Ixx runs over.
+    run(&mut a, Cmd::Seek);
+    typed(&mut a, "Ixx = -5");
+    key(&mut a, KeyCode::Enter);
+    let m = refusal(&a);
+    assert!(
+        m.contains("no value of h") && m.contains("runs from"),
+        "{m}"
+    );
+    key(&mut a, KeyCode::Esc);
+    // An unknown result names the nearest key.
+    run(&mut a, Cmd::Seek);
+    typed(&mut a, "inertia.xy2 = 3");
+    key(&mut a, KeyCode::Enter);
+    assert!(refusal(&a).contains("did you mean"), "{}", refusal(&a));
+}
+
+#[test]
+fn params_are_ranked_by_what_they_buy() {
+    let text = PLATE.replace(
+        "\n[[parts]]",
+        "\n[[materials]]\nname = \"steel\"\nE = \"200 GPa\"\ndensity = \"7850 kg/m3\"\n\n[[parts]]",
+    );
+    let mut a = app(&text);
+    run(&mut a, Cmd::Rates);
+    key(&mut a, KeyCode::Enter);
+    let Mode::Rates(r) = a.mode.clone() else {
+        panic!("the window opens: {:?} {:?}", a.mode, a.message)
+    };
+    // Ixx = b·h³/12 and m = ρ·b·h: per kg/m, h buys (b·h²/4)/(ρ·b) and b buys
+    // (h³/12)/(ρ·h), three times less (Gere & Goodno, App. E case 1), so h ranks first.
+    let h = r.lines.iter().position(|l| l.starts_with("h:")).unwrap();
+    let b = r.lines.iter().position(|l| l.starts_with("b:")).unwrap();
+    assert!(h < b, "{:?}", r.lines);
+    insta::assert_snapshot!("rates-80x24", screen(&a, 80, 24));
+    insta::assert_snapshot!("rates-40x12", screen(&a, 40, 12));
+    run(&mut a, Cmd::Cancel);
+    assert_eq!(a.mode, Mode::Main);
+}

@@ -137,7 +137,90 @@ pub enum Edit {
         name: String,
         value: f64,
     },
+    /// A new param (refused when the name is taken); `[params]` is made if missing.
+    AddParam {
+        name: String,
+        entry: String,
+    },
+    /// A param renamed where it stands, and every expression that uses it with it.
+    RenameParam {
+        from: String,
+        to: String,
+    },
+    /// A param removed; refused while an expression uses it, naming where.
+    RemoveParam {
+        name: String,
+    },
+    /// A key of a table other than the parts set to what the user typed (see
+    /// [`typed_value`]), added at the table's end when it is not there; a missing
+    /// `[actions]` or `[member]` is made.
+    SetKey {
+        table: Place,
+        key: String,
+        entry: String,
+    },
+    /// A key of a table other than the parts removed.
+    RemoveKey {
+        table: Place,
+        key: String,
+    },
+    /// A `[[materials]]` entry appended with these keys (as typed).
+    AddMaterial {
+        keys: Vec<(String, String)>,
+    },
+    /// A whole `[actions]`, `[member]` or material removed.
+    RemoveTable {
+        table: Place,
+    },
 }
+
+/// A table of the file other than the parts: where the keys of [`Edit::SetKey`] and
+/// [`Edit::RemoveKey`] live. Materials are counted from 0.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Place {
+    /// The top of the file: `format`, `title`, `units`.
+    Top,
+    Params,
+    Material(usize),
+    Actions,
+    Member,
+}
+
+impl Place {
+    /// The table as the file writes it (for messages and headings).
+    pub fn label(self) -> String {
+        match self {
+            Place::Top => "top of the file".into(),
+            Place::Params => "[params]".into(),
+            Place::Material(i) => format!("material {}", i + 1),
+            Place::Actions => "[actions]".into(),
+            Place::Member => "[member]".into(),
+        }
+    }
+
+    /// The key of the table in the file's top level.
+    fn key(self) -> Option<&'static str> {
+        match self {
+            Place::Top => None,
+            Place::Params => Some("params"),
+            Place::Material(_) => Some("materials"),
+            Place::Actions => Some("actions"),
+            Place::Member => Some("member"),
+        }
+    }
+}
+
+/// Keys whose value is text, never an expression: what is typed is taken as written.
+pub const TEXT_KEYS: &[&str] = &[
+    "title",
+    "units",
+    "name",
+    "shape",
+    "material",
+    "anchor",
+    "support",
+    "load_height",
+];
 
 impl Edit {
     /// Makes the change in `doc`. On an error `doc` is unchanged.
@@ -208,6 +291,23 @@ impl Edit {
             }),
             Edit::SetParam { name, entry } => set_param(doc, name, entry_value(entry)?),
             Edit::SetParamNumber { name, value } => set_param(doc, name, number_value(*value)),
+            Edit::AddParam { name, entry } => add_param(doc, name, entry_value(entry)?),
+            Edit::RenameParam { from, to } => rename_param(doc, from, to),
+            Edit::RemoveParam { name } => remove_param(doc, name),
+            Edit::SetKey { table, key, entry } => {
+                let v = typed_value(key, entry)?;
+                set_key(table_mut(doc, *table, true)?, key, v);
+                Ok(())
+            }
+            Edit::RemoveKey { table, key } => {
+                let t = table_mut(doc, *table, false)?;
+                match t.remove(key) {
+                    Some(_) => Ok(()),
+                    None => Err(format!("{} has no `{key}`", table.label())),
+                }
+            }
+            Edit::AddMaterial { keys } => add_material(doc, keys),
+            Edit::RemoveTable { table } => remove_table(doc, *table),
         }
     }
 
@@ -366,6 +466,328 @@ fn set_param(doc: &mut DocumentMut, name: &str, v: Value) -> Result<(), String> 
     }
     set_key(t, name, v);
     Ok(())
+}
+
+/// What the user typed for a key: text keys ([`TEXT_KEYS`]) as written, `true` and
+/// `false` as booleans, a `[` or `{` as a TOML array or inline table (a point-load
+/// list), anything else as a number cell takes it ([`entry_value`]).
+///
+/// ```
+/// use kern::file::edit::typed_value;
+/// assert_eq!(typed_value("title", "Bay 3 girder").unwrap().to_string(), "\"Bay 3 girder\"");
+/// assert_eq!(typed_value("self_weight", "true").unwrap().to_string(), "true");
+/// assert_eq!(typed_value("fy", "355 MPa").unwrap().to_string(), "\"355 MPa\"");
+/// assert_eq!(typed_value("deflection_limit", "360").unwrap().to_string(), "360");
+/// assert!(typed_value("point", "[{ P = \"30 kN\", a = \"2 m\" }]").unwrap().is_array());
+/// ```
+pub fn typed_value(key: &str, entry: &str) -> Result<Value, String> {
+    let t = entry.trim();
+    if TEXT_KEYS.contains(&key) {
+        if t.is_empty() {
+            return Err(format!("type the text of `{key}`"));
+        }
+        return Ok(Value::from(t));
+    }
+    match t {
+        "true" => Ok(Value::from(true)),
+        "false" => Ok(Value::from(false)),
+        _ if t.starts_with(['[', '{']) => toml_value(t, "e.g. [{ P = \"30 kN\", a = \"2 m\" }]"),
+        _ => entry_value(t),
+    }
+}
+
+/// A typed TOML array or inline table as a value; a syntax error names the column of
+/// the entry, and `example` shows what to type.
+fn toml_value(entry: &str, example: &str) -> Result<Value, String> {
+    const LEAD: &str = "v = ";
+    let src = format!("{LEAD}{}", entry.trim());
+    let doc = src.parse::<DocumentMut>().map_err(|e| {
+        let col = e.span().map_or(1, |s| {
+            src.get(..s.start)
+                .map_or(0, |b| b.chars().count())
+                .saturating_sub(LEAD.len())
+                + 1
+        });
+        let why: Vec<&str> = e.message().lines().map(str::trim).collect();
+        format!("column {col}: {}; {example}", why.join("; "))
+    })?;
+    match doc.get("v").and_then(Item::as_value) {
+        Some(v) if doc.len() == 1 => Ok(v.clone()),
+        _ => Err(format!("type one value, {example}")),
+    }
+}
+
+/// A table of the file (not a part) to change; `make` creates a missing `[params]`,
+/// `[actions]` or `[member]`.
+fn table_mut(
+    doc: &mut DocumentMut,
+    table: Place,
+    make: bool,
+) -> Result<&mut dyn TableLike, String> {
+    let missing = || format!("the file has no {}", table.label());
+    let Some(key) = table.key() else {
+        return Ok(doc.as_table_mut());
+    };
+    if let Place::Material(i) = table {
+        return match doc.get_mut(key).ok_or_else(missing)? {
+            Item::ArrayOfTables(a) => a
+                .get_mut(i)
+                .map(|t| t as &mut dyn TableLike)
+                .ok_or_else(missing),
+            Item::Value(Value::Array(a)) => a
+                .get_mut(i)
+                .and_then(Value::as_inline_table_mut)
+                .map(|t| t as &mut dyn TableLike)
+                .ok_or_else(missing),
+            _ => Err(missing()),
+        };
+    }
+    if doc.get(key).is_none() {
+        if !make {
+            return Err(missing());
+        }
+        insert_before_parts(doc, key, Item::Table(Table::new()));
+    }
+    doc.get_mut(key)
+        .and_then(Item::as_table_like_mut)
+        .ok_or_else(missing)
+}
+
+/// Puts a new top-level table `key` into the document ahead of the parts (after them
+/// for `[actions]` and `[member]`, which files write last), keeping every other entry
+/// where it is.
+fn insert_before_parts(doc: &mut DocumentMut, key: &str, item: Item) {
+    let root = doc.as_table_mut();
+    let ahead = matches!(key, "params" | "materials") && root.contains_key("parts");
+    if !ahead {
+        root.insert(key, item);
+        return;
+    }
+    let entries: Vec<(Key, Item)> = root
+        .iter()
+        .filter_map(|(k, _)| root.get_key_value(k))
+        .map(|(k, v)| (k.clone(), v.clone()))
+        .collect();
+    root.clear();
+    let mut item = Some(item);
+    for (k, v) in entries {
+        if k.get() == "parts" {
+            if let Some(new) = item.take() {
+                root.insert(key, new);
+            }
+        }
+        root.entry_format(&k).or_insert(v);
+    }
+}
+
+fn params_mut(doc: &mut DocumentMut) -> Result<&mut dyn TableLike, String> {
+    doc.get_mut("params")
+        .and_then(Item::as_table_like_mut)
+        .ok_or_else(|| "the file has no [params] table".to_string())
+}
+
+fn add_param(doc: &mut DocumentMut, name: &str, v: Value) -> Result<(), String> {
+    let name = name.trim();
+    if name.is_empty() {
+        return Err("type a name for the param, e.g. tw = 8".into());
+    }
+    let t = table_mut(doc, Place::Params, true)?;
+    if t.contains_key(name) {
+        return Err(format!("there is a param `{name}` already"));
+    }
+    t.insert(name, Item::Value(v));
+    Ok(())
+}
+
+/// Renames param `from` to `to` in `[params]` (its value, comment and place kept) and
+/// in every expression of the file that uses it.
+fn rename_param(doc: &mut DocumentMut, from: &str, to: &str) -> Result<(), String> {
+    let to = to.trim();
+    if to.is_empty() {
+        return Err("type the new name".into());
+    }
+    let t = params_mut(doc)?;
+    if !t.contains_key(from) {
+        return Err(format!("there is no param `{from}`"));
+    }
+    if from == to {
+        return Ok(());
+    }
+    if t.contains_key(to) {
+        return Err(format!("there is a param `{to}` already"));
+    }
+    let entries: Vec<(Key, Item)> = t
+        .iter()
+        .filter_map(|(k, _)| t.get_key_value(k))
+        .map(|(k, v)| (k.clone(), v.clone()))
+        .collect();
+    t.clear();
+    for (k, v) in entries {
+        let k = if k.get() == from {
+            Key::new(to)
+                .with_leaf_decor(k.leaf_decor().clone())
+                .with_dotted_decor(k.dotted_decor().clone())
+        } else {
+            k
+        };
+        t.entry_format(&k).or_insert(v);
+    }
+    each_expression(doc, &mut |_, v| {
+        if let Some(new) = v
+            .as_str()
+            .and_then(|s| crate::model::expr::rename(s, from, to))
+        {
+            let decor = v.decor().clone();
+            *v = Value::from(new);
+            *v.decor_mut() = decor;
+        }
+    });
+    Ok(())
+}
+
+/// Removes param `name`, unless an expression uses it.
+fn remove_param(doc: &mut DocumentMut, name: &str) -> Result<(), String> {
+    let users = uses(doc, name);
+    if !users.is_empty() {
+        return Err(format!(
+            "`{name}` is used by {}; change those first (or rename the param)",
+            users.join(", ")
+        ));
+    }
+    match params_mut(doc)?.remove(name) {
+        Some(_) => Ok(()),
+        None => Err(format!("there is no param `{name}`")),
+    }
+}
+
+/// Where the file's expressions use `name`: `params.d`, `part 2 b`, `member.span`…
+pub fn uses(doc: &mut DocumentMut, name: &str) -> Vec<String> {
+    let mut found = Vec::new();
+    each_expression(doc, &mut |place, v| {
+        let used = v
+            .as_str()
+            .and_then(|s| crate::model::expr::Expr::parse(s).ok())
+            .is_some_and(|e| e.names().iter().any(|n| n == name));
+        if used && !found.contains(&place.to_string()) {
+            found.push(place.to_string());
+        }
+    });
+    found
+}
+
+/// Calls `f` with every string value of the file that may be an expression (not the
+/// [`TEXT_KEYS`]), in arrays and inline tables too, and the place it stands in words.
+fn each_expression(doc: &mut DocumentMut, f: &mut dyn FnMut(&str, &mut Value)) {
+    fn walk(place: &str, v: &mut Value, f: &mut dyn FnMut(&str, &mut Value)) {
+        match v {
+            Value::Array(a) => a.iter_mut().for_each(|x| walk(place, x, f)),
+            Value::InlineTable(t) => {
+                for (k, x) in t.iter_mut() {
+                    if !TEXT_KEYS.contains(&k.get()) {
+                        walk(place, x, f);
+                    }
+                }
+            }
+            Value::String(_) => f(place, v),
+            _ => {}
+        }
+    }
+    fn table(prefix: &str, t: &mut dyn TableLike, f: &mut dyn FnMut(&str, &mut Value)) {
+        for (k, item) in t.iter_mut() {
+            if TEXT_KEYS.contains(&k.get()) {
+                continue;
+            }
+            let place = format!("{prefix}{}", k.get());
+            match item {
+                Item::Value(v) => walk(&place, v, f),
+                Item::Table(t) => table(&format!("{place}."), t, f),
+                _ => {}
+            }
+        }
+    }
+    for (k, item) in doc.as_table_mut().iter_mut() {
+        let key = k.get().to_string();
+        match item {
+            Item::Value(Value::Array(a)) if key == "parts" || key == "materials" => {
+                for (i, x) in a.iter_mut().enumerate() {
+                    walk(&format!("{} {}", singular(&key), i + 1), x, f);
+                }
+            }
+            Item::ArrayOfTables(a) => {
+                for (i, t) in a.iter_mut().enumerate() {
+                    table(&format!("{} {} ", singular(&key), i + 1), t, f);
+                }
+            }
+            Item::Table(t) => table(&format!("{key}."), t, f),
+            Item::Value(v) if !TEXT_KEYS.contains(&key.as_str()) => walk(&key, v, f),
+            _ => {}
+        }
+    }
+}
+
+fn singular(key: &str) -> &str {
+    key.strip_suffix('s').unwrap_or(key)
+}
+
+/// Appends a `[[materials]]` entry with `keys` (ahead of the parts when it is the first).
+fn add_material(doc: &mut DocumentMut, keys: &[(String, String)]) -> Result<(), String> {
+    let mut t = Table::new();
+    for (k, entry) in keys {
+        let k = k.trim();
+        if k.is_empty() {
+            return Err("a key has no name; type e.g. name = timber, E = 11 GPa".into());
+        }
+        t.insert(k, Item::Value(typed_value(k, entry)?));
+    }
+    match doc.get_mut("materials") {
+        None => {
+            let mut a = ArrayOfTables::new();
+            a.push(t);
+            insert_before_parts(doc, "materials", Item::ArrayOfTables(a));
+            Ok(())
+        }
+        Some(Item::ArrayOfTables(a)) => {
+            let at = a.iter().filter_map(Table::position).max();
+            if let Some(p) = at {
+                t.set_position(p);
+            }
+            a.push(t);
+            Ok(())
+        }
+        Some(_) => Err("the materials are written as an inline array; write them as [[materials]] tables to add one".into()),
+    }
+}
+
+/// Removes `[actions]`, `[member]` or one material.
+fn remove_table(doc: &mut DocumentMut, table: Place) -> Result<(), String> {
+    let missing = || format!("the file has no {}", table.label());
+    match table {
+        Place::Top | Place::Params => Err(format!(
+            "{} is not removed as a whole; remove its keys one by one",
+            table.label()
+        )),
+        Place::Actions | Place::Member => match table.key().and_then(|k| doc.remove(k)) {
+            Some(_) => Ok(()),
+            None => Err(missing()),
+        },
+        Place::Material(i) => {
+            let n = match doc.get_mut("materials").ok_or_else(missing)? {
+                Item::ArrayOfTables(a) if i < a.len() => {
+                    a.remove(i);
+                    a.len()
+                }
+                Item::Value(Value::Array(a)) if i < a.len() => {
+                    a.remove(i);
+                    a.len()
+                }
+                _ => return Err(missing()),
+            };
+            if n == 0 {
+                doc.remove("materials");
+            }
+            Ok(())
+        }
+    }
 }
 
 /// Rebuilds the `[[parts]]` array from `f` applied to its tables, keeping each slot's
@@ -790,5 +1212,119 @@ mod tests {
             text.contains("shape = \"zed\"\nd = 200\nb = 75\ntf = 8\ntw = 6\nr = 4\n"),
             "{text}"
         );
+    }
+
+    #[test]
+    fn params_are_added_renamed_with_their_uses_and_removed_only_when_unused() {
+        let t = edit(
+            SRC,
+            Edit::RenameParam {
+                from: "bf".into(),
+                to: "b_top".into(),
+            },
+        )
+        .unwrap();
+        assert_eq!(changed_lines(SRC, &t), 2);
+        assert!(t.contains("b_top = 250   # flange\n") && t.contains("b = \"b_top\"\n"));
+        let e = edit(SRC, Edit::RemoveParam { name: "bf".into() }).unwrap_err();
+        assert!(e.contains("`bf` is used by part 1 b"), "{e}");
+        let t = edit(
+            SRC,
+            Edit::AddParam {
+                name: "tw".into(),
+                entry: "8".into(),
+            },
+        )
+        .unwrap();
+        assert!(t.contains("bf = 250   # flange\ntw = 8\n"), "{t}");
+        let t = edit(&t, Edit::RemoveParam { name: "tw".into() }).unwrap();
+        assert_eq!(t, SRC);
+        assert!(edit(
+            SRC,
+            Edit::RenameParam {
+                from: "bf".into(),
+                to: "bf".into()
+            }
+        )
+        .is_ok());
+        // A file without params gets the table ahead of its parts.
+        let bare = "format = 1\nunits = \"mm\"\n\n[[parts]]\nshape = \"rect\"\nb = 1\nh = 1\n";
+        let t = edit(
+            bare,
+            Edit::AddParam {
+                name: "t".into(),
+                entry: "2*3".into(),
+            },
+        )
+        .unwrap();
+        let (pp, pa) = (t.find("[params]").unwrap(), t.find("[[parts]]").unwrap());
+        assert!(pp < pa && t.contains("t = \"2*3\""), "{t}");
+    }
+
+    #[test]
+    fn every_other_key_is_set_added_and_removed_in_place() {
+        let set = |table, key: &str, entry: &str| Edit::SetKey {
+            table,
+            key: key.into(),
+            entry: entry.into(),
+        };
+        let t = edit(SRC, set(Place::Top, "title", "Bay 3")).unwrap();
+        assert!(t.starts_with("# a comment\nformat = 1\nunits = \"mm\"\ntitle = \"Bay 3\"\n"));
+        let t = edit(SRC, set(Place::Actions, "Mx", "2 kN*m")).unwrap();
+        assert_eq!(changed_lines(SRC, &t), 1);
+        let t = edit(SRC, set(Place::Member, "span", "6 m")).unwrap();
+        assert!(t.trim_end().ends_with("[member]\nspan = \"6 m\""), "{t}");
+        let t = edit(
+            SRC,
+            Edit::RemoveKey {
+                table: Place::Actions,
+                key: "Mx".into(),
+            },
+        )
+        .unwrap();
+        assert!(!t.contains("Mx"));
+        let t = edit(
+            SRC,
+            Edit::AddMaterial {
+                keys: vec![
+                    ("name".into(), "timber".into()),
+                    ("E".into(), "11 GPa".into()),
+                ],
+            },
+        )
+        .unwrap();
+        let (pm, pa) = (
+            t.find("[[materials]]").unwrap(),
+            t.find("[[parts]]").unwrap(),
+        );
+        assert!(
+            pm < pa && t.contains("name = \"timber\"\nE = \"11 GPa\"\n"),
+            "{t}"
+        );
+        let t = edit(&t, set(Place::Material(0), "fy", "24 MPa")).unwrap();
+        assert!(t.contains("E = \"11 GPa\"\nfy = \"24 MPa\"\n"));
+        let t = edit(
+            &t,
+            Edit::RemoveTable {
+                table: Place::Material(0),
+            },
+        )
+        .unwrap();
+        assert_eq!(t, SRC);
+        let t = edit(
+            SRC,
+            Edit::RemoveTable {
+                table: Place::Actions,
+            },
+        )
+        .unwrap();
+        assert!(!t.contains("[actions]"));
+        assert!(edit(
+            SRC,
+            Edit::RemoveTable {
+                table: Place::Member
+            }
+        )
+        .is_err());
     }
 }

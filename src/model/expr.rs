@@ -192,6 +192,31 @@ impl Expr {
             .collect()
     }
 
+    /// Every place `name` is used, as byte offsets into the parsed text, in order.
+    fn offsets_of(&self, name: &str) -> Vec<usize> {
+        let mut found = Vec::new();
+        let mut todo: Vec<&Node> = vec![&self.root];
+        while let Some(node) = todo.pop() {
+            match node {
+                Node::Num(_) => {}
+                Node::Name { name: n, offset } if n == name => found.push(*offset),
+                Node::Name { .. } => {}
+                Node::Neg(inner) => todo.push(inner),
+                Node::Chain { first, rest } => {
+                    todo.extend(rest.iter().map(|(_, _, n)| n));
+                    todo.push(first);
+                }
+                Node::Pow { base, exp, .. } => {
+                    todo.push(exp);
+                    todo.push(base);
+                }
+                Node::Call { args, .. } => todo.extend(args.iter()),
+            }
+        }
+        found.sort_unstable();
+        found
+    }
+
     /// Each referenced name once, with the byte offset of its first appearance.
     fn references(&self) -> Vec<(&str, usize)> {
         let mut found: Vec<(&str, usize)> = Vec::new();
@@ -219,6 +244,27 @@ impl Expr {
         }
         found
     }
+}
+
+/// `src` with every use of the name `from` replaced by `to`, the rest as written; `None`
+/// when `src` is not an expression or does not use `from`.
+///
+/// ```
+/// use kern::model::expr::rename;
+/// assert_eq!(rename("2*tf + tf_2 - tf^2", "tf", "t").as_deref(), Some("2*t + tf_2 - t^2"));
+/// assert_eq!(rename("300 MPa", "MPa", "x"), None);
+/// assert_eq!(rename("bf", "tf", "t"), None);
+/// ```
+pub fn rename(src: &str, from: &str, to: &str) -> Option<String> {
+    let offsets = Expr::parse(src).ok()?.offsets_of(from);
+    if offsets.is_empty() {
+        return None;
+    }
+    let mut out = src.to_string();
+    for at in offsets.into_iter().rev() {
+        out.replace_range(at..at + from.len(), to);
+    }
+    Some(out)
 }
 
 /// Parse and evaluate with no names available.

@@ -10,7 +10,7 @@ use super::theme::Theme;
 use super::worker::{Poll, Worker};
 use crate::analysis::{Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
-use crate::file::edit::{self, Edit};
+use crate::file::edit::{self, Edit, Place};
 use crate::file::input::read_text;
 use crate::file::recover;
 use crate::geom::Pt;
@@ -137,6 +137,17 @@ pub enum Target {
     Param(String),
     /// The file name to save under.
     SaveAs,
+    /// The value of a key of a table other than the parts.
+    Key { table: Place, key: String },
+    /// A new key of a table, typed `key = value`; for a new material (one past the
+    /// last), several separated by commas.
+    NewKey(Place),
+    /// A new name for a param.
+    Rename(String),
+    /// A target for a param to reach (`Ixx = 8e8`).
+    Seek(String),
+    /// The result to rank the params by.
+    Rates,
 }
 
 /// The shape picker: the highlighted row, and what the chosen shape is for.
@@ -171,6 +182,13 @@ pub enum Mode {
     AskVoid(usize),
     /// The help overlay, scrolled by so many lines.
     Help(u16),
+    /// The open file changed on disk while there are unsaved edits: keep them or take
+    /// the file's text (this one)?
+    AskDisk(String),
+    /// Take the value a seek found?
+    AskSeek(super::commands::seek::Found),
+    /// The params ranked by what they buy of a result.
+    Rates(super::commands::rates::Rates),
 }
 
 /// How torsion is solved.
@@ -226,6 +244,11 @@ pub struct App {
     generation: u64,
     /// The generation of a background solve for the baseline, when one is under way.
     baseline_job: Option<u64>,
+    /// The window of the file's other keys (title, units, params, materials, actions,
+    /// member) is open, on this row.
+    pub tables: Option<usize>,
+    /// What the open file looked like on disk when last looked at.
+    pub watch: super::watch::Watch,
     pub quit: bool,
     /// Quit once the pending save succeeds.
     pub quit_after_save: bool,
@@ -273,11 +296,54 @@ impl App {
             solving: false,
             generation: 0,
             baseline_job: None,
+            tables: None,
+            watch: super::watch::Watch::default(),
             quit: false,
             quit_after_save: false,
         };
         app.start_torsion();
         Ok(app)
+    }
+
+    /// The kept document of the current text.
+    pub fn doc(&self) -> &DocumentMut {
+        &self.doc
+    }
+
+    /// Takes the file's new text from disk, keeping the selection and the baseline; the
+    /// text shown before is one undo away. One that does not compute is not taken, and
+    /// the message says why.
+    pub fn take_disk(&mut self, text: String) -> bool {
+        let name = self
+            .path
+            .as_ref()
+            .map_or("the file".into(), |p| p.display().to_string());
+        let doc = match edit::open(&text) {
+            Ok(d) => d,
+            Err(m) => {
+                self.error(format!("{name} changed on disk and is not valid: {m}; showing the last state that computed"));
+                return false;
+            }
+        };
+        match crate::file::load::analyse(&text, &Options::default()) {
+            Err(d) => {
+                let at = crate::file::load::diagnostic_line(&name, &text, &d);
+                self.error(format!("changed on disk, not taken: {at}"));
+                false
+            }
+            Ok(a) => {
+                self.doc = doc;
+                let old = std::mem::replace(&mut self.text, text.clone());
+                if old != text {
+                    self.undo.push(old);
+                    self.redo.clear();
+                }
+                self.saved = text.clone();
+                self.disk = Some(text);
+                self.set_analysis(a);
+                true
+            }
+        }
     }
 
     /// Are there changes since the last save?

@@ -4,6 +4,9 @@
 //! commands on whole parts in [`parts`].
 
 pub mod parts;
+pub mod rates;
+pub mod seek;
+pub mod tables;
 
 use super::app::{App, Focus, LineEdit, Mode, Target};
 use super::columns::{anchor, number, Col};
@@ -34,6 +37,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::SwitchList => switch_list(app),
         Cmd::PageDown => page(app, 1),
         Cmd::PageUp => page(app, -1),
+        Cmd::Edit if app.tables.is_some() => tables::edit(app),
         Cmd::Edit => begin_edit(app),
         Cmd::StepUp => step(app, 1, 1.0),
         Cmd::StepDown => step(app, 1, -1.0),
@@ -44,6 +48,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::ToggleVoid => parts::toggle(app, Flag::Void),
         Cmd::ToggleHole => parts::toggle_hole(app),
         Cmd::ToggleEnabled => parts::toggle(app, Flag::Enabled),
+        Cmd::AddPart if app.focus == Focus::Params => tables::add_param(app),
         Cmd::AddPart => parts::open_picker(app, false),
         Cmd::ChangeShape => parts::open_picker(app, true),
         Cmd::NextAnchor => parts::cycle_anchor(app, 1),
@@ -51,6 +56,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::FlipX => parts::toggle(app, Flag::FlipX),
         Cmd::FlipY => parts::toggle(app, Flag::FlipY),
         Cmd::CopyPart => parts::copy_part(app),
+        Cmd::DeletePart if app.focus == Focus::Params => tables::remove_param(app),
         Cmd::DeletePart => parts::delete_part(app),
         Cmd::MoveUp => parts::move_part(app, false),
         Cmd::MoveDown => parts::move_part(app, true),
@@ -94,6 +100,12 @@ pub fn run(app: &mut App, cmd: Cmd) {
             save(app);
         }
         Cmd::SaveAndQuit => {}
+        Cmd::OpenTables => tables::open(app),
+        Cmd::Seek => seek::begin(app),
+        Cmd::Rates => rates::begin(app),
+        Cmd::AddKey => tables::add(app),
+        Cmd::RemoveKey => tables::remove(app),
+        Cmd::Rename => tables::rename(app),
     }
 }
 
@@ -118,6 +130,7 @@ fn move_row(app: &mut App, by: i64) {
             let max = help::max_scroll(&app.theme, app.screen);
             *s = (*s as i64 + by).clamp(0, max as i64) as u16;
         }
+        _ if app.tables.is_some() => tables::move_row(app, by),
         _ => {
             let (row, n) = match app.focus {
                 Focus::Parts => (&mut app.part, app.analysis.document.parts.len()),
@@ -271,6 +284,33 @@ pub fn commit(app: &mut App) {
                     }
                     return save_to(app, PathBuf::from(entry), false);
                 }
+                Target::Rates => {
+                    if let Err(m) = rates::open(app, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
+                }
+                Target::Seek(param) => {
+                    if let Err(m) = seek::solve(app, param, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
+                }
+                Target::Key { .. } | Target::NewKey(_) | Target::Rename(_) => {
+                    let taken = match tables::typed_edit(&target, &entry) {
+                        Ok((e, note)) => app.edit(e).then(|| app.note(note)).is_some(),
+                        Err(m) => {
+                            app.error(format!("refused: {m}"));
+                            false
+                        }
+                    };
+                    if !taken {
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
+                }
             };
             if app.edit(new) {
                 app.note("changed");
@@ -292,8 +332,62 @@ pub fn cancel(app: &mut App) {
     ) {
         app.quit_after_save = false;
     }
+    if app.mode == Mode::Main {
+        app.tables = None;
+    }
+    if let Mode::AskDisk(_) = app.mode {
+        return keep_mine(app);
+    }
     app.mode = Mode::Main;
     app.message = None;
+}
+
+/// Looks at the open file on disk (one `stat`; the text is read only when its time or
+/// size changed). Text that differs from what was last read or written there is taken
+/// when there are no unsaved edits (selection and baseline kept, the old text one undo
+/// away); with unsaved edits the workbench asks. Nothing happens while a line is typed
+/// or a question is open: the next look after that sees the change.
+pub fn follow_disk(app: &mut App) {
+    let Some(path) = app.path.clone() else { return };
+    if app.mode != Mode::Main {
+        return;
+    }
+    let Some(stamp) = app.watch.look(&path) else {
+        return;
+    };
+    app.watch.seen(stamp);
+    let Ok(text) = read_text(&path) else { return };
+    if app.disk.as_deref() == Some(text.as_str()) {
+        return;
+    }
+    let name = path.display().to_string();
+    if !app.modified() {
+        if app.take_disk(text) {
+            app.note(format!("{name} changed on disk: reloaded (u goes back)"));
+        }
+    } else if app.text == text {
+        // The file now holds exactly our edits: nothing is unsaved any more.
+        app.disk = Some(text.clone());
+        app.saved = text;
+    } else {
+        app.mode = Mode::AskDisk(text);
+    }
+}
+
+/// Keeps the unsaved edits over a file changed on disk; saving then asks before it
+/// overwrites the file.
+fn keep_mine(app: &mut App) {
+    if let Mode::AskDisk(_) = app.mode {
+        app.mode = Mode::Main;
+        app.note("kept your edits; the file on disk differs: saving asks before overwriting it");
+    }
+}
+
+/// Takes the file's text from disk over the unsaved edits (they stay one undo away).
+fn take_disk(app: &mut App, text: String) {
+    if app.take_disk(text) {
+        app.note("took the file from disk; your edits are one undo (u) away");
+    }
 }
 
 /// The size of a step: the largest 1, 2 or 5 × 10ⁿ not above `x` (x > 0).
@@ -554,6 +648,8 @@ fn answer_yes(app: &mut App) {
             app.note("baseline set: changes are now shown against the section as it is now (B: the file as opened)");
         }
         Mode::AskVoid(part) if part == app.part => parts::toggle(app, Flag::Void),
+        Mode::AskDisk(text) => take_disk(app, text),
+        Mode::AskSeek(found) => seek::apply(app, found),
         other => app.mode = other,
     }
 }

@@ -106,6 +106,9 @@ pub enum Ctx {
     Asking,
     /// The help overlay.
     Help,
+    /// The window of the file's other keys: title, units, params, materials, actions,
+    /// member.
+    Tables,
 }
 
 /// Every command a key can run (see [`super::commands::run`]).
@@ -167,6 +170,12 @@ pub enum Cmd {
     KillToEnd,
     Yes,
     SaveAndQuit,
+    OpenTables,
+    Seek,
+    Rates,
+    AddKey,
+    RemoveKey,
+    Rename,
 }
 
 /// One line of the key table.
@@ -195,7 +204,7 @@ const fn b(
     }
 }
 
-use Ctx::{Asking, Choosing, Help, Main, Typing};
+use Ctx::{Asking, Choosing, Help, Main, Tables, Typing};
 use KeyCode as K;
 
 const MOVE: &str = "Moving about";
@@ -206,6 +215,7 @@ const VIEW: &str = "View";
 const TYPE: &str = "Typing a value";
 const PICK: &str = "Choosing a shape";
 const ASK: &str = "Questions";
+const TABLES: &str = "Keys of the file";
 
 /// The key table, one binding a line.
 #[rustfmt::skip]
@@ -228,19 +238,29 @@ pub const KEYS: &[Binding] = &[
     b(Main, &[ch('[')], Cmd::FineDown, WHATIF, "fine step down"),
     b(Main, &[ch('}')], Cmd::CoarseUp, WHATIF, "coarse step up (coarse_step, default 25 %)"),
     b(Main, &[ch('{')], Cmd::CoarseDown, WHATIF, "coarse step down"),
+    b(Main, &[ch('/')], Cmd::Seek, WHATIF, "seek the param's value for a target"),
+    b(Main, &[ch('w')], Cmd::Rates, WHATIF, "what buys the most: params ranked"),
     b(Main, &[ch('v')], Cmd::ToggleVoid, WHATIF, "make the part a void or a solid again"),
     b(Main, &[ch('V')], Cmd::ToggleHole, WHATIF, "make the part a hole (net section only) or a void everywhere again"),
     b(Main, &[ch(' ')], Cmd::ToggleEnabled, WHATIF, "leave the part out, or take it back in"),
-    b(Main, &[ch('a')], Cmd::AddPart, PARTS, "add a part (choose its shape)"),
-    b(Main, &[ch('t')], Cmd::ChangeShape, PARTS, "change the part's shape (keeps its place and the sizes both shapes have)"),
-    b(Main, &[ch('n')], Cmd::NextAnchor, PARTS, "next anchor: the point of the part that sits at `at`"),
+    b(Main, &[ch('a')], Cmd::AddPart, PARTS, "add a part; in the params, a param"),
+    b(Main, &[ch('t')], Cmd::ChangeShape, PARTS, "new shape (keeps place and shared sizes)"),
+    b(Main, &[ch('n')], Cmd::NextAnchor, PARTS, "next anchor (the point put at `at`)"),
     b(Main, &[ch('N')], Cmd::PrevAnchor, PARTS, "previous anchor"),
     b(Main, &[ch('f')], Cmd::FlipX, PARTS, "mirror the part left to right (flip_x)"),
     b(Main, &[ch('F')], Cmd::FlipY, PARTS, "mirror the part top to bottom (flip_y)"),
     b(Main, &[ch('c')], Cmd::CopyPart, PARTS, "copy the part below itself"),
-    b(Main, &[ch('x'), code(K::Delete)], Cmd::DeletePart, PARTS, "delete the part"),
+    b(Main, &[ch('x'), code(K::Delete)], Cmd::DeletePart, PARTS, "delete the part, or the param if unused"),
     b(Main, &[ch('K')], Cmd::MoveUp, PARTS, "move the part up the list"),
     b(Main, &[ch('J')], Cmd::MoveDown, PARTS, "move the part down the list"),
+    b(Main, &[ch('o')], Cmd::OpenTables, TABLES, "the file's other keys (title, units, …)"),
+    b(Tables, &[code(K::Up), ch('k')], Cmd::Up, TABLES, "previous key"),
+    b(Tables, &[code(K::Down), ch('j')], Cmd::Down, TABLES, "next key"),
+    b(Tables, &[code(K::Enter), ch('e')], Cmd::Edit, TABLES, "type a new value (heading: add a key)"),
+    b(Tables, &[ch('a')], Cmd::AddKey, TABLES, "add a key, typed key = value"),
+    b(Tables, &[ch('x'), code(K::Delete)], Cmd::RemoveKey, TABLES, "remove the key (heading: the table)"),
+    b(Tables, &[ch('R')], Cmd::Rename, TABLES, "rename the param and its every use"),
+    b(Tables, &[code(K::Esc), ch('o'), ch('q')], Cmd::Cancel, TABLES, "close the window"),
     b(Main, &[ch('u')], Cmd::Undo, FILE, "undo"),
     b(Main, &[ch('r'), ctrl('r')], Cmd::Redo, FILE, "redo"),
     b(Main, &[ch('b')], Cmd::SetBaseline, FILE, "compare against the section as it is now"),
@@ -268,9 +288,9 @@ pub const KEYS: &[Binding] = &[
     b(Choosing, &[code(K::Down), ch('j')], Cmd::Down, PICK, "next shape"),
     b(Choosing, &[code(K::Enter)], Cmd::Commit, PICK, "take that shape (for the new part, or the part being changed)"),
     b(Choosing, &[code(K::Esc), ch('q')], Cmd::Cancel, PICK, "choose nothing, nothing changes"),
-    b(Asking, &[ch('y')], Cmd::Yes, ASK, "yes (quit without saving, overwrite, new baseline, solid or void)"),
+    b(Asking, &[ch('y')], Cmd::Yes, ASK, "yes (quit unsaved, overwrite, new baseline, void/solid, reload)"),
     b(Asking, &[ch('s')], Cmd::SaveAndQuit, ASK, "save, then quit"),
-    b(Asking, &[ch('n'), code(K::Esc)], Cmd::Cancel, ASK, "no, go back"),
+    b(Asking, &[ch('n'), code(K::Esc)], Cmd::Cancel, ASK, "no, go back (reload: keep mine)"),
     b(Help, &[code(K::Down), ch('j')], Cmd::Down, VIEW, "scroll the help"),
     b(Help, &[code(K::Up), ch('k')], Cmd::Up, VIEW, "scroll the help back"),
     b(Help, &[code(K::PageDown), ch(' ')], Cmd::PageDown, VIEW, "scroll the help a page"),

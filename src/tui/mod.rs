@@ -15,6 +15,7 @@ pub mod raster;
 pub mod rescue;
 pub mod theme;
 pub mod views;
+pub mod watch;
 pub mod worker;
 
 use crate::file::input::{read_text, ReadError};
@@ -59,6 +60,8 @@ pub fn starter(path: &std::path::Path) -> String {
 
 /// How often the screen checks on a running torsion solve.
 const SOLVE_POLL: Duration = Duration::from_millis(100);
+/// How often the open file is looked at on disk (one `stat` each time).
+const WATCH_POLL: Duration = Duration::from_millis(500);
 
 /// Opens the workbench on `path` (the demo if `None`); returns the exit status: 2 for a
 /// file that cannot be read or is not a valid section, as `kern calc` says it. The form
@@ -70,7 +73,10 @@ pub fn run(path: Option<PathBuf>, numbers: Option<Numbers>, notation: Option<Not
         Some(p) => match read_text(p) {
             Ok(t) => t,
             Err(ReadError::Missing) => {
-                new_file = Some(new_file_note(p));
+                new_file = Some(format!(
+                    "{}; the title is the file's name (o changes it)",
+                    new_file_note(p)
+                ));
                 starter(p)
             }
             Err(e) => {
@@ -146,17 +152,19 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
         if app.quit {
             return Ok(());
         }
-        // Block on input; only while a solve runs, wake up now and then to collect it.
-        let ev = if app.solving {
-            if event::poll(SOLVE_POLL)? {
-                Some(event::read()?)
-            } else {
-                None
-            }
-        } else {
-            Some(event::read()?)
+        // Block on input; wake up now and then to collect a running solve and to look
+        // at the file on disk.
+        let wait = match (app.solving, app.path.is_some()) {
+            (true, _) => Some(SOLVE_POLL),
+            (false, true) => Some(WATCH_POLL),
+            (false, false) => None,
+        };
+        let ev = match wait {
+            Some(t) if !event::poll(t)? => None,
+            _ => Some(event::read()?),
         };
         app.poll_solver();
+        commands::follow_disk(app);
         if let Some(Event::Key(k)) = ev {
             if k.kind != KeyEventKind::Release {
                 handle_key(app, &k);
@@ -169,6 +177,7 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
 /// What a key press does in the current mode.
 pub fn handle_key(app: &mut App, k: &KeyEvent) {
     let ctx = match app.mode {
+        Mode::Main if app.tables.is_some() => Ctx::Tables,
         Mode::Main => Ctx::Main,
         Mode::Typing { .. } => Ctx::Typing,
         Mode::Choosing(_) => Ctx::Choosing,
@@ -177,7 +186,10 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskReadOnly(_)
         | Mode::AskRecover(_)
         | Mode::AskBaseline
-        | Mode::AskVoid(_) => Ctx::Asking,
+        | Mode::AskVoid(_)
+        | Mode::AskDisk(_)
+        | Mode::AskSeek(_)
+        | Mode::Rates(_) => Ctx::Asking,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

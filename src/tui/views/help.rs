@@ -282,6 +282,21 @@ pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     }
 }
 
+/// The params ranked by what they buy of a result (Esc or n closes).
+pub fn rates(app: &App, r: &crate::tui::commands::rates::Rates, area: Rect, buf: &mut Buffer) {
+    let th = &app.theme;
+    let win = centred(area, 76, r.lines.len() as u16 + 4);
+    Clear.render(win, buf);
+    let title = th.text(&format!("{} (Esc closes)", r.title));
+    let block = pane(th, &title, true);
+    let inner = block.inner(win);
+    block.render(win, buf);
+    let text: Vec<Line> = r.lines.iter().map(|l| Line::raw(th.text(l))).collect();
+    Paragraph::new(text)
+        .wrap(Wrap { trim: false })
+        .render(inner, buf);
+}
+
 /// The question of the moment.
 pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
@@ -314,6 +329,17 @@ pub fn question(app: &App, area: Rect, buf: &mut Buffer) {
             ),
             None => return,
         },
+        Mode::AskDisk(_) => format!(
+            "{} changed on disk, and there are unsaved edits here.\n\ny  take the disk's (mine stay one undo away)\nn  keep mine (saving asks before overwriting)",
+            clean(&app.path.as_ref().map_or(String::new(), |p| p.display().to_string()))
+        ),
+        Mode::AskSeek(f) => format!(
+            "{} = {} gives {} (now {}).\n\ny  take it (one edit, u undoes)\nn  go back",
+            clean(&f.param),
+            crate::file::edit::number_value(f.value),
+            f.reached,
+            f.was,
+        ),
         Mode::AskRecover(p) => format!(
             "Unsaved edits were kept in {} when kern last stopped.\n\ny  take them (as unsaved edits; s saves)\nn  open as saved, keep the copy",
             clean(&p.display().to_string())

@@ -9,6 +9,7 @@ pub mod panel;
 pub mod params;
 pub mod parts;
 pub mod status;
+pub mod tables;
 
 use super::app::{App, Mode};
 use super::theme::Theme;
@@ -46,6 +47,9 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     }
     panel::render(app, panel_area, buf);
     status::render(app, foot, buf);
+    if let Some(row) = app.tables {
+        tables::render(app, row, main, buf);
+    }
     match &app.mode {
         Mode::Help(scroll) => help::render(app, *scroll, main, buf),
         Mode::Choosing(pick) => help::picker(app, *pick, main, buf),
@@ -54,7 +58,10 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         | Mode::AskReadOnly(_)
         | Mode::AskRecover(_)
         | Mode::AskBaseline
-        | Mode::AskVoid(_) => help::question(app, main, buf),
+        | Mode::AskVoid(_)
+        | Mode::AskDisk(_)
+        | Mode::AskSeek(_) => help::question(app, main, buf),
+        Mode::Rates(r) => help::rates(app, r, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
 }

@@ -2,6 +2,7 @@
 //! being typed), the message line (the last result, an error in its own style, or the
 //! main keys), and the caution every report carries.
 
+use crate::file::edit::Place;
 use crate::model::expr::Expr;
 use crate::report::CAUTION;
 use crate::text::clean;
@@ -79,6 +80,14 @@ fn edit_line(app: &App, x: u16, y: u16, w: usize, buf: &mut Buffer) {
                 }
                 Target::Param(n) => format!("param {}", clean(n)),
                 Target::SaveAs => "save as (file name)".into(),
+                Target::Key { table, key } => format!("{} · {}", table.label(), clean(key)),
+                Target::NewKey(Place::Material(i)) => {
+                    format!("material {} (key = value, …)", i + 1)
+                }
+                Target::NewKey(table) => format!("{} · new key = value", table.label()),
+                Target::Rename(n) => format!("new name for param {}", clean(n)),
+                Target::Seek(n) => format!("seek {}: result = target", clean(n)),
+                Target::Rates => "rank the params by (Ixx, util, mass_per_length…)".into(),
             };
             let chars: Vec<char> = line.text.chars().collect();
             // A long entry scrolls so the cursor stays in view.

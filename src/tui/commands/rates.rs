@@ -1,0 +1,86 @@
+//! What buys the most (`w`): for a typed result (`Ixx` by default), every param's rate
+//! of change per unit of the param and per kg/m of mass it adds, ranked by
+//! [`crate::iterate::sensitivity`] (central differences with the step it states), in a
+//! window over the screen.
+
+use super::seek::{quantity, shown};
+use crate::analysis::Options;
+use crate::iterate::sensitivity::{sensitivities, Difference, STEP};
+use crate::iterate::vary::needs_torsion;
+use crate::report::rows::Dim;
+use crate::tui::app::{App, LineEdit, Mode, Target};
+
+/// The window's text, made when it opens.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Rates {
+    pub title: String,
+    pub lines: Vec<String>,
+}
+
+/// Starts typing the result to rank the params by.
+pub fn begin(app: &mut App) {
+    if app.analysis.document.params.is_empty() {
+        return app.note("the section has no [params] to rank (o adds one)");
+    }
+    app.mode = Mode::Typing {
+        target: Target::Rates,
+        line: LineEdit::new("Ixx"),
+    };
+}
+
+/// Ranks the params by their rate for the result named `key` and opens the window.
+pub fn open(app: &mut App, key: &str) -> Result<(), String> {
+    let key = key.trim();
+    let q = quantity(key)?;
+    if needs_torsion(q) {
+        return Err(format!(
+            "`{key}` needs the torsion solve for every param; use `kern calc --sensitivity`"
+        ));
+    }
+    let a = &app.analysis;
+    let u = app.units();
+    let s = sensitivities(&a.document, q, &Options::default()).map_err(|f| f.message())?;
+    let unit = a.section.units.name();
+    let per = |x: f64| match q.dim {
+        Dim::Fraction | Dim::One => u.num(x, 3),
+        d => format!("{} {}", u.num(x, 3), d.label(&u)),
+    };
+    let mass_unit = u.mass().name;
+    let mut lines = vec![format!(
+        "{key} = {} now{}",
+        shown(s.result, q, &u),
+        s.mass.map_or(String::new(), |m| format!(
+            ", mass {} {mass_unit}",
+            u.num(m, 4)
+        ))
+    )];
+    lines.push(String::new());
+    for r in &s.rates {
+        let name = crate::text::clean(&r.param);
+        let line = match (r.per_unit, &r.failure) {
+            (Some(d), _) => {
+                let mass = r.per_mass.map_or("adds no mass".into(), |pm| {
+                    format!("{} per {mass_unit}", per(pm))
+                });
+                let side = match r.difference {
+                    Some(Difference::Forward) => " (one-sided: below does not compute)",
+                    Some(Difference::Backward) => " (one-sided: above does not compute)",
+                    _ => "",
+                };
+                format!("{name}: {} per {unit}, {mass}{side}", per(d))
+            }
+            (None, Some(f)) => format!("{name}: no rate ({})", f.message()),
+            (None, None) => format!("{name}: no rate"),
+        };
+        lines.push(line);
+    }
+    lines.push(String::new());
+    lines.push(format!(
+        "Central differences, step {STEP:e} of the value (or of the section's size); ranked by the rate per mass, then per unit."
+    ));
+    app.mode = Mode::Rates(Rates {
+        title: format!("What buys the most {key}"),
+        lines,
+    });
+    Ok(())
+}
