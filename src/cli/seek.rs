@@ -1,7 +1,7 @@
 //! `kern seek`: the value of a param for which a result reaches a target
 //! ([`crate::iterate::seek`]); `--write` puts it into the file, one line changed.
 
-use super::source::{plain, Source};
+use super::source::Source;
 use super::{print_out, say};
 use crate::analysis::Options;
 use crate::file::edit::Edit;
@@ -11,7 +11,7 @@ use crate::iterate::seek::{seek as solve, Range, SeekError, REL_TOL};
 use crate::iterate::target::parse_value;
 use crate::iterate::vary::{read, result_key};
 use crate::iterate::Probe;
-use crate::numfmt::sig;
+use crate::numfmt::{plain, sig};
 use crate::report::json::to_json;
 use crate::report::out::OutUnits;
 use serde_json::json;
