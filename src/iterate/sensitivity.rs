@@ -1,7 +1,9 @@
 //! Sensitivities: for every param, the rate of change of one result per unit of the
 //! param and per kilogram per metre of mass it adds, by a central difference
 //!
-//!     dR/dp ≈ (R(p + h) − R(p − h)) / (2h),   h = STEP · max(|p|, section size)
+//! ```text
+//! dR/dp ≈ (R(p + h) − R(p − h)) / (2h),   h = STEP · max(|p|, section size)
+//! ```
 //!
 //! (truncation error h²·R'''/6: about 3e-9 relative for a power law such as b·h³/12
 //! with STEP = 1e-4; the section size — the larger side of its bounding box — keeps
