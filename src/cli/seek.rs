@@ -9,7 +9,7 @@ use crate::file::load::analyse;
 use crate::file::save::{save, Overwrite};
 use crate::iterate::seek::{seek as solve, Range, SeekError, REL_TOL};
 use crate::iterate::target::parse_value;
-use crate::iterate::vary::{read, result_key};
+use crate::iterate::vary::{needs_torsion, read, result_key};
 use crate::iterate::Probe;
 use crate::numfmt::{plain, sig};
 use crate::report::json::to_json;
@@ -123,6 +123,13 @@ pub fn seek(args: &SeekArgs) -> i32 {
             solved.evaluations
         )));
         out.push('\n');
+        if needs_torsion(q) {
+            out.push_str(&src.say_line(&format!(
+                "{key} is a finite-element estimate: the target is met to the figures above, \
+                 the result itself only to the solve's estimated error (torsion.rel_error)"
+            )));
+            out.push('\n');
+        }
     }
     let mut status = 0;
     if args.write {
