@@ -134,6 +134,8 @@ pub struct ReportArgs {
     pub numbers: Numbers,
     pub notation: Notation,
     pub options: Options,
+    /// A table of the sensitivities of this result (a dotted JSON key) to every param.
+    pub sensitivity: Option<String>,
 }
 
 /// `kern report`: the calculation sheet of one file, Markdown or HTML.
@@ -147,6 +149,22 @@ pub fn report(args: &ReportArgs) -> i32 {
     };
     let u = OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
     let mut blocks = markdown::blocks(&args.file.display().to_string(), &a, &u);
+    if let Some(key) = &args.sensitivity {
+        match sensitivity::sheet_blocks(&a.document, key, &args.options) {
+            // Before the closing caution.
+            Ok(table) => {
+                let at = blocks.len().saturating_sub(1);
+                blocks.splice(at..at, table);
+            }
+            Err(m) => {
+                say(&clean(&format!(
+                    "{}: --sensitivity: {m}",
+                    args.file.display()
+                )));
+                return 2;
+            }
+        }
+    }
     let picture = drawing::drawing(&a, &u);
     if args.html {
         let title = a.section.title.as_deref().unwrap_or("(untitled section)");

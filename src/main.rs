@@ -73,6 +73,10 @@ enum Verb {
         /// Skip the finite-element torsion solve.
         #[arg(long)]
         no_torsion: bool,
+        /// Add a table of the sensitivities of this result (a dotted JSON key, e.g.
+        /// inertia.xx) to every param.
+        #[arg(long, value_name = "KEY")]
+        sensitivity: Option<String>,
     },
     /// Draw one section file to scale as SVG.
     Svg {
@@ -227,6 +231,7 @@ fn main() {
             html,
             units,
             no_torsion,
+            sensitivity,
         }) => report(&ReportArgs {
             file,
             out,
@@ -235,6 +240,7 @@ fn main() {
             numbers,
             notation,
             options: torsion_options(no_torsion),
+            sensitivity,
         }),
         Some(Verb::Svg {
             file,

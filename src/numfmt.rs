@@ -145,6 +145,24 @@ pub fn sig(x: f64, sig: usize) -> String {
     }
 }
 
+/// `x` as a number is usually typed: [`sig`] with trailing zeros dropped in plain
+/// notation (scientific notation keeps its figures).
+///
+/// ```
+/// use kern::numfmt::plain;
+/// assert_eq!(plain(200.0, 6), "200");
+/// assert_eq!(plain(262.654148, 6), "262.654");
+/// assert_eq!(plain(2.5e9, 3), "2.50e9");
+/// ```
+pub fn plain(x: f64, n: usize) -> String {
+    let s = sig(x, n);
+    if s.contains('.') && !s.contains('e') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
 /// How a change of a value against a baseline is read.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Compare {

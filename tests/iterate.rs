@@ -125,7 +125,7 @@ fn seek_refuses_cleanly_without_a_root() {
         e.contains("no value of h")
             && e.contains("from 100 to 300")
             && e.contains("8.33333e6 mm⁴ (at h = 100)")
-            && e.contains("2.25e8 mm⁴ (at h = 300)"),
+            && e.contains("2.25000e8 mm⁴ (at h = 300)"),
         "{e}"
     );
     // An unknown result key is an error with a hint.
@@ -440,7 +440,7 @@ fn check_exit_codes_and_limits() {
     let o = kern_in(&d, &["check", "lim.toml"]);
     assert_eq!(o.status.code(), Some(1), "{}", stdout(&o));
     assert!(
-        stdout(&o).contains("inertia.xx 2.250e8 < 3e8 mm⁴"),
+        stdout(&o).contains("inertia.xx 2.250e8 < 3.000e8 mm⁴"),
         "{}",
         stdout(&o)
     );
@@ -543,4 +543,35 @@ fn sensitivities_agree_with_finite_differences_of_calc() {
     std::fs::write(&p, text).unwrap();
     // Depth buys the most Ixx per kg of an I section (common practice): ranked first.
     assert_eq!(rates[0]["param"], "d");
+}
+
+#[test]
+fn the_report_can_carry_a_sensitivity_table() {
+    let d = scratch("report");
+    plate(&d);
+    let o = kern_in(
+        &d,
+        &[
+            "report",
+            "plate.toml",
+            "--no-torsion",
+            "--sensitivity",
+            "inertia.xx",
+        ],
+    );
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let t = stdout(&o);
+    let at = t.find("## Sensitivities").expect("a sensitivity section");
+    // Before the closing caution, which stays last.
+    assert!(t[at..].contains("Caution"), "{t}");
+    // ∂(b·h³/12)/∂h = b·h²/4 = 1.000e6 mm⁴/mm at b = 100, h = 200 (Gere & Goodno, App. E case 1).
+    assert!(
+        t[at..]
+            .lines()
+            .any(|l| l.contains("| h ") && l.contains("1.000e6")),
+        "{}",
+        &t[at..]
+    );
+    let o = kern_in(&d, &["report", "plate.toml", "--sensitivity", "inertia.x"]);
+    assert_eq!(o.status.code(), Some(2));
 }

@@ -3,13 +3,13 @@
 //! short, 2 when any is invalid (2 wins over 1: an invalid file was not checked at
 //! all). One line per file with the figures that decided, or one JSON object per file.
 
-use super::source::{plain, Source};
+use super::source::Source;
 use super::{parallel_map, print_out, say};
 use crate::analysis::{Analysis, Options};
 use crate::fe::TorsionOptions;
 use crate::iterate::check::{check as verdict, Bound, Figure, Verdict};
 use crate::iterate::vary::{needs_torsion, result_key};
-use crate::numfmt::sig;
+use crate::numfmt::{plain, sig};
 use crate::report::CAUTION;
 use crate::text::clean;
 use serde_json::{json, Value};

@@ -1,7 +1,7 @@
 //! `kern seek`: the value of a param for which a result reaches a target
 //! ([`crate::iterate::seek`]); `--write` puts it into the file, one line changed.
 
-use super::source::{plain, Source};
+use super::source::Source;
 use super::{print_out, say};
 use crate::analysis::Options;
 use crate::file::edit::Edit;
@@ -9,9 +9,9 @@ use crate::file::load::analyse;
 use crate::file::save::{save, Overwrite};
 use crate::iterate::seek::{seek as solve, Range, SeekError, REL_TOL};
 use crate::iterate::target::parse_value;
-use crate::iterate::vary::{read, result_key};
+use crate::iterate::vary::{needs_torsion, read, result_key};
 use crate::iterate::Probe;
-use crate::numfmt::sig;
+use crate::numfmt::{plain, sig};
 use crate::report::json::to_json;
 use crate::report::out::OutUnits;
 use serde_json::json;
@@ -123,6 +123,13 @@ pub fn seek(args: &SeekArgs) -> i32 {
             solved.evaluations
         )));
         out.push('\n');
+        if needs_torsion(q) {
+            out.push_str(&src.say_line(&format!(
+                "{key} is a finite-element estimate: the target is met to the figures above, \
+                 the result itself only to the solve's estimated error (torsion.rel_error)"
+            )));
+            out.push('\n');
+        }
     }
     let mut status = 0;
     if args.write {

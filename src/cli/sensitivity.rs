@@ -2,12 +2,12 @@
 //! unit of the param and per kg/m of mass it adds, ranked
 //! ([`crate::iterate::sensitivity`]).
 
-use super::source::{columns, plain, Source};
+use super::source::{columns, Source};
 use super::{print_out, say};
 use crate::analysis::Options;
 use crate::iterate::sensitivity::{sensitivities, Difference, Sensitivities, STEP};
 use crate::iterate::vary::result_key;
-use crate::numfmt::sig;
+use crate::numfmt::{plain, sig};
 use crate::report::out::OutUnits;
 use crate::report::rows::Quantity;
 use crate::report::CAUTION;
@@ -169,4 +169,42 @@ pub fn sensitivity(args: &SensitivityArgs) -> i32 {
         0 => status,
         failed => failed,
     }
+}
+
+/// The sheet's table of sensitivities of result `key` (`kern report --sensitivity`),
+/// in the file's own units; `Err` is the message for an unknown key or a file without
+/// that result.
+pub fn sheet_blocks(
+    doc: &crate::model::Document,
+    key: &str,
+    opts: &Options,
+) -> Result<Vec<crate::report::blocks::Block>, String> {
+    use crate::report::blocks::{own, user, Block};
+    let q = result_key(key)?;
+    let s = sensitivities(doc, q, opts).map_err(|f| f.message())?;
+    let u = OutUnits::new(doc.units, None);
+    let mut rows = table_rows(&s, q, &u).into_iter();
+    let head = rows.next().unwrap_or_default();
+    let body = rows
+        .map(|r| {
+            r.into_iter()
+                .enumerate()
+                .map(|(i, c)| if i == 0 { user(&c) } else { own(c) })
+                .collect()
+        })
+        .collect();
+    Ok(vec![
+        Block::Heading(2, own("Sensitivities")),
+        Block::Para(own(format!(
+            "The rate of change of {key} ({} {}) with each param, in the file's units, \
+             ranked by the rate per kg/m of added mass, then per unit: {}.",
+            sig(s.result, 5),
+            q.dim.label(&u),
+            method("the section's larger side")
+        ))),
+        Block::Table {
+            head: head.into_iter().map(own).collect(),
+            body,
+        },
+    ])
 }

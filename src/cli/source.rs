@@ -8,6 +8,7 @@ use crate::file::parse;
 use crate::iterate::Failure;
 use crate::model::{Diagnostic, Document};
 use crate::text::clean;
+
 use std::path::Path;
 
 /// One section file, read and parsed.
@@ -115,17 +116,4 @@ pub fn columns_left(rows: &[Vec<String>], left: &[usize]) -> String {
         out.push('\n');
     }
     out
-}
-
-/// `x` to `n` significant figures without trailing zeros (`200`, `262.654`, `1e-5`):
-/// for values a person typed or will type, such as a param.
-pub fn plain(x: f64, n: usize) -> String {
-    let s = crate::numfmt::sig(x, n);
-    match s.split_once('e') {
-        Some((m, e)) if m.contains('.') => {
-            format!("{}e{e}", m.trim_end_matches('0').trim_end_matches('.'))
-        }
-        None if s.contains('.') => s.trim_end_matches('0').trim_end_matches('.').to_string(),
-        _ => s,
-    }
 }

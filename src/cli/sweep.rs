@@ -2,13 +2,13 @@
 //! of the chosen results (default), one `calc --json` object per value with
 //! `"sweep": {"param", "value"}` added (FORMAT.md), or CSV for a spreadsheet.
 
-use super::source::{columns, heading, plain, shown, Source};
+use super::source::{columns, heading, shown, Source};
 use super::{print_out, say};
 use crate::analysis::Options;
 use crate::iterate::sweep::{sweep as run, values};
 use crate::iterate::vary::{read, result_key};
 use crate::iterate::Probe;
-use crate::numfmt::sig;
+use crate::numfmt::{plain, sig};
 use crate::report::json::to_json;
 use crate::report::out::OutUnits;
 use crate::report::rows::Quantity;

@@ -80,14 +80,9 @@ fn header(sheet: Option<&SheetDoc>) -> Vec<(&'static str, Option<String>)> {
 }
 
 /// A number as an input is usually written: up to 6 significant figures, trailing
-/// zeros dropped.
+/// zeros dropped ([`crate::numfmt::plain`]).
 pub(super) fn plain(x: f64) -> String {
-    let s = sig(x, 6);
-    if s.contains('.') && !s.contains('e') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        s
-    }
+    crate::numfmt::plain(x, 6)
 }
 
 /// A result to the sheet's significant figures, in the chosen form of numbers.
