@@ -58,7 +58,8 @@ use std::sync::Arc;
 use torsion::{Failure, Level};
 
 /// Levels the flexure solution may add past the one where torsion meets its
-/// tolerance (each costs four times the last).
+/// tolerance (each costs four times the last), only when its estimates are within
+/// four times the tolerance.
 const MAX_FLEXURE_LEVELS: usize = 1;
 
 /// The target relative error of J and Cw unless asked otherwise, by `kern calc`
@@ -224,10 +225,13 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
                 ..est
             };
             // The flexure stresses converge as h², slower than J: they may ask for one
-            // level more than torsion alone.
+            // level more than torsion alone, when that level (a quarter of the error)
+            // can bring them within the tolerance.
             flex_more = est.rel_error <= tol
                 && extra < MAX_FLEXURE_LEVELS
-                && flex.as_ref().is_some_and(|f| !f.converged(tol));
+                && flex
+                    .as_ref()
+                    .is_some_and(|f| !f.converged(tol) && f.converged(4.0 * tol));
             if est.rel_error <= tol && !flex_more {
                 return Ok(finish(est, &mesh, warnings).with_flexure(flex, flex_fail, tol));
             }
