@@ -1,5 +1,7 @@
 //! Time of the torsion solver to the default tolerance (1e-3) on a rolled I with root
-//! fillets and on a 20-part built-up plate girder.
+//! fillets and on a 20-part built-up plate girder, and of torsion with the flexure
+//! (shear) solution on the same meshes for the rolled I (target: at most 1.5× torsion
+//! alone).
 
 use criterion::{criterion_group, criterion_main, Criterion};
 use kern::fe::{torsion, TorsionOptions};
@@ -47,6 +49,13 @@ fn bench(c: &mut Criterion) {
     )];
     let opts = TorsionOptions::default();
     c.bench_function("torsion IPE 300", |b| b.iter(|| torsion(&ipe, &opts)));
+    let with_flexure = TorsionOptions {
+        flexure: Some(0.3),
+        ..TorsionOptions::default()
+    };
+    c.bench_function("torsion+flexure IPE 300", |b| {
+        b.iter(|| torsion(&ipe, &with_flexure))
+    });
     let g = girder();
     c.bench_function("torsion 20-plate girder", |b| b.iter(|| torsion(&g, &opts)));
 }

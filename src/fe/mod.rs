@@ -57,6 +57,11 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::Arc;
 use torsion::{Failure, Level};
 
+/// Levels the flexure solution may add past the one where torsion meets its
+/// tolerance (each costs four times the last), only when its estimates are within
+/// four times the tolerance.
+const MAX_FLEXURE_LEVELS: usize = 1;
+
 /// The target relative error of J and Cw unless asked otherwise, by `kern calc`
 /// (`--torsion-tol`) and the workbench alike (docs/format.md, Accuracy).
 pub const DEFAULT_TOL: f64 = 1e-3;
@@ -182,6 +187,7 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
     let mut step = None;
     let mut flex = opts.flexure.map(flexure::FlexLadder::new);
     let mut flex_fail = None;
+    let mut extra = 0;
     let tol = if opts.tol.is_finite() && opts.tol > 0.0 {
         opts.tol
     } else {
@@ -212,19 +218,30 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
             warnings.extend(region_note(pieces, level.area));
         }
         levels.push(level);
+        let mut flex_more = false;
         if let Some(est) = estimate(&levels, span) {
             let est = Estimate {
                 rel_error: est.rel_error + geometry_error,
                 ..est
             };
-            if est.rel_error <= tol {
+            // The flexure stresses converge as h², slower than J: they may ask for one
+            // level more than torsion alone, when that level (a quarter of the error)
+            // can bring them within the tolerance.
+            flex_more = est.rel_error <= tol
+                && extra < MAX_FLEXURE_LEVELS
+                && flex
+                    .as_ref()
+                    .is_some_and(|f| !f.converged(tol) && f.converged(4.0 * tol));
+            if est.rel_error <= tol && !flex_more {
                 return Ok(finish(est, &mesh, warnings).with_flexure(flex, flex_fail, tol));
             }
             if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
-                warnings.push(Warning::AboveTolerance {
-                    error: est.rel_error,
-                    tol,
-                });
+                if est.rel_error > tol {
+                    warnings.push(Warning::AboveTolerance {
+                        error: est.rel_error,
+                        tol,
+                    });
+                }
                 return Ok(finish(est, &mesh, warnings).with_flexure(flex, flex_fail, tol));
             }
         } else if !budget.admits_refinement(mesh.elems.len(), mesh.nodes.len()) {
@@ -234,6 +251,9 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
                 max_nodes: budget.nodes,
                 mb: budget.bytes >> 20,
             });
+        }
+        if flex_more {
+            extra += 1;
         }
         let fine = mesh.refine();
         step = Some(mesh.prolongation(&fine));

@@ -142,8 +142,8 @@ impl fmt::Display for Warning {
             Warning::ShearAboveTolerance { figure, error, tol } => write!(
                 f,
                 "{} not given: the estimated error {error:.1e} is above the tolerance \
-                 {tol:.1e} (a sharp re-entrant corner makes the shear stress singular there; \
-                 model the fillet or radius)",
+                 {tol:.1e} (stresses converge more slowly than J; a sharp re-entrant corner \
+                 makes them singular: model the fillet or radius there)",
                 match figure {
                     ShearFigure::Areas => "the shear areas are",
                     ShearFigure::TauMax => "the largest shear stress is",
