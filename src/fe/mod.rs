@@ -34,7 +34,8 @@
 //!   The graded meshes converge faster than that (P2 on smooth solutions: p = 4), so
 //!   the estimate is conservative; measured 1.2–3.6× above the true error on 14 level
 //!   pairs (issue 10), and `tests/torsion_error.rs` checks it on every demo, bench and
-//!   fixture section against a reference two levels finer;
+//!   fixture section against a reference two or three levels finer (one open case, a
+//!   section of several materials, is marked there);
 //! - with three or more, Richardson extrapolation over the last three with the observed
 //!   rate (capped at 4): the values reported are the extrapolated ones, `rel_error` the
 //!   estimated error of the finest mesh, which the extrapolated value is expected to
