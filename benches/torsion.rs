@@ -1,7 +1,8 @@
 //! Time of the torsion solver to the default tolerance (1e-3) on a rolled I with root
-//! fillets and on a 20-part built-up plate girder, and of torsion with the flexure
-//! (shear) solution on the same meshes for the rolled I (target: at most 1.5× torsion
-//! alone).
+//! fillets, a 20-part built-up plate girder, the loading-bay beam of `sections/` and a
+//! plate with 300 holes (`benches/sections/`), and of torsion with the flexure (shear)
+//! solution on the same meshes for the rolled I (target: at most 1.5× torsion alone).
+//! Whole-process figures: `benches/torsion.sh`.
 
 use criterion::{criterion_group, criterion_main, Criterion};
 use kern::fe::{torsion, TorsionOptions};
@@ -58,6 +59,18 @@ fn bench(c: &mut Criterion) {
     });
     let g = girder();
     c.bench_function("torsion 20-plate girder", |b| b.iter(|| torsion(&g, &opts)));
+    for (name, file) in [
+        ("torsion loading-bay beam", "sections/loading-bay-beam.toml"),
+        (
+            "torsion plate with 300 holes",
+            "benches/sections/plate-300-holes.toml",
+        ),
+    ] {
+        let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join(file);
+        let a = kern::file::load::load(&path, &kern::analysis::Options { torsion: None })
+            .expect("bench section loads");
+        c.bench_function(name, |b| b.iter(|| torsion(&a.pieces, &opts)));
+    }
 }
 
 criterion_group! {

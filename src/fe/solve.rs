@@ -16,14 +16,18 @@
 //! - The base mesh is solved directly: reverse Cuthill–McKee ordering and an envelope
 //!   (profile) Cholesky factor (George & Liu, Computer Solution of Large Sparse Positive
 //!   Definite Systems, 1981, ch. 4), which also serves as the V-cycle's coarsest solve.
+//!   A refinement whose factor is cheap (at most `DIRECT_FLOPS_PER_ENTRY`
+//!   multiply-adds per matrix entry) is factored too and becomes the coarsest level.
 //!
 //! Why our own code rather than a sparse-matrix crate: the pattern comes straight from
 //! the element connectivity, the multigrid needs the mesh hierarchy, and the solver
 //! needs a cancellation check inside its loop.
 
+use std::cell::RefCell;
 use std::sync::atomic::{AtomicBool, Ordering};
 
 /// A square sparse matrix, both triangles stored, columns sorted within each row.
+#[derive(Clone)]
 pub struct Csr {
     pub ptr: Vec<usize>,
     pub col: Vec<u32>,
@@ -204,6 +208,8 @@ pub struct Envelope {
     first: Vec<usize>,
     start: Vec<usize>,
     val: Vec<f64>,
+    /// The permuted right-hand side, kept between solves.
+    work: RefCell<Vec<f64>>,
 }
 
 /// Why the base matrix was not factored.
@@ -225,22 +231,35 @@ pub const MAX_ENVELOPE: usize = 25_000_000;
 /// … and 1e10 multiply-adds (a few seconds).
 pub const MAX_FLOPS: f64 = 1e10;
 
-impl Envelope {
-    /// Factors `a`, checking `cancel` every 256 rows; refuses a factor past
-    /// [`MAX_ENVELOPE`] or [`MAX_FLOPS`] before allocating it.
-    pub fn factor(a: &Csr, cancel: Option<&AtomicBool>) -> Result<Envelope, FactorError> {
+/// The shape of an envelope factor, known before any value is computed: the ordering,
+/// each row's first column and where it starts, and its cost.
+pub struct Plan {
+    perm: Vec<u32>,
+    /// Original row → new position.
+    inv: Vec<u32>,
+    first: Vec<usize>,
+    start: Vec<usize>,
+    /// Entries of the factor.
+    pub entries: usize,
+    /// Multiply-adds the factorisation takes (about Σ width²/2).
+    pub flops: f64,
+}
+
+impl Plan {
+    /// Orders `a` by reverse Cuthill–McKee and measures the envelope of its factor.
+    pub fn of(a: &Csr) -> Plan {
         let n = a.rows();
         let perm = rcm(a);
-        let mut inv = vec![0usize; n];
+        let mut inv = vec![0u32; n];
         for (k, &o) in perm.iter().enumerate() {
-            inv[o as usize] = k;
+            inv[o as usize] = k as u32;
         }
         let mut first: Vec<usize> = (0..n).collect();
         for (i, f) in first.iter_mut().enumerate() {
             let o = perm[i] as usize;
             for k in a.ptr[o]..a.ptr[o + 1] {
                 if a.val[k] != 0.0 {
-                    *f = (*f).min(inv[a.col[k] as usize]);
+                    *f = (*f).min(inv[a.col[k] as usize] as usize);
                 }
             }
         }
@@ -252,17 +271,55 @@ impl Envelope {
             start.push(start[i] + i + 1 - f);
             flops += 0.5 * ((i + 1 - f) as f64).powi(2);
         }
-        if start[n] > MAX_ENVELOPE || flops > MAX_FLOPS {
+        Plan {
+            entries: start[n],
+            perm,
+            inv,
+            first,
+            start,
+            flops,
+        }
+    }
+
+    /// Whether the factor is within [`MAX_ENVELOPE`] and [`MAX_FLOPS`].
+    pub fn fits(&self) -> bool {
+        self.entries <= MAX_ENVELOPE && self.flops <= MAX_FLOPS
+    }
+}
+
+impl Envelope {
+    /// Factors `a`, checking `cancel` every 256 rows; refuses a factor past
+    /// [`MAX_ENVELOPE`] or [`MAX_FLOPS`] before allocating it.
+    pub fn factor(a: &Csr, cancel: Option<&AtomicBool>) -> Result<Envelope, FactorError> {
+        Envelope::factor_planned(a, Plan::of(a), cancel)
+    }
+
+    /// Factors `a` in the ordering and envelope of `plan` (made by [`Plan::of`] from a
+    /// matrix of the same pattern).
+    pub fn factor_planned(
+        a: &Csr,
+        plan: Plan,
+        cancel: Option<&AtomicBool>,
+    ) -> Result<Envelope, FactorError> {
+        if !plan.fits() {
             return Err(FactorError::TooLarge {
-                entries: start[n],
-                flops,
+                entries: plan.entries,
+                flops: plan.flops,
             });
         }
+        let Plan {
+            perm,
+            inv,
+            first,
+            start,
+            ..
+        } = plan;
+        let n = a.rows();
         let mut val = vec![0.0; start[n]];
         for i in 0..n {
             let o = perm[i] as usize;
             for k in a.ptr[o]..a.ptr[o + 1] {
-                let j = inv[a.col[k] as usize];
+                let j = inv[a.col[k] as usize] as usize;
                 if j <= i && a.val[k] != 0.0 {
                     val[start[i] + j - first[i]] = a.val[k];
                 }
@@ -272,17 +329,18 @@ impl Envelope {
             if i % 256 == 255 && cancel.is_some_and(|c| c.load(Ordering::Relaxed)) {
                 return Err(FactorError::Cancelled);
             }
-            for j in first[i]..=i {
-                let lo = first[i].max(first[j]);
-                let (ri, rj) = (start[i] + lo - first[i], start[j] + lo - first[j]);
+            let (fi, si) = (first[i], start[i]);
+            for j in fi..=i {
+                let lo = fi.max(first[j]);
+                let (ri, rj) = (si + lo - fi, start[j] + lo - first[j]);
                 let dotp: f64 = val[ri..ri + (j - lo)]
                     .iter()
                     .zip(&val[rj..rj + (j - lo)])
                     .map(|(p, q)| p * q)
                     .sum();
-                let s = val[start[i] + j - first[i]] - dotp;
+                let s = val[si + j - fi] - dotp;
                 if j < i {
-                    val[start[i] + j - first[i]] = s / val[start[j + 1] - 1];
+                    val[si + j - fi] = s / val[start[j + 1] - 1];
                 } else if s > 0.0 && s.is_finite() {
                     val[start[i + 1] - 1] = s.sqrt();
                 } else {
@@ -295,13 +353,16 @@ impl Envelope {
             first,
             start,
             val,
+            work: RefCell::new(Vec::new()),
         })
     }
 
     /// `x = A⁻¹·b`.
     pub fn solve(&self, b: &[f64], x: &mut [f64]) {
         let n = self.perm.len();
-        let mut y: Vec<f64> = self.perm.iter().map(|&o| b[o as usize]).collect();
+        let mut y = self.work.borrow_mut();
+        y.clear();
+        y.extend(self.perm.iter().map(|&o| b[o as usize]));
         for i in 0..n {
             let row = &self.val[self.start[i]..self.start[i + 1]];
             let f = self.first[i];
@@ -362,14 +423,31 @@ fn rcm(a: &Csr) -> Vec<u32> {
     order
 }
 
-/// The multigrid hierarchy: the base matrix's factor, then the matrix of each
-/// refinement with the prolongation onto it. Pinned unknowns (identity rows) are the
-/// same nodes on every level.
+/// The multigrid hierarchy: the factor of its coarsest matrix (the base mesh's, or a
+/// refinement's whose envelope is small enough to factor directly), then the matrix of
+/// each finer mesh with the prolongation onto it. Pinned unknowns (identity rows) are
+/// the same nodes on every level. Built once, it solves any number of right-hand sides
+/// with the finest matrix ([`Multigrid::solve`]).
 pub struct Multigrid {
     base: Envelope,
+    base_matrix: Csr,
     levels: Vec<(Prolong, Csr)>,
     pinned: Vec<u32>,
+    /// Vectors of each level's V-cycle (residual, coarse residual, coarse correction)
+    /// and of the conjugate gradients, kept between calls.
+    work: RefCell<Vec<[Vec<f64>; 3]>>,
+    cg: RefCell<[Vec<f64>; 4]>,
 }
+
+/// A refinement is factored directly, and becomes the coarsest level, when its factor
+/// takes at most this many multiply-adds per stored matrix entry: about what the
+/// 7–9 preconditioned iterations cost (each a product, two Gauss–Seidel sweeps and the
+/// coarser levels, some 6 operations per entry), our measure on the bench sections.
+const DIRECT_FLOPS_PER_ENTRY: f64 = 40.0;
+/// Refinements with more rows than this are not considered for a direct factor (its
+/// ordering alone would cost a good part of an iterative solve, and the factor of a
+/// 2-D mesh grows faster than its rows).
+const DIRECT_MAX_ROWS: usize = 8_000;
 
 impl Multigrid {
     /// Starts the hierarchy at the base mesh's matrix.
@@ -380,19 +458,36 @@ impl Multigrid {
     ) -> Result<Multigrid, FactorError> {
         Ok(Multigrid {
             base: Envelope::factor(a, cancel)?,
+            base_matrix: a.clone(),
             levels: Vec::new(),
             pinned: pinned.to_vec(),
+            work: RefCell::new(Vec::new()),
+            cg: RefCell::new(Default::default()),
         })
     }
 
-    /// Adds the matrix of the next finer mesh.
-    pub fn push(&mut self, p: Prolong, a: Csr) {
+    /// Adds the matrix of the next finer mesh. When its envelope factor is cheap (see
+    /// `DIRECT_FLOPS_PER_ENTRY`) it is factored and becomes the coarsest level; then
+    /// [`Multigrid::solve`] is direct. A factor that fails (not positive, cancelled)
+    /// leaves the matrix to the iterations.
+    pub fn push(&mut self, p: Prolong, a: Csr, cancel: Option<&AtomicBool>) {
+        if a.rows() <= DIRECT_MAX_ROWS {
+            let plan = Plan::of(&a);
+            if plan.fits() && plan.flops <= DIRECT_FLOPS_PER_ENTRY * a.val.len() as f64 {
+                if let Ok(f) = Envelope::factor_planned(&a, plan, cancel) {
+                    self.base = f;
+                    self.base_matrix = a;
+                    self.levels.clear();
+                    return;
+                }
+            }
+        }
         self.levels.push((p, a));
     }
 
-    /// The finest matrix, or `None` while only the base is held.
+    /// The finest matrix.
     pub fn finest(&self) -> Option<&Csr> {
-        self.levels.last().map(|(_, a)| a)
+        Some(self.levels.last().map_or(&self.base_matrix, |(_, a)| a))
     }
 
     /// The prolongation onto the finest matrix's mesh, or `None` while only the base is
@@ -401,9 +496,14 @@ impl Multigrid {
         self.levels.last().map(|(p, _)| p)
     }
 
-    /// Solves with the finest matrix: directly on the base, else by conjugate
+    /// Whether the finest matrix is solved directly (it is factored).
+    pub fn direct(&self) -> bool {
+        self.levels.is_empty()
+    }
+
+    /// Solves with the finest matrix: directly when it is factored, else by conjugate
     /// gradients from `x` with one V-cycle as preconditioner, to ‖r‖ ≤ `rtol`·‖b‖.
-    /// Returns the number of iterations.
+    /// Returns the number of iterations (1 for a direct solve).
     pub fn solve(
         &self,
         b: &[f64],
@@ -416,13 +516,16 @@ impl Multigrid {
                 self.base.solve(b, x);
                 Ok(1)
             }
-            Some((_, a)) => pcg(a, b, x, rtol, MAX_ITERATIONS, cancel, |r, z| {
-                self.vcycle(self.levels.len(), r, z)
-            }),
+            Some((_, a)) => {
+                let mut cg = self.cg.borrow_mut();
+                pcg_in(&mut cg, a, b, x, rtol, MAX_ITERATIONS, cancel, |r, z| {
+                    self.vcycle(self.levels.len(), r, z)
+                })
+            }
         }
     }
 
-    /// `z ≈ A_l⁻¹·r` by one V-cycle from level `l` (0 is the base).
+    /// `z ≈ A_l⁻¹·r` by one V-cycle from level `l` (0 is the coarsest).
     fn vcycle(&self, l: usize, r: &[f64], z: &mut [f64]) {
         let Some((p, a)) = l.checked_sub(1).and_then(|k| self.levels.get(k)) else {
             self.base.solve(r, z);
@@ -430,20 +533,29 @@ impl Multigrid {
         };
         z.iter_mut().for_each(|v| *v = 0.0);
         a.gauss_seidel(r, z, true);
-        let mut res = vec![0.0; r.len()];
+        // This level's vectors, taken out for the recursion and put back after.
+        let [mut res, mut rc, mut zc] = {
+            let mut w = self.work.borrow_mut();
+            if w.len() < l {
+                w.resize_with(l, Default::default);
+            }
+            std::mem::take(&mut w[l - 1])
+        };
+        res.resize(r.len(), 0.0);
         a.mul(z, &mut res);
         for (q, &ri) in res.iter_mut().zip(r) {
             *q = ri - *q;
         }
-        let mut rc = vec![0.0; p.coarse];
+        rc.resize(p.coarse, 0.0);
         p.restrict(&res, &mut rc);
         for &i in &self.pinned {
             rc[i as usize] = 0.0;
         }
-        let mut zc = vec![0.0; p.coarse];
+        zc.resize(p.coarse, 0.0);
         self.vcycle(l - 1, &rc, &mut zc);
         p.apply(&zc, z, true);
         a.gauss_seidel(r, z, false);
+        self.work.borrow_mut()[l - 1] = [res, rc, zc];
     }
 }
 
@@ -468,31 +580,56 @@ pub fn pcg(
     cancel: Option<&AtomicBool>,
     precond: impl Fn(&[f64], &mut [f64]),
 ) -> Result<usize, Cancelled> {
+    pcg_in(
+        &mut Default::default(),
+        a,
+        b,
+        x,
+        rtol,
+        max_iter,
+        cancel,
+        precond,
+    )
+}
+
+/// [`pcg`] with its four vectors (r, z, p, q) in `work`, resized as needed.
+#[allow(clippy::too_many_arguments)]
+fn pcg_in(
+    work: &mut [Vec<f64>; 4],
+    a: &Csr,
+    b: &[f64],
+    x: &mut [f64],
+    rtol: f64,
+    max_iter: usize,
+    cancel: Option<&AtomicBool>,
+    precond: impl Fn(&[f64], &mut [f64]),
+) -> Result<usize, Cancelled> {
     let n = a.rows();
     let bnorm = dot(b, b).sqrt();
     if bnorm == 0.0 {
         x.iter_mut().for_each(|v| *v = 0.0);
         return Ok(0);
     }
-    let mut r = vec![0.0; n];
-    a.mul(x, &mut r);
+    let [r, z, p, q] = work;
+    for v in [&mut *r, &mut *z, &mut *p, &mut *q] {
+        v.resize(n, 0.0);
+    }
+    a.mul(x, r);
     for i in 0..n {
         r[i] = b[i] - r[i];
     }
-    let mut z = vec![0.0; n];
-    precond(&r, &mut z);
-    let mut p = z.clone();
-    let mut q = vec![0.0; n];
-    let mut rz = dot(&r, &z);
+    precond(r, z);
+    p.copy_from_slice(z);
+    let mut rz = dot(r, z);
     for it in 0..max_iter {
-        if dot(&r, &r).sqrt() <= rtol * bnorm {
+        if dot(r, r).sqrt() <= rtol * bnorm {
             return Ok(it);
         }
         if it % 10 == 9 && cancel.is_some_and(|c| c.load(Ordering::Relaxed)) {
             return Err(Cancelled);
         }
-        a.mul(&p, &mut q);
-        let pq = dot(&p, &q);
+        a.mul(p, q);
+        let pq = dot(p, q);
         if pq <= 0.0 || !pq.is_finite() {
             return Ok(it);
         }
@@ -501,8 +638,8 @@ pub fn pcg(
             x[i] += alpha * p[i];
             r[i] -= alpha * q[i];
         }
-        precond(&r, &mut z);
-        let rz_new = dot(&r, &z);
+        precond(r, z);
+        let rz_new = dot(r, z);
         let beta = rz_new / rz;
         rz = rz_new;
         for i in 0..n {

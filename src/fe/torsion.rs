@@ -204,7 +204,7 @@ fn solve(
             for &pn in &m.pinned {
                 u[pn as usize] = 0.0;
             }
-            mg.push(p, k);
+            mg.push(p, k, cancel);
             let it = mg.solve(&f, &mut u, RTOL, cancel)?;
             mg.finest().ok_or(Failure::Degenerate)?.mul(&u, &mut ku);
             it
