@@ -190,6 +190,11 @@ impl FlexLadder {
         Ok(())
     }
 
+    /// How many levels are solved (at most the last three are kept).
+    pub fn level_count(&self) -> usize {
+        self.levels.len()
+    }
+
     /// Whether the shear areas and the largest shear stress of each unit load (Vx, Vy,
     /// T alone) are within `tol` on the levels so far (three are needed).
     pub fn converged(&self, tol: f64) -> bool {

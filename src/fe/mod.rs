@@ -284,6 +284,7 @@ fn run(
         }
         levels.push(level);
         let mut flex_more = false;
+        let mut flex_short = false;
         if let Some(est) = estimate(&levels, span) {
             let est = Estimate {
                 rel_error: est.rel_error + geometry_error,
@@ -296,11 +297,15 @@ fn run(
             // The flexure stresses converge as h², slower than J: they may ask for one
             // level more than torsion alone, when that level (a quarter of the error)
             // can bring them within the tolerance.
+            // Its estimate is Richardson's over three levels (the observed rate, not an
+            // assumed one), so it also waits for a third level where torsion stops on two.
+            flex_short = flex.as_ref().is_some_and(|f| f.level_count() < 3);
             flex_more = torsion_done
-                && extra < MAX_FLEXURE_LEVELS
-                && flex
-                    .as_ref()
-                    .is_some_and(|f| !f.converged(tol) && f.converged(4.0 * tol));
+                && (flex_short
+                    || extra < MAX_FLEXURE_LEVELS
+                        && flex
+                            .as_ref()
+                            .is_some_and(|f| !f.converged(tol) && f.converged(4.0 * tol)));
             if torsion_done && !flex_more {
                 return Ok(finish(est, &mesh, warnings).with_flexure(flex, flex_fail, tol));
             }
@@ -321,7 +326,7 @@ fn run(
                 mb: budget.bytes >> 20,
             });
         }
-        if flex_more {
+        if flex_more && !flex_short {
             extra += 1;
         }
         let fine = mesh.refine();
@@ -408,7 +413,16 @@ impl Torsion {
     ) -> Torsion {
         let flexure = match (flex, fail) {
             (_, Some(w)) => Some(Err(w)),
-            (Some(fl), None) => Some(fl.finish(tol).ok_or(Warning::DegenerateElement)),
+            // Fewer than three levels: the budget stopped the refinement first.
+            (Some(fl), None) => {
+                let budget = Budget::DEFAULT;
+                Some(fl.finish(tol).ok_or(Warning::NextMeshPastBudget {
+                    elements: 4 * self.elements,
+                    max_elements: budget.elements,
+                    max_nodes: budget.nodes,
+                    mb: budget.bytes >> 20,
+                }))
+            }
             (None, None) => None,
         };
         Torsion { flexure, ..self }
