@@ -42,6 +42,15 @@ pub fn parallel_map<T: Sync, R: Send>(
     f: impl Fn(&T) -> R + Sync,
 ) -> Vec<Result<R, String>> {
     let workers = jobs().min(items.len().max(1));
+    if workers == 1 {
+        // One worker: this thread (a thread of its own costs more than a small file).
+        return items
+            .iter()
+            .map(|item| {
+                catch_unwind(AssertUnwindSafe(|| f(item))).map_err(|p| panic_message(p.as_ref()))
+            })
+            .collect();
+    }
     let next = AtomicUsize::new(0);
     let mut slots: Vec<Option<Result<R, String>>> = Vec::new();
     slots.resize_with(items.len(), || None);
@@ -90,7 +99,7 @@ pub fn print_out(text: &str) -> i32 {
 
 /// Writes `texts` one after the other to stdout through one buffer, as [`print_out`].
 fn print_all<'a>(texts: impl IntoIterator<Item = &'a str>) -> i32 {
-    let mut out = std::io::BufWriter::with_capacity(1 << 16, std::io::stdout().lock());
+    let mut out = std::io::BufWriter::new(std::io::stdout().lock());
     let written = texts
         .into_iter()
         .try_for_each(|t| out.write_all(t.as_bytes()))
