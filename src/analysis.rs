@@ -661,13 +661,16 @@ pub fn extreme_candidates(
 /// Points on the outline of the solid parts, arcs cut into chords of at most 1°
 /// (for the convex hull behind the kern).
 pub fn outline_points(pieces: &[Piece]) -> Vec<(f64, f64)> {
-    pieces
+    let mut pts = Vec::new();
+    let segs = pieces
         .iter()
         .filter(|p| !p.void)
         .flat_map(|p| p.contours.iter())
-        .flat_map(|c| c.facets(1f64.to_radians()))
-        .map(|q| (q.x, q.y))
-        .collect()
+        .flat_map(|c| c.segs.iter());
+    for s in segs {
+        s.sample_points(1f64.to_radians(), &mut pts);
+    }
+    pts.into_iter().map(|q| (q.x, q.y)).collect()
 }
 
 /// Is angle `t` (any turn) within the sweep from `a0` to `a1`?

@@ -9,7 +9,7 @@ pub mod sensitivity;
 mod source;
 pub mod sweep;
 
-use crate::analysis::{Analysis, Options};
+use crate::analysis::Options;
 pub use crate::file::load::{diagnostic_line, load, say};
 use crate::file::save::{save, Overwrite, SaveError};
 use crate::model::units::LengthUnit;
@@ -38,8 +38,17 @@ pub struct CalcArgs {
 /// with `| head`: the rest is not wanted); any other failure to write is a message on
 /// stderr and status 1.
 pub fn print_out(text: &str) -> i32 {
-    let mut out = std::io::stdout().lock();
-    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
+    print_all([text])
+}
+
+/// Writes `texts` one after the other to stdout through one buffer, as [`print_out`].
+fn print_all<'a>(texts: impl IntoIterator<Item = &'a str>) -> i32 {
+    let mut out = std::io::BufWriter::new(std::io::stdout().lock());
+    let written = texts
+        .into_iter()
+        .try_for_each(|t| out.write_all(t.as_bytes()))
+        .and_then(|()| out.flush());
+    match written {
         Ok(()) => 0,
         Err(e) if e.kind() == ErrorKind::BrokenPipe => 0,
         Err(e) => {
@@ -52,22 +61,40 @@ pub fn print_out(text: &str) -> i32 {
 /// `kern calc`: prints a table (or one JSON line) per file, in input order; invalid
 /// files print `FILE:LINE:COLUMN: message` on stderr and make the status 2; a file whose
 /// analysis failed inside kern prints `FILE: internal error: …` and makes the status 1
-/// (which wins over 2: it is kern's fault, not the file's).
+/// (which wins over 2: it is kern's fault, not the file's). Each worker thread lays out
+/// the files it computed.
 pub fn calc(args: &CalcArgs) -> i32 {
-    let results = parallel_map(&args.files, |p| load(p, &args.options));
+    let results = parallel_map(&args.files, |p| calc_one(args, p));
     let done = calc_output(args, results);
     for line in &done.errors {
         say(line);
     }
-    match print_out(&done.out) {
+    let caution = (!args.json && !done.out.is_empty()).then_some(["\n", CAUTION, "\n"]);
+    let texts = done.out.iter().map(String::as_str);
+    match print_all(texts.chain(caution.into_iter().flatten())) {
         0 => done.status,
         failed => failed,
     }
 }
 
-/// What `kern calc` prints and returns.
+/// One file of `kern calc`: its JSON line or table, or the line its error prints as.
+fn calc_one(args: &CalcArgs, path: &Path) -> Result<String, String> {
+    let a = load(path, &args.options)?;
+    let u = OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
+    let name = path.display().to_string();
+    Ok(if args.json {
+        let mut line = to_json(&name, &a, &u).to_string();
+        line.push('\n');
+        line
+    } else {
+        to_table(&name, &a, &u)
+    })
+}
+
+/// What `kern calc` prints and returns: the texts of the files that computed, in
+/// order (tables separated by a blank line), the error lines, and the status.
 struct CalcOutput {
-    out: String,
+    out: Vec<String>,
     errors: Vec<String>,
     status: i32,
 }
@@ -75,14 +102,13 @@ struct CalcOutput {
 /// Lays out the results of `kern calc`, one per file of `args.files` in order.
 fn calc_output(
     args: &CalcArgs,
-    results: Vec<Result<Result<Analysis, String>, String>>,
+    results: Vec<Result<Result<String, String>, String>>,
 ) -> CalcOutput {
     let mut done = CalcOutput {
-        out: String::new(),
+        out: Vec::new(),
         errors: Vec::new(),
         status: 0,
     };
-    let out = &mut done.out;
     for (path, r) in args.files.iter().zip(results) {
         match r {
             Err(panic) => {
@@ -92,19 +118,11 @@ fn calc_output(
                 ));
                 done.status = 1;
             }
-            Ok(Ok(a)) => {
-                let u =
-                    OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
-                let name = path.display().to_string();
-                if args.json {
-                    out.push_str(&to_json(&name, &a, &u).to_string());
-                    out.push('\n');
-                } else {
-                    if !out.is_empty() {
-                        out.push('\n');
-                    }
-                    out.push_str(&to_table(&name, &a, &u));
+            Ok(Ok(mut text)) => {
+                if !args.json && !done.out.is_empty() {
+                    text.insert(0, '\n');
                 }
+                done.out.push(text);
             }
             Ok(Err(line)) => {
                 done.errors.push(line);
@@ -113,11 +131,6 @@ fn calc_output(
                 }
             }
         }
-    }
-    if !args.json && !out.is_empty() {
-        out.push('\n');
-        out.push_str(CAUTION);
-        out.push('\n');
     }
     done
 }
@@ -276,7 +289,7 @@ mod tests {
             if p == &files[2] {
                 panic!("injected");
             }
-            load(p, &args.options)
+            calc_one(&args, p)
         });
         let done = calc_output(&args, results);
         assert_eq!(done.status, 1);
@@ -289,6 +302,7 @@ mod tests {
         );
         let lines: Vec<serde_json::Value> = done
             .out
+            .concat()
             .lines()
             .map(|l| serde_json::from_str(l).unwrap())
             .collect();

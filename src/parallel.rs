@@ -1,19 +1,30 @@
 //! One parallel map for every batch (files in `kern calc`, values in a sweep, params
-//! in the sensitivities): scoped threads on every core, results in input order, a
+//! in the sensitivities): scoped threads on every core (or `KERN_JOBS` of them), results in input order, a
 //! panic caught per item. It names nothing of the crate, so every layer may use it.
 
 use std::panic::{catch_unwind, AssertUnwindSafe};
 use std::sync::atomic::{AtomicUsize, Ordering};
 
-/// Runs `f` over `items` on every core, keeping the input order of the results. A
-/// panic in `f` is caught for its item alone: that slot holds the panic's message.
+/// The most worker threads `KERN_JOBS` may ask for.
+const MAX_JOBS: usize = 256;
+
+/// Worker threads for a batch: `KERN_JOBS` when it is a whole number from 1 to
+/// [`MAX_JOBS`], else every core this process may run on.
+fn jobs() -> usize {
+    std::env::var("KERN_JOBS")
+        .ok()
+        .and_then(|s| s.trim().parse::<usize>().ok())
+        .filter(|n| (1..=MAX_JOBS).contains(n))
+        .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get()))
+}
+
+/// Runs `f` over `items` on [`jobs`] threads, keeping the input order of the results.
+/// A panic in `f` is caught for its item alone: that slot holds the panic's message.
 pub fn parallel_map<T: Sync, R: Send>(
     items: &[T],
     f: impl Fn(&T) -> R + Sync,
 ) -> Vec<Result<R, String>> {
-    let workers = std::thread::available_parallelism()
-        .map_or(1, |n| n.get())
-        .min(items.len().max(1));
+    let workers = jobs().min(items.len().max(1));
     let next = AtomicUsize::new(0);
     let mut slots: Vec<Option<Result<R, String>>> = Vec::new();
     slots.resize_with(items.len(), || None);

@@ -211,22 +211,19 @@ fn cut_off(
 
 /// For each void, the solid pieces that hold some of it: tested at points just inside
 /// the void's boundary (chords of at most 5°, offset inward by 10⁻⁶ of the section's
-/// size), against each solid's outline cut into chords of at most 1°.
+/// size), against each solid's outline cut into chords of at most 1°. A solid whose box
+/// stays clear of the void's (widened by twice that offset) holds none of it and is
+/// not tested.
 fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
     let size = crate::geom::solid_bounds(pieces).map_or(1.0, |b| (b[1] - b[0]).max(b[3] - b[2]));
     let delta = 1e-6 * size;
-    let solids: Vec<(usize, Vec<Vec<Pt>>)> = pieces
+    let solids: Vec<(usize, [f64; 4], Vec<Vec<Pt>>)> = pieces
         .iter()
         .enumerate()
         .filter(|(_, p)| !p.void)
-        .map(|(i, p)| {
-            (
-                i,
-                p.contours
-                    .iter()
-                    .map(|c| c.facets(1f64.to_radians()))
-                    .collect(),
-            )
+        .filter_map(|(i, p)| {
+            let loops = p.contours.iter().map(|c| c.facets(1f64.to_radians()));
+            Some((i, p.bounds()?, loops.collect()))
         })
         .collect();
     pieces
@@ -247,10 +244,18 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
                     }
                 }
             }
+            let reach = p.bounds().map(|b| {
+                let w = 2.0 * delta;
+                [b[0] - w, b[1] + w, b[2] - w, b[3] + w]
+            });
+            let near = |s: &[f64; 4]| {
+                reach.is_none_or(|v| s[0] <= v[1] && v[0] <= s[1] && s[2] <= v[3] && v[2] <= s[3])
+            };
             let inside = solids
                 .iter()
-                .filter(|(_, loops)| probes.iter().any(|&q| winding(loops, q) != 0))
-                .map(|(i, _)| *i)
+                .filter(|(_, b, _)| near(b))
+                .filter(|(_, _, loops)| probes.iter().any(|&q| winding(loops, q) != 0))
+                .map(|(i, _, _)| *i)
                 .collect();
             (v, inside)
         })

@@ -198,20 +198,24 @@ pub fn extremes(field: &StressField, points: &[(f64, f64)]) -> Option<Extremes> 
 /// Counter-clockwise, starting from the lowest-x (then lowest-y) point, without collinear or
 /// repeated points. Non-finite points are ignored; with fewer than three distinct points the
 /// distinct points are returned (sorted), and a collinear set gives its two ends.
+///
+/// Points well inside the octagon of the extreme points in x, y, x + y and x − y are
+/// dropped before the sort (Akl and Toussaint, "A fast convex hull algorithm",
+/// Information Processing Letters 7, 1978): they cannot be on the hull, so the result
+/// is the same, and an outline's points are mostly such points.
 pub fn convex_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
+    let finite = |p: &(f64, f64)| p.0.is_finite() && p.1.is_finite();
+    let octagon = extreme_octagon(points.iter().copied().filter(finite));
     let mut pts: Vec<(f64, f64)> = points
         .iter()
         .copied()
-        .filter(|p| p.0.is_finite() && p.1.is_finite())
+        .filter(|p| finite(p) && !octagon.as_ref().is_some_and(|o| o.holds(*p)))
         .collect();
-    pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
+    pts.sort_unstable_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
     pts.dedup();
     if pts.len() < 3 {
         return pts;
     }
-    let cross = |o: (f64, f64), a: (f64, f64), b: (f64, f64)| {
-        (a.0 - o.0) * (b.1 - o.1) - (a.1 - o.1) * (b.0 - o.0)
-    };
     // Lower chain left to right, then upper chain right to left; each keeps only strict left
     // turns, and each chain's last point is dropped because it starts the other chain.
     let mut hull: Vec<(f64, f64)> = Vec::with_capacity(2 * pts.len());
@@ -234,6 +238,69 @@ pub fn convex_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
     }
     hull.pop();
     hull
+}
+
+/// `(a − o) × (b − o)`: positive when o → a → b turns left.
+fn cross(o: (f64, f64), a: (f64, f64), b: (f64, f64)) -> f64 {
+    (a.0 - o.0) * (b.1 - o.1) - (a.1 - o.1) * (b.0 - o.0)
+}
+
+/// The convex polygon of a point set's extreme points in the directions −x, −x−y, −y,
+/// x−y, x, x+y, y, y−x (counter-clockwise; neighbours may coincide).
+struct Octagon {
+    corners: [(f64, f64); 8],
+    /// How far inside an edge (as a cross product) a point must be to count as inside:
+    /// far above the rounding of the cross products.
+    margin: f64,
+}
+
+impl Octagon {
+    /// Is `p` inside every edge by more than the margin (so inside the hull)?
+    fn holds(&self, p: (f64, f64)) -> bool {
+        let c = &self.corners;
+        (0..8).all(|i| {
+            let (a, b) = (c[i], c[(i + 1) % 8]);
+            a == b || cross(a, b, p) > self.margin
+        })
+    }
+}
+
+/// The extreme octagon of finite points; `None` for no points.
+fn extreme_octagon(points: impl Iterator<Item = (f64, f64)>) -> Option<Octagon> {
+    let keys: [fn((f64, f64)) -> f64; 8] = [
+        |p| -p.0,
+        |p| -p.0 - p.1,
+        |p| -p.1,
+        |p| p.0 - p.1,
+        |p| p.0,
+        |p| p.0 + p.1,
+        |p| p.1,
+        |p| p.1 - p.0,
+    ];
+    let mut best: Option<[(f64, (f64, f64)); 8]> = None;
+    for p in points {
+        let b = best.get_or_insert_with(|| keys.map(|k| (k(p), p)));
+        for (slot, k) in b.iter_mut().zip(keys) {
+            let v = k(p);
+            if v > slot.0 {
+                *slot = (v, p);
+            }
+        }
+    }
+    let corners = best?.map(|(_, p)| p);
+    // With fewer than three distinct corners nothing is strictly inside.
+    let distinct = (0..8)
+        .filter(|&i| corners[i] != corners[(i + 1) % 8])
+        .count();
+    if distinct < 3 {
+        return None;
+    }
+    let (w, h) = (corners[4].0 - corners[0].0, corners[6].1 - corners[2].1);
+    let size = w.max(h);
+    Some(Octagon {
+        corners,
+        margin: 1e-9 * size * size,
+    })
 }
 
 #[cfg(test)]
@@ -540,5 +607,78 @@ mod tests {
         let cw: Vec<_> = square.iter().rev().copied().collect();
         let hull = convex_hull(&cw);
         assert!(polygon_centroidal(&hull).area > 0.0);
+    }
+
+    /// The plain monotone chain (Andrew 1979) over every point, sorted stably: the
+    /// reference the prefiltered hull must match exactly.
+    fn plain_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
+        let mut pts: Vec<(f64, f64)> = points
+            .iter()
+            .copied()
+            .filter(|p| p.0.is_finite() && p.1.is_finite())
+            .collect();
+        pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
+        pts.dedup();
+        if pts.len() < 3 {
+            return pts;
+        }
+        let mut hull: Vec<(f64, f64)> = Vec::new();
+        for pass in 0..2 {
+            let start = hull.len();
+            let ordered: Vec<(f64, f64)> = if pass == 0 {
+                pts.clone()
+            } else {
+                pts.iter().rev().copied().collect()
+            };
+            for p in ordered {
+                while hull.len() >= start + 2 {
+                    let (o, a) = (hull[hull.len() - 2], hull[hull.len() - 1]);
+                    if cross(o, a, p) > 0.0 {
+                        break;
+                    }
+                    hull.pop();
+                }
+                hull.push(p);
+            }
+            hull.pop();
+        }
+        hull
+    }
+
+    #[test]
+    fn prefiltered_hull_matches_the_plain_chain_on_random_sets() {
+        // Random sets from a linear congruential generator (Knuth's MMIX constants):
+        // points in a square, on circles (as outline points of arcs are), on the edges of
+        // a rectangle (collinear runs), with repeats and a few non-finite points.
+        let mut seed = 2024u64;
+        let mut next = || {
+            seed = seed
+                .wrapping_mul(6364136223846793005)
+                .wrapping_add(1442695040888963407);
+            (seed >> 11) as f64 / (1u64 << 53) as f64
+        };
+        for round in 0..300 {
+            let n = 1 + round % 97 * 7;
+            let scale = 10f64.powi(round % 7 - 3);
+            let pts: Vec<(f64, f64)> = (0..n)
+                .map(|k| {
+                    let (u, v) = (next(), next());
+                    match (round + k) % 5 {
+                        0 => (scale * u, scale * v),
+                        1 => {
+                            let t = std::f64::consts::TAU * u;
+                            (scale * (0.5 + 0.5 * t.cos()), scale * (0.5 + 0.5 * t.sin()))
+                        }
+                        2 => (scale * (u * 4.0).floor() / 4.0, scale * v),
+                        3 if k % 11 == 0 => (f64::NAN, v),
+                        _ => (
+                            scale * (u * 3.0).round() / 3.0,
+                            scale * (v * 3.0).round() / 3.0,
+                        ),
+                    }
+                })
+                .collect();
+            assert_eq!(convex_hull(&pts), plain_hull(&pts), "round {round}");
+        }
     }
 }

@@ -253,7 +253,7 @@ impl Seg {
             Seg::Line(a, _) => out.push(a),
             Seg::Arc { c, r, a0, a1 } => {
                 let sweep = a1 - a0;
-                let n = ((sweep.abs() / max_angle.max(1e-3)).ceil() as usize).clamp(1, 4096);
+                let n = chords(sweep, max_angle);
                 for i in 0..n {
                     let t = a0 + sweep * i as f64 / n as f64;
                     out.push(c.add(Pt::new(r * t.cos(), r * t.sin())));
@@ -261,6 +261,31 @@ impl Seg {
             }
         }
     }
+
+    /// The points of [`Seg::facet_points`], an arc's turned one from the next by a
+    /// fixed rotation (one sine and cosine an arc): each within a few rounding errors
+    /// of the facet point, for point sets whose last digits do not matter (the hull
+    /// behind the kern).
+    pub fn sample_points(&self, max_angle: f64, out: &mut Vec<Pt>) {
+        match *self {
+            Seg::Line(a, _) => out.push(a),
+            Seg::Arc { c, r, a0, a1 } => {
+                let sweep = a1 - a0;
+                let n = chords(sweep, max_angle);
+                let (s, k) = (sweep / n as f64).sin_cos();
+                let mut v = Pt::new(r * a0.cos(), r * a0.sin());
+                for _ in 0..n {
+                    out.push(c.add(v));
+                    v = Pt::new(k * v.x - s * v.y, s * v.x + k * v.y);
+                }
+            }
+        }
+    }
+}
+
+/// Chords of at most `max_angle` radians on an arc of `sweep` (1 to 4,096).
+fn chords(sweep: f64, max_angle: f64) -> usize {
+    ((sweep.abs() / max_angle.max(1e-3)).ceil() as usize).clamp(1, 4096)
 }
 
 /// A closed loop of segments, each starting where the previous one ends.

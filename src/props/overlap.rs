@@ -5,7 +5,10 @@
 //! The area shared by two regions P and Q is found with Green's theorem, `A = ∮ x dy`
 //! over the boundary of P ∩ Q, which is made of the pieces of ∂P inside Q and of ∂Q
 //! inside P (edges the two share in the same direction are counted once). Curved
-//! edges are cut into chords of at most 3°, which is ample for a warning.
+//! edges are cut into chords of at most 3°, which is ample for a warning. The edges
+//! of Q that may cut an edge of P come from a sort and sweep over the edges' boxes,
+//! and a run of P's edges away from ∂Q is placed inside or outside Q once, so a pair
+//! costs about `n log n` in its edges rather than `n²`.
 
 use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
@@ -19,6 +22,10 @@ pub const SHOWN: usize = 20;
 /// A region as polygons (outlines counter-clockwise, holes clockwise).
 struct Shape {
     loops: Vec<Vec<Pt>>,
+    /// Every edge of every loop in loop order, with whether it starts its loop.
+    edges: Vec<Edge>,
+    /// Edge indices by the left end of their boxes, for the sweep.
+    by_x: Vec<u32>,
     bounds: [f64; 4],
     area: f64,
     /// A point inside and its distance to the boundary (> 0), when the centroid is one.
@@ -33,8 +40,18 @@ impl Shape {
             .iter()
             .map(|l| crate::geom::simple::signed_area(l))
             .sum();
+        let edges: Vec<Edge> = loops
+            .iter()
+            .flat_map(|l| (0..l.len()).map(move |i| Edge::new(l[i], l[(i + 1) % l.len()], i == 0)))
+            .collect();
+        let mut by_x: Vec<u32> = (0..edges.len() as u32).collect();
+        by_x.sort_unstable_by(|&i, &j| {
+            edges[i as usize].bbox[0].total_cmp(&edges[j as usize].bbox[0])
+        });
         let mut s = Shape {
             loops,
+            edges,
+            by_x,
             bounds,
             area,
             core: None,
@@ -72,9 +89,7 @@ impl Shape {
     }
 
     fn edges(&self) -> impl Iterator<Item = (Pt, Pt)> + '_ {
-        self.loops
-            .iter()
-            .flat_map(|l| (0..l.len()).map(move |i| (l[i], l[(i + 1) % l.len()])))
+        self.edges.iter().map(|e| (e.from, e.to))
     }
 
     /// Winding number of the region about `p` (outline +1, hole −1).
@@ -82,14 +97,89 @@ impl Shape {
         crate::geom::simple::winding(&self.loops, p)
     }
 
-    /// The direction of the edge `p` lies on, if any (within `tol`).
-    fn edge_at(&self, p: Pt, tol: f64) -> Option<Pt> {
-        self.edges().find_map(|(a, b)| {
+    /// The direction of the first of the edges `near` (indices in edge order, every
+    /// edge within `tol` of `p` among them) that `p` lies on, if any (within `tol`).
+    fn edge_at(&self, near: &[u32], p: Pt, tol: f64) -> Option<Pt> {
+        near.iter().find_map(|&i| {
+            let e = &self.edges[i as usize];
+            let (a, b) = (e.from, e.to);
             let d = b.sub(a);
             let off = p.nearest_on_segment(a, b).sub(p);
             (d != Pt::default() && off.x * off.x + off.y * off.y <= tol * tol).then_some(d)
         })
     }
+}
+
+/// One edge of a shape's polygon and its box `[xmin, xmax, ymin, ymax]`.
+struct Edge {
+    from: Pt,
+    to: Pt,
+    bbox: [f64; 4],
+    /// The edge starts its loop (its start does not continue the edge before it).
+    first: bool,
+}
+
+impl Edge {
+    fn new(from: Pt, to: Pt, first: bool) -> Edge {
+        let bbox = [
+            from.x.min(to.x),
+            from.x.max(to.x),
+            from.y.min(to.y),
+            from.y.max(to.y),
+        ];
+        Edge {
+            from,
+            to,
+            bbox,
+            first,
+        }
+    }
+}
+
+/// Pairs `(i, j)` of an edge of `p` and an edge of `q` whose boxes, `p`'s widened by
+/// `tol`, meet — by sort and sweep along x over both sets — sorted by `i`, then `j`.
+/// Every edge of `q` that an edge of `p` crosses, touches or runs along within `tol`
+/// is among its pairs.
+fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
+    let mut pairs = Vec::new();
+    let (mut active_p, mut active_q): (Vec<u32>, Vec<u32>) = (Vec::new(), Vec::new());
+    let (mut i, mut j) = (0, 0);
+    let pe = |k: u32| &p.edges[k as usize].bbox;
+    let qe = |k: u32| &q.edges[k as usize].bbox;
+    let meet = |a: &[f64; 4], b: &[f64; 4]| {
+        a[0] - tol <= b[1] && b[0] <= a[1] + tol && a[2] - tol <= b[3] && b[2] <= a[3] + tol
+    };
+    while i < p.by_x.len() || j < q.by_x.len() {
+        let take_p =
+            j == q.by_x.len() || (i < p.by_x.len() && pe(p.by_x[i])[0] - tol <= qe(q.by_x[j])[0]);
+        if take_p {
+            let e = p.by_x[i];
+            i += 1;
+            let x0 = pe(e)[0] - tol;
+            active_q.retain(|&f| qe(f)[1] >= x0);
+            pairs.extend(
+                active_q
+                    .iter()
+                    .filter(|&&f| meet(pe(e), qe(f)))
+                    .map(|&f| (e, f)),
+            );
+            active_p.push(e);
+        } else {
+            let f = q.by_x[j];
+            j += 1;
+            let x0 = qe(f)[0];
+            active_p.retain(|&e| pe(e)[1] + tol >= x0);
+            pairs.extend(
+                active_p
+                    .iter()
+                    .filter(|&&e| meet(pe(e), qe(f)))
+                    .map(|&e| (e, f)),
+            );
+            active_q.push(f);
+        }
+    }
+    pairs.sort_unstable();
+    pairs
 }
 
 fn boxes_overlap(a: [f64; 4], b: [f64; 4]) -> bool {
@@ -98,6 +188,11 @@ fn boxes_overlap(a: [f64; 4], b: [f64; 4]) -> bool {
 
 /// `∮ x dy` over the pieces of ∂P inside Q; pieces along ∂Q count only if `shared`
 /// and running the same way.
+///
+/// Each edge of P is cut where edges of Q (the candidates of [`edge_pairs`]) cross it,
+/// and each piece is classified by its midpoint: on ∂Q (within `tol`) or by Q's winding
+/// number. An edge with no candidate is away from ∂Q, so it lies on the same side as
+/// the end of the piece before it in its loop: a run of such edges is classified once.
 fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
     let mut sum = 0.0;
     // An edge wholly outside Q's box (widened by `tol`) is neither inside Q nor on ∂Q.
@@ -107,17 +202,36 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
         q.bounds[2] - tol,
         q.bounds[3] + tol,
     ];
-    for (a, b) in p.edges() {
+    let pairs = edge_pairs(p, q, tol);
+    let mut next_pair = 0;
+    let mut near: Vec<u32> = Vec::new();
+    let mut ts: Vec<f64> = Vec::new();
+    // Whether the end of the last piece is inside Q, when known and off ∂Q.
+    let mut side: Option<bool> = None;
+    for (k, edge) in p.edges.iter().enumerate() {
+        near.clear();
+        while let Some(&(e, f)) = pairs.get(next_pair).filter(|pr| pr.0 as usize == k) {
+            debug_assert_eq!(e as usize, k);
+            near.push(f);
+            next_pair += 1;
+        }
+        if edge.first {
+            side = None;
+        }
+        let (a, b) = (edge.from, edge.to);
         if a.x.max(b.x) < qb[0]
             || a.x.min(b.x) > qb[1]
             || a.y.max(b.y) < qb[2]
             || a.y.min(b.y) > qb[3]
         {
+            side = Some(false);
             continue;
         }
         let d = b.sub(a);
-        let mut ts = vec![0.0, 1.0];
-        for (c, e) in q.edges() {
+        ts.clear();
+        ts.extend([0.0, 1.0]);
+        for &f in &near {
+            let (c, e) = (q.edges[f as usize].from, q.edges[f as usize].to);
             let f = e.sub(c);
             let den = d.cross(f);
             if den == 0.0 {
@@ -145,9 +259,19 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
             }
             let (s0, s1) = (a.add(d.scale(w[0])), a.add(d.scale(w[1])));
             let mid = a.add(d.scale(0.5 * (w[0] + w[1])));
-            let keep = match q.edge_at(mid, tol) {
-                Some(dir) => shared && dir.x * d.x + dir.y * d.y > 0.0,
-                None => q.winding(mid) > 0,
+            let keep = match q.edge_at(&near, mid, tol) {
+                Some(dir) => {
+                    side = None;
+                    shared && dir.x * d.x + dir.y * d.y > 0.0
+                }
+                None => {
+                    let inside = match side.filter(|_| near.is_empty()) {
+                        Some(known) => known,
+                        None => q.winding(mid) > 0,
+                    };
+                    side = Some(inside);
+                    inside
+                }
             };
             if keep {
                 sum += 0.5 * (s0.x + s1.x) * (s1.y - s0.y);
