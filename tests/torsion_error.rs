@@ -1,8 +1,8 @@
 //! The torsion solver's error estimate is honest: on every demo, bench and fixture
 //! section, and on a set of plain shapes, the true relative error of the reported J and
 //! Cw (against a reference two or three mesh levels finer than the solve's finest,
-//! extrapolated by Richardson over its last three levels, at least ten times more
-//! accurate than the estimate it checks)
+//! extrapolated by Richardson over its last three levels), plus the reference's own
+//! estimated error (the triangle inequality: |t − exact| ≤ |t − ref| + |ref − exact|),
 //! never exceeds the `rel_error` reported with them (issue 10: the estimate must stay
 //! honest; Roache, Verification and Validation in Computational Science and
 //! Engineering, 1998, §5.4, for the grid-convergence reasoning).
@@ -49,15 +49,17 @@ fn check(name: &str, pieces: &[Piece]) {
         t.rel_error,
         t.rel_error / ej.max(ecw).max(f64::MIN_POSITIVE),
     );
-    // The reference must be far better than what it checks, or the check means nothing.
+    // The reference must be better than what it checks, or the check means nothing;
+    // its own error counts against the estimate.
     assert!(
-        ref_err <= 0.1 * t.rel_error,
+        ref_err < 0.5 * t.rel_error,
         "{name}: reference error {ref_err:.2e} vs estimate {:.2e}",
         t.rel_error
     );
     assert!(
-        ej <= t.rel_error && ecw <= t.rel_error,
-        "{name}: true error J {ej:.2e}, Cw {ecw:.2e} above the estimate {:.2e}",
+        ej + ref_err <= t.rel_error && ecw + ref_err <= t.rel_error,
+        "{name}: true error J {ej:.2e}, Cw {ecw:.2e} (reference ±{ref_err:.1e}) above the \
+         estimate {:.2e}",
         t.rel_error
     );
     assert!(
@@ -91,15 +93,13 @@ fn check_files(dir: &str, skip: &[&str]) {
 #[test]
 fn demo_sections() {
     check_files("sections", &["flitch-beam.toml"]);
+    // (the flitch beam has its own test below)
 }
 
-/// Open: the flitch beam (timber and steel) converges irregularly in Cw, whose
-/// singular points at the corners of the material interfaces the mesh does not grade;
-/// even a reference 64 times finer keeps an estimated error of 1e-5, and the Cw error
-/// measured against it (2.9e-5, on this test's stricter scale) exceeds the reported
-/// 1.8e-5. Kept here, failing, until the interface corners are graded.
+/// The flitch beam (timber and steel): its Cw converges irregularly at the ungraded
+/// corners of the material interfaces, where the estimate is the whole last change
+/// between levels rather than Richardson's extrapolated share (fe::estimate).
 #[test]
-#[ignore = "open: Cw of sections of several materials (see the doc comment)"]
 fn demo_flitch_beam() {
     let p = Path::new(env!("CARGO_MANIFEST_DIR")).join("sections/flitch-beam.toml");
     let a = load(&p, &Options { torsion: None }).expect("loads");
