@@ -1385,3 +1385,65 @@ fn params_are_ranked_by_what_they_buy() {
     run(&mut a, Cmd::Cancel);
     assert_eq!(a.mode, Mode::Main);
 }
+
+#[test]
+fn a_sweep_plots_ixx_over_the_depth_and_marks_the_current_value() {
+    let mut a = app(PLATE);
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::Sweep);
+    key(&mut a, KeyCode::Enter);
+    let Mode::Sweep(s) = a.mode.clone() else {
+        panic!("the overlay opens: {:?} {:?}", a.mode, a.message)
+    };
+    // By default ±50 % of h = 200 in 21 points: 100 to 300 in steps of 10.
+    assert_eq!(s.samples.len(), 21);
+    assert_eq!(s.samples[0].value, 100.0);
+    assert_eq!(s.samples[20].value, 300.0);
+    assert_eq!(s.marked, Some(10));
+    // A rectangle: Ixx = b·h³/12 (Gere & Goodno, App. E case 1) at every point, so
+    // rising with h.
+    for p in &s.samples {
+        let want = 100.0 * p.value.powi(3) / 12.0;
+        let got = *p.result.as_ref().unwrap();
+        assert!(
+            (got - want).abs() < 1e-9 * want,
+            "h = {}: {got} vs {want}",
+            p.value
+        );
+    }
+    insta::assert_snapshot!("sweep-80x24", screen(&a, 80, 24));
+    insta::assert_snapshot!("sweep-40x12", screen(&a, 40, 12));
+    a.theme.ascii = true;
+    insta::assert_snapshot!("sweep-ascii-80x24", screen(&a, 80, 24));
+    a.theme.ascii = false;
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.mode, Mode::Main);
+    assert_eq!(a.text, PLATE, "a sweep changes nothing");
+    // A typed range and number of points.
+    run(&mut a, Cmd::Sweep);
+    typed(&mut a, " 150 250 5");
+    key(&mut a, KeyCode::Enter);
+    let Mode::Sweep(s) = a.mode.clone() else {
+        panic!("the overlay opens: {:?} {:?}", a.mode, a.message)
+    };
+    let hs: Vec<f64> = s.samples.iter().map(|p| p.value).collect();
+    assert_eq!(hs, [150.0, 175.0, 200.0, 225.0, 250.0]);
+    key(&mut a, KeyCode::Esc);
+    // Torsion for every value is refused, as seek refuses it.
+    run(&mut a, Cmd::Sweep);
+    run(&mut a, Cmd::KillToStart);
+    typed(&mut a, "J");
+    key(&mut a, KeyCode::Enter);
+    assert!(refusal(&a).contains("torsion"), "{}", refusal(&a));
+    key(&mut a, KeyCode::Esc);
+    // Values that do not compute are listed as such, the line broken there.
+    run(&mut a, Cmd::Sweep);
+    typed(&mut a, " -100 300 5");
+    key(&mut a, KeyCode::Enter);
+    let Mode::Sweep(s) = a.mode.clone() else {
+        panic!("the overlay opens: {:?} {:?}", a.mode, a.message)
+    };
+    assert!(s.samples[0].result.is_err() && s.samples[4].result.is_ok());
+    assert!(screen(&a, 80, 24).contains("do not compute"));
+}

@@ -6,6 +6,7 @@
 pub mod parts;
 pub mod rates;
 pub mod seek;
+pub mod sweep;
 pub mod tables;
 
 use super::app::{App, Focus, LineEdit, Mode, Target};
@@ -103,6 +104,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::OpenTables => tables::open(app),
         Cmd::Seek => seek::begin(app),
         Cmd::Rates => rates::begin(app),
+        Cmd::Sweep => sweep::begin(app),
         Cmd::AddKey => tables::add(app),
         Cmd::RemoveKey => tables::remove(app),
         Cmd::Rename => tables::rename(app),
@@ -286,6 +288,13 @@ pub fn commit(app: &mut App) {
                 }
                 Target::Rates => {
                     if let Err(m) = rates::open(app, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
+                }
+                Target::Sweep(param) => {
+                    if let Err(m) = sweep::open(app, param, &entry) {
                         app.error(format!("refused: {m}"));
                         app.mode = Mode::Typing { target, line };
                     }
