@@ -150,6 +150,8 @@ pub enum Target {
     Rates,
     /// The result (and range) to sweep a param over.
     Sweep(String),
+    /// A file or git revision to compare against.
+    Baseline,
 }
 
 /// The shape picker: the highlighted row, and what the chosen shape is for.
@@ -193,6 +195,8 @@ pub enum Mode {
     Rates(super::commands::rates::Rates),
     /// A result swept over a param: plot and table.
     Sweep(super::commands::sweep::Swept),
+    /// Both designs' results side by side.
+    Compare(super::commands::rates::Rates),
 }
 
 /// How torsion is solved.

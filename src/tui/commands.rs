@@ -3,6 +3,7 @@
 //! terminal: moving, typing and stepping values, history, baseline and saving here;
 //! commands on whole parts in [`parts`].
 
+pub mod compare;
 pub mod parts;
 pub mod rates;
 pub mod seek;
@@ -105,6 +106,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::Seek => seek::begin(app),
         Cmd::Rates => rates::begin(app),
         Cmd::Sweep => sweep::begin(app),
+        Cmd::Compare => compare::begin(app),
         Cmd::AddKey => tables::add(app),
         Cmd::RemoveKey => tables::remove(app),
         Cmd::Rename => tables::rename(app),
@@ -288,6 +290,13 @@ pub fn commit(app: &mut App) {
                 }
                 Target::Rates => {
                     if let Err(m) = rates::open(app, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
+                }
+                Target::Baseline => {
+                    if let Err(m) = compare::open(app, &entry) {
                         app.error(format!("refused: {m}"));
                         app.mode = Mode::Typing { target, line };
                     }

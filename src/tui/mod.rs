@@ -190,7 +190,8 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskDisk(_)
         | Mode::AskSeek(_)
         | Mode::Rates(_)
-        | Mode::Sweep(_) => Ctx::Asking,
+        | Mode::Sweep(_)
+        | Mode::Compare(_) => Ctx::Asking,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

@@ -62,7 +62,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
         | Mode::AskSeek(_) => help::question(app, main, buf),
-        Mode::Rates(r) => help::rates(app, r, main, buf),
+        Mode::Rates(r) | Mode::Compare(r) => help::rates(app, r, main, buf),
         Mode::Sweep(s) => sweep::render(app, s, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
