@@ -1386,3 +1386,138 @@ fn params_are_ranked_by_what_they_buy() {
     run(&mut a, Cmd::Cancel);
     assert_eq!(a.mode, Mode::Main);
 }
+
+#[test]
+fn a_sweep_plots_ixx_over_the_depth_and_marks_the_current_value() {
+    let mut a = app(PLATE);
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::Sweep);
+    key(&mut a, KeyCode::Enter);
+    let Mode::Sweep(s) = a.mode.clone() else {
+        panic!("the overlay opens: {:?} {:?}", a.mode, a.message)
+    };
+    // By default ±50 % of h = 200 in 21 points: 100 to 300 in steps of 10.
+    assert_eq!(s.samples.len(), 21);
+    assert_eq!(s.samples[0].value, 100.0);
+    assert_eq!(s.samples[20].value, 300.0);
+    assert_eq!(s.marked, Some(10));
+    // A rectangle: Ixx = b·h³/12 (Gere & Goodno, App. E case 1) at every point, so
+    // rising with h.
+    for p in &s.samples {
+        let want = 100.0 * p.value.powi(3) / 12.0;
+        let got = *p.result.as_ref().unwrap();
+        assert!(
+            (got - want).abs() < 1e-9 * want,
+            "h = {}: {got} vs {want}",
+            p.value
+        );
+    }
+    insta::assert_snapshot!("sweep-80x24", screen(&a, 80, 24));
+    insta::assert_snapshot!("sweep-40x12", screen(&a, 40, 12));
+    a.theme.ascii = true;
+    insta::assert_snapshot!("sweep-ascii-80x24", screen(&a, 80, 24));
+    a.theme.ascii = false;
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.mode, Mode::Main);
+    assert_eq!(a.text, PLATE, "a sweep changes nothing");
+    // A typed range and number of points.
+    run(&mut a, Cmd::Sweep);
+    typed(&mut a, " 150 250 5");
+    key(&mut a, KeyCode::Enter);
+    let Mode::Sweep(s) = a.mode.clone() else {
+        panic!("the overlay opens: {:?} {:?}", a.mode, a.message)
+    };
+    let hs: Vec<f64> = s.samples.iter().map(|p| p.value).collect();
+    assert_eq!(hs, [150.0, 175.0, 200.0, 225.0, 250.0]);
+    key(&mut a, KeyCode::Esc);
+    // Torsion for every value is refused, as seek refuses it.
+    run(&mut a, Cmd::Sweep);
+    run(&mut a, Cmd::KillToStart);
+    typed(&mut a, "J");
+    key(&mut a, KeyCode::Enter);
+    assert!(refusal(&a).contains("torsion"), "{}", refusal(&a));
+    key(&mut a, KeyCode::Esc);
+    // Values that do not compute are listed as such, the line broken there.
+    run(&mut a, Cmd::Sweep);
+    typed(&mut a, " -100 300 5");
+    key(&mut a, KeyCode::Enter);
+    let Mode::Sweep(s) = a.mode.clone() else {
+        panic!("the overlay opens: {:?} {:?}", a.mode, a.message)
+    };
+    assert!(s.samples[0].result.is_err() && s.samples[4].result.is_ok());
+    assert!(screen(&a, 80, 24).contains("do not compute"));
+}
+
+#[test]
+fn compares_against_the_last_commit_or_another_file_side_by_side() {
+    let dir = temp_dir("compare");
+    let file = dir.join("plate.toml");
+    std::fs::write(&file, PLATE).unwrap();
+    let git = |args: &[&str]| {
+        let ok = std::process::Command::new("git")
+            .arg("-C")
+            .arg(&dir)
+            .args(args)
+            .output()
+            .map(|o| o.status.success())
+            .unwrap_or(false);
+        assert!(ok, "git {args:?}");
+    };
+    git(&["init", "-q"]);
+    git(&["add", "plate.toml"]);
+    git(&[
+        "-c",
+        "user.name=t",
+        "-c",
+        "user.email=t@t",
+        "commit",
+        "-qm",
+        "plate",
+    ]);
+    // The file now deeper than its last commit: h = 300.
+    let deeper = PLATE.replace("h = 200", "h = 300");
+    std::fs::write(&file, &deeper).unwrap();
+    let mut a = App::new(
+        deeper.clone(),
+        Some(file.clone()),
+        Config::default(),
+        Solver::Off,
+    )
+    .unwrap();
+    run(&mut a, Cmd::Compare);
+    key(&mut a, KeyCode::Enter);
+    let Mode::Compare(w) = a.mode.clone() else {
+        panic!("the window opens: {:?} {:?}", a.mode, a.message)
+    };
+    assert_eq!(a.baseline_label, "last commit");
+    // Ixx = b·h³/12 (Gere & Goodno, App. E case 1): 66.67e6 mm⁴ at h = 200 and
+    // 225.0e6 at 300, up (300/200)³ − 1 = 237.5 %.
+    let ixx = w.lines.iter().find(|l| l.starts_with("Ixx ")).unwrap();
+    assert!(ixx.contains("+238%") || ixx.contains("+237.5%"), "{ixx}");
+    assert!((a.baseline.props.ixx - 100.0 * 200f64.powi(3) / 12.0).abs() < 1e-3);
+    // The title line names the temporary folder, which changes from run to run.
+    let s = screen(&a, 80, 24);
+    let below_title = s.lines().skip(1).collect::<Vec<_>>().join("\n");
+    insta::assert_snapshot!("compare-80x24", below_title);
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.mode, Mode::Main);
+    // Another file, typed.
+    let other = dir.join("wide.toml");
+    std::fs::write(&other, PLATE.replace("b = 100", "b = 150")).unwrap();
+    run(&mut a, Cmd::Compare);
+    typed(&mut a, &other.display().to_string());
+    key(&mut a, KeyCode::Enter);
+    assert!(matches!(a.mode, Mode::Compare(_)), "{:?}", a.message);
+    assert_eq!(a.baseline_label, "other file");
+    key(&mut a, KeyCode::Esc);
+    // The demo is in no repository: refused, saying what to type instead.
+    let mut d = app(PLATE);
+    run(&mut d, Cmd::Compare);
+    key(&mut d, KeyCode::Enter);
+    assert!(
+        refusal(&d).contains("type a section file"),
+        "{}",
+        refusal(&d)
+    );
+}

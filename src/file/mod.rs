@@ -3,10 +3,12 @@
 //! column ([`locate`]), editing text in place keeping its layout ([`edit`]), reading a
 //! file's text within bounds ([`input`]), from a file to its analysis and the line
 //! an error prints as ([`load`]), saving atomically and securely ([`save`]) and
-//! the recovery copy of unsaved edits ([`recover`]).
+//! the recovery copy of unsaved edits ([`recover`]); a file at a git revision
+//! ([`git`]).
 
 pub mod edit;
 pub mod fast_points;
+pub mod git;
 pub mod input;
 pub mod load;
 pub mod read;

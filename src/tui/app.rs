@@ -148,6 +148,10 @@ pub enum Target {
     Seek(String),
     /// The result to rank the params by.
     Rates,
+    /// The result (and range) to sweep a param over.
+    Sweep(String),
+    /// A file or git revision to compare against.
+    Baseline,
 }
 
 /// The shape picker: the highlighted row, and what the chosen shape is for.
@@ -189,6 +193,10 @@ pub enum Mode {
     AskSeek(super::commands::seek::Found),
     /// The params ranked by what they buy of a result.
     Rates(super::commands::rates::Rates),
+    /// A result swept over a param: plot and table.
+    Sweep(super::commands::sweep::Swept),
+    /// Both designs' results side by side.
+    Compare(super::commands::rates::Rates),
 }
 
 /// How torsion is solved.

@@ -3,9 +3,11 @@
 //! terminal: moving, typing and stepping values, history, baseline and saving here;
 //! commands on whole parts in [`parts`].
 
+pub mod compare;
 pub mod parts;
 pub mod rates;
 pub mod seek;
+pub mod sweep;
 pub mod tables;
 
 use super::app::{App, Focus, LineEdit, Mode, Target};
@@ -103,6 +105,8 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::OpenTables => tables::open(app),
         Cmd::Seek => seek::begin(app),
         Cmd::Rates => rates::begin(app),
+        Cmd::Sweep => sweep::begin(app),
+        Cmd::Compare => compare::begin(app),
         Cmd::AddKey => tables::add(app),
         Cmd::RemoveKey => tables::remove(app),
         Cmd::Rename => tables::rename(app),
@@ -286,6 +290,20 @@ pub fn commit(app: &mut App) {
                 }
                 Target::Rates => {
                     if let Err(m) = rates::open(app, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
+                }
+                Target::Baseline => {
+                    if let Err(m) = compare::open(app, &entry) {
+                        app.error(format!("refused: {m}"));
+                        app.mode = Mode::Typing { target, line };
+                    }
+                    return;
+                }
+                Target::Sweep(param) => {
+                    if let Err(m) = sweep::open(app, param, &entry) {
                         app.error(format!("refused: {m}"));
                         app.mode = Mode::Typing { target, line };
                     }

@@ -189,7 +189,9 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
         | Mode::AskSeek(_)
-        | Mode::Rates(_) => Ctx::Asking,
+        | Mode::Rates(_)
+        | Mode::Sweep(_)
+        | Mode::Compare(_) => Ctx::Asking,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

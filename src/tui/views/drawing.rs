@@ -182,7 +182,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     }
 }
 
-fn blit(r: &Raster, area: Rect, buf: &mut Buffer, th: &Theme) {
+pub(super) fn blit(r: &Raster, area: Rect, buf: &mut Buffer, th: &Theme) {
     for cy in 0..r.h {
         for cx in 0..r.w {
             let Some(ch) = r.char_at(cx, cy, Theme::ascii_ink) else {

@@ -14,7 +14,7 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block as Frame, Clear, Paragraph, Widget, Wrap};
 
 /// A window of at most `w × h` centred in `area`.
-fn centred(area: Rect, w: u16, h: u16) -> Rect {
+pub(super) fn centred(area: Rect, w: u16, h: u16) -> Rect {
     let w = w.min(area.width);
     let h = h.min(area.height);
     Rect::new(

@@ -9,6 +9,7 @@ pub mod panel;
 pub mod params;
 pub mod parts;
 pub mod status;
+pub mod sweep;
 pub mod tables;
 
 use super::app::{App, Mode};
@@ -61,7 +62,8 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
         | Mode::AskSeek(_) => help::question(app, main, buf),
-        Mode::Rates(r) => help::rates(app, r, main, buf),
+        Mode::Rates(r) | Mode::Compare(r) => help::rates(app, r, main, buf),
+        Mode::Sweep(s) => sweep::render(app, s, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
 }

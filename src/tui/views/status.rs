@@ -88,6 +88,8 @@ fn edit_line(app: &App, x: u16, y: u16, w: usize, buf: &mut Buffer) {
                 Target::Rename(n) => format!("new name for param {}", clean(n)),
                 Target::Seek(n) => format!("seek {}: result = target", clean(n)),
                 Target::Rates => "rank the params by (Ixx, util, mass_per_length…)".into(),
+                Target::Baseline => "compare against (file, or REV:; Enter: last commit)".into(),
+                Target::Sweep(n) => format!("sweep {}: result [from to [points]]", clean(n)),
             };
             let chars: Vec<char> = line.text.chars().collect();
             // A long entry scrolls so the cursor stays in view.
