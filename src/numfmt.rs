@@ -191,6 +191,19 @@ pub enum Change {
     Blank,
 }
 
+impl Change {
+    /// The change as a signed amount for a column of its own (`+12.3%`, `−4.00`,
+    /// `±0`); empty when there is nothing to compare.
+    pub fn signed(&self) -> String {
+        match self {
+            Change::Up(s) => format!("+{s}"),
+            Change::Down(s) => format!("−{s}"),
+            Change::Same => "±0".into(),
+            Change::NotComparable | Change::Blank => String::new(),
+        }
+    }
+}
+
 /// The change from `base` to `now` read as `how`. A relative change from a baseline
 /// of zero is shown as a difference (no percentage exists).
 ///

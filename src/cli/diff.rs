@@ -9,7 +9,7 @@ use crate::analysis::{Analysis, Options};
 use crate::file::git::git_text;
 use crate::iterate::compare::{compare, Trend};
 use crate::model::units::LengthUnit;
-use crate::numfmt::{change, sig, Change};
+use crate::numfmt::{change, sig};
 use crate::report::json::to_json;
 use crate::report::out::OutUnits;
 use crate::report::CAUTION;
@@ -81,12 +81,7 @@ fn table(na: &str, nb: &str, a: &Analysis, b: &Analysis, units: Option<LengthUni
     for r in &rows {
         let c = &r.change;
         let v = |x: Option<f64>| x.map_or("—".to_string(), |x| sig(x, 5));
-        let pct = match change(c.b, c.a, c.compare) {
-            Change::Up(s) => Some(format!("+{s}")),
-            Change::Down(s) => Some(format!("−{s}")),
-            Change::Same => Some("±0".into()),
-            Change::NotComparable | Change::Blank => None,
-        };
+        let pct = change(c.b, c.a, c.compare).signed();
         let words = match r.trend {
             Trend::Same => "",
             Trend::Higher => "higher",
@@ -105,7 +100,7 @@ fn table(na: &str, nb: &str, a: &Analysis, b: &Analysis, units: Option<LengthUni
             c.unit.clone(),
             v(c.a),
             v(c.b),
-            pct.unwrap_or_default(),
+            pct,
             words.into(),
         ]);
     }

@@ -10,7 +10,7 @@ use crate::file::git::git_text;
 use crate::file::input::read_text;
 use crate::file::load::{analyse, diagnostic_line};
 use crate::iterate::compare::compare;
-use crate::numfmt::{change, Change};
+use crate::numfmt::change;
 use crate::text::clean;
 use crate::tui::app::{App, LineEdit, Mode, Target};
 use std::path::Path;
@@ -60,12 +60,7 @@ pub fn open(app: &mut App, entry: &str) -> Result<(), String> {
     for r in &rows {
         let c = &r.change;
         let v = |x: Option<f64>| x.map_or("—".to_string(), |x| u.num(x, 4));
-        let moved = match change(c.b, c.a, c.compare) {
-            Change::Up(s) => format!("+{s}"),
-            Change::Down(s) => format!("−{s}"),
-            Change::Same => "±0".into(),
-            Change::NotComparable | Change::Blank => String::new(),
-        };
+        let moved = change(c.b, c.a, c.compare).signed();
         lines.push(format!(
             "{:<8} {:>13} {:>13} {:>8}  {}",
             c.symbol,

@@ -7,6 +7,7 @@ use super::seek::{quantity, shown};
 use crate::analysis::Options;
 use crate::iterate::sensitivity::{sensitivities, Difference, STEP};
 use crate::iterate::vary::needs_torsion;
+use crate::report::out::OutUnits;
 use crate::report::rows::Dim;
 use crate::tui::app::{App, LineEdit, Mode, Target};
 
@@ -38,7 +39,8 @@ pub fn open(app: &mut App, key: &str) -> Result<(), String> {
         ));
     }
     let a = &app.analysis;
-    let u = app.units();
+    // Values are read in the file's own units (iterate), so labelled in them too.
+    let u = OutUnits::new(a.section.units, None).written(app.config.numbers, app.config.notation);
     let s = sensitivities(&a.document, q, &Options::default()).map_err(|f| f.message())?;
     let unit = a.section.units.name();
     let per = |x: f64| match q.dim {

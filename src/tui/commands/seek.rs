@@ -75,7 +75,8 @@ pub fn solve(app: &mut App, param: &str, entry: &str) -> Result<(), String> {
     }
     let a = &app.analysis;
     let target = parse_value(goal, q, a)?;
-    let u = app.units();
+    // Values are read in the file's own units (iterate), so labelled in them too.
+    let u = OutUnits::new(a.section.units, None).written(app.config.numbers, app.config.notation);
     let probe = Probe::new(&a.document, param, &Options::default())?;
     let was = crate::iterate::vary::read(q, a).map_or("none".into(), |x| shown(x, q, &u));
     match seek(&probe, q, target, Range::FromCurrent) {
