@@ -1,6 +1,8 @@
 //! Performance targets of issue 12: a 50-point sweep of a 20-part section without
 //! torsion in ≤ 5 ms, and the sensitivities of every param of a 20-part section in
-//! ≤ 2 ms. Run with `cargo bench --bench iterate`.
+//! ≤ 2 ms. Run with `cargo bench --bench iterate`. The sweep is timed with the whole
+//! analysis at each value (what `kern sweep --json` needs) and reading one result
+//! (what the workbench's sweep and the table of `kern sweep --result` need).
 
 use criterion::{black_box, criterion_group, criterion_main, Criterion};
 use kern::analysis::Options;
@@ -42,10 +44,19 @@ fn benches(c: &mut Criterion) {
     let opts = Options { torsion: None };
     let probe = Probe::new(&doc, "b2", &opts).unwrap();
     let xs = values(150.0, 450.0, 50).unwrap();
-    c.bench_function("sweep 50 points, 20 parts, no torsion", |b| {
-        b.iter(|| black_box(sweep(&probe, &xs)))
-    });
+    c.bench_function(
+        "sweep 50 points, 20 parts, no torsion, whole analysis",
+        |b| b.iter(|| black_box(sweep(&probe, &xs))),
+    );
     let q = result_key("inertia.xx").unwrap();
+    let u = result_key("member.utilization").unwrap();
+    for (name, key) in [("Ixx", q), ("utilization", u)] {
+        let one = probe.clone().reading(&[key]);
+        c.bench_function(
+            &format!("sweep 50 points, 20 parts, no torsion, {name}"),
+            |b| b.iter(|| black_box(sweep(&one, &xs))),
+        );
+    }
     c.bench_function("sensitivities of 9 params, 20 parts, no torsion", |b| {
         b.iter(|| black_box(sensitivities(&doc, q, &opts).unwrap()))
     });

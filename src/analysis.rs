@@ -32,6 +32,49 @@ pub struct Options {
     pub torsion: Option<TorsionOptions>,
 }
 
+/// Which stages of the analysis run besides the section's properties (which every
+/// result needs, with the net section when there are holes, so a file that fails
+/// fails the same way). [`Scope::FULL`] is the whole analysis; reading one result
+/// asks for what that result depends on (`iterate::vary::scope_for` decides), and
+/// the stages left out are `None` or empty in the [`Analysis`]: its warnings, kern
+/// and connections then are not the section's. The torsion solve, when asked for,
+/// always comes with the full analysis (the member and shear results it feeds).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Scope {
+    /// Stresses under `[actions]`.
+    pub stress: bool,
+    /// The member check.
+    pub member: bool,
+    /// Everything else: overlap and joint warnings, the connections and their shear
+    /// flow, the kern, and the member check's notes.
+    pub rest: bool,
+}
+
+impl Scope {
+    /// The whole analysis.
+    pub const FULL: Scope = Scope {
+        stress: true,
+        member: true,
+        rest: true,
+    };
+    /// The section's properties alone (area, centroid, second moments, moduli,
+    /// gyration, mass).
+    pub const PROPERTIES: Scope = Scope {
+        stress: false,
+        member: false,
+        rest: false,
+    };
+
+    /// The stages of both.
+    pub fn and(self, other: Scope) -> Scope {
+        Scope {
+            stress: self.stress || other.stress,
+            member: self.member || other.member,
+            rest: self.rest || other.rest,
+        }
+    }
+}
+
 /// Stresses under `[actions]`, in Pa at points in the file's frame.
 #[derive(Debug, Clone)]
 pub struct StressResult {
@@ -149,8 +192,23 @@ pub struct Analysis {
 }
 
 impl Analysis {
-    /// Computes a section from a document.
+    /// Computes a section from a document: the whole analysis.
     pub fn of_document(document: Document, opts: &Options) -> Result<Analysis, Diagnostic> {
+        Analysis::of_document_in(document, opts, Scope::FULL)
+    }
+
+    /// Computes the stages of `scope` of a section (all of them with torsion); the
+    /// results it covers are those of the whole analysis, bit for bit.
+    pub fn of_document_in(
+        document: Document,
+        opts: &Options,
+        scope: Scope,
+    ) -> Result<Analysis, Diagnostic> {
+        let scope = if opts.torsion.is_some() {
+            Scope::FULL
+        } else {
+            scope
+        };
         let section = Resolved::resolve(&document)?;
         let all = section.pieces();
         let is_hole = |p: &Piece| section.parts.get(p.part).is_some_and(|q| q.hole);
@@ -176,23 +234,27 @@ impl Analysis {
         } else {
             None
         };
-        let contacts = joints::contacts(&pieces);
-        let connections = shear_flow::connections(&pieces, &contacts, &props.centroidal());
-        let shear_given = section
-            .actions
-            .is_some_and(|a| a.vx.is_some() || a.vy.is_some());
-        // Overlaps and voids outside solid material, holes included.
-        let mut notes = warnings(&all);
-        notes.extend(shear_flow::warnings(
-            &pieces,
-            &contacts,
-            &connections,
-            shear_given,
-        ));
+        let (mut notes, mut connections, mut kern) = (Vec::new(), Vec::new(), Vec::new());
+        if scope.rest {
+            let contacts = joints::contacts(&pieces);
+            connections = shear_flow::connections(&pieces, &contacts, &props.centroidal());
+            let shear_given = section
+                .actions
+                .is_some_and(|a| a.vx.is_some() || a.vy.is_some());
+            // Overlaps and voids outside solid material, holes included.
+            notes = warnings(&all);
+            notes.extend(shear_flow::warnings(
+                &pieces,
+                &contacts,
+                &connections,
+                shear_given,
+            ));
+            kern = kern_polygon(&props.centroidal(), &outline_points(&pieces));
+        }
         let mut a = Analysis {
             warnings: notes,
             connections,
-            kern: kern_polygon(&props.centroidal(), &outline_points(&pieces)),
+            kern,
             document,
             section,
             pieces,
@@ -203,9 +265,15 @@ impl Analysis {
             member: None,
             shear: None,
         };
-        a.stress = a.stresses();
-        a.member = a.member_check();
-        a.warnings.extend(a.member_notes());
+        if scope.stress {
+            a.stress = a.stresses();
+        }
+        if scope.member {
+            a.member = a.member_check();
+        }
+        if scope.rest {
+            a.warnings.extend(a.member_notes());
+        }
         if let Some(o) = &opts.torsion {
             let o = TorsionOptions {
                 flexure: Some(nu_ref(&a.section)),

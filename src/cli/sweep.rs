@@ -79,6 +79,18 @@ pub fn sweep(args: &SweepArgs) -> i32 {
             }
         }
     };
+    // The table and the CSV show only their columns: their stages of the analysis.
+    let probe = if args.json {
+        probe
+    } else if chosen.is_empty() {
+        let defaults: Vec<_> = DEFAULT_RESULTS
+            .iter()
+            .filter_map(|k| result_key(k).ok())
+            .collect();
+        probe.reading(&defaults)
+    } else {
+        probe.reading(&chosen)
+    };
     let points = run(&probe, &xs);
     let mut status = 0;
     for p in &points {

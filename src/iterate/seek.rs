@@ -11,7 +11,7 @@
 //! of the samples can be missed; a result that jumps across the target is refused.
 
 use super::roots::{brent, first_bracket, Found, Sample};
-use super::vary::{options_for, read, Failure, Probe};
+use super::vary::{read, Failure, Probe};
 use crate::analysis::Analysis;
 use crate::report::rows::Quantity;
 
@@ -69,13 +69,11 @@ pub enum SeekError {
 
 /// The value of the probe's param for which `q` equals `target`, searched over `range`.
 pub fn seek(probe: &Probe, q: &Quantity, target: f64, range: Range) -> Result<Solved, SeekError> {
-    let quick = options_for(q, &probe.opts);
     let mut evaluations = 0;
     let mut samples: Vec<(f64, f64)> = Vec::new();
     let mut eval = |x: f64| -> Option<f64> {
         evaluations += 1;
-        let a = probe.analyse_with(x, &quick).ok()?;
-        let r = read(q, &a)?;
+        let r = probe.result(q, x).ok()?;
         samples.push((x, r));
         Some(r - target)
     };

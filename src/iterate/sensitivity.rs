@@ -12,7 +12,7 @@
 //! mass is (dR/dp)/(dm/dp) from the same two analyses; a param that adds no mass (a
 //! position) has none. Params are done in parallel.
 
-use super::vary::{options_for, param_values, read, Failure, Probe};
+use super::vary::{options_for, param_values, read, scope_for, Failure, Probe};
 use crate::analysis::{Analysis, Options};
 use crate::model::Document;
 use crate::parallel::parallel_map;
@@ -76,7 +76,9 @@ pub fn sensitivities(
     opts: &Options,
 ) -> Result<Sensitivities, Failure> {
     let quick = options_for(q, opts);
-    let base = Analysis::of_document(doc.clone(), &quick).map_err(Failure::Invalid)?;
+    // The mass is one of the properties, which every scope computes.
+    let scope = scope_for(q);
+    let base = Analysis::of_document_in(doc.clone(), &quick, scope).map_err(Failure::Invalid)?;
     let result = read(q, &base).ok_or_else(|| Failure::NoResult(q.path.into()))?;
     let m = mass_quantity();
     let mass = read(m, &base);
@@ -90,6 +92,7 @@ pub fn sensitivities(
             index: i,
             current: x,
             opts: quick.clone(),
+            scope,
         };
         let h = STEP * x.abs().max(size);
         let at = |x: f64| probe.analyse(x).map(|a| (read(q, &a), read(m, &a)));

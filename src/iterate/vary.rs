@@ -4,7 +4,7 @@
 //! the file's unit, forces, moments and stresses in its `quantity_units`) through
 //! the one table of results, [`QUANTITIES`].
 
-use crate::analysis::{Analysis, Options};
+use crate::analysis::{Analysis, Options, Scope};
 use crate::model::expr::resolve_params;
 use crate::model::{Diagnostic, Document, Value};
 use crate::report::out::OutUnits;
@@ -57,10 +57,41 @@ pub fn result_key(key: &str) -> Result<&'static Quantity, String> {
     })
 }
 
-/// Whether reading `q` needs the torsion solve (the torsion results, and Mcr with the
-/// βx it uses); every other result is the same without it.
+/// Whether reading `q` needs the torsion solve (the torsion results, Mcr with the βx
+/// it uses, and the shear areas and stresses of the flexure solution that comes with
+/// it); every other result is the same without it.
 pub fn needs_torsion(q: &Quantity) -> bool {
-    q.path.starts_with("torsion") || q.path == "member.mcr" || q.path == "member.beta_x"
+    [
+        "torsion",
+        "shear",
+        "member.mcr",
+        "member.beta_x",
+        "member.tau_max",
+    ]
+    .iter()
+    .any(|p| q.path.starts_with(p))
+}
+
+/// The stages of the analysis reading `q` needs, the one place that says so: the
+/// whole analysis with torsion; the stresses for `stress.*`; the member check for
+/// `member.*`; else the section's properties alone (every other numeric key of
+/// [`QUANTITIES`] reads `Analysis::props` or the mass from it).
+pub fn scope_for(q: &Quantity) -> Scope {
+    if needs_torsion(q) {
+        Scope::FULL
+    } else if q.path.starts_with("stress.") {
+        Scope {
+            stress: true,
+            ..Scope::PROPERTIES
+        }
+    } else if q.path.starts_with("member.") {
+        Scope {
+            member: true,
+            ..Scope::PROPERTIES
+        }
+    } else {
+        Scope::PROPERTIES
+    }
 }
 
 /// The options for reading `q` alone: `opts` without the torsion solve when `q` does
@@ -107,6 +138,9 @@ pub struct Probe {
     /// The param's value as the file has it.
     pub current: f64,
     pub opts: Options,
+    /// The stages [`Probe::analyse`] runs ([`Scope::FULL`] unless [`Probe::reading`]
+    /// narrowed them).
+    pub scope: Scope,
 }
 
 impl Probe {
@@ -139,7 +173,21 @@ impl Probe {
             index,
             current,
             opts: opts.clone(),
+            scope: Scope::FULL,
         })
+    }
+
+    /// The probe for reading only the results `qs`: its analyses run the stages they
+    /// need ([`scope_for`]) and the torsion solve only if one of them needs it.
+    pub fn reading(mut self, qs: &[&Quantity]) -> Probe {
+        self.scope = qs
+            .iter()
+            .map(|q| scope_for(q))
+            .fold(Scope::PROPERTIES, Scope::and);
+        if !qs.iter().any(|q| needs_torsion(q)) {
+            self.opts.torsion = None;
+        }
+        self
     }
 
     /// The param's name.
@@ -155,25 +203,33 @@ impl Probe {
         d
     }
 
-    /// The whole analysis with the param at `x`, with the probe's options.
+    /// The analysis with the param at `x`, with the probe's options and scope.
     pub fn analyse(&self, x: f64) -> Result<Analysis, Failure> {
-        self.analyse_with(x, &self.opts)
+        self.analyse_in(x, &self.opts, self.scope)
     }
 
-    /// The analysis with the param at `x` and options `opts`.
+    /// The whole analysis with the param at `x` and options `opts`.
     pub fn analyse_with(&self, x: f64, opts: &Options) -> Result<Analysis, Failure> {
+        self.analyse_in(x, opts, Scope::FULL)
+    }
+
+    /// The stages `scope` of the analysis with the param at `x` and options `opts`.
+    /// The document is the probe's with the one param changed, resolved again (the
+    /// file is not read or parsed again).
+    pub fn analyse_in(&self, x: f64, opts: &Options, scope: Scope) -> Result<Analysis, Failure> {
         if !x.is_finite() {
             return Err(Failure::Invalid(Diagnostic::new(
                 self.doc.params[self.index].1.clone(),
                 format!("`{}` must be a finite number", self.name()),
             )));
         }
-        Analysis::of_document(self.document_at(x), opts).map_err(Failure::Invalid)
+        Analysis::of_document_in(self.document_at(x), opts, scope).map_err(Failure::Invalid)
     }
 
-    /// Result `q` with the param at `x` (the torsion solve only if `q` needs it).
+    /// Result `q` with the param at `x`, from the stages `q` needs alone (the torsion
+    /// solve only if `q` needs it).
     pub fn result(&self, q: &Quantity, x: f64) -> Result<f64, Failure> {
-        let a = self.analyse_with(x, &options_for(q, &self.opts))?;
+        let a = self.analyse_in(x, &options_for(q, &self.opts), scope_for(q))?;
         read(q, &a).ok_or_else(|| Failure::NoResult(q.path.to_string()))
     }
 }
