@@ -653,8 +653,9 @@ impl Analysis {
 }
 
 /// Poisson's ratio of the reference (first) material, ν = E/(2G) − 1 (isotropic
-/// elasticity), or the default ν without materials (docs/format.md "Materials").
-fn nu_ref(section: &Resolved) -> f64 {
+/// elasticity), or the default ν without materials (docs/format.md "Materials"): the one
+/// the flexure solution is solved with, here and in the workbench's background solve.
+pub fn nu_ref(section: &Resolved) -> f64 {
     section
         .materials
         .first()
