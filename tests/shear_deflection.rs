@@ -107,3 +107,38 @@ fn without_the_flexure_solution_the_deflection_is_refused() {
     // The utilization cannot include a deflection that is not there.
     assert!(m.utilization.is_none() || m.fibres.iter().any(|f| f.fy.is_some()));
 }
+
+#[test]
+fn calc_json_gives_the_total_and_the_shear_share() {
+    // `member.deflection_max` stays the total; `member.deflection_shear` is what shear
+    // adds (kern's own key): wL²/(8·G·A_s) = 72 000 N / 4.8×10⁹ N = 0.015 mm for the lintel above, by hand.
+    let dir = std::env::temp_dir().join(format!("kern-shear-defl-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let file = dir.join("lintel.toml");
+    let text = "format = 1\nunits = \"mm\"\n[[materials]]\nname = \"steel\"\nE = \"200 GPa\"\n\
+nu = 0\n[[parts]]\nshape = \"rect\"\nb = 60\nh = 120\n[member]\nspan = \"1.2 m\"\n\
+support = \"simple\"\nudl = \"50 kN/m\"\nshear_deformation = true\n";
+    std::fs::write(&file, text).unwrap();
+    let run = |extra: &[&str]| {
+        let out = std::process::Command::new(env!("CARGO_BIN_EXE_kern"))
+            .args(["calc", "--json"])
+            .args(extra)
+            .arg(&file)
+            .output()
+            .expect("kern runs");
+        let line = String::from_utf8(out.stdout).unwrap();
+        serde_json::from_str::<serde_json::Value>(line.trim()).expect("one JSON line")
+    };
+    let v = run(&[]);
+    let ds = v["member"]["deflection_shear"]
+        .as_f64()
+        .expect("deflection_shear");
+    assert!(rel(ds, 0.015) < 1e-3, "δs = {ds} mm");
+    let d = v["member"]["deflection_max"].as_f64().unwrap();
+    let bending = 5.0 * 50e3 * 1.2f64.powi(4) / (384.0 * E * I) * 1e3; // mm
+    assert!(rel(d, bending + 0.015) < 1e-3, "δ = {d} mm");
+    // --no-torsion: the total is refused (null), not given without shear.
+    let v = run(&["--no-torsion"]);
+    assert!(v["member"]["deflection_max"].is_null(), "{}", v["member"]);
+    let _ = std::fs::remove_dir_all(&dir);
+}
