@@ -695,9 +695,15 @@ fn member_lines(
         } else {
             String::new()
         };
+        let redundants = match mb.support {
+            Support::Fixed | Support::Propped => {
+                "; the reactions and moments include the shear flexibility"
+            }
+            Support::Simple | Support::Cantilever => "",
+        };
         out.push(own(format!(
             "shear deformation (Timoshenko beam, G·A_s,y from the flexure solution's shear area) \
-adds {} {}{share}",
+adds {} {}{share}{redundants}",
             fig(u, d.from_si(ds)),
             d.name,
         )));
