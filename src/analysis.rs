@@ -93,8 +93,15 @@ pub struct MemberResult {
     pub result: Option<BeamResult>,
     pub m_max: f64,
     pub v_max: f64,
-    /// `None` without a modulus of elasticity.
+    /// The largest deflection, m, with the shear deformation when `[member]
+    /// shear_deformation` is on; `None` without a modulus of elasticity, or with shear
+    /// deformation asked for but no shear area (see `shear_deflection_note`).
     pub deflection_max: Option<f64>,
+    /// With shear deformation: how much it adds to the largest deflection, m — the
+    /// Timoshenko beam's largest deflection less the Euler–Bernoulli one.
+    pub deflection_shear: Option<f64>,
+    /// Why shear deformation was asked for and the deflection is withheld.
+    pub shear_deflection_note: Option<Warning>,
     pub deflection_allowed: f64,
     /// The largest bending stress over the materials, `n_i·M·c_i/Ixx` (net section).
     pub stress_max: f64,
@@ -295,6 +302,11 @@ impl Analysis {
         }
         self.torsion = Some(t);
         self.member = self.member_check();
+        // The member's note on shear deformation depends on the flexure solution: renewed.
+        self.warnings
+            .retain(|w| !matches!(w, Warning::ShearDeflectionWithheld { .. }));
+        let note = (self.member.as_ref()).and_then(|m| m.shear_deflection_note.clone());
+        self.warnings.extend(note);
         self.shear = self.shear_result();
         let warning = (self.member.as_ref()).and_then(MemberResult::mcr_warning);
         if let Some(w) = warning.filter(|w| !self.warnings.contains(w)) {
@@ -306,6 +318,13 @@ impl Analysis {
     pub fn flexure(&self) -> Option<&Flexure> {
         let t = self.torsion.as_ref()?.as_ref().ok()?;
         t.flexure.as_ref()?.as_ref().ok()
+    }
+
+    /// The shear areas (file length², to G of the first material) when the flexure
+    /// solution gave them within its tolerance.
+    fn shear_areas(&self) -> Option<[f64; 2]> {
+        let flex = self.flexure()?;
+        (flex.shear_area_error <= flex.tol).then_some(flex.shear_area)
     }
 
     /// Shear areas and stresses from the flexure solution, keeping only figures within
@@ -331,7 +350,8 @@ impl Analysis {
             }
             ok
         };
-        let areas = within(ShearFigure::Areas, flex.shear_area_error).then_some(flex.shear_area);
+        within(ShearFigure::Areas, flex.shear_area_error);
+        let areas = self.shear_areas();
         let u = self.section.units.metres();
         let (u2, u3) = (u * u, u * u * u);
         let zero = |_: Pt| 0.0;
@@ -480,6 +500,7 @@ impl Analysis {
             }
         }
         notes.extend(self.member.as_ref().and_then(MemberResult::mcr_warning));
+        notes.extend((self.member.as_ref()).and_then(|m| m.shear_deflection_note.clone()));
         notes
     }
 
@@ -607,12 +628,42 @@ impl Analysis {
             // Without E the forces are still right (they do not depend on EI); the
             // deflection is not reported.
             ei: e.unwrap_or(1.0) * i,
+            shear_rigidity: None,
         };
-        let result = member::analyse(&beam).ok();
+        // Shear deformation: G·A_s,y with A_s,y transformed to G of the first material.
+        let shear_rigidity = match (mb.shear_deformation, self.section.materials.first()) {
+            (true, Some(mat)) => Some(self.shear_areas().map(|a| mat.g * self.si(a[1], Dim::Area))),
+            _ => None,
+        };
+        let bending = member::analyse(&beam).ok();
+        let (beam, result, deflection_shear, shear_deflection_note) = match shear_rigidity {
+            None => (beam, bending, None, None),
+            Some(None) => {
+                let solved = self.torsion.is_some();
+                (
+                    beam,
+                    bending,
+                    None,
+                    Some(Warning::ShearDeflectionWithheld { solved }),
+                )
+            }
+            Some(Some(ga)) => {
+                let beam = Beam {
+                    shear_rigidity: Some(ga),
+                    ..beam
+                };
+                let result = member::analyse(&beam).ok();
+                let added = (result.as_ref().zip(bending.as_ref()))
+                    .map(|(t, b)| t.deflection_max - b.deflection_max);
+                (beam, result, added, None)
+            }
+        };
         let (m_max, v_max) = result
             .as_ref()
             .map_or((f64::NAN, f64::NAN), |r| (r.m_max, r.v_max));
-        let deflection_max = e.and(result.as_ref().map(|r| r.deflection_max));
+        let deflection_max = e
+            .and(result.as_ref().map(|r| r.deflection_max))
+            .filter(|_| shear_deflection_note.is_none());
         let deflection_allowed = mb.length / mb.deflection_limit;
         let fibres = self.fibre_stresses(m_max);
         let stress_max = fibres.iter().map(|f| f.stress).fold(f64::NAN, f64::max);
@@ -644,6 +695,8 @@ impl Analysis {
             m_max,
             v_max,
             deflection_max,
+            deflection_shear,
+            shear_deflection_note,
             deflection_allowed,
             stress_max,
             fibres,
@@ -668,8 +721,9 @@ impl Analysis {
 }
 
 /// Poisson's ratio of the reference (first) material, ν = E/(2G) − 1 (isotropic
-/// elasticity), or the default ν without materials (docs/format.md "Materials").
-fn nu_ref(section: &Resolved) -> f64 {
+/// elasticity), or the default ν without materials (docs/format.md "Materials"): the one
+/// the flexure solution is solved with, here and in the workbench's background solve.
+pub fn nu_ref(section: &Resolved) -> f64 {
     section
         .materials
         .first()

@@ -1521,3 +1521,22 @@ fn compares_against_the_last_commit_or_another_file_side_by_side() {
         refusal(&d)
     );
 }
+
+#[test]
+fn the_shear_group_shows_shear_areas_and_tau_once_solved() {
+    // Solved inline (deterministic): a 60 × 120 mm rectangle, ν = 0, Vy = 36 kN, our own
+    // lintel. The panel's "Shear" rows hold the shear areas (5A/6 = 6000 mm², Timoshenko
+    // & Goodier §124) and τmax = 1.5·V/A = 7.5 MPa.
+    let text =
+        "format = 1\nunits = \"mm\"\n[[materials]]\nname = \"steel\"\nE = \"200 GPa\"\nnu = 0\n\
+[[parts]]\nname = \"lintel\"\nshape = \"rect\"\nb = 60\nh = 120\n[actions]\nVy = \"36 kN\"\n";
+    let a = App::new(text.to_string(), None, Config::default(), Solver::Inline).expect("valid");
+    let shear = a.analysis.shear.as_ref().expect("the flexure solution ran");
+    assert!(shear.areas.is_some() && shear.tau_max.is_some());
+    let s = screen(&a, 120, 40);
+    assert!(
+        s.contains("Asy           6000 mm²") && s.contains("τmax         7.502 MPa"),
+        "{s}"
+    );
+    insta::assert_snapshot!("shear-group-120x40", s);
+}

@@ -16,6 +16,18 @@
 //! This is the exact superposition of the standard load cases (Roark's Formulas for Stress and
 //! Strain, Table 8.1; AISC Steel Construction Manual, beam diagrams and formulas), without
 //! a table of cases to copy.
+//!
+//! Shear deformation (optional, [`Beam::shear_rigidity`] = G·A_s): the Timoshenko beam, in
+//! which the deflection's slope is the rotation of the cross-section plus the shear strain,
+//! `δ' = θ + V/(G·A_s)`, with `EI·θ' = −M` (S. P. Timoshenko & J. M. Gere, Mechanics of
+//! Materials, "shear deflections"; Roark's Formulas, 8th ed., §8.10 on shear deflection).
+//! Integrating, `δ(x) = δ_b(x) + (M(x) − M0)/(G·A_s)`; a pinned end holds δ = 0, a fixed
+//! end δ = 0 and θ = 0 (the section does not turn; the deflection's slope is V/(G·A_s)).
+//! For the simple span and the cantilever the moments are those of statics and the shear
+//! part is the closed form `(M(x) − M0)/(G·A_s)`: w·L²/(8·G·A_s) at midspan of a simple
+//! span under a uniform load, P·a·b/(L·G·A_s) under a point load, w·L²/(2·G·A_s) and
+//! P·L/(G·A_s) at the tip of a cantilever. For fixed and propped spans the same support
+//! conditions also fix the redundant reactions, which then include the shear flexibility.
 
 pub use crate::model::loads::Support;
 
@@ -27,7 +39,9 @@ pub struct PointLoad {
 }
 
 /// A single-span beam: `udl` per unit length over the whole span (positive downward), point
-/// loads, and the flexural rigidity `ei` = E·I about the bending axis.
+/// loads, the flexural rigidity `ei` = E·I about the bending axis and, when shear deformation
+/// counts, the shear rigidity `shear_rigidity` = G·A_s (`None`: rigid in shear, the
+/// Euler–Bernoulli beam).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Beam {
     pub span: f64,
@@ -35,6 +49,7 @@ pub struct Beam {
     pub udl: f64,
     pub points: Vec<PointLoad>,
     pub ei: f64,
+    pub shear_rigidity: Option<f64>,
 }
 
 /// Peak values (magnitudes, ≥ 0) and where they occur, with the support reactions.
@@ -69,13 +84,20 @@ const GRID_PER_SEGMENT: usize = 64;
 /// bisection on a grid of every stretch, at the stretch ends, and by a golden-section search
 /// around the largest grid value, which pins the peak to about machine precision.
 ///
-/// `Err` for a span or EI that is not a finite number > 0, a non-finite load, or a point load
-/// outside [0, span].
+/// `Err` for a span, EI or G·A_s that is not a finite number > 0, a non-finite load, or a
+/// point load outside [0, span].
 ///
 /// ```
 /// use kern::checks::member::{analyse, Beam, Support};
 /// // Simple span, 6 m, 10 kN/m (N and mm): M = wL²/8 = 45 kN·m at midspan.
-/// let beam = Beam { span: 6000.0, support: Support::Simple, udl: 10.0, points: vec![], ei: 1e13 };
+/// let beam = Beam {
+///     span: 6000.0,
+///     support: Support::Simple,
+///     udl: 10.0,
+///     points: vec![],
+///     ei: 1e13,
+///     shear_rigidity: None,
+/// };
 /// let r = analyse(&beam).unwrap();
 /// assert!((r.m_max - 45e6).abs() < 1e-3 && (r.m_max_at - 3000.0).abs() < 1e-6);
 /// ```
@@ -201,24 +223,31 @@ impl Peak {
     }
 }
 
-/// The beam with its left-end state: reaction `r0` (upward), bending moment `m0` and slope
-/// `theta0` (of the downward deflection). Deflection at x = 0 is zero for every support case.
+/// The beam with its left-end state: reaction `r0` (upward), bending moment `m0` and
+/// rotation `theta0` of the cross-section (of the downward deflection), and the shear
+/// flexibility `s` = 1/(G·A_s) (0 without shear deformation). Deflection at x = 0 is zero
+/// for every support case.
 struct Solution<'a> {
     beam: &'a Beam,
     r0: f64,
     m0: f64,
     theta0: f64,
+    s: f64,
 }
 
 impl<'a> Solution<'a> {
     /// Validate the beam and fix R0, M0, θ0 from the support conditions. With the load
-    /// integrals `Ck = loads(L, k)` and `F(x) = M0·x²/2 + R0·x³/6 − loads(x, 3)`
-    /// (so that `EI·δ = EI·θ0·x − F`):
+    /// integrals `Ck = loads(L, k)`, `F(x) = M0·x²/2 + R0·x³/6 − loads(x, 3)` and
+    /// `k = EI·s = EI/(G·A_s)` (so that `EI·δ = EI·θ0·x − F + k·(M − M0)`):
     ///
     /// - simple: M0 = 0, M(L) = 0 ⇒ R0 = C1/L; δ(L) = 0 ⇒ θ0 = F(L)/(EI·L)
     /// - cantilever: θ0 = 0, V(L) = 0 ⇒ R0 = wL + ΣP; M(L) = 0 ⇒ M0 = C1 − R0·L
-    /// - fixed: θ0 = 0, δ(L) = δ'(L) = 0 ⇒ R0 = (6·C2·L − 12·C3)/L³, M0 = C2/L − R0·L/2
-    /// - propped: θ0 = 0, δ(L) = 0 and M(L) = 0 ⇒ R0 = (3·C1·L²/2 − 3·C3)/L³, M0 = C1 − R0·L
+    /// - fixed: θ0 = 0, θ(L) = δ(L) = 0 ⇒ R0 = (6·C2·L − 12·C3 + 12·k·C1)/(L³ + 12·k·L),
+    ///   M0 = C2/L − R0·L/2
+    /// - propped: θ0 = 0, δ(L) = 0 and M(L) = 0 ⇒
+    ///   R0 = (3·C1·L²/2 − 3·C3 + 3·k·C1)/(L³ + 3·k·L), M0 = C1 − R0·L
+    ///
+    /// With k = 0 these are the Euler–Bernoulli values.
     fn new(beam: &'a Beam) -> Result<Self, String> {
         let span = beam.span;
         if !(span.is_finite() && span > 0.0) {
@@ -227,6 +256,15 @@ impl<'a> Solution<'a> {
         if !(beam.ei.is_finite() && beam.ei > 0.0) {
             return Err(format!("EI must be a finite number > 0, not {}", beam.ei));
         }
+        let s = match beam.shear_rigidity {
+            None => 0.0,
+            Some(ga) if ga.is_finite() && ga > 0.0 => 1.0 / ga,
+            Some(ga) => {
+                return Err(format!(
+                    "the shear rigidity G·A_s must be a finite number > 0, not {ga}"
+                ))
+            }
+        };
         if !beam.udl.is_finite() {
             return Err(format!("the uniform load must be finite, not {}", beam.udl));
         }
@@ -251,9 +289,11 @@ impl<'a> Solution<'a> {
             r0: 0.0,
             m0: 0.0,
             theta0: 0.0,
+            s,
         };
         let (c1, c2, c3) = (sol.loads(span, 1), sol.loads(span, 2), sol.loads(span, 3));
         let l3 = span * span * span;
+        let k = beam.ei * s;
         match beam.support {
             Support::Simple => {
                 sol.r0 = c1 / span;
@@ -264,11 +304,11 @@ impl<'a> Solution<'a> {
                 sol.m0 = c1 - sol.r0 * span;
             }
             Support::Fixed => {
-                sol.r0 = (6.0 * c2 * span - 12.0 * c3) / l3;
+                sol.r0 = (6.0 * c2 * span - 12.0 * c3 + 12.0 * k * c1) / (l3 + 12.0 * k * span);
                 sol.m0 = c2 / span - sol.r0 * span / 2.0;
             }
             Support::Propped => {
-                sol.r0 = (1.5 * c1 * span * span - 3.0 * c3) / l3;
+                sol.r0 = (1.5 * c1 * span * span - 3.0 * c3 + 3.0 * k * c1) / (l3 + 3.0 * k * span);
                 sol.m0 = c1 - sol.r0 * span;
             }
         }
@@ -310,15 +350,19 @@ impl<'a> Solution<'a> {
         self.m0 + self.r0 * x - self.loads(x, 1)
     }
 
-    /// δ'(x) = θ0 − (M0·x + R0·x²/2 − loads(x, 2))/EI.
+    /// δ'(x) = θ(x) + s·V(x), with the section's rotation θ(x) = θ0 − (M0·x + R0·x²/2 −
+    /// loads(x, 2))/EI and V taken right of a point load (the slope jumps there when s > 0).
     fn slope(&self, x: f64) -> f64 {
-        self.theta0 - (self.m0 * x + self.r0 * x * x / 2.0 - self.loads(x, 2)) / self.beam.ei
+        let theta =
+            self.theta0 - (self.m0 * x + self.r0 * x * x / 2.0 - self.loads(x, 2)) / self.beam.ei;
+        theta + self.s * self.shear(x, Side::Right)
     }
 
-    /// δ(x) = θ0·x − (M0·x²/2 + R0·x³/6 − loads(x, 3))/EI, positive downward.
+    /// δ(x) = θ0·x − (M0·x²/2 + R0·x³/6 − loads(x, 3))/EI + s·(M(x) − M0), positive
+    /// downward.
     fn deflection(&self, x: f64) -> f64 {
         let f = self.m0 * x * x / 2.0 + self.r0 * x * x * x / 6.0 - self.loads(x, 3);
-        self.theta0 * x - f / self.beam.ei
+        self.theta0 * x - f / self.beam.ei + self.s * (self.moment(x) - self.m0)
     }
 
     fn reactions(&self) -> Vec<(f64, f64)> {
@@ -416,6 +460,7 @@ mod tests {
             udl,
             points: points.iter().map(|&(p, a)| PointLoad { p, a }).collect(),
             ei: EI,
+            shear_rigidity: None,
         }
     }
 
@@ -700,6 +745,87 @@ mod tests {
         assert_eq!(diagrams(&b, 4).unwrap().len(), 5);
     }
 
+    /// The same beam with shear rigidity G·A_s.
+    fn with_shear(mut b: Beam, ga: f64) -> Beam {
+        b.shear_rigidity = Some(ga);
+        b
+    }
+
+    // G·A_s of our own short deep lintel: G = 81 GPa, A_s = 5/6 of a 200 × 600 mm rectangle.
+    const GA: f64 = 81_000.0 * 100_000.0;
+
+    #[test]
+    fn shear_deflection_statically_determinate() {
+        // Timoshenko & Gere, Mechanics of Materials, shear deflections; Roark's Formulas §8.10:
+        // simple span udl δs = wL²/8GA at midspan, point load P at a: δs = Pab/(L·GA) under
+        // it; cantilever udl δs = wL²/2GA and end load δs = PL/GA at the tip. The moments
+        // do not change (statics).
+        let b = beam(Support::Simple, W, &[]);
+        let (r0, r) = (analyse(&b).unwrap(), analyse(&with_shear(b, GA)).unwrap());
+        let eb = 5.0 * W * L.powi(4) / (384.0 * EI);
+        assert!(close(r.deflection_max, eb + W * L * L / (8.0 * GA), 1e-12));
+        assert!(close(r.deflection_at, L / 2.0, 1e-7));
+        assert_eq!((r.m_max, r.v_max), (r0.m_max, r0.v_max));
+
+        let (a, bb) = (L / 2.0, L / 2.0);
+        let b = beam(Support::Simple, 0.0, &[(P, a)]);
+        let r = analyse(&with_shear(b, GA)).unwrap();
+        let expect = P * L.powi(3) / (48.0 * EI) + P * a * bb / (L * GA);
+        assert!(close(r.deflection_max, expect, 1e-12));
+        assert!(close(r.deflection_at, L / 2.0, 1e-7));
+
+        let r = analyse(&with_shear(beam(Support::Cantilever, W, &[]), GA)).unwrap();
+        let expect = W * L.powi(4) / (8.0 * EI) + W * L * L / (2.0 * GA);
+        assert!(close(r.deflection_max, expect, 1e-12));
+        assert_eq!(r.deflection_at, L);
+
+        let r = analyse(&with_shear(beam(Support::Cantilever, 0.0, &[(P, L)]), GA)).unwrap();
+        let expect = P * L.powi(3) / (3.0 * EI) + P * L / GA;
+        assert!(close(r.deflection_max, expect, 1e-12));
+    }
+
+    #[test]
+    fn shear_deflection_fixed_and_propped() {
+        // Fixed ends, symmetric loads: the end moments stay wL²/12 and PL/8 (symmetry), and
+        // δs = (M(L/2) − M(0))/GA = wL²/8GA and PL/4GA at midspan (Timoshenko & Gere).
+        let r = analyse(&with_shear(beam(Support::Fixed, W, &[]), GA)).unwrap();
+        let expect = W * L.powi(4) / (384.0 * EI) + W * L * L / (8.0 * GA);
+        assert!(close(r.deflection_max, expect, 1e-12));
+        assert!(close(r.m_max, W * L * L / 12.0, 1e-12));
+        let r = analyse(&with_shear(beam(Support::Fixed, 0.0, &[(P, L / 2.0)]), GA)).unwrap();
+        let expect = P * L.powi(3) / (192.0 * EI) + P * L / (4.0 * GA);
+        assert!(close(r.deflection_max, expect, 1e-12));
+        assert!(close(r.m_max, P * L / 8.0, 1e-12));
+
+        // Propped cantilever under a udl, by compatibility at the prop (Roark Table 8.1 with
+        // §8.10): the cantilever's tip deflection wL⁴/8EI + wL²/2GA is taken back by the prop
+        // force R: R·(L³/3EI + L/GA). Our own short span so that shear matters.
+        let span = 1800.0;
+        let b = Beam {
+            span,
+            ..with_shear(beam(Support::Propped, W, &[]), GA)
+        };
+        let r = analyse(&b).unwrap();
+        let prop = (W * span.powi(4) / (8.0 * EI) + W * span * span / (2.0 * GA))
+            / (span.powi(3) / (3.0 * EI) + span / GA);
+        assert!(close(r.reactions[1].1, prop, 1e-12));
+        assert!(close(r.reactions[0].1, W * span - prop, 1e-12));
+        // A point load P at a on the fixed-ended beam: the fixed end's reaction by the same
+        // compatibility, checked through equilibrium of the two reactions.
+        let b = with_shear(beam(Support::Fixed, 0.0, &[(P, 2000.0)]), GA);
+        let r = analyse(&b).unwrap();
+        assert!(close(r.reactions[0].1 + r.reactions[1].1, P, 1e-12));
+        // The deflection is zero at both ends and larger than without shear.
+        let d = diagrams(&b, 10).unwrap();
+        assert!(d[0].3.abs() < 1e-9 && d[10].3.abs() < 1e-9);
+        let eb = analyse(&beam(Support::Fixed, 0.0, &[(P, 2000.0)])).unwrap();
+        assert!(r.deflection_max > eb.deflection_max);
+        // A shear rigidity that is not a finite number > 0 is refused.
+        for bad in [0.0, -1.0, f64::NAN, f64::INFINITY] {
+            assert!(analyse(&with_shear(beam(Support::Simple, W, &[]), bad)).is_err());
+        }
+    }
+
     proptest::proptest! {
         #[test]
         fn never_panics_and_peaks_bound_the_diagrams(
@@ -715,6 +841,7 @@ mod tests {
                 udl,
                 points: loads.iter().map(|&(p, f)| PointLoad { p, a: f * span }).collect(),
                 ei: 1e12,
+                shear_rigidity: None,
             };
             if let Ok(r) = analyse(&b) {
                 // The peaks found are at least as large as any diagram sample (and not much

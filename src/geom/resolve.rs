@@ -83,6 +83,8 @@ pub struct Member {
     pub points: Vec<(f64, f64)>,
     pub deflection_limit: f64,
     pub self_weight: bool,
+    /// Add the shear deformation (Timoshenko) to the deflection.
+    pub shear_deformation: bool,
     /// Moment-gradient factor for Mcr (1 for uniform moment, the default).
     pub c1: f64,
     pub load_height: LoadHeight,
@@ -641,6 +643,7 @@ fn resolve_member(
         points,
         deflection_limit,
         self_weight: m.self_weight,
+        shear_deformation: m.shear_deformation,
         c1,
         load_height,
     })

@@ -80,6 +80,8 @@ pub struct MemberDoc {
     pub points: Vec<PointDoc>,
     pub deflection_limit: Option<Val>,
     pub self_weight: bool,
+    /// Add the shear deformation (Timoshenko) to the deflection.
+    pub shear_deformation: bool,
     /// Moment-gradient factor for Mcr.
     pub c1: Option<Val>,
     /// Where transverse loads act, for Mcr: `shear_centre`, `top` or `bottom`.

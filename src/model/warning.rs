@@ -121,6 +121,9 @@ pub enum Warning {
     MaterialNoFy { material: Option<String> },
     /// Mcr was not computed, for a reason the user should hear of.
     McrNotComputed(McrRefusal),
+    /// `[member] shear_deformation` is on but there is no shear area A_s,y: the flexure
+    /// solution has not run (`solved: false`) or gave none within its tolerance.
+    ShearDeflectionWithheld { solved: bool },
 }
 
 /// Which result of the flexure solution a warning is about.

@@ -678,8 +678,36 @@ fn member_lines(
             d.name,
             fig(u, dm / mr.deflection_allowed)
         ),
+        None if mr.shear_deflection_note.is_some() => {
+            "deflection not computed: shear deformation is asked for but there is no shear area \
+(see the warnings)"
+                .into()
+        }
         None => "deflection not computed: no modulus of elasticity given".into(),
     }));
+    if let (Some(ds), Some(dm)) = (mr.deflection_shear, mr.deflection_max) {
+        let bending = dm - ds;
+        let share = if bending > 0.0 {
+            format!(
+                ", {} % of the bending deflection",
+                fig(u, 100.0 * ds / bending)
+            )
+        } else {
+            String::new()
+        };
+        let redundants = match mb.support {
+            Support::Fixed | Support::Propped => {
+                "; the reactions and moments include the shear flexibility"
+            }
+            Support::Simple | Support::Cantilever => "",
+        };
+        out.push(own(format!(
+            "shear deformation (Timoshenko beam, G·A_s,y from the flexure solution's shear area) \
+adds {} {}{share}{redundants}",
+            fig(u, d.from_si(ds)),
+            d.name,
+        )));
+    }
     let net = if a.net.is_some() { ", net section" } else { "" };
     for fb in &mr.fibres {
         let mut line = vec![Span::Own("σb".into())];

@@ -316,6 +316,14 @@ fn any_shear_action(a: &Analysis) -> bool {
 fn always(_: &Analysis) -> bool {
     true
 }
+/// What shear deformation adds to the member's deflection: a row only when the file asks
+/// for shear deformation ("—" when it could not be formed).
+fn deflection_shear(a: &Analysis) -> Cell {
+    match &a.section.member {
+        Some(mb) if mb.shear_deformation => member(a, |m| m.deflection_shear.into()),
+        _ => Cell::Absent,
+    }
+}
 fn with_member(a: &Analysis) -> bool {
     a.member.is_some()
 }
@@ -406,6 +414,7 @@ pub static QUANTITIES: &[Quantity] = &[
     Quantity { group: "Principal moduli", symbol: "S1,−", meaning: "I1 / (−v_min): about axis 1 to the extreme fibre on the −v side", path: "principal_modulus.s1_neg", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s1_neg) },
     Quantity { group: "Principal moduli", symbol: "S2,+", meaning: "I2 / u_max: about axis 2 to the extreme fibre on the +u side (u along axis 1, at θ)", path: "principal_modulus.s2_pos", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s2_pos) },
     Quantity { group: "Principal moduli", symbol: "S2,−", meaning: "I2 / (−u_min): about axis 2 to the extreme fibre on the −u side", path: "principal_modulus.s2_neg", dim: Dim::L(3), get: |a| principal_modulus(a, |s| s.s2_neg) },
+    Quantity { group: "Member", symbol: "δshear", meaning: "what shear deformation adds to δmax (Timoshenko, G·A_s,y)", path: "member.deflection_shear", dim: Dim::Deflection, get: deflection_shear },
     Quantity { group: "Member", symbol: "τ@Vmax", meaning: "largest shear stress from Vmax (vertical shear, flexure solution)", path: "member.tau_max", dim: Dim::Stress, get: |a| shear(a, |s| s.member_tau.map(|p| p.value), with_member) },
     Quantity { group: "Shear", symbol: "Asx|Av,y", meaning: "shear area for shear along x (energy-consistent, to G of the first material)|shear area for shear along y (energy-consistent, to G of the first material)", path: "shear_area.x", dim: Dim::L(2), get: |a| shear(a, |s| s.areas.map(|v| v[0]), always) },
     Quantity { group: "Shear", symbol: "Asy|Av,z", meaning: "shear area for shear along y (energy-consistent, to G of the first material)|shear area for shear along z (energy-consistent, to G of the first material)", path: "shear_area.y", dim: Dim::L(2), get: |a| shear(a, |s| s.areas.map(|v| v[1]), always) },

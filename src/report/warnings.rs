@@ -207,6 +207,17 @@ utilization; give its fy",
                 material.as_deref().unwrap_or("(none)")
             ),
             Warning::McrNotComputed(why) => write!(f, "Mcr not computed: {why}"),
+            Warning::ShearDeflectionWithheld { solved } => write!(
+                f,
+                "shear_deformation is on but there is no shear area A_s,y ({}): the deflection \
+is not given, since leaving shear out would understate it, and the utilization leaves \
+deflection out",
+                if *solved {
+                    "the flexure solution gave none within its tolerance; see the warning on shear"
+                } else {
+                    "the flexure solution has not run: torsion skipped, or still solving"
+                }
+            ),
         }
     }
 }

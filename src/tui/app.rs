@@ -8,7 +8,7 @@ use super::columns::{columns, Col};
 use super::config::Config;
 use super::theme::Theme;
 use super::worker::{Poll, Worker};
-use crate::analysis::{Analysis, Options};
+use crate::analysis::{nu_ref, Analysis, Options};
 use crate::fe::{torsion, TorsionOptions};
 use crate::file::edit::{self, Edit, Place};
 use crate::file::input::read_text;
@@ -518,18 +518,21 @@ impl App {
         match &mut self.solver {
             Solver::Off => {}
             Solver::Inline => {
-                let r = solve_here(&self.analysis.pieces);
+                let r = solve_here(&self.analysis);
                 self.take_torsion(r);
             }
             Solver::Thread(w) => {
-                w.submit(self.generation, self.analysis.pieces.clone());
+                w.submit(self.generation, &self.analysis);
                 self.solving = true;
             }
         }
     }
 
     fn take_torsion(&mut self, r: Result<crate::fe::Torsion, crate::model::Warning>) {
-        if self.baseline.torsion.is_none() && self.baseline.pieces == self.analysis.pieces {
+        let same = |a: &Analysis, b: &Analysis| {
+            a.pieces == b.pieces && nu_ref(&a.section) == nu_ref(&b.section)
+        };
+        if self.baseline.torsion.is_none() && same(&self.baseline, &self.analysis) {
             self.baseline.set_torsion(r.clone());
         }
         self.analysis.set_torsion(r);
@@ -546,13 +549,13 @@ impl App {
         match &mut self.solver {
             Solver::Off => {}
             Solver::Inline => {
-                let r = solve_here(&self.baseline.pieces);
+                let r = solve_here(&self.baseline);
                 self.baseline.set_torsion(r);
             }
             Solver::Thread(w) => {
                 self.generation += 1;
                 self.baseline_job = Some(self.generation);
-                w.submit(self.generation, self.baseline.pieces.clone());
+                w.submit(self.generation, &self.baseline);
             }
         }
     }
@@ -620,12 +623,13 @@ impl App {
     }
 }
 
-/// The torsion solve on this thread, to the default tolerance (the inline solver).
-fn solve_here(pieces: &[crate::geom::Piece]) -> Result<crate::fe::Torsion, crate::model::Warning> {
+/// The torsion solve, with the flexure solution, on this thread to the default tolerance
+/// (the inline solver).
+fn solve_here(a: &Analysis) -> Result<crate::fe::Torsion, crate::model::Warning> {
     let opts = TorsionOptions {
         tol: crate::fe::DEFAULT_TOL,
         cancel: None,
-        flexure: None,
+        flexure: Some(nu_ref(&a.section)),
     };
-    torsion(pieces, &opts)
+    torsion(&a.pieces, &opts)
 }

@@ -1,7 +1,9 @@
 //! The torsion solve off the UI thread: one background thread takes the latest job,
 //! solves it and sends the result back; submitting a new job sets the cancel flag of
-//! the one before, so a stale solve stops early and its result is never shown.
+//! the one before, so a stale solve stops early and its result is never shown. The flexure
+//! solution (shear areas and stresses) rides the same solve, with the section's ν.
 
+use crate::analysis::{nu_ref, Analysis};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::Piece;
 use std::sync::atomic::{AtomicBool, Ordering};
@@ -11,6 +13,8 @@ use std::sync::Arc;
 struct Job {
     generation: u64,
     pieces: Vec<Piece>,
+    /// Poisson's ratio of the first material, for the flexure solution.
+    nu: f64,
     cancel: Arc<AtomicBool>,
 }
 
@@ -52,7 +56,7 @@ impl Worker {
                 let opts = TorsionOptions {
                     tol: crate::fe::DEFAULT_TOL,
                     cancel: Some(job.cancel.clone()),
-                    flexure: None,
+                    flexure: Some(job.nu),
                 };
                 let result = std::panic::catch_unwind(|| torsion(&job.pieces, &opts))
                     .unwrap_or(Err(crate::model::Warning::SolverFailed));
@@ -75,8 +79,8 @@ impl Worker {
         }
     }
 
-    /// Cancels the solve under way (if any) and starts one for `pieces`.
-    pub fn submit(&mut self, generation: u64, pieces: Vec<Piece>) {
+    /// Cancels the solve under way (if any) and starts one for the pieces of `a`.
+    pub fn submit(&mut self, generation: u64, a: &Analysis) {
         if let Some(c) = self.cancel.take() {
             c.store(true, Ordering::Relaxed);
         }
@@ -84,7 +88,8 @@ impl Worker {
         self.cancel = Some(cancel.clone());
         let _ = self.jobs.send(Job {
             generation,
-            pieces,
+            pieces: a.pieces.clone(),
+            nu: nu_ref(&a.section),
             cancel,
         });
     }
