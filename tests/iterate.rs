@@ -564,11 +564,11 @@ fn the_report_can_carry_a_sensitivity_table() {
     let at = t.find("## Sensitivities").expect("a sensitivity section");
     // Before the closing caution, which stays last.
     assert!(t[at..].contains("Caution"), "{t}");
-    // ∂(b·h³/12)/∂h = b·h²/4 = 1.000e6 mm⁴/mm at b = 100, h = 200 (Gere & Goodno, App. E case 1).
+    // ∂(b·h³/12)/∂h = b·h²/4 = 1.000×10⁶ mm⁴/mm at b = 100, h = 200 (Gere & Goodno, App. E case 1).
     assert!(
         t[at..]
             .lines()
-            .any(|l| l.contains("| h ") && l.contains("1.000e6")),
+            .any(|l| l.contains("| h ") && l.contains("1.000×10⁶")),
         "{}",
         &t[at..]
     );

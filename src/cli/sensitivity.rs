@@ -7,7 +7,7 @@ use super::{print_out, say};
 use crate::analysis::Options;
 use crate::iterate::sensitivity::{sensitivities, Difference, Sensitivities, STEP};
 use crate::iterate::vary::result_key;
-use crate::numfmt::{plain, sig};
+use crate::numfmt::plain;
 use crate::report::out::OutUnits;
 use crate::report::rows::Quantity;
 use crate::report::CAUTION;
@@ -47,8 +47,8 @@ pub fn table_rows(s: &Sensitivities, q: &Quantity, u: &OutUnits) -> Vec<Vec<Stri
     let mut rows = vec![vec![
         "param".to_string(),
         "value".into(),
-        format!("d{}/dp [{}]", symbol(q), per(&u.label(1))),
-        format!("d{}/dm [{}]", symbol(q), per(u.mass().name)),
+        format!("d{}/dp [{}]", q.name_in(u.notation), per(&u.label(1))),
+        format!("d{}/dm [{}]", q.name_in(u.notation), per(u.mass().name)),
         "how".into(),
     ]];
     for r in &s.rates {
@@ -62,9 +62,9 @@ pub fn table_rows(s: &Sensitivities, q: &Quantity, u: &OutUnits) -> Vec<Vec<Stri
         rows.push(vec![
             r.param.clone(),
             plain(r.value, 6),
-            r.per_unit.map_or("—".into(), |v| sig(v, 4)),
+            r.per_unit.map_or("—".into(), |v| u.num(v, 4)),
             match (r.per_mass, s.mass) {
-                (Some(v), _) => sig(v, 4),
+                (Some(v), _) => u.num(v, 4),
                 (None, None) => "— (no density)".into(),
                 (None, Some(_)) => "— (adds no mass)".into(),
             },
@@ -72,14 +72,6 @@ pub fn table_rows(s: &Sensitivities, q: &Quantity, u: &OutUnits) -> Vec<Vec<Stri
         ]);
     }
     rows
-}
-
-fn symbol(q: &Quantity) -> &'static str {
-    if q.symbol.is_empty() {
-        q.path
-    } else {
-        q.symbol
-    }
 }
 
 /// `kern calc --sensitivity`: status 0, 2 for an invalid file, 1 when a file has no
@@ -148,9 +140,9 @@ pub fn sensitivity(args: &SensitivityArgs) -> i32 {
         let unit = q.dim.label(&u);
         out.push_str(&src.say_line(&format!(
             "sensitivities of {key} = {} {unit}{}",
-            sig(s.result, 5),
+            u.num(s.result, 5),
             s.mass
-                .map(|m| format!(" (mass {} {})", sig(m, 4), u.mass().name))
+                .map(|m| format!(" (mass {} {})", u.num(m, 4), u.mass().name))
                 .unwrap_or_default()
         )));
         out.push('\n');
@@ -198,7 +190,7 @@ pub fn sheet_blocks(
         Block::Para(own(format!(
             "The rate of change of {key} ({} {}) with each param, in the file's units, \
              ranked by the rate per kg/m of added mass, then per unit: {}.",
-            sig(s.result, 5),
+            u.num(s.result, 5),
             q.dim.label(&u),
             method("the section's larger side")
         ))),

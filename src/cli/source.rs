@@ -67,11 +67,7 @@ pub fn shown(
 
 /// The heading of a result in a table: its symbol (or key) and unit, `Ixx [mm⁴]`.
 pub fn heading(q: &crate::report::rows::Quantity, u: &crate::report::out::OutUnits) -> String {
-    let name = if q.symbol.is_empty() {
-        q.path
-    } else {
-        q.symbol
-    };
+    let name = q.name_in(u.notation);
     let unit = q.dim.label(u);
     if unit.is_empty() {
         name.to_string()

@@ -8,7 +8,7 @@ use crate::analysis::Options;
 use crate::iterate::sweep::{sweep as run, values};
 use crate::iterate::vary::{read, result_key};
 use crate::iterate::Probe;
-use crate::numfmt::{plain, sig};
+use crate::numfmt::plain;
 use crate::report::json::to_json;
 use crate::report::out::OutUnits;
 use crate::report::rows::Quantity;
@@ -174,7 +174,7 @@ pub fn sweep(args: &SweepArgs) -> i32 {
             )];
             r.extend(
                 cols.iter()
-                    .map(|q| shown(q, a, &u).map_or("—".into(), |v| sig(v, 4))),
+                    .map(|q| shown(q, a, &u).map_or("—".into(), |v| u.num(v, 4))),
             );
             rows.push(r);
         }

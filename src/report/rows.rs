@@ -170,6 +170,16 @@ impl Quantity {
         n.pick(self.symbol)
     }
 
+    /// What a table heads the result with: its symbol in notation `n`, or its JSON
+    /// path when it has none.
+    pub fn name_in(&self, n: Notation) -> &'static str {
+        if self.shown() {
+            self.symbol_in(n)
+        } else {
+            self.path
+        }
+    }
+
     /// The meaning in notation `n`.
     pub fn meaning_in(&self, n: Notation) -> &'static str {
         n.pick(self.meaning)
