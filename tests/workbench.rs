@@ -1423,7 +1423,7 @@ fn a_sweep_plots_ixx_over_the_depth_and_marks_the_current_value() {
     assert_eq!(a.text, PLATE, "a sweep changes nothing");
     // A typed range and number of points.
     run(&mut a, Cmd::Sweep);
-    typed(&mut a, " 150 250 5");
+    typed(&mut a, "Ixx 150 250 5");
     key(&mut a, KeyCode::Enter);
     let Mode::Sweep(s) = a.mode.clone() else {
         panic!("the overlay opens: {:?} {:?}", a.mode, a.message)
@@ -1440,7 +1440,7 @@ fn a_sweep_plots_ixx_over_the_depth_and_marks_the_current_value() {
     key(&mut a, KeyCode::Esc);
     // Values that do not compute are listed as such, the line broken there.
     run(&mut a, Cmd::Sweep);
-    typed(&mut a, " -100 300 5");
+    typed(&mut a, "Ixx -100 300 5");
     key(&mut a, KeyCode::Enter);
     let Mode::Sweep(s) = a.mode.clone() else {
         panic!("the overlay opens: {:?} {:?}", a.mode, a.message)

@@ -25,13 +25,17 @@ pub fn begin(app: &mut App) {
     }
     app.mode = Mode::Typing {
         target: Target::Rates,
-        line: LineEdit::new("Ixx"),
+        line: LineEdit::new(""),
     };
+    app.note("rank the params by which result? (Enter alone: Ixx)");
 }
 
 /// Ranks the params by their rate for the result named `key` and opens the window.
 pub fn open(app: &mut App, key: &str) -> Result<(), String> {
-    let key = key.trim();
+    let key = match key.trim() {
+        "" => "Ixx",
+        k => k,
+    };
     let q = quantity(key)?;
     if needs_torsion(q) {
         return Err(format!(
@@ -80,6 +84,7 @@ pub fn open(app: &mut App, key: &str) -> Result<(), String> {
     lines.push(format!(
         "Central differences, step {STEP:e} of the value (or of the section's size); ranked by the rate per mass, then per unit."
     ));
+    app.message = None;
     app.mode = Mode::Rates(Rates {
         title: format!("What buys the most {key}"),
         lines,

@@ -74,10 +74,10 @@ pub fn begin(app: &mut App) {
     };
     app.mode = Mode::Typing {
         target: Target::Sweep(name.clone()),
-        line: LineEdit::new("Ixx"),
+        line: LineEdit::new(""),
     };
     app.note(format!(
-        "type a result, then optionally from, to and points (default ±{:.0} %, {DEFAULT_POINTS} points)",
+        "type a result (Enter alone: Ixx), then optionally from, to and points (default ±{:.0} %, {DEFAULT_POINTS} points)",
         100.0 * DEFAULT_SPAN
     ));
 }
@@ -98,7 +98,7 @@ fn parse(entry: &str) -> Result<Asked<'_>, String> {
             .ok_or_else(|| format!("`{w}` is not a number"))
     };
     match words.as_slice() {
-        [] => Err("type a result to sweep, e.g. Ixx or inertia.xx".into()),
+        [] => Ok(("Ixx", None, None)),
         [key] => Ok((key, None, None)),
         [key, from, to] => Ok((key, Some((number(from)?, number(to)?)), None)),
         [key, from, to, n] => {
@@ -162,6 +162,7 @@ pub fn open(app: &mut App, param: &str, entry: &str) -> Result<(), String> {
         .then(|| nearest(&samples, current));
     let units =
         OutUnits::new(a.section.units, None).written(app.config.numbers, app.config.notation);
+    app.message = None;
     app.message = None;
     app.mode = Mode::Sweep(Swept {
         param: param.to_string(),
