@@ -933,25 +933,11 @@ fn change_shape(
 
 /// A typed point list as a TOML value; a syntax error names the column of the entry.
 fn points_value(entry: &str) -> Result<Value, String> {
-    const LEAD: &str = "points = ";
-    const EXAMPLE: &str = "e.g. [[0, 0], [\"b\", 0], [0, \"h\"]]";
-    let src = format!("{LEAD}{}", entry.trim());
-    let doc = src.parse::<DocumentMut>().map_err(|e| {
-        let col = e.span().map_or(1, |s| {
-            src.get(..s.start)
-                .map_or(0, |b| b.chars().count())
-                .saturating_sub(LEAD.len())
-                + 1
-        });
-        let why: Vec<&str> = e.message().lines().map(str::trim).collect();
-        format!(
-            "column {col}: {}; type a list of [x, y] pairs, expressions in quotes, {EXAMPLE}",
-            why.join("; ")
-        )
-    })?;
-    match doc.get("points").and_then(Item::as_value) {
-        Some(Value::Array(a)) if doc.len() == 1 => Ok(Value::Array(a.clone())),
-        _ => Err(format!("type a list of [x, y] pairs, {EXAMPLE}")),
+    const HOW: &str =
+        "type a list of [x, y] pairs, expressions in quotes, e.g. [[0, 0], [\"b\", 0], [0, \"h\"]]";
+    match toml_value(entry, HOW)? {
+        v @ Value::Array(_) => Ok(v),
+        _ => Err(HOW.to_string()),
     }
 }
 
