@@ -207,6 +207,7 @@ mod tests {
         );
         assert!(parse("Ixx 200").is_err());
         assert!(parse("Ixx a b").is_err());
-        assert!(parse("").is_err());
+        // Enter alone takes the default result.
+        assert_eq!(parse("").unwrap(), ("Ixx", None, None));
     }
 }
