@@ -407,8 +407,18 @@ fn set_key(t: &mut dyn TableLike, key: &str, new: Value) {
 }
 
 fn part_mut(doc: &mut DocumentMut, i: usize) -> Result<&mut dyn TableLike, String> {
-    let missing = || format!("there is no part {}", i + 1);
-    match doc.get_mut("parts").ok_or_else(missing)? {
+    entry_mut(doc, "parts", i, &|| format!("there is no part {}", i + 1))
+}
+
+/// Entry `i` of the array of tables `key` (`[[key]]`, or an array of inline tables);
+/// `missing` says what is not there.
+fn entry_mut<'a>(
+    doc: &'a mut DocumentMut,
+    key: &str,
+    i: usize,
+    missing: &dyn Fn() -> String,
+) -> Result<&'a mut dyn TableLike, String> {
+    match doc.get_mut(key).ok_or_else(missing)? {
         Item::ArrayOfTables(a) => a
             .get_mut(i)
             .map(|t| t as &mut dyn TableLike)
@@ -529,18 +539,7 @@ fn table_mut(
         return Ok(doc.as_table_mut());
     };
     if let Place::Material(i) = table {
-        return match doc.get_mut(key).ok_or_else(missing)? {
-            Item::ArrayOfTables(a) => a
-                .get_mut(i)
-                .map(|t| t as &mut dyn TableLike)
-                .ok_or_else(missing),
-            Item::Value(Value::Array(a)) => a
-                .get_mut(i)
-                .and_then(Value::as_inline_table_mut)
-                .map(|t| t as &mut dyn TableLike)
-                .ok_or_else(missing),
-            _ => Err(missing()),
-        };
+        return entry_mut(doc, key, i, &missing);
     }
     if doc.get(key).is_none() {
         if !make {
