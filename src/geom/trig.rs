@@ -19,6 +19,17 @@ impl TrigPoly {
         p
     }
 
+    /// On the arc `x = cx + r cos t`, `y = cy + r sin t`: the polynomials `x(t)`, `y(t)`
+    /// and the Green's-theorem weight `w(t)` with `x dy − y dx = w dt`,
+    /// `w = r² + r·cx·cos t + r·cy·sin t`.
+    pub fn arc(c: super::Pt, r: f64) -> [TrigPoly; 3] {
+        [
+            TrigPoly::linear(c.x, r, 0.0),
+            TrigPoly::linear(c.y, 0.0, r),
+            TrigPoly::linear(r * r, r * c.x, r * c.y),
+        ]
+    }
+
     /// The product; terms beyond degree 5 would be dropped, and no caller makes them.
     pub fn mul(&self, o: &TrigPoly) -> TrigPoly {
         let mut out = TrigPoly::default();

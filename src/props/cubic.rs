@@ -69,10 +69,7 @@ impl BoundaryIntegral for Cubic {
                 }
             }
             Seg::Arc { c, r, a0, a1 } => {
-                let x = TrigPoly::linear(c.x, r, 0.0);
-                let y = TrigPoly::linear(c.y, 0.0, r);
-                // x dy − y dx = (r² + r·cx·cos t + r·cy·sin t) dt
-                let w = TrigPoly::linear(r * r, r * c.x, r * c.y);
+                let [x, y, w] = TrigPoly::arc(c, r);
                 let xw = x.mul(&w);
                 let yw = y.mul(&w);
                 let int = |p: TrigPoly| p.integral(a0, a1) / 5.0;
