@@ -8,6 +8,7 @@
 //! evaluated into numbers and its parts placed ([`Resolved`]) is in [`resolve`].
 
 pub mod contour;
+pub mod corner;
 pub mod joints;
 pub mod moments;
 pub mod place;
