@@ -13,26 +13,32 @@
 //! material is the interior angle over a full turn.
 
 use super::contour::Pt;
-use super::region::Piece;
-use super::simple::winding;
+use super::region::{Cover, Piece};
 
-/// Probes on the circle about the point.
+/// Probes on the circle about a corner.
 const PROBES: usize = 72;
 
 /// Radius of the probe circle, relative to the larger side of the section's box: far
 /// below any fillet a drawing means, far above rounding in placed coordinates.
 const RADIUS: f64 = 1e-6;
 
+/// How near a corner a point must be to count as at it, relative to the larger side of
+/// the section's box (the meshes are graded towards such corners, so the largest
+/// recovered stress is at the corner's node or one beside it).
+const NEAR: f64 = 1e-3;
+
 /// Greatest angle between the chords that stand in for an arc in the probe (fine, so
-/// that a point on a fillet does not look like a corner of its facets).
+/// that the point where a fillet meets a straight edge does not look like a corner).
 const FACET: f64 = 0.01;
 
 /// Interior angle above which a corner counts as re-entrant: a half turn and a margin
-/// (200°), so a boundary point on a straight edge or a fillet's facets never does.
+/// (200°), so a boundary point on a straight edge or where a fillet meets one never does.
 const REENTRANT_SHARE: f64 = 200.0 / 360.0;
 
-/// Is `p` on the boundary of the material of `pieces` (solids less voids) at a sharp
-/// re-entrant corner?
+/// Is `p` at (or within [`NEAR`] of) a sharp re-entrant corner of the material of
+/// `pieces` (solids less voids)? The corners looked at are the ends of the pieces'
+/// boundary segments (exact lines and arcs), so a fillet's own ends, where it meets
+/// the straight edges tangentially, are not sharp.
 ///
 /// ```
 /// use kern::geom::{corner::is_reentrant, Contour, Piece, Pt};
@@ -47,31 +53,26 @@ pub fn is_reentrant(pieces: &[Piece], p: Pt) -> bool {
     let Some(b) = super::solid_bounds(pieces) else {
         return false;
     };
-    let r = RADIUS * (b[1] - b[0]).max(b[3] - b[2]);
-    if !(r.is_finite() && r > 0.0) {
+    let size = (b[1] - b[0]).max(b[3] - b[2]);
+    let r = RADIUS * size;
+    if !(r.is_finite() && r > 0.0 && p.x.is_finite() && p.y.is_finite()) {
         return false;
     }
-    let loops: Vec<(f64, Vec<Vec<Pt>>)> = pieces
-        .iter()
-        .map(|q| {
-            (
-                q.sign(),
-                q.contours.iter().map(|c| c.facets(FACET)).collect(),
-            )
-        })
-        .collect();
-    let inside = (0..PROBES)
-        .filter(|&k| {
-            let t = std::f64::consts::TAU * (k as f64 + 0.5) / PROBES as f64;
-            let at = Pt::new(p.x + r * t.cos(), p.y + r * t.sin());
-            let cover: f64 = (loops.iter())
-                .filter(|(_, l)| winding(l, at) != 0)
-                .map(|(s, _)| s)
-                .sum();
-            cover > 0.5
-        })
-        .count();
-    inside < PROBES && inside as f64 > REENTRANT_SHARE * PROBES as f64
+    let cover = Cover::new(pieces, FACET);
+    let sharp = |v: Pt| {
+        let inside = (0..PROBES)
+            .filter(|&k| {
+                let t = std::f64::consts::TAU * (k as f64 + 0.5) / PROBES as f64;
+                cover.contains(Pt::new(v.x + r * t.cos(), v.y + r * t.sin()))
+            })
+            .count();
+        inside < PROBES && inside as f64 > REENTRANT_SHARE * PROBES as f64
+    };
+    (pieces.iter())
+        .flat_map(|q| q.contours.iter().flat_map(|c| &c.segs))
+        .map(|s| s.start())
+        .filter(|v| v.dist(p) <= NEAR * size)
+        .any(sharp)
 }
 
 #[cfg(test)]
@@ -102,6 +103,39 @@ mod tests {
         ] {
             assert!(!is_reentrant(&tee, Pt::new(p.0, p.1)), "{p:?}");
         }
+    }
+
+    #[test]
+    fn fillets_make_no_corner_and_a_point_beside_a_sharp_one_counts() {
+        // A rolled I's root fillets (r = 15 mm) meet web and flange tangentially: no
+        // sharp corner anywhere on them. A point 0.1 mm from the tee's inside corner
+        // (0.1 mm < 1e-3 of its 100 mm size) is at that corner.
+        let i = crate::geom::Shape::IBeam {
+            d: 300.0,
+            b: 150.0,
+            tf: 10.7,
+            tw: 7.1,
+            r: 15.0,
+        };
+        let p = [Piece::plain("i", i.contours(), false)];
+        let mut arcs = 0;
+        for s in p[0].contours.iter().flat_map(|c| &c.segs) {
+            if let crate::geom::Seg::Arc { c, r, a0, a1 } = *s {
+                arcs += 1;
+                let mid = 0.5 * (a0 + a1);
+                let m = Pt::new(c.x + r * mid.cos(), c.y + r * mid.sin());
+                for q in [s.start(), s.end(), m] {
+                    assert!(!is_reentrant(&p, q), "{q:?}");
+                }
+            }
+        }
+        assert_eq!(arcs, 4);
+        let tee = [
+            rect(-5.0, 0.0, 5.0, 50.0, 0.0),
+            rect(-50.0, 50.0, 50.0, 60.0, 0.0),
+        ];
+        assert!(is_reentrant(&tee, Pt::new(5.05, 49.95)));
+        assert!(!is_reentrant(&tee, Pt::new(5.5, 49.0)));
     }
 
     #[test]

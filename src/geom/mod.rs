@@ -21,6 +21,6 @@ pub mod trig;
 pub use contour::{Contour, Pt, Seg, Turn};
 pub use moments::BoundaryIntegral;
 pub use place::{Anchor, Placement};
-pub use region::{solid_bounds, Piece};
+pub use region::{solid_bounds, Cover, Piece};
 pub use resolve::{LoadHeight, Material, Member, Part, Resolved, ShearModulus};
 pub use shapes::Shape;

@@ -243,6 +243,8 @@ pub struct App {
     /// The size of the screen last drawn on (the help scrolls within it).
     pub screen: Rect,
     pub show_mesh: bool,
+    /// What the drawing is shaded by.
+    pub shading: super::shade::Shading,
     /// The sides of the drawn torsion mesh, made the first time the mesh is shown for
     /// the current analysis (not every frame).
     drawn_mesh: OnceCell<Vec<(Pt, Pt)>>,
@@ -299,6 +301,7 @@ impl App {
             results_scroll: 0,
             screen: Rect::new(0, 0, 80, 24),
             show_mesh: false,
+            shading: super::shade::Shading::Off,
             drawn_mesh: OnceCell::new(),
             solver,
             solving: false,

@@ -78,6 +78,15 @@ pub fn run(app: &mut App, cmd: Cmd) {
                 "torsion mesh hidden"
             });
         }
+        Cmd::Shade => {
+            app.shading = app.shading.next();
+            let words = super::shade::field(&app.analysis, app.shading, app.solving);
+            app.note(match words {
+                None => "drawing not shaded".to_string(),
+                Some(Ok(_)) => format!("drawing shaded by {}", app.shading.name()),
+                Some(Err(why)) => format!("{} not shaded: {}", app.shading.name(), why.words()),
+            });
+        }
         Cmd::ToggleAscii => {
             app.theme.ascii = !app.theme.ascii;
             app.config.ascii = app.theme.ascii;
