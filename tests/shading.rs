@@ -117,7 +117,8 @@ fn each_reason_for_not_shading_is_said() {
 [actions]\nVy = \"80 kN\"\n";
     let s = why(&mut app(tee, Solver::Inline));
     assert!(
-        s.contains("not within") && s.contains("tolerance (see the warnings)"),
+        s.contains("|τ| not shaded: its peak is at a sharp re-entrant")
+            && s.contains("corner (see the warnings)"),
         "{s}"
     );
     // Not shaded means not shaded: no level glyph on the drawing.

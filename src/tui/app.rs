@@ -540,6 +540,12 @@ impl App {
         }
         self.analysis.set_torsion(r);
         self.solving = false;
+        // A note that the shading waits for this solve is answered now.
+        let waiting = super::shade::status(&self.analysis, self.shading, true);
+        if self.message.as_ref().is_some_and(|(m, _)| *m == waiting) {
+            let now = super::shade::status(&self.analysis, self.shading, false);
+            self.note(now);
+        }
         self.solve_baseline();
     }
 

@@ -80,12 +80,11 @@ pub fn run(app: &mut App, cmd: Cmd) {
         }
         Cmd::Shade => {
             app.shading = app.shading.next();
-            let words = super::shade::field(&app.analysis, app.shading, app.solving);
-            app.note(match words {
-                None => "drawing not shaded".to_string(),
-                Some(Ok(_)) => format!("drawing shaded by {}", app.shading.name()),
-                Some(Err(why)) => format!("{} not shaded: {}", app.shading.name(), why.words()),
-            });
+            app.note(super::shade::status(
+                &app.analysis,
+                app.shading,
+                app.solving,
+            ));
         }
         Cmd::ToggleAscii => {
             app.theme.ascii = !app.theme.ascii;

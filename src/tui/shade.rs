@@ -12,6 +12,8 @@
 use crate::analysis::Analysis;
 use crate::fe::flexure::Peak;
 use crate::geom::{Cover, Pt};
+use crate::model::warning::{ShearCause, ShearFigure};
+use crate::model::Warning;
 
 /// What the drawing is shaded by.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -57,6 +59,8 @@ pub enum Why {
     Failed,
     /// The stress's peak is not within the tolerance (the warnings say why).
     Untrusted,
+    /// The stress's peak is at a sharp re-entrant corner, where it is singular.
+    Singular,
 }
 
 impl Why {
@@ -68,6 +72,7 @@ impl Why {
             Why::Running => "the finite-element solve is running",
             Why::Failed => "no shear solution (see the warnings)",
             Why::Untrusted => "its peak is not within the tolerance (see the warnings)",
+            Why::Singular => "its peak is at a sharp re-entrant corner (see the warnings)",
         }
     }
 }
@@ -134,18 +139,37 @@ pub fn field(a: &Analysis, s: Shading, solving: bool) -> Option<Result<Field, Wh
             Some(_) => Why::Failed,
         }));
     };
-    let (peak, values) = match s {
-        Shading::Tau => (shear.tau_max, samples.tau),
-        _ => (shear.von_mises_max, samples.von_mises),
+    let (peak, values, figure) = match s {
+        Shading::Tau => (shear.tau_max, samples.tau, ShearFigure::TauMax),
+        _ => (
+            shear.von_mises_max,
+            samples.von_mises,
+            ShearFigure::VonMises,
+        ),
     };
+    let singular = a.warnings.contains(&Warning::ShearAboveTolerance {
+        figure,
+        cause: ShearCause::SharpCorner,
+    });
     Some(match (peak, values) {
         (Some(peak), Some(values)) => Ok(Field {
             at: samples.at,
             values,
             peak,
         }),
+        _ if singular => Err(Why::Singular),
         _ => Err(Why::Untrusted),
     })
+}
+
+/// The message line's words for shading `s` of `a`: what the drawing is shaded by, or
+/// why not.
+pub fn status(a: &Analysis, s: Shading, solving: bool) -> String {
+    match field(a, s, solving) {
+        None => "drawing not shaded".to_string(),
+        Some(Ok(_)) => format!("drawing shaded by {}", s.name()),
+        Some(Err(why)) => format!("{} not shaded: {}", s.name(), why.words()),
+    }
 }
 
 /// The value of each cell of a `w × h` grid, row by row: that of the sample nearest
