@@ -30,6 +30,20 @@ fn a_peak_at_a_sharp_inside_corner_is_withheld_in_the_same_words_everywhere() {
     for (view, text) in [("calc", &table), ("json", &json), ("report", &sheet)] {
         assert!(text.contains(WORDS), "{view}: {text}");
     }
+    // The workbench's panel lists the analysis's warnings by the same words.
+    let text = std::fs::read_to_string(file).expect("demo readable");
+    let a = kern::tui::app::App::new(
+        text,
+        None,
+        kern::tui::config::Config::default(),
+        kern::tui::app::Solver::Inline,
+    )
+    .expect("valid");
+    assert!(
+        a.analysis.warnings.iter().any(|w| w.to_string() == WORDS),
+        "{:?}",
+        a.analysis.warnings
+    );
     // No figure in the words (an error estimate of a singular peak means nothing).
     assert!(!WORDS.chars().any(|c| c.is_ascii_digit()));
 }
