@@ -152,3 +152,19 @@ fn every_joint_is_marked_with_its_kind_in_the_legend() {
         assert_eq!(marks, 1, "{s}");
     }
 }
+
+#[test]
+fn a_section_with_holes_says_its_shading_is_of_the_gross_section() {
+    // The flexure solution is of the gross section (holes count in the net section's
+    // bending stresses only): the legend says so. Our own lintel with a 20 mm service
+    // hole on its axis.
+    let holed = LINTEL.replace(
+        "[actions]",
+        "[[parts]]\nname = \"service hole\"\nshape = \"circle\"\nd = 20\nvoid = true\nhole = true\n[actions]",
+    );
+    let mut a = app(&holed, Solver::Inline);
+    assert!(a.analysis.net.is_some());
+    run(&mut a, Cmd::Shade);
+    let s = screen(&a, 80, 24);
+    assert!(s.contains("|τ| (gross section) in MPa:"), "{s}");
+}

@@ -323,7 +323,11 @@ fn shade_keys(app: &App, shaded: &Shaded) -> Vec<String> {
     let Some(shaded) = shaded else {
         return Vec::new();
     };
-    let name = app.shading.name();
+    // The flexure solution is of the gross section: say so where holes are drawn.
+    let name = match app.analysis.net {
+        Some(_) => format!("{} (gross section)", app.shading.name()),
+        None => app.shading.name().to_string(),
+    };
     let f = match shaded {
         Ok(f) => f,
         Err(why) => return vec![format!("{name} not shaded: {}", why.words())],
