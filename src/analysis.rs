@@ -15,10 +15,10 @@ use crate::checks::shear_flow::{self, Connection};
 use crate::checks::stress::{extremes, Extremes, StressField};
 use crate::fe::flexure::{Flexure, Load, Peak};
 use crate::fe::{torsion, Torsion, TorsionOptions};
-use crate::geom::{joints, solid_bounds, Piece, Pt, Seg};
+use crate::geom::{corner, joints, solid_bounds, Piece, Pt, Seg};
 use crate::geom::{LoadHeight, Resolved};
 use crate::model::units::Dim;
-use crate::model::warning::{McrRefusal, ShearFigure};
+use crate::model::warning::{McrRefusal, ShearCause, ShearFigure};
 use crate::model::{Diagnostic, Document, Warning};
 use crate::props::overlap::warnings;
 use crate::props::Properties;
@@ -147,6 +147,17 @@ pub struct ShearResult {
     pub von_mises_max: Option<Peak>,
     /// With `[member]`: the largest shear stress from Vy = Vmax alone.
     pub member_tau: Option<Peak>,
+}
+
+/// Stresses under `[actions]` at the flexure samples (file frame), in Pa; a stress
+/// whose peak is not within the tolerance is `None` (a figure not to be trusted).
+#[derive(Debug, Clone, PartialEq)]
+pub struct StressSamples {
+    pub at: Vec<Pt>,
+    /// √(τzx² + τzy²) at each point.
+    pub tau: Option<Vec<f64>>,
+    /// √(σ² + 3τ²) at each point.
+    pub von_mises: Option<Vec<f64>>,
 }
 
 /// The net section (FORMAT.md "Gross and net"): the enabled pieces with the holes
@@ -342,18 +353,22 @@ impl Analysis {
             }
         };
         let tol = flex.tol;
+        let pieces = &self.pieces;
         let mut notes = Vec::new();
-        let mut within = |figure, error: f64| {
+        let mut within = |figure, error: f64, at: Option<Pt>| {
             let ok = error <= tol;
             if !ok {
-                notes.push(Warning::ShearAboveTolerance { figure, error, tol });
+                let cause = match at {
+                    Some(p) if corner::is_reentrant(pieces, p) => ShearCause::SharpCorner,
+                    _ => ShearCause::NotSettled,
+                };
+                notes.push(Warning::ShearAboveTolerance { figure, cause });
             }
             ok
         };
-        within(ShearFigure::Areas, flex.shear_area_error);
+        within(ShearFigure::Areas, flex.shear_area_error, None);
         let areas = self.shear_areas();
         let u = self.section.units.metres();
-        let (u2, u3) = (u * u, u * u * u);
         let zero = |_: Pt| 0.0;
         let mut out = ShearResult {
             areas,
@@ -361,31 +376,21 @@ impl Analysis {
             von_mises_max: None,
             member_tau: None,
         };
-        if let Some(act) = self.section.actions {
-            if act.vx.is_some() || act.vy.is_some() || act.t.is_some() {
-                let field = self.stress.as_ref().map(|s| s.field);
-                let sigma = |p: Pt| field.map_or(0.0, |f| f.at(p.x, p.y));
-                let load = Load {
-                    vx: act.vx.unwrap_or(0.0) / u2,
-                    vy: act.vy.unwrap_or(0.0) / u2,
-                    t: act.t.unwrap_or(0.0) / u3,
-                    sigma: &sigma,
-                };
-                if let Some((tau, vm)) = flex.peaks(&load) {
-                    out.tau_max = within(ShearFigure::TauMax, tau.rel_error).then_some(tau);
-                    out.von_mises_max = within(ShearFigure::VonMises, vm.rel_error).then_some(vm);
-                }
-            }
+        if let Some((tau, vm)) = self.under_actions(|load| flex.peaks(load)).flatten() {
+            out.tau_max = within(ShearFigure::TauMax, tau.rel_error, Some(tau.at)).then_some(tau);
+            out.von_mises_max =
+                within(ShearFigure::VonMises, vm.rel_error, Some(vm.at)).then_some(vm);
         }
         if let Some(m) = &self.member {
             let load = Load {
                 vx: 0.0,
-                vy: m.v_max / u2,
+                vy: m.v_max / (u * u),
                 t: 0.0,
                 sigma: &zero,
             };
             if let Some((tau, _)) = flex.peaks(&load).filter(|_| m.v_max.is_finite()) {
-                out.member_tau = within(ShearFigure::MemberTau, tau.rel_error).then_some(tau);
+                out.member_tau =
+                    within(ShearFigure::MemberTau, tau.rel_error, Some(tau.at)).then_some(tau);
             }
         }
         for w in notes {
@@ -394,6 +399,46 @@ impl Analysis {
             }
         }
         Some(out)
+    }
+
+    /// `f` applied to the flexure load of `[actions]`: Vx, Vy, T in N and N·m over the
+    /// file's unit (τ in Pa), σ of the reference material from N, Mx, My on the net
+    /// section; `None` without Vx, Vy or T.
+    fn under_actions<R>(&self, f: impl FnOnce(&Load) -> R) -> Option<R> {
+        let act = self.section.actions?;
+        if act.vx.is_none() && act.vy.is_none() && act.t.is_none() {
+            return None;
+        }
+        let u = self.section.units.metres();
+        let field = self.stress.as_ref().map(|s| s.field);
+        let sigma = |p: Pt| field.map_or(0.0, |f| f.at(p.x, p.y));
+        let load = Load {
+            vx: act.vx.unwrap_or(0.0) / (u * u),
+            vy: act.vy.unwrap_or(0.0) / (u * u),
+            t: act.t.unwrap_or(0.0) / (u * u * u),
+            sigma: &sigma,
+        };
+        Some(f(&load))
+    }
+
+    /// The resultant shear stress and the von Mises stress (Pa) under `[actions]` at
+    /// every sample of the flexure solution's finest mesh, where each is within the
+    /// tolerance (`None` for a figure left out, see [`ShearResult`]); `None` without
+    /// the flexure solution or without Vx, Vy or T.
+    pub fn stress_samples(&self) -> Option<StressSamples> {
+        let flex = self.flexure()?;
+        let shear = self.shear.as_ref()?;
+        self.under_actions(|load| {
+            let all = flex.samples().iter().map(|s| {
+                let (tau, vm) = s.stresses(load);
+                (s.at, tau, vm)
+            });
+            StressSamples {
+                at: all.clone().map(|s| s.0).collect(),
+                tau: shear.tau_max.map(|_| all.clone().map(|s| s.1).collect()),
+                von_mises: shear.von_mises_max.map(|_| all.map(|s| s.2).collect()),
+            }
+        })
     }
 
     /// A property of dimension `dim` in the file's unit, in SI.

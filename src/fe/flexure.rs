@@ -59,6 +59,19 @@ pub struct Sample {
     pub tau: [[f64; 2]; 3],
 }
 
+impl Sample {
+    /// The resultant shear stress √(τzx² + τzy²) and the von Mises stress √(σ² + 3τ²)
+    /// (σ = n·σ_ref) here under `load`.
+    pub fn stresses(&self, load: &Load) -> (f64, f64) {
+        let t = self.tau;
+        let tx = load.vx * t[0][0] + load.vy * t[1][0] + load.t * t[2][0];
+        let ty = load.vx * t[0][1] + load.vy * t[1][1] + load.t * t[2][1];
+        let tau = tx.hypot(ty);
+        let sigma = self.n * (load.sigma)(self.at);
+        (tau, (sigma * sigma + 3.0 * tau * tau).sqrt())
+    }
+}
+
 /// One mesh's flexure results.
 #[derive(Debug, Clone, PartialEq)]
 struct FlexLevel {
@@ -138,12 +151,7 @@ fn peaks_of(l: &FlexLevel, load: &Load) -> [(f64, Pt); 2] {
     let mut best = [(0.0, Pt::new(0.0, 0.0)); 2];
     let mut first = true;
     for s in &l.samples {
-        let t = s.tau;
-        let tx = load.vx * t[0][0] + load.vy * t[1][0] + load.t * t[2][0];
-        let ty = load.vx * t[0][1] + load.vy * t[1][1] + load.t * t[2][1];
-        let tau = tx.hypot(ty);
-        let sigma = s.n * (load.sigma)(s.at);
-        let vm = (sigma * sigma + 3.0 * tau * tau).sqrt();
+        let (tau, vm) = s.stresses(load);
         for (k, v) in [tau, vm].into_iter().enumerate() {
             if first || v > best[k].0 {
                 best[k] = (v, s.at);

@@ -30,6 +30,8 @@ pub struct Joint {
     pub stretches: usize,
     /// The shared boundary is a closed loop (a core filling a tube).
     pub closed: bool,
+    /// The middle of each shared piece of boundary (where a drawing marks the joint).
+    pub marks: Vec<Pt>,
 }
 
 impl Joint {
@@ -103,7 +105,7 @@ pub fn contacts(pieces: &[Piece]) -> Contacts {
 
 /// The boundary two pieces share, if it has positive length.
 fn shared(p: &Piece, q: &Piece, tol: f64) -> Option<Joint> {
-    let mut bits: Vec<(Pt, Pt, f64)> = Vec::new();
+    let mut bits: Vec<Bit> = Vec::new();
     let qsegs: Vec<(&Seg, [f64; 4])> = q
         .contours
         .iter()
@@ -133,11 +135,15 @@ fn shared(p: &Piece, q: &Piece, tol: f64) -> Option<Joint> {
         length: bits.iter().map(|b| b.2).sum(),
         stretches,
         closed,
+        marks: bits.iter().map(|b| b.3).collect(),
     })
 }
 
-/// Appends the stretches `(from, to, length)` that segments `s` and `t` share.
-fn overlap(s: &Seg, t: &Seg, tol: f64, out: &mut Vec<(Pt, Pt, f64)>) {
+/// A shared piece of boundary: from, to, length and its middle point.
+type Bit = (Pt, Pt, f64, Pt);
+
+/// Appends the stretches that segments `s` and `t` share.
+fn overlap(s: &Seg, t: &Seg, tol: f64, out: &mut Vec<Bit>) {
     match (*s, *t) {
         (Seg::Line(p, q), Seg::Line(r, w)) => {
             let len = p.dist(q);
@@ -152,7 +158,8 @@ fn overlap(s: &Seg, t: &Seg, tol: f64, out: &mut Vec<(Pt, Pt, f64)>) {
             let lo = tr.min(tw).max(0.0);
             let hi = tr.max(tw).min(len);
             if hi - lo > tol {
-                out.push((p.add(d.scale(lo)), p.add(d.scale(hi)), hi - lo));
+                let mid = p.add(d.scale(0.5 * (lo + hi)));
+                out.push((p.add(d.scale(lo)), p.add(d.scale(hi)), hi - lo, mid));
             }
         }
         (
@@ -185,7 +192,7 @@ fn overlap(s: &Seg, t: &Seg, tol: f64, out: &mut Vec<(Pt, Pt, f64)>) {
                 let hi = hi1.min(hi2 + shift);
                 if r1 * (hi - lo) > tol {
                     let at = |a: f64| c1.add(Pt::new(r1 * a.cos(), r1 * a.sin()));
-                    out.push((at(lo), at(hi), r1 * (hi - lo)));
+                    out.push((at(lo), at(hi), r1 * (hi - lo), at(0.5 * (lo + hi))));
                 }
             }
         }
@@ -195,7 +202,7 @@ fn overlap(s: &Seg, t: &Seg, tol: f64, out: &mut Vec<(Pt, Pt, f64)>) {
 
 /// Counts the separate stretches among the shared pieces (pieces meeting end to end
 /// form one stretch), and says whether they close into a loop (no free end).
-fn stretches(bits: &[(Pt, Pt, f64)], tol: f64) -> (usize, bool) {
+fn stretches(bits: &[Bit], tol: f64) -> (usize, bool) {
     let n = bits.len();
     let mut parent: Vec<usize> = (0..n).collect();
     fn root(parent: &mut [usize], mut i: usize) -> usize {
@@ -287,6 +294,9 @@ mod tests {
         assert_eq!((j.a, j.b), (0, 1));
         assert!((j.length - 10.0).abs() < 1e-12);
         assert!(j.is_single_open());
+        // Marked at the middle of the shared edge, (0, 50).
+        assert_eq!(j.marks.len(), 1);
+        assert!(j.marks[0].dist(Pt::new(0.0, 50.0)) < 1e-12, "{:?}", j.marks);
         assert!(c.points.is_empty());
     }
 

@@ -8,6 +8,7 @@
 //! evaluated into numbers and its parts placed ([`Resolved`]) is in [`resolve`].
 
 pub mod contour;
+pub mod corner;
 pub mod joints;
 pub mod moments;
 pub mod place;
@@ -20,6 +21,6 @@ pub mod trig;
 pub use contour::{Contour, Pt, Seg, Turn};
 pub use moments::BoundaryIntegral;
 pub use place::{Anchor, Placement};
-pub use region::{solid_bounds, Piece};
+pub use region::{solid_bounds, Cover, Piece};
 pub use resolve::{LoadHeight, Material, Member, Part, Resolved, ShearModulus};
 pub use shapes::Shape;

@@ -1,7 +1,8 @@
 //! The section as placed parts ready for the property engine: each enabled part's
 //! boundaries with its sign and material weights.
 
-use super::contour::{union_bounds, Contour};
+use super::contour::{union_bounds, Contour, Pt};
+use super::simple::winding;
 
 /// One enabled part, placed in the section frame.
 #[derive(Debug, Clone, PartialEq)]
@@ -64,4 +65,36 @@ pub fn solid_bounds(pieces: &[Piece]) -> Option<[f64; 4]> {
         .filter(|p| !p.void)
         .filter_map(Piece::bounds)
         .reduce(union_bounds)
+}
+
+/// The material of placed pieces as polygons (arcs as chords no more than `facet`
+/// radians apart), to tell whether a point lies in it: a point is in the material when
+/// more solids than voids cover it (the signs of the composite-area method).
+#[derive(Debug, Clone)]
+pub struct Cover {
+    loops: Vec<(f64, Vec<Vec<Pt>>)>,
+}
+
+impl Cover {
+    pub fn new(pieces: &[Piece], facet: f64) -> Cover {
+        Cover {
+            loops: (pieces.iter())
+                .map(|q| {
+                    (
+                        q.sign(),
+                        q.contours.iter().map(|c| c.facets(facet)).collect(),
+                    )
+                })
+                .collect(),
+        }
+    }
+
+    /// Is `p` in the material?
+    pub fn contains(&self, p: Pt) -> bool {
+        let cover: f64 = (self.loops.iter())
+            .filter(|(_, l)| winding(l, p) != 0)
+            .map(|(s, _)| s)
+            .sum();
+        cover > 0.5
+    }
 }

@@ -93,11 +93,11 @@ pub enum Warning {
     NoShear(Box<Warning>),
     /// The section is in `count` separate pieces, which share no shear flow.
     ShearPieces { count: usize },
-    /// A shear figure is left out: its estimated relative error `error` is above `tol`.
+    /// A shear figure is left out: its estimated error is above the tolerance, for
+    /// the reason `cause`.
     ShearAboveTolerance {
         figure: ShearFigure,
-        error: f64,
-        tol: f64,
+        cause: ShearCause,
     },
     /// More than `max_pairs` pairs of parts lie on one another: no connection looked for.
     ConnectionsNotLooked { max_pairs: usize },
@@ -137,6 +137,15 @@ pub enum ShearFigure {
     VonMises,
     /// The member's largest shear stress at Vmax.
     MemberTau,
+}
+
+/// Why a shear figure did not converge.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ShearCause {
+    /// The peak is at a sharp re-entrant corner, where the elastic stress is singular.
+    SharpCorner,
+    /// The meshes allowed did not bring the estimate under the tolerance.
+    NotSettled,
 }
 
 /// Why the elastic critical moment Mcr is not computed.

@@ -2,7 +2,7 @@
 //! table, the JSON, the calculation sheet and the workbench all print `Display`.
 //! Figures get significant figures here ([`sig`]), never in the core.
 
-use crate::model::warning::{McrRefusal, More, ShearFigure, Warning};
+use crate::model::warning::{McrRefusal, More, ShearCause, ShearFigure, Warning};
 use crate::numfmt::sig;
 use std::fmt;
 
@@ -139,18 +139,24 @@ impl fmt::Display for Warning {
                  stresses and shear areas are not given (check each piece as its own member, \
                  or join them)"
             ),
-            Warning::ShearAboveTolerance { figure, error, tol } => write!(
-                f,
-                "{} not given: the estimated error {error:.1e} is above the tolerance \
-                 {tol:.1e} (stresses converge more slowly than J; a sharp re-entrant corner \
-                 makes them singular: model the fillet or radius there)",
-                match figure {
-                    ShearFigure::Areas => "the shear areas are",
-                    ShearFigure::TauMax => "the largest shear stress is",
-                    ShearFigure::VonMises => "the largest von Mises stress is",
-                    ShearFigure::MemberTau => "the member's shear stress at Vmax is",
-                }
-            ),
+            Warning::ShearAboveTolerance { figure, cause } => {
+                let what = match figure {
+                    ShearFigure::Areas => "shear areas",
+                    ShearFigure::TauMax => "largest shear stress",
+                    ShearFigure::VonMises => "largest von Mises stress",
+                    ShearFigure::MemberTau => "member shear stress at Vmax",
+                };
+                let why = match cause {
+                    ShearCause::SharpCorner => {
+                        "sharp re-entrant corner (the elastic peak there is singular; \
+                         a fillet radius on the parts gives a finite one)"
+                    }
+                    ShearCause::NotSettled => {
+                        "the meshes allowed did not bring its error within the tolerance"
+                    }
+                };
+                write!(f, "{what} not given: {why}")
+            }
             Warning::ConnectionsNotLooked { max_pairs } => write!(
                 f,
                 "connections not looked for: more than {max_pairs} pairs of parts lie on one another (stacked or overlapping parts); no joint or shear flow is given"

@@ -243,6 +243,8 @@ pub struct App {
     /// The size of the screen last drawn on (the help scrolls within it).
     pub screen: Rect,
     pub show_mesh: bool,
+    /// What the drawing is shaded by.
+    pub shading: super::shade::Shading,
     /// The sides of the drawn torsion mesh, made the first time the mesh is shown for
     /// the current analysis (not every frame).
     drawn_mesh: OnceCell<Vec<(Pt, Pt)>>,
@@ -299,6 +301,7 @@ impl App {
             results_scroll: 0,
             screen: Rect::new(0, 0, 80, 24),
             show_mesh: false,
+            shading: super::shade::Shading::Off,
             drawn_mesh: OnceCell::new(),
             solver,
             solving: false,
@@ -537,6 +540,12 @@ impl App {
         }
         self.analysis.set_torsion(r);
         self.solving = false;
+        // A note that the shading waits for this solve is answered now.
+        let waiting = super::shade::status(&self.analysis, self.shading, true);
+        if self.message.as_ref().is_some_and(|(m, _)| *m == waiting) {
+            let now = super::shade::status(&self.analysis, self.shading, false);
+            self.note(now);
+        }
         self.solve_baseline();
     }
 

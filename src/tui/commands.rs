@@ -78,6 +78,14 @@ pub fn run(app: &mut App, cmd: Cmd) {
                 "torsion mesh hidden"
             });
         }
+        Cmd::Shade => {
+            app.shading = app.shading.next();
+            app.note(super::shade::status(
+                &app.analysis,
+                app.shading,
+                app.solving,
+            ));
+        }
         Cmd::ToggleAscii => {
             app.theme.ascii = !app.theme.ascii;
             app.config.ascii = app.theme.ascii;

@@ -10,7 +10,7 @@
 //! colour = true         # false (or the NO_COLOR variable) draws without colours
 //! numbers = "engineering"  # engineering (13 800, 687.0×10⁶), scientific (6.870e8) or plain
 //! notation = "xy"       # xy: Sx, Zx, Ixx about x–y; yz: Wel,y, Wpl,y, Iy about y–z
-//! [colours]             # any of: accent solid void selected centroid axes neutral kern shear warning
+//! [colours]             # any of: accent solid void selected centroid axes neutral kern shear shade warning
 //! solid = "cyan"        # a colour name or #rrggbb
 //! ```
 
@@ -54,7 +54,7 @@ impl Default for Config {
 
 /// The roles a colour can be set for in `[colours]`.
 pub const COLOUR_ROLES: &[&str] = &[
-    "accent", "solid", "void", "selected", "centroid", "axes", "neutral", "kern", "shear",
+    "accent", "solid", "void", "selected", "centroid", "axes", "neutral", "kern", "shear", "shade",
     "warning",
 ];
 

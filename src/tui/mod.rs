@@ -13,6 +13,7 @@ pub mod config;
 pub mod keys;
 pub mod raster;
 pub mod rescue;
+pub mod shade;
 pub mod theme;
 pub mod views;
 pub mod watch;

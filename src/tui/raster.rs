@@ -25,6 +25,8 @@ pub struct Cell {
     pub ink: Option<Ink>,
     /// A character drawn over the dots (markers such as the centroid).
     pub glyph: Option<char>,
+    /// A shading character, shown where the cell has neither a glyph nor dots.
+    pub shade: Option<char>,
 }
 
 /// A grid of `w × h` cells.
@@ -132,15 +134,32 @@ impl Raster {
         }
     }
 
+    /// Shades the cell (cx, cy) with `ch` (under its dots and glyph, if any).
+    pub fn shade(&mut self, cx: usize, cy: usize, ch: char) {
+        if let Some(c) = self.cell_mut(cx, cy) {
+            c.shade = Some(ch);
+        }
+    }
+
+    /// The ink that colours a cell: its own, or the shading's for a shaded cell with
+    /// neither a glyph nor dots.
+    pub fn ink_at(&self, cx: usize, cy: usize) -> Option<Ink> {
+        let c = self.cell(cx, cy)?;
+        match c.shade {
+            Some(_) if c.glyph.is_none() && c.bits == 0 => Some(Ink::Shade),
+            _ => c.ink,
+        }
+    }
+
     /// The character of a cell: its glyph, its braille pattern, or in ASCII mode the
-    /// ink's character; `None` for an empty cell.
+    /// ink's character, else its shading; `None` for an empty cell.
     pub fn char_at(&self, cx: usize, cy: usize, ascii_of: fn(Ink) -> char) -> Option<char> {
         let c = self.cell(cx, cy)?;
         if let Some(g) = c.glyph {
             return Some(g);
         }
         if c.bits == 0 {
-            return None;
+            return c.shade;
         }
         if self.kx == 2 {
             char::from_u32(0x2800 + u32::from(c.bits))
@@ -166,6 +185,20 @@ mod tests {
         r.dot(99, 99, Ink::Solid);
         r.line((0.0, 0.0), (1e12, 0.0), Ink::Axes, Dash::Solid);
         assert_eq!(r.char_at(1, 0, |_| '#'), None);
+    }
+
+    #[test]
+    fn shading_shows_only_where_there_is_no_line_or_mark() {
+        let mut r = Raster::new(3, 1, true);
+        for cx in 0..3 {
+            r.shade(cx, 0, '▒');
+        }
+        r.dot(2, 0, Ink::Void);
+        r.mark(4.0, 0.0, '◆');
+        let row: String = (0..3).filter_map(|x| r.char_at(x, 0, |_| '#')).collect();
+        assert_eq!(row, "▒⠁◆");
+        assert_eq!(r.ink_at(0, 0), Some(Ink::Shade));
+        assert_eq!(r.ink_at(1, 0), Some(Ink::Void));
     }
 
     #[test]

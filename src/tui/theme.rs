@@ -9,6 +9,8 @@ use ratatui::symbols::border;
 /// What a mark in the drawing stands for; later ones are drawn over earlier ones.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
 pub enum Ink {
+    /// A cell shaded by a stress level.
+    Shade,
     Mesh,
     Kern,
     Axes,
@@ -38,7 +40,7 @@ pub struct Theme {
     pub down: Style,
     pub editing: Style,
     pub caution: Style,
-    ink: [Style; 8],
+    ink: [Style; 9],
 }
 
 const ASCII_BORDER: border::Set = border::Set {
@@ -74,6 +76,7 @@ impl Theme {
                     "axes" => t.ink[Ink::Axes as usize] = s,
                     "neutral" => t.ink[Ink::Neutral as usize] = s,
                     "kern" => t.ink[Ink::Kern as usize] = s,
+                    "shade" => t.ink[Ink::Shade as usize] = s,
                     _ => {}
                 }
             }
@@ -102,6 +105,7 @@ impl Theme {
             editing: Style::new().bg(Color::Blue).fg(Color::White),
             caution: fg(Color::DarkGray).add_modifier(Modifier::ITALIC),
             ink: [
+                fg(Color::LightGreen),
                 fg(Color::DarkGray),
                 fg(Color::Magenta),
                 fg(Color::Blue),
@@ -137,7 +141,7 @@ impl Theme {
             down: s,
             editing: rev,
             caution: dim,
-            ink: [dim, dim, dim, s, s, s, bold, bold],
+            ink: [s, dim, dim, dim, s, s, s, bold, bold],
         }
     }
 
@@ -149,6 +153,7 @@ impl Theme {
     /// The character of a mark in ASCII mode.
     pub fn ascii_ink(ink: Ink) -> char {
         match ink {
+            Ink::Shade => '-',
             Ink::Mesh => ',',
             Ink::Kern => ':',
             Ink::Axes => '.',
@@ -194,6 +199,7 @@ impl Theme {
                 'ȳ' => out.push_str("yc"),
                 'θ' => out.push_str("theta"),
                 'σ' => out.push('s'),
+                'τ' => out.push_str("tau"),
                 'δ' => out.push('d'),
                 '−' | '—' | '–' => out.push('-'),
                 '±' => out.push_str("+/-"),
