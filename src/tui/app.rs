@@ -192,11 +192,13 @@ pub enum Mode {
     /// Take the value a seek found?
     AskSeek(super::commands::seek::Found),
     /// The params ranked by what they buy of a result.
-    Rates(super::commands::rates::Rates),
+    Rates(super::listing::Listing),
     /// A result swept over a param: plot and table.
     Sweep(super::commands::sweep::Swept),
     /// Both designs' results side by side.
-    Compare(super::commands::rates::Rates),
+    Compare(super::listing::Listing),
+    /// The open file's commits, to compare with one.
+    Revisions(super::commands::compare::Revisions),
 }
 
 /// How torsion is solved.

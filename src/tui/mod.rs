@@ -11,6 +11,7 @@ pub mod columns;
 pub mod commands;
 pub mod config;
 pub mod keys;
+pub mod listing;
 pub mod raster;
 pub mod rescue;
 pub mod theme;
@@ -189,9 +190,9 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
         | Mode::AskSeek(_)
-        | Mode::Rates(_)
-        | Mode::Sweep(_)
-        | Mode::Compare(_) => Ctx::Asking,
+        | Mode::Sweep(_) => Ctx::Asking,
+        Mode::Rates(_) | Mode::Compare(_) => Ctx::Window,
+        Mode::Revisions(_) => Ctx::Revisions,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {
