@@ -376,6 +376,10 @@ pub fn cancel(app: &mut App) {
     if let Mode::AskDisk(_) = app.mode {
         return keep_mine(app);
     }
+    if app.mode == Mode::Sweeping {
+        app.mode = Mode::Main;
+        return sweep::stop(app);
+    }
     app.mode = Mode::Main;
     app.message = None;
 }

@@ -155,7 +155,8 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
         }
         // Block on input; wake up now and then to collect a running solve and to look
         // at the file on disk.
-        let wait = match (app.solving, app.path.is_some()) {
+        let busy = app.solving || app.sweep_job.is_some();
+        let wait = match (busy, app.path.is_some()) {
             (true, _) => Some(SOLVE_POLL),
             (false, true) => Some(WATCH_POLL),
             (false, false) => None,
@@ -165,6 +166,7 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
             _ => Some(event::read()?),
         };
         app.poll_solver();
+        commands::sweep::poll(app);
         commands::follow_disk(app);
         if let Some(Event::Key(k)) = ev {
             if k.kind != KeyEventKind::Release {
@@ -190,7 +192,8 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
         | Mode::AskSeek(_)
-        | Mode::Sweep(_) => Ctx::Asking,
+        | Mode::Sweep(_)
+        | Mode::Sweeping => Ctx::Asking,
         Mode::Rates(_) | Mode::Compare(_) => Ctx::Window,
         Mode::Revisions(_) => Ctx::Revisions,
         Mode::Help(_) => Ctx::Help,
