@@ -1632,6 +1632,25 @@ fn compares_with_a_commit_chosen_from_the_list_or_another_file_side_by_side() {
 }
 
 #[test]
+fn the_compare_window_has_both_designs_torsion_results() {
+    // Solved inline (deterministic): the baseline's torsion is solved when it is set,
+    // so J is compared too; a deeper plate twists less easily (J grows with h).
+    let dir = temp_dir("compare-torsion");
+    let other = dir.join("deeper.toml");
+    std::fs::write(&other, PLATE.replace("h = 200", "h = 300")).unwrap();
+    let mut a = App::new(PLATE.into(), None, Config::default(), Solver::Inline).unwrap();
+    run(&mut a, Cmd::Compare);
+    typed(&mut a, &other.display().to_string());
+    key(&mut a, KeyCode::Enter);
+    let Mode::Compare(l) = a.mode.clone() else {
+        panic!("the window opens: {:?} {:?}", a.mode, a.message)
+    };
+    let j = l.lines.iter().find(|l| l.starts_with("J ")).expect("a row of J");
+    assert!(j.contains('−') && !j.contains('—'), "{j}");
+    assert!(!l.lines.iter().any(|l| l.contains("under way")), "{:?}", l.lines);
+}
+
+#[test]
 fn the_compare_window_scrolls_with_a_hint_of_what_is_out_of_view() {
     let dir = temp_dir("compare-scroll");
     let file = dir.join("plate.toml");

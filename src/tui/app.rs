@@ -549,7 +549,7 @@ impl App {
 
     /// Solves the baseline's torsion like any other state's when it has none (edited
     /// before its own solve finished), after the current section's.
-    fn solve_baseline(&mut self) {
+    pub fn solve_baseline(&mut self) {
         if self.baseline.torsion.is_some() {
             return;
         }

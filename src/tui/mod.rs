@@ -165,7 +165,9 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
             Some(t) if !event::poll(t)? => None,
             _ => Some(event::read()?),
         };
-        app.poll_solver();
+        if app.poll_solver() {
+            commands::compare::refresh(app);
+        }
         commands::sweep::poll(app);
         commands::follow_disk(app);
         if let Some(Event::Key(k)) = ev {

@@ -13,7 +13,7 @@ use crate::file::load::{analyse, diagnostic_line};
 use crate::iterate::compare::compare;
 use crate::numfmt::change;
 use crate::text::clean;
-use crate::tui::app::{App, LineEdit, Mode, Target};
+use crate::tui::app::{App, LineEdit, Mode, Solver, Target};
 use crate::tui::listing::Listing;
 use std::path::Path;
 
@@ -135,8 +135,47 @@ fn open_text(
 ) -> Result<(), String> {
     let base = analyse(&text, &Options::default())
         .map_err(|d| diagnostic_line(&clean(name), &text, &d))?;
+    app.baseline = base;
+    app.baseline_text = text;
+    app.baseline_label = label;
+    app.message = None;
+    // The baseline's torsion is solved like any other's, after the current one's.
+    if !app.solving {
+        app.solve_baseline();
+    }
+    let (columns, lines) = side_by_side(app);
+    app.mode = Mode::Compare(Listing::new(
+        "Two designs side by side".into(),
+        vec![
+            format!("Baseline: {what}. Now: the design as edited here."),
+            columns,
+        ],
+        lines,
+    ));
+    Ok(())
+}
+
+/// Renews the side-by-side window when a torsion solve has come in since it opened
+/// (its J, Cw and shear rows join then), keeping where it is scrolled.
+pub fn refresh(app: &mut App) {
+    if !matches!(app.mode, Mode::Compare(_)) {
+        return;
+    }
+    let (columns, lines) = side_by_side(app);
+    if let Mode::Compare(l) = &mut app.mode {
+        if let Some(h) = l.head.get_mut(1) {
+            *h = columns;
+        }
+        l.lines = lines;
+    }
+}
+
+/// The column headings and the rows of the baseline against this design, in the
+/// workbench's units and form of numbers; while either side's torsion solve is under
+/// way, a last line says its results follow.
+fn side_by_side(app: &App) -> (String, Vec<String>) {
     let u = app.units();
-    let rows = compare(&base, &app.analysis, app.config.units, u.notation);
+    let rows = compare(&app.baseline, &app.analysis, app.config.units, u.notation);
     let cells: Vec<[String; 5]> = rows
         .iter()
         .map(|r| {
@@ -147,21 +186,18 @@ fn open_text(
         })
         .collect();
     let head = ["", "baseline", "now", "change", "unit"].map(String::from);
-    let lines = columns(&head, &cells);
-    let mut lines = lines.into_iter();
-    let head = std::iter::once(format!("Baseline: {what}. Now: the design as edited here."))
-        .chain(lines.next())
-        .collect();
-    app.baseline = base;
-    app.baseline_text = text;
-    app.baseline_label = label;
-    app.message = None;
-    app.mode = Mode::Compare(Listing::new(
-        "Two designs side by side".into(),
-        head,
-        lines.collect(),
-    ));
-    Ok(())
+    let mut lines = columns(&head, &cells).into_iter();
+    let heading = lines.next().unwrap_or_default();
+    let mut lines: Vec<String> = lines.collect();
+    let pending = |a: &crate::analysis::Analysis| a.torsion.is_none();
+    if !matches!(app.solver, Solver::Off) && (pending(&app.baseline) || pending(&app.analysis)) {
+        lines.push(String::new());
+        lines.push(
+            "The torsion solve is under way: J, Cw and the shear results join when it is done."
+                .into(),
+        );
+    }
+    (heading, lines)
 }
 
 /// The heading and the rows as lines of columns as wide as their widest entry, two

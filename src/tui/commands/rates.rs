@@ -60,14 +60,14 @@ pub fn open(app: &mut App, key: &str) -> Result<(), String> {
         let line = match (r.per_unit, &r.failure) {
             (Some(d), _) => {
                 let mass = r.per_mass.map_or("adds no mass".into(), |pm| {
-                    format!("{} per {mass_unit}", per(pm))
+                    format!("{} per {mass_unit} it adds", per(pm))
                 });
                 let side = match r.difference {
                     Some(Difference::Forward) => " (one-sided: below does not compute)",
                     Some(Difference::Backward) => " (one-sided: above does not compute)",
                     _ => "",
                 };
-                format!("{name}: {} per {unit}, {mass}{side}", per(d))
+                format!("{name}: {} per {unit} of {name}, {mass}{side}", per(d))
             }
             (None, Some(f)) => format!("{name}: no rate ({})", f.message()),
             (None, None) => format!("{name}: no rate"),
