@@ -22,15 +22,30 @@ use crate::text::clean;
 use std::io::{ErrorKind, Write};
 use std::path::{Path, PathBuf};
 
+/// How a verb writes numbers and symbols for people (`--numbers`, `--notation`, read
+/// once in `main.rs` for every verb). JSON and CSV ignore both: they take values as
+/// they stand and name results by their dotted keys.
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
+pub struct Written {
+    pub numbers: Numbers,
+    pub notation: Notation,
+}
+
+impl Written {
+    /// Output units for a section in `file`'s length unit (or `wanted`), written so.
+    pub fn units(self, file: LengthUnit, wanted: Option<LengthUnit>) -> OutUnits {
+        OutUnits::new(file, wanted).written(self.numbers, self.notation)
+    }
+}
+
 /// Options of `kern calc`.
 #[derive(Debug, Clone, Default)]
 pub struct CalcArgs {
     pub files: Vec<PathBuf>,
     pub json: bool,
     pub units: Option<LengthUnit>,
-    /// How the table writes numbers and symbols (JSON ignores both).
-    pub numbers: Numbers,
-    pub notation: Notation,
+    /// How the table writes numbers and symbols.
+    pub written: Written,
     pub options: Options,
 }
 
@@ -80,7 +95,7 @@ pub fn calc(args: &CalcArgs) -> i32 {
 /// One file of `kern calc`: its JSON line or table, or the line its error prints as.
 fn calc_one(args: &CalcArgs, path: &Path) -> Result<String, String> {
     let a = load(path, &args.options)?;
-    let u = OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
+    let u = args.written.units(a.section.units, args.units);
     let name = path.display().to_string();
     Ok(if args.json {
         let mut line = to_json(&name, &a, &u).to_string();
@@ -144,8 +159,7 @@ pub struct ReportArgs {
     /// A self-contained HTML page instead of Markdown.
     pub html: bool,
     pub units: Option<LengthUnit>,
-    pub numbers: Numbers,
-    pub notation: Notation,
+    pub written: Written,
     pub options: Options,
     /// A table of the sensitivities of this result (a dotted JSON key) to every param.
     pub sensitivity: Option<String>,
@@ -160,10 +174,10 @@ pub fn report(args: &ReportArgs) -> i32 {
             return 2;
         }
     };
-    let u = OutUnits::new(a.section.units, args.units).written(args.numbers, args.notation);
+    let u = args.written.units(a.section.units, args.units);
     let mut blocks = markdown::blocks(&args.file.display().to_string(), &a, &u);
     if let Some(key) = &args.sensitivity {
-        match sensitivity::sheet_blocks(&a.document, key, &args.options) {
+        match sensitivity::sheet_blocks(&a.document, key, &args.options, args.written) {
             // Before the closing caution.
             Ok(table) => {
                 let at = blocks.len().saturating_sub(1);
@@ -209,17 +223,17 @@ under that name); name it .md",
 }
 
 /// `kern svg`: the drawing of one file, to `out` or stdout, labelled in `units` (the
-/// file's own unit when `None`) with numbers written as `numbers`.
+/// file's own unit when `None`) with numbers and symbols written as `written` says.
 pub fn svg(
     file: &Path,
     out: Option<&Path>,
     units: Option<LengthUnit>,
-    numbers: Numbers,
+    written: Written,
     options: &Options,
 ) -> i32 {
     match load(file, options) {
         Ok(a) => {
-            let u = OutUnits::new(a.section.units, units).written(numbers, Notation::default());
+            let u = written.units(a.section.units, units);
             emit(out, &drawing::drawing(&a, &u))
         }
         Err(line) => {

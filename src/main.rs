@@ -7,7 +7,7 @@ use kern::cli::diff::DiffArgs;
 use kern::cli::seek::SeekArgs;
 use kern::cli::sensitivity::SensitivityArgs;
 use kern::cli::sweep::SweepArgs;
-use kern::cli::{calc, print_out, report, svg, CalcArgs, ReportArgs};
+use kern::cli::{calc, print_out, report, svg, CalcArgs, ReportArgs, Written};
 use kern::fe::TorsionOptions;
 use kern::model::units::LengthUnit;
 use kern::numfmt::Numbers;
@@ -189,10 +189,10 @@ fn torsion_options(no_torsion: bool) -> Options {
 
 fn main() {
     let cli = Cli::parse();
-    let (numbers, notation) = (
-        cli.numbers.unwrap_or_default(),
-        cli.notation.unwrap_or_default(),
-    );
+    let written = Written {
+        numbers: cli.numbers.unwrap_or_default(),
+        notation: cli.notation.unwrap_or_default(),
+    };
     let status = match cli.verb {
         Some(Verb::Calc {
             files,
@@ -212,6 +212,7 @@ fn main() {
                     files,
                     result,
                     json,
+                    written,
                     options: Options { torsion },
                 })
             } else {
@@ -219,8 +220,7 @@ fn main() {
                     files,
                     json,
                     units,
-                    numbers,
-                    notation,
+                    written,
                     options: Options { torsion },
                 })
             }
@@ -237,8 +237,7 @@ fn main() {
             out,
             html,
             units,
-            numbers,
-            notation,
+            written,
             options: torsion_options(no_torsion),
             sensitivity,
         }),
@@ -251,7 +250,7 @@ fn main() {
             &file,
             out.as_deref(),
             units,
-            numbers,
+            written,
             &torsion_options(no_torsion),
         ),
         Some(Verb::Sweep {
@@ -273,6 +272,7 @@ fn main() {
             json,
             csv,
             results: result,
+            written,
             options: torsion_options(no_torsion),
         }),
         Some(Verb::Seek {
@@ -289,6 +289,7 @@ fn main() {
             within,
             json,
             write,
+            written,
             options: torsion_options(false),
         }),
         Some(Verb::Diff {
@@ -302,9 +303,14 @@ fn main() {
             b,
             json,
             units,
+            written,
             options: torsion_options(no_torsion),
         }),
-        Some(Verb::Check { files, json }) => kern::cli::check::check(&CheckArgs { files, json }),
+        Some(Verb::Check { files, json }) => kern::cli::check::check(&CheckArgs {
+            files,
+            json,
+            written,
+        }),
         Some(Verb::Keys) => print_out(&kern::tui::keys::markdown()),
         None => kern::tui::run(cli.file, cli.numbers, cli.notation),
     };

@@ -124,8 +124,8 @@ fn seek_refuses_cleanly_without_a_root() {
     assert!(
         e.contains("no value of h")
             && e.contains("from 100 to 300")
-            && e.contains("8.33333e6 mm⁴ (at h = 100)")
-            && e.contains("2.25000e8 mm⁴ (at h = 300)"),
+            && e.contains("8.33333×10⁶ mm⁴ (at h = 100)")
+            && e.contains("225.000×10⁶ mm⁴ (at h = 300)"),
         "{e}"
     );
     // An unknown result key is an error with a hint.
@@ -412,7 +412,7 @@ fn check_exit_codes_and_limits() {
     let o = kern_in(&d, &["check", "good.toml", "weak.toml"]);
     assert_eq!(o.status.code(), Some(1));
     assert!(
-        stdout(&o).contains("weak.toml: FAIL — member.utilization"),
+        stdout(&o).contains("weak.toml: FAIL — util (member.utilization)"),
         "{}",
         stdout(&o)
     );
@@ -440,7 +440,24 @@ fn check_exit_codes_and_limits() {
     let o = kern_in(&d, &["check", "lim.toml"]);
     assert_eq!(o.status.code(), Some(1), "{}", stdout(&o));
     assert!(
-        stdout(&o).contains("inertia.xx 2.250e8 < 3.000e8 mm⁴"),
+        stdout(&o).contains("Ixx (inertia.xx) 225.0×10⁶ < 300.0×10⁶ mm⁴"),
+        "{}",
+        stdout(&o)
+    );
+    // The lines honour --numbers and --notation as calc's table does.
+    let o = kern_in(
+        &d,
+        &[
+            "check",
+            "lim.toml",
+            "--numbers",
+            "scientific",
+            "--notation",
+            "yz",
+        ],
+    );
+    assert!(
+        stdout(&o).contains("Iy (inertia.xx) 2.250e8 < 3.000e8 mm⁴"),
         "{}",
         stdout(&o)
     );
@@ -574,4 +591,77 @@ fn the_report_can_carry_a_sensitivity_table() {
     );
     let o = kern_in(&d, &["report", "plate.toml", "--sensitivity", "inertia.x"]);
     assert_eq!(o.status.code(), Some(2));
+}
+
+#[test]
+fn every_table_honours_numbers_and_notation_and_json_does_not() {
+    // The numbers are those of the tests above (b·h³/12, Gere & Goodno, App. E case 1);
+    // here the snapshots pin how each verb's table writes them in each form.
+    let d = scratch("forms");
+    plate(&d);
+    std::fs::write(d.join("deeper.toml"), PLATE.replace("h = 200", "h = 300")).unwrap();
+    std::fs::write(d.join("beam.toml"), beam(300.0, "")).unwrap();
+    let verbs: [(&str, Vec<&str>); 5] = [
+        (
+            "diff",
+            vec!["diff", "plate.toml", "deeper.toml", "--no-torsion"],
+        ),
+        (
+            "sweep",
+            vec![
+                "sweep",
+                "plate.toml",
+                "--param",
+                "h",
+                "--from",
+                "100",
+                "--to",
+                "300",
+                "--steps",
+                "3",
+                "--no-torsion",
+            ],
+        ),
+        (
+            "seek",
+            vec![
+                "seek",
+                "plate.toml",
+                "--param",
+                "h",
+                "--target",
+                "inertia.xx=8e8",
+            ],
+        ),
+        ("check", vec!["check", "beam.toml"]),
+        (
+            "sensitivity",
+            vec!["calc", "plate.toml", "--sensitivity", "--no-torsion"],
+        ),
+    ];
+    for (name, args) in &verbs {
+        for (form, extra) in [
+            ("engineering", vec![]),
+            ("plain-yz", vec!["--numbers", "plain", "--notation", "yz"]),
+        ] {
+            let all: Vec<&str> = args.iter().copied().chain(extra).collect();
+            let o = kern_in(&d, &all);
+            assert_eq!(o.status.code(), Some(0), "{all:?}: {}", stderr(&o));
+            insta::assert_snapshot!(format!("{name}-{form}"), stdout(&o));
+        }
+    }
+    // JSON is the same whatever the form of numbers or the notation.
+    for args in [&verbs[0].1, &verbs[1].1, &verbs[3].1, &verbs[4].1] {
+        let json: Vec<&str> = args.iter().copied().chain(["--json"]).collect();
+        let other: Vec<&str> = json
+            .iter()
+            .copied()
+            .chain(["--numbers", "scientific", "--notation", "yz"])
+            .collect();
+        assert_eq!(
+            stdout(&kern_in(&d, &json)),
+            stdout(&kern_in(&d, &other)),
+            "{json:?}"
+        );
+    }
 }

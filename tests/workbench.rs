@@ -4,8 +4,10 @@
 //! deterministic.
 
 use crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+use kern::file::git::Commit;
 use kern::tui::app::{App, Focus, Mode, Picker, Solver};
 use kern::tui::columns::Col;
+use kern::tui::commands::compare::Revisions;
 use kern::tui::commands::{self, run};
 use kern::tui::config::Config;
 use kern::tui::handle_key;
@@ -1431,13 +1433,6 @@ fn a_sweep_plots_ixx_over_the_depth_and_marks_the_current_value() {
     let hs: Vec<f64> = s.samples.iter().map(|p| p.value).collect();
     assert_eq!(hs, [150.0, 175.0, 200.0, 225.0, 250.0]);
     key(&mut a, KeyCode::Esc);
-    // Torsion for every value is refused, as seek refuses it.
-    run(&mut a, Cmd::Sweep);
-    run(&mut a, Cmd::KillToStart);
-    typed(&mut a, "J");
-    key(&mut a, KeyCode::Enter);
-    assert!(refusal(&a).contains("torsion"), "{}", refusal(&a));
-    key(&mut a, KeyCode::Esc);
     // Values that do not compute are listed as such, the line broken there.
     run(&mut a, Cmd::Sweep);
     typed(&mut a, "Ixx -100 300 5");
@@ -1449,33 +1444,103 @@ fn a_sweep_plots_ixx_over_the_depth_and_marks_the_current_value() {
     assert!(screen(&a, 80, 24).contains("do not compute"));
 }
 
+/// Runs git in `dir` (name and e-mail for this repository only); whether it succeeded.
+fn git_in(dir: &Path, args: &[&str]) -> bool {
+    std::process::Command::new("git")
+        .arg("-C")
+        .arg(dir)
+        .args([
+            "-c",
+            "user.name=kern test",
+            "-c",
+            "user.email=test@example.invalid",
+        ])
+        .args(["-c", "commit.gpgsign=false"])
+        .args(args)
+        .output()
+        .map(|o| o.status.success())
+        .unwrap_or(false)
+}
+
+/// Collects a background sweep as the event loop does, until its overlay opens (a
+/// guard against a hang, not a time target).
+fn wait_for_sweep(a: &mut App) -> kern::tui::commands::sweep::Swept {
+    let start = std::time::Instant::now();
+    loop {
+        commands::sweep::poll(a);
+        if let Mode::Sweep(s) = &a.mode {
+            return s.clone();
+        }
+        assert_eq!(a.mode, Mode::Sweeping, "{:?}", a.message);
+        assert!(start.elapsed().as_secs() < 300, "the sweep never finished");
+        std::thread::sleep(std::time::Duration::from_millis(5));
+    }
+}
+
 #[test]
-fn compares_against_the_last_commit_or_another_file_side_by_side() {
+fn a_sweep_with_torsion_runs_in_the_background_and_esc_stops_it() {
+    let mut a = app(PLATE);
+    run(&mut a, Cmd::SwitchList);
+    run(&mut a, Cmd::Down);
+    run(&mut a, Cmd::Sweep);
+    typed(&mut a, "J 150 250 3");
+    key(&mut a, KeyCode::Enter);
+    // The key returns at once, before any value is solved: the screen says how far it
+    // has got and how to stop it.
+    assert_eq!(a.mode, Mode::Sweeping, "{:?}", a.message);
+    let s = screen(&a, 80, 24);
+    assert!(
+        s.contains("Sweeping J over h") && s.contains("Esc stops it"),
+        "{s}"
+    );
+    let swept = wait_for_sweep(&mut a);
+    assert!(a.sweep_job.is_none());
+    let hs: Vec<f64> = swept.samples.iter().map(|p| p.value).collect();
+    assert_eq!(hs, [150.0, 200.0, 250.0]);
+    // Saint-Venant torsion of a t × b rectangle (t ≤ b): J = (b·t³/3)·(1 − (192/π⁵)·(t/b)
+    // ·Σ tanh(nπb/2t)/n⁵, n odd) (Timoshenko & Goodier, Theory of Elasticity, §109),
+    // here t = 100 mm and b = h; the solve's tolerance is 1e-3, checked to 1 %.
+    for p in &swept.samples {
+        let (t, b) = (100.0f64, p.value);
+        let sum: f64 = (0..20)
+            .map(|k| (2 * k + 1) as f64)
+            .map(|n| (n * PI * b / (2.0 * t)).tanh() / n.powi(5))
+            .sum();
+        let j = b * t.powi(3) / 3.0 * (1.0 - 192.0 / PI.powi(5) * t / b * sum);
+        let got = *p.result.as_ref().unwrap();
+        assert!((got - j).abs() < 0.01 * j, "h = {b}: J {got} against {j}");
+    }
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.mode, Mode::Main);
+    // Esc while it runs stops it: the solves are cancelled and no overlay opens.
+    run(&mut a, Cmd::Sweep);
+    typed(&mut a, "J 100 300 201");
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.mode, Mode::Sweeping, "{:?}", a.message);
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.mode, Mode::Main);
+    assert!(a.sweep_job.is_none());
+    let (note, _) = a.message.clone().unwrap();
+    assert!(note.contains("sweep of J over h stopped"), "{note}");
+    assert!(
+        !commands::sweep::poll(&mut a),
+        "nothing arrives after a stop"
+    );
+    assert_eq!(a.mode, Mode::Main);
+}
+
+#[test]
+fn compares_with_a_commit_chosen_from_the_list_or_another_file_side_by_side() {
     let dir = temp_dir("compare");
     let file = dir.join("plate.toml");
     std::fs::write(&file, PLATE).unwrap();
-    let git = |args: &[&str]| {
-        let ok = std::process::Command::new("git")
-            .arg("-C")
-            .arg(&dir)
-            .args(args)
-            .output()
-            .map(|o| o.status.success())
-            .unwrap_or(false);
-        assert!(ok, "git {args:?}");
-    };
-    git(&["init", "-q"]);
-    git(&["add", "plate.toml"]);
-    git(&[
-        "-c",
-        "user.name=t",
-        "-c",
-        "user.email=t@t",
-        "commit",
-        "-qm",
-        "plate",
-    ]);
-    // The file now deeper than its last commit: h = 300.
+    assert!(git_in(&dir, &["init", "-q"]), "git init");
+    assert!(git_in(&dir, &["add", "plate.toml"]));
+    assert!(git_in(&dir, &["commit", "-qm", "plate 100 x 200"]));
+    // A second commit whose subject carries a terminal escape: shown cleaned.
+    std::fs::write(&file, PLATE.replace("h = 200", "h = 250")).unwrap();
+    assert!(git_in(&dir, &["commit", "-qam", "deeper \x1b[31mplate"]));
+    // The file now deeper than both commits: h = 300.
     let deeper = PLATE.replace("h = 200", "h = 300");
     std::fs::write(&file, &deeper).unwrap();
     let mut a = App::new(
@@ -1486,40 +1551,180 @@ fn compares_against_the_last_commit_or_another_file_side_by_side() {
     )
     .unwrap();
     run(&mut a, Cmd::Compare);
+    let Mode::Revisions(r) = a.mode.clone() else {
+        panic!("the list of commits opens: {:?} {:?}", a.mode, a.message)
+    };
+    // The last commit first.
+    assert_eq!(r.commits.len(), 2);
+    assert!(
+        r.commits[0].subject.starts_with("deeper"),
+        "{:?}",
+        r.commits
+    );
+    assert_eq!(r.commits[1].subject, "plate 100 x 200");
+    let list = screen(&a, 80, 24);
+    assert!(
+        !list.contains('\x1b') && list.contains("deeper plate"),
+        "{list}"
+    );
+    // Enter takes the highlighted commit; Down moves to the earlier one.
+    key(&mut a, KeyCode::Down);
     key(&mut a, KeyCode::Enter);
     let Mode::Compare(w) = a.mode.clone() else {
         panic!("the window opens: {:?} {:?}", a.mode, a.message)
     };
-    assert_eq!(a.baseline_label, "last commit");
+    assert_eq!(a.baseline_label, "earlier commit");
+    assert!(w.head[0].contains("plate 100 x 200"), "{:?}", w.head);
     // Ixx = b·h³/12 (Gere & Goodno, App. E case 1): 66.67e6 mm⁴ at h = 200 and
     // 225.0e6 at 300, up (300/200)³ − 1 = 237.5 %.
     let ixx = w.lines.iter().find(|l| l.starts_with("Ixx ")).unwrap();
     assert!(ixx.contains("+238%") || ixx.contains("+237.5%"), "{ixx}");
     assert!((a.baseline.props.ixx - 100.0 * 200f64.powi(3) / 12.0).abs() < 1e-3);
-    // The title line names the temporary folder, which changes from run to run.
-    let s = screen(&a, 80, 24);
-    let below_title = s.lines().skip(1).collect::<Vec<_>>().join("\n");
-    insta::assert_snapshot!("compare-80x24", below_title);
     key(&mut a, KeyCode::Esc);
     assert_eq!(a.mode, Mode::Main);
+    // Enter on the list at once: the last commit, h = 250.
+    run(&mut a, Cmd::Compare);
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.baseline_label, "last commit");
+    assert!((a.baseline.props.ixx - 100.0 * 250f64.powi(3) / 12.0).abs() < 1e-3);
+    key(&mut a, KeyCode::Esc);
+    // A revision typed by hand (e from the list): HEAD~1: is the first commit.
+    run(&mut a, Cmd::Compare);
+    key(&mut a, KeyCode::Char('e'));
+    typed(&mut a, "HEAD~1:");
+    key(&mut a, KeyCode::Enter);
+    assert!(matches!(a.mode, Mode::Compare(_)), "{:?}", a.message);
+    assert!((a.baseline.props.ixx - 100.0 * 200f64.powi(3) / 12.0).abs() < 1e-3);
+    key(&mut a, KeyCode::Esc);
     // Another file, typed.
     let other = dir.join("wide.toml");
     std::fs::write(&other, PLATE.replace("b = 100", "b = 150")).unwrap();
     run(&mut a, Cmd::Compare);
+    key(&mut a, KeyCode::Char('e'));
     typed(&mut a, &other.display().to_string());
     key(&mut a, KeyCode::Enter);
     assert!(matches!(a.mode, Mode::Compare(_)), "{:?}", a.message);
     assert_eq!(a.baseline_label, "other file");
     key(&mut a, KeyCode::Esc);
+    // A file git does not track: no list, and the line says so.
+    let mut u = App::new(
+        PLATE.to_string(),
+        Some(other.clone()),
+        Config::default(),
+        Solver::Off,
+    )
+    .unwrap();
+    run(&mut u, Cmd::Compare);
+    assert!(matches!(u.mode, Mode::Typing { .. }), "{:?}", u.mode);
+    let (note, _) = u.message.clone().unwrap();
+    assert!(note.contains("no commit of"), "{note}");
     // The demo is in no repository: refused, saying what to type instead.
     let mut d = app(PLATE);
     run(&mut d, Cmd::Compare);
+    let (note, _) = d.message.clone().unwrap();
+    assert!(note.contains("in no git repository"), "{note}");
     key(&mut d, KeyCode::Enter);
     assert!(
         refusal(&d).contains("type a section file"),
         "{}",
         refusal(&d)
     );
+}
+
+#[test]
+fn the_compare_window_has_both_designs_torsion_results() {
+    // Solved inline (deterministic): the baseline's torsion is solved when it is set,
+    // so J is compared too; a deeper plate twists less easily (J grows with h).
+    let dir = temp_dir("compare-torsion");
+    let other = dir.join("deeper.toml");
+    std::fs::write(&other, PLATE.replace("h = 200", "h = 300")).unwrap();
+    let mut a = App::new(PLATE.into(), None, Config::default(), Solver::Inline).unwrap();
+    run(&mut a, Cmd::Compare);
+    typed(&mut a, &other.display().to_string());
+    key(&mut a, KeyCode::Enter);
+    let Mode::Compare(l) = a.mode.clone() else {
+        panic!("the window opens: {:?} {:?}", a.mode, a.message)
+    };
+    let j = l.lines.iter().find(|l| l.starts_with("J ")).expect("a row of J");
+    assert!(j.contains('−') && !j.contains('—'), "{j}");
+    assert!(!l.lines.iter().any(|l| l.contains("under way")), "{:?}", l.lines);
+}
+
+#[test]
+fn the_compare_window_scrolls_with_a_hint_of_what_is_out_of_view() {
+    let dir = temp_dir("compare-scroll");
+    let file = dir.join("plate.toml");
+    std::fs::write(&file, PLATE).unwrap();
+    assert!(git_in(&dir, &["init", "-q"]), "git init");
+    assert!(git_in(&dir, &["add", "plate.toml"]));
+    assert!(git_in(&dir, &["commit", "-qm", "plate"]));
+    let deeper = PLATE.replace("h = 200", "h = 300");
+    std::fs::write(&file, &deeper).unwrap();
+    let mut a = App::new(deeper, Some(file), Config::default(), Solver::Off).unwrap();
+    for (w, h) in [(80u16, 24u16), (40, 12), (120, 40)] {
+        a.screen = Rect::new(0, 0, w, h);
+        // Typed by hand (the hashes in the list change from run to run).
+        run(&mut a, Cmd::Compare);
+        key(&mut a, KeyCode::Char('e'));
+        typed(&mut a, "HEAD:");
+        key(&mut a, KeyCode::Enter);
+        let Mode::Compare(l) = a.mode.clone() else {
+            panic!("the window opens: {:?} {:?}", a.mode, a.message)
+        };
+        let below_title = |a: &App| {
+            screen(a, w, h)
+                .lines()
+                .skip(1)
+                .collect::<Vec<_>>()
+                .join("\n")
+        };
+        let top = below_title(&a);
+        // The rows overflow 80 × 24 and 40 × 12 (the plate has 19 rows of results).
+        if h < 40 {
+            assert!(
+                top.contains("more below") && !top.contains("more above"),
+                "{top}"
+            );
+            key(&mut a, KeyCode::End);
+            let end = below_title(&a);
+            assert!(
+                end.contains("more above") && !end.contains("more below"),
+                "{end}"
+            );
+            // The last row of results is in view at the end.
+            let last = l.lines.last().unwrap().split_whitespace().next().unwrap();
+            assert!(end.contains(last), "{last}: {end}");
+            key(&mut a, KeyCode::PageUp);
+            key(&mut a, KeyCode::Home);
+            assert_eq!(below_title(&a), top, "Home goes back to the top");
+            key(&mut a, KeyCode::Down);
+            assert!(below_title(&a).contains("1 more above"));
+            key(&mut a, KeyCode::End);
+            insta::assert_snapshot!(format!("compare-end-{w}x{h}"), below_title(&a));
+            key(&mut a, KeyCode::Home);
+        } else {
+            assert!(!top.contains("more below"), "{top}");
+        }
+        insta::assert_snapshot!(format!("compare-{w}x{h}"), top);
+        key(&mut a, KeyCode::Esc);
+        assert_eq!(a.mode, Mode::Main);
+        // The list of commits, made here so that hashes and dates stay put; more
+        // commits than rows keep the highlighted one in view.
+        let commits = (0..12)
+            .map(|i| Commit {
+                hash: format!("{:07x}", 0xa1b2c3d + i),
+                date: format!("2026-11-{:02}", 30 - i),
+                subject: format!("mezzanine girder: flange {} mm", 300 + 10 * i),
+            })
+            .collect();
+        a.mode = Mode::Revisions(Revisions { commits, row: 0 });
+        for _ in 0..11 {
+            key(&mut a, KeyCode::Down);
+        }
+        insta::assert_snapshot!(format!("revisions-{w}x{h}"), below_title(&a));
+        key(&mut a, KeyCode::Esc);
+        assert_eq!(a.mode, Mode::Main);
+    }
 }
 
 #[test]

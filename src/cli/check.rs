@@ -3,13 +3,12 @@
 //! short, 2 when any is invalid (2 wins over 1: an invalid file was not checked at
 //! all). One line per file with the figures that decided, or one JSON object per file.
 
-use super::source::Source;
-use super::{parallel_map, print_out, say};
+use super::source::{named, Source};
+use super::{parallel_map, print_out, say, Written};
 use crate::analysis::{Analysis, Options};
 use crate::fe::TorsionOptions;
 use crate::iterate::check::{check as verdict, Bound, Figure, Verdict};
 use crate::iterate::vary::{needs_torsion, result_key};
-use crate::numfmt::{plain, sig};
 use crate::report::CAUTION;
 use crate::text::clean;
 use serde_json::{json, Value};
@@ -20,6 +19,8 @@ use std::path::PathBuf;
 pub struct CheckArgs {
     pub files: Vec<PathBuf>,
     pub json: bool,
+    /// How the lines write numbers and symbols.
+    pub written: Written,
 }
 
 /// What became of one file.
@@ -57,11 +58,16 @@ fn one(path: &std::path::Path) -> Outcome {
     }
 }
 
-/// A figure in words: `member.utilization 0.82 ≤ 0.95`.
-fn words(f: &Figure) -> String {
+/// A figure in words, the key after the symbol it has in the notation:
+/// `util (member.utilization) 0.8200 ≤ 0.9500`, `Ixx (inertia.xx) 66.67×10⁶ ≥ …`.
+fn words(f: &Figure, w: Written) -> String {
+    let key = match result_key(&f.key) {
+        Ok(q) => named(q, &f.key, w.notation),
+        Err(_) => f.key.clone(),
+    };
     let what = match &f.material {
-        Some(m) => format!("{} ({})", f.key, clean(m)),
-        None => f.key.clone(),
+        Some(m) => format!("{key} ({})", clean(m)),
+        None => key,
     };
     let unit = if f.unit.is_empty() {
         String::new()
@@ -75,9 +81,9 @@ fn words(f: &Figure) -> String {
     match (f.value, &f.missing) {
         (Some(v), _) => format!(
             "{what} {} {} {}{unit}",
-            sig(v, 4),
+            w.numbers.show(v, 4),
             if f.pass { ok } else { bad },
-            plain(f.limit, 4)
+            w.numbers.show(f.limit, 4)
         ),
         (None, why) => format!(
             "{what}: not formed ({})",
@@ -138,7 +144,8 @@ pub fn check(args: &CheckArgs) -> i32 {
                     });
                     out.push_str(&o.to_string());
                 } else {
-                    let mut parts: Vec<String> = v.figures.iter().map(words).collect();
+                    let mut parts: Vec<String> =
+                        v.figures.iter().map(|f| words(f, args.written)).collect();
                     if parts.is_empty() {
                         parts.push("computes; nothing to check against (no [member], no fy under [actions], no [limits])".into());
                     }

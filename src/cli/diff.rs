@@ -4,14 +4,15 @@
 //! that revision, e.g. `HEAD:` for the last commit).
 
 use super::source::Source;
-use super::{print_out, say};
+use super::{print_out, say, Written};
 use crate::analysis::{Analysis, Options};
 use crate::file::git::git_text;
 use crate::iterate::compare::{compare, Trend};
 use crate::model::units::LengthUnit;
-use crate::numfmt::{change, sig};
+use crate::numfmt::change;
 use crate::report::json::to_json;
 use crate::report::out::OutUnits;
+use crate::report::table::FIGURES;
 use crate::report::CAUTION;
 use crate::text::clean;
 use serde_json::json;
@@ -25,6 +26,8 @@ pub struct DiffArgs {
     pub b: String,
     pub json: bool,
     pub units: Option<LengthUnit>,
+    /// How the table writes numbers and symbols.
+    pub written: Written,
     pub options: Options,
 }
 
@@ -55,20 +58,21 @@ pub fn diff(args: &DiffArgs) -> i32 {
             return 2;
         }
     };
-    let ua = OutUnits::new(a.section.units, args.units);
+    let ua = args.written.units(a.section.units, args.units);
     let out = if args.json {
         let ub = OutUnits::new(b.section.units, Some(ua.length));
         let o = json!({ "a": to_json(&sa.name, &a, &ua), "b": to_json(&sb.name, &b, &ub) });
         format!("{o}\n")
     } else {
-        table(&sa.name, &sb.name, &a, &b, args.units)
+        table(&sa.name, &sb.name, &a, &b, &ua)
     };
     print_out(&out)
 }
 
-/// The side-by-side table.
-fn table(na: &str, nb: &str, a: &Analysis, b: &Analysis, units: Option<LengthUnit>) -> String {
-    let rows = compare(a, b, units);
+/// The side-by-side table, in A's output units `u` (B's lengths in the same unit),
+/// numbers to the figures of `kern calc`'s table.
+fn table(na: &str, nb: &str, a: &Analysis, b: &Analysis, u: &OutUnits) -> String {
+    let rows = compare(a, b, Some(u.length), u.notation);
     let mut t = vec![vec![
         "result".to_string(),
         "unit".into(),
@@ -80,7 +84,7 @@ fn table(na: &str, nb: &str, a: &Analysis, b: &Analysis, units: Option<LengthUni
     let mut changed = 0;
     for r in &rows {
         let c = &r.change;
-        let v = |x: Option<f64>| x.map_or("—".to_string(), |x| sig(x, 5));
+        let v = |x: Option<f64>| x.map_or("—".to_string(), |x| u.num(x, FIGURES));
         let pct = change(c.b, c.a, c.compare).signed();
         let words = match r.trend {
             Trend::Same => "",
@@ -105,9 +109,10 @@ fn table(na: &str, nb: &str, a: &Analysis, b: &Analysis, units: Option<LengthUni
         ]);
     }
     let mut out = format!(
-        "A: {}\nB: {}\n{} of {} results differ{}\n\n",
+        "A: {}\nB: {}\n{}{} of {} results differ{}\n\n",
         clean(na),
         clean(nb),
+        super::source::notation_line(u),
         changed,
         rows.len(),
         if rows.iter().any(|r| r.change.stress) {

@@ -1,8 +1,8 @@
 //! `kern seek`: the value of a param for which a result reaches a target
 //! ([`crate::iterate::seek`]); `--write` puts it into the file, one line changed.
 
-use super::source::Source;
-use super::{print_out, say};
+use super::source::{named, Source};
+use super::{print_out, say, Written};
 use crate::analysis::Options;
 use crate::file::edit::Edit;
 use crate::file::load::analyse;
@@ -13,7 +13,6 @@ use crate::iterate::vary::{needs_torsion, read, result_key};
 use crate::iterate::Probe;
 use crate::numfmt::{plain, sig};
 use crate::report::json::to_json;
-use crate::report::out::OutUnits;
 use serde_json::json;
 use std::path::PathBuf;
 
@@ -28,6 +27,8 @@ pub struct SeekArgs {
     pub within: Option<String>,
     pub json: bool,
     pub write: bool,
+    /// How the line writes numbers.
+    pub written: Written,
     pub options: Options,
 }
 
@@ -90,9 +91,9 @@ pub fn seek(args: &SeekArgs) -> i32 {
             Err(m) => return fail(&m),
         },
     };
-    let u = OutUnits::new(now.section.units, None);
+    let u = args.written.units(now.section.units, None);
     let unit = q.dim.label(&u);
-    let show = |x: f64| format!("{} {unit}", plain(x, 6)).trim_end().to_string();
+    let show = |x: f64| format!("{} {unit}", u.num(x, 6)).trim_end().to_string();
     let solved = match solve(&probe, q, target, range) {
         Ok(s) => s,
         Err(e) => {
@@ -114,9 +115,10 @@ pub fn seek(args: &SeekArgs) -> i32 {
         out.push('\n');
     } else {
         out.push_str(&src.say_line(&format!(
-            "{} = {} gives {key} = {} (target {}, reached to {:.0e} relative; {} analyses)",
+            "{} = {} gives {} = {} (target {}, reached to {:.0e} relative; {} analyses)",
             args.param,
             plain(solved.value, 10),
+            named(q, key, u.notation),
             show(solved.result),
             show(target),
             REL_TOL,

@@ -2,8 +2,8 @@
 //! unit of the param and per kg/m of mass it adds, ranked
 //! ([`crate::iterate::sensitivity`]).
 
-use super::source::{columns, Source};
-use super::{print_out, say};
+use super::source::{columns, named, Source};
+use super::{print_out, say, Written};
 use crate::analysis::Options;
 use crate::iterate::sensitivity::{sensitivities, Difference, Sensitivities, STEP};
 use crate::iterate::vary::result_key;
@@ -23,6 +23,8 @@ pub struct SensitivityArgs {
     pub files: Vec<PathBuf>,
     pub result: Option<String>,
     pub json: bool,
+    /// How the table writes numbers and symbols.
+    pub written: Written,
     pub options: Options,
 }
 
@@ -109,7 +111,7 @@ pub fn sensitivity(args: &SensitivityArgs) -> i32 {
                 continue;
             }
         };
-        let u = OutUnits::new(src.doc.units, None);
+        let u = args.written.units(src.doc.units, None);
         if args.json {
             let o = json!({
                 "file": src.name,
@@ -139,13 +141,15 @@ pub fn sensitivity(args: &SensitivityArgs) -> i32 {
         }
         let unit = q.dim.label(&u);
         out.push_str(&src.say_line(&format!(
-            "sensitivities of {key} = {} {unit}{}",
+            "sensitivities of {} = {} {unit}{}",
+            named(q, key, u.notation),
             u.num(s.result, 5),
             s.mass
                 .map(|m| format!(" (mass {} {})", u.num(m, 4), u.mass().name))
                 .unwrap_or_default()
         )));
         out.push('\n');
+        out.push_str(&super::source::notation_line(&u));
         out.push_str(&columns(&table_rows(&s, q, &u)));
         out.push_str(&format!(
             "ranked by the rate per kg/m, then per unit; {}\n",
@@ -164,17 +168,18 @@ pub fn sensitivity(args: &SensitivityArgs) -> i32 {
 }
 
 /// The sheet's table of sensitivities of result `key` (`kern report --sensitivity`),
-/// in the file's own units; `Err` is the message for an unknown key or a file without
-/// that result.
+/// in the file's own units, written as the sheet is; `Err` is the message for an
+/// unknown key or a file without that result.
 pub fn sheet_blocks(
     doc: &crate::model::Document,
     key: &str,
     opts: &Options,
+    written: Written,
 ) -> Result<Vec<crate::report::blocks::Block>, String> {
     use crate::report::blocks::{own, user, Block};
     let q = result_key(key)?;
     let s = sensitivities(doc, q, opts).map_err(|f| f.message())?;
-    let u = OutUnits::new(doc.units, None);
+    let u = written.units(doc.units, None);
     let mut rows = table_rows(&s, q, &u).into_iter();
     let head = rows.next().unwrap_or_default();
     let body = rows

@@ -76,7 +76,39 @@ pub fn heading(q: &crate::report::rows::Quantity, u: &crate::report::out::OutUni
     }
 }
 
-/// Text columns padded to their widths (counted in characters), the first column and
+/// A result named for a line of text: its symbol in `notation`, then the dotted key it
+/// was asked by, `Ixx (inertia.xx)`; the key alone when it has no symbol of its own.
+pub fn named(
+    q: &crate::report::rows::Quantity,
+    key: &str,
+    notation: crate::report::rows::Notation,
+) -> String {
+    let symbol = q.symbol_in(notation);
+    if q.shown() && symbol != key {
+        format!("{symbol} ({key})")
+    } else {
+        key.to_string()
+    }
+}
+
+/// The line a table in the y–z notation starts with, saying its axes and symbols (as
+/// `kern calc`'s table says them); nothing in the default x–y notation.
+pub fn notation_line(u: &crate::report::out::OutUnits) -> String {
+    match u.notation {
+        crate::report::rows::Notation::Xy => String::new(),
+        n => format!("axes and symbols: {}\n", n.note()),
+    }
+}
+
+/// The columns `s` takes on a terminal: its characters less the combining marks
+/// (U+0300–U+036F), which sit on the one before (`x̄` is x and U+0304).
+fn width(s: &str) -> usize {
+    s.chars()
+        .filter(|c| !('\u{300}'..='\u{36f}').contains(c))
+        .count()
+}
+
+/// Text columns padded to their widths (counted in terminal columns), the first column and
 /// those in `left` left-aligned, the rest right-aligned, two spaces apart.
 pub fn columns(rows: &[Vec<String>]) -> String {
     columns_left(rows, &[])
@@ -85,11 +117,11 @@ pub fn columns(rows: &[Vec<String>]) -> String {
 /// [`columns`] with more left-aligned columns.
 pub fn columns_left(rows: &[Vec<String>], left: &[usize]) -> String {
     let n = rows.iter().map(Vec::len).max().unwrap_or(0);
-    let width: Vec<usize> = (0..n)
+    let widths: Vec<usize> = (0..n)
         .map(|i| {
             rows.iter()
                 .filter_map(|r| r.get(i))
-                .map(|c| c.chars().count())
+                .map(|c| width(c))
                 .max()
                 .unwrap_or(0)
         })
@@ -100,7 +132,7 @@ pub fn columns_left(rows: &[Vec<String>], left: &[usize]) -> String {
             .iter()
             .enumerate()
             .map(|(i, c)| {
-                let pad = width[i].saturating_sub(c.chars().count());
+                let pad = widths[i].saturating_sub(width(c));
                 if i == 0 || left.contains(&i) {
                     format!("{c}{}", " ".repeat(pad))
                 } else {

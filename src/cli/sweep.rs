@@ -3,14 +3,13 @@
 //! `"sweep": {"param", "value"}` added (FORMAT.md), or CSV for a spreadsheet.
 
 use super::source::{columns, heading, shown, Source};
-use super::{print_out, say};
+use super::{print_out, say, Written};
 use crate::analysis::Options;
 use crate::iterate::sweep::{sweep as run, values};
 use crate::iterate::vary::{read, result_key};
 use crate::iterate::Probe;
 use crate::numfmt::plain;
 use crate::report::json::to_json;
-use crate::report::out::OutUnits;
 use crate::report::rows::Quantity;
 use crate::report::CAUTION;
 use serde_json::json;
@@ -41,6 +40,8 @@ pub struct SweepArgs {
     pub csv: bool,
     /// Dotted result keys to show (table and CSV); the defaults when empty.
     pub results: Vec<String>,
+    /// How the table writes numbers and symbols.
+    pub written: Written,
     pub options: Options,
 }
 
@@ -107,7 +108,7 @@ pub fn sweep(args: &SweepArgs) -> i32 {
         return status.max(1);
     };
     // Everything in the file's own units: the param's values are written in them.
-    let u = OutUnits::new(first.section.units, None);
+    let u = args.written.units(first.section.units, None);
     let param_out = |x: f64| x;
     let cols: Vec<&'static Quantity> = if chosen.is_empty() {
         DEFAULT_RESULTS
@@ -162,6 +163,7 @@ pub fn sweep(args: &SweepArgs) -> i32 {
             }
         )));
         out.push('\n');
+        out.push_str(&super::source::notation_line(&u));
         let mut rows = vec![std::iter::once(format!("{} [{}]", args.param, u.label(1)))
             .chain(cols.iter().map(|q| heading(q, &u)))
             .collect::<Vec<_>>()];

@@ -7,7 +7,7 @@ use crate::analysis::Analysis;
 use crate::model::units::LengthUnit;
 use crate::numfmt::Compare;
 use crate::report::out::OutUnits;
-use crate::report::rows::{rows, Row};
+use crate::report::rows::{rows, Notation, Row};
 
 /// Which way a result moved from A to B.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -80,10 +80,15 @@ pub struct Compared {
 }
 
 /// The results of `a` and `b` side by side, in `a`'s order, then the rows only `b`
-/// has; lengths in `units` (A's own unit when `None`).
-pub fn compare(a: &Analysis, b: &Analysis, units: Option<LengthUnit>) -> Vec<Compared> {
-    let ua = OutUnits::new(a.section.units, units);
-    let ub = OutUnits::new(b.section.units, Some(ua.length));
+/// has; lengths in `units` (A's own unit when `None`), symbols in `notation`.
+pub fn compare(
+    a: &Analysis,
+    b: &Analysis,
+    units: Option<LengthUnit>,
+    notation: Notation,
+) -> Vec<Compared> {
+    let ua = OutUnits::new(a.section.units, units).written(Default::default(), notation);
+    let ub = OutUnits::new(b.section.units, Some(ua.length)).written(Default::default(), notation);
     let ra = rows(a, &ua);
     let rb = rows(b, &ub);
     let make = |r: &Row, va: Option<f64>, vb: Option<f64>| Change {
@@ -137,7 +142,7 @@ mod tests {
     fn a_deeper_plate_is_stiffer_and_less_stressed() {
         let a = plate(200.0, "10 kN*m");
         let b = plate(300.0, "10 kN*m");
-        let c = compare(&a, &b, None);
+        let c = compare(&a, &b, None, Notation::Xy);
         let find = |s: &str| c.iter().find(|x| x.change.symbol == s).unwrap();
         // Ixx = b·h³/12 (Gere & Goodno, App. E case 1): 100·300³/12 − 100·200³/12.
         let ixx = find("Ixx");

@@ -4,6 +4,7 @@
 use super::vary::{Failure, Probe};
 use crate::analysis::Analysis;
 use crate::parallel::parallel_map;
+use std::sync::atomic::{AtomicUsize, Ordering};
 
 /// Most values a sweep takes (each is a whole analysis).
 pub const MAX_STEPS: usize = 10_000;
@@ -37,14 +38,24 @@ pub struct Point {
 
 /// The probe's section at each of `values`, with the probe's options, in order.
 pub fn sweep(probe: &Probe, values: &[f64]) -> Vec<Point> {
-    parallel_map(values, |&x| probe.analyse(x))
-        .into_iter()
-        .zip(values)
-        .map(|(r, &value)| Point {
-            value,
-            outcome: r.unwrap_or_else(|panic| Err(Failure::Internal(panic))),
-        })
-        .collect()
+    sweep_counting(probe, values, &AtomicUsize::new(0))
+}
+
+/// [`sweep`], counting in `done` the values analysed so far (for a progress line
+/// while it runs on another thread).
+pub fn sweep_counting(probe: &Probe, values: &[f64], done: &AtomicUsize) -> Vec<Point> {
+    parallel_map(values, |&x| {
+        let r = probe.analyse(x);
+        done.fetch_add(1, Ordering::Relaxed);
+        r
+    })
+    .into_iter()
+    .zip(values)
+    .map(|(r, &value)| Point {
+        value,
+        outcome: r.unwrap_or_else(|panic| Err(Failure::Internal(panic))),
+    })
+    .collect()
 }
 
 #[cfg(test)]

@@ -192,11 +192,15 @@ pub enum Mode {
     /// Take the value a seek found?
     AskSeek(super::commands::seek::Found),
     /// The params ranked by what they buy of a result.
-    Rates(super::commands::rates::Rates),
+    Rates(super::listing::Listing),
     /// A result swept over a param: plot and table.
     Sweep(super::commands::sweep::Swept),
+    /// A sweep with the torsion solve at every value is under way ([`App::sweep_job`]).
+    Sweeping,
     /// Both designs' results side by side.
-    Compare(super::commands::rates::Rates),
+    Compare(super::listing::Listing),
+    /// The open file's commits, to compare with one.
+    Revisions(super::commands::compare::Revisions),
 }
 
 /// How torsion is solved.
@@ -251,6 +255,8 @@ pub struct App {
     pub solver: Solver,
     /// A background solve for the current text is under way.
     pub solving: bool,
+    /// A sweep running in the background (one that needs the torsion solve).
+    pub sweep_job: Option<super::commands::sweep::Running>,
     generation: u64,
     /// The generation of a background solve for the baseline, when one is under way.
     baseline_job: Option<u64>,
@@ -305,6 +311,7 @@ impl App {
             drawn_mesh: OnceCell::new(),
             solver,
             solving: false,
+            sweep_job: None,
             generation: 0,
             baseline_job: None,
             tables: None,
@@ -551,7 +558,7 @@ impl App {
 
     /// Solves the baseline's torsion like any other state's when it has none (edited
     /// before its own solve finished), after the current section's.
-    fn solve_baseline(&mut self) {
+    pub fn solve_baseline(&mut self) {
         if self.baseline.torsion.is_some() {
             return;
         }

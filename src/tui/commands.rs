@@ -13,7 +13,7 @@ pub mod tables;
 use super::app::{App, Focus, LineEdit, Mode, Target};
 use super::columns::{anchor, number, Col};
 use super::keys::Cmd;
-use super::views::help;
+use super::views::{help, listing};
 use crate::analysis::Options;
 use crate::file::edit::{self, number_value, round_sig, Edit, Flag, Slot, TextKey};
 use crate::file::input::read_text;
@@ -39,6 +39,7 @@ pub fn run(app: &mut App, cmd: Cmd) {
         Cmd::SwitchList => switch_list(app),
         Cmd::PageDown => page(app, 1),
         Cmd::PageUp => page(app, -1),
+        Cmd::Edit if matches!(app.mode, Mode::Revisions(_)) => compare::type_instead(app),
         Cmd::Edit if app.tables.is_some() => tables::edit(app),
         Cmd::Edit => begin_edit(app),
         Cmd::StepUp => step(app, 1, 1.0),
@@ -142,6 +143,8 @@ fn move_row(app: &mut App, by: i64) {
             let max = help::max_scroll(&app.theme, app.screen);
             *s = (*s as i64 + by).clamp(0, max as i64) as u16;
         }
+        Mode::Revisions(r) => compare::move_row(r, by),
+        Mode::Rates(_) | Mode::Compare(_) => scroll_listing(app, by),
         _ if app.tables.is_some() => tables::move_row(app, by),
         _ => {
             let (row, n) = match app.focus {
@@ -158,12 +161,28 @@ fn move_row(app: &mut App, by: i64) {
     }
 }
 
-/// Scrolls the help, or the results, by a page.
+/// Scrolls the window of results open by `by` lines, within what it holds on the
+/// screen last drawn.
+fn scroll_listing(app: &mut App, by: i64) {
+    let most = match &app.mode {
+        Mode::Rates(l) | Mode::Compare(l) => listing::most_scroll(app, l),
+        _ => return,
+    };
+    if let Mode::Rates(l) | Mode::Compare(l) = &mut app.mode {
+        l.scroll_by(by, most);
+    }
+}
+
+/// Scrolls the help, a window of results, or the results, by a page.
 fn page(app: &mut App, dir: i64) {
-    match app.mode {
+    match &app.mode {
         Mode::Help(_) => {
             let page = help::page_height(app.screen).max(1) as i64;
             move_row(app, dir * page);
+        }
+        Mode::Rates(l) | Mode::Compare(l) => {
+            let page = listing::page(app, l).max(1) as i64;
+            scroll_listing(app, dir * page);
         }
         _ => {
             // No further than the results could run (rows, group headings, a few lines
@@ -346,6 +365,7 @@ pub fn commit(app: &mut App) {
             }
         }
         Mode::Choosing(pick) => parts::choose(app, pick),
+        Mode::Revisions(r) => compare::choose(app, r),
         other => app.mode = other,
     }
 }
@@ -363,6 +383,10 @@ pub fn cancel(app: &mut App) {
     }
     if let Mode::AskDisk(_) = app.mode {
         return keep_mine(app);
+    }
+    if app.mode == Mode::Sweeping {
+        app.mode = Mode::Main;
+        return sweep::stop(app);
     }
     app.mode = Mode::Main;
     app.message = None;

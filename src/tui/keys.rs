@@ -109,6 +109,10 @@ pub enum Ctx {
     /// The window of the file's other keys: title, units, params, materials, actions,
     /// member.
     Tables,
+    /// A window of results that scrolls (compare, what buys the most).
+    Window,
+    /// The list of the open file's commits to compare with.
+    Revisions,
 }
 
 /// Every command a key can run (see [`super::commands::run`]).
@@ -207,7 +211,7 @@ const fn b(
     }
 }
 
-use Ctx::{Asking, Choosing, Help, Main, Tables, Typing};
+use Ctx::{Asking, Choosing, Help, Main, Revisions, Tables, Typing, Window};
 use KeyCode as K;
 
 const MOVE: &str = "Moving about";
@@ -219,6 +223,8 @@ const TYPE: &str = "Typing a value";
 const PICK: &str = "Choosing a shape";
 const ASK: &str = "Questions";
 const TABLES: &str = "Keys of the file";
+const WINDOW: &str = "Windows of results (compare, what buys the most)";
+const REVS: &str = "Choosing a commit to compare with";
 
 /// The key table, one binding a line.
 #[rustfmt::skip]
@@ -269,7 +275,7 @@ pub const KEYS: &[Binding] = &[
     b(Main, &[ch('r'), ctrl('r')], Cmd::Redo, FILE, "redo"),
     b(Main, &[ch('b')], Cmd::SetBaseline, FILE, "compare against the section as it is now"),
     b(Main, &[ch('B')], Cmd::ResetBaseline, FILE, "compare against the file as opened"),
-    b(Main, &[ch('C')], Cmd::Compare, FILE, "compare with a file or a git revision"),
+    b(Main, &[ch('C')], Cmd::Compare, FILE, "compare with a listed commit or a file"),
     b(Main, &[ch('s'), ctrl('s')], Cmd::Save, FILE, "save (asks for a name for the demo)"),
     b(Main, &[ch('S')], Cmd::SaveAs, FILE, "save under another name"),
     b(Main, &[ch('q'), ctrl('c')], Cmd::Quit, FILE, "quit (asks first if there are unsaved changes)"),
@@ -297,6 +303,20 @@ pub const KEYS: &[Binding] = &[
     b(Asking, &[ch('y')], Cmd::Yes, ASK, "yes (quit unsaved, overwrite, new baseline, void/solid, reload)"),
     b(Asking, &[ch('s')], Cmd::SaveAndQuit, ASK, "save, then quit"),
     b(Asking, &[ch('n'), code(K::Esc)], Cmd::Cancel, ASK, "no, go back (reload: keep mine)"),
+    b(Window, &[code(K::Down), ch('j')], Cmd::Down, WINDOW, "scroll down a line"),
+    b(Window, &[code(K::Up), ch('k')], Cmd::Up, WINDOW, "scroll up a line"),
+    b(Window, &[code(K::PageDown), ch(' ')], Cmd::PageDown, WINDOW, "scroll down a page"),
+    b(Window, &[code(K::PageUp)], Cmd::PageUp, WINDOW, "scroll up a page"),
+    b(Window, &[code(K::Home), ch('g')], Cmd::First, WINDOW, "to the top"),
+    b(Window, &[code(K::End), ch('G')], Cmd::Last, WINDOW, "to the end"),
+    b(Window, &[code(K::Esc), ch('q'), ch('n')], Cmd::Cancel, WINDOW, "close the window"),
+    b(Revisions, &[code(K::Down), ch('j')], Cmd::Down, REVS, "the next (older) commit"),
+    b(Revisions, &[code(K::Up), ch('k')], Cmd::Up, REVS, "the previous (newer) commit"),
+    b(Revisions, &[code(K::Home), ch('g')], Cmd::First, REVS, "the last commit"),
+    b(Revisions, &[code(K::End), ch('G')], Cmd::Last, REVS, "the oldest commit listed"),
+    b(Revisions, &[code(K::Enter)], Cmd::Commit, REVS, "compare with the highlighted commit"),
+    b(Revisions, &[ch('e'), code(K::Tab)], Cmd::Edit, REVS, "type a file or a revision instead"),
+    b(Revisions, &[code(K::Esc), ch('q')], Cmd::Cancel, REVS, "compare with nothing, nothing changes"),
     b(Help, &[code(K::Down), ch('j')], Cmd::Down, VIEW, "scroll the help"),
     b(Help, &[code(K::Up), ch('k')], Cmd::Up, VIEW, "scroll the help back"),
     b(Help, &[code(K::PageDown), ch(' ')], Cmd::PageDown, VIEW, "scroll the help a page"),

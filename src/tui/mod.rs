@@ -11,6 +11,7 @@ pub mod columns;
 pub mod commands;
 pub mod config;
 pub mod keys;
+pub mod listing;
 pub mod raster;
 pub mod rescue;
 pub mod shade;
@@ -155,7 +156,8 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
         }
         // Block on input; wake up now and then to collect a running solve and to look
         // at the file on disk.
-        let wait = match (app.solving, app.path.is_some()) {
+        let busy = app.solving || app.sweep_job.is_some();
+        let wait = match (busy, app.path.is_some()) {
             (true, _) => Some(SOLVE_POLL),
             (false, true) => Some(WATCH_POLL),
             (false, false) => None,
@@ -164,7 +166,10 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
             Some(t) if !event::poll(t)? => None,
             _ => Some(event::read()?),
         };
-        app.poll_solver();
+        if app.poll_solver() {
+            commands::compare::refresh(app);
+        }
+        commands::sweep::poll(app);
         commands::follow_disk(app);
         if let Some(Event::Key(k)) = ev {
             if k.kind != KeyEventKind::Release {
@@ -190,9 +195,10 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
         | Mode::AskSeek(_)
-        | Mode::Rates(_)
         | Mode::Sweep(_)
-        | Mode::Compare(_) => Ctx::Asking,
+        | Mode::Sweeping => Ctx::Asking,
+        Mode::Rates(_) | Mode::Compare(_) => Ctx::Window,
+        Mode::Revisions(_) => Ctx::Revisions,
         Mode::Help(_) => Ctx::Help,
     };
     match (lookup(ctx, k), k.code) {

@@ -1,7 +1,7 @@
 //! What buys the most (`w`): for a typed result (`Ixx` by default), every param's rate
 //! of change per unit of the param and per kg/m of mass it adds, ranked by
 //! [`crate::iterate::sensitivity`] (central differences with the step it states), in a
-//! window over the screen.
+//! window over the screen that scrolls.
 
 use super::seek::{quantity, shown};
 use crate::analysis::Options;
@@ -10,13 +10,7 @@ use crate::iterate::vary::needs_torsion;
 use crate::report::out::OutUnits;
 use crate::report::rows::Dim;
 use crate::tui::app::{App, LineEdit, Mode, Target};
-
-/// The window's text, made when it opens.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Rates {
-    pub title: String,
-    pub lines: Vec<String>,
-}
+use crate::tui::listing::Listing;
 
 /// Starts typing the result to rank the params by.
 pub fn begin(app: &mut App) {
@@ -52,7 +46,7 @@ pub fn open(app: &mut App, key: &str) -> Result<(), String> {
         d => format!("{} {}", u.num(x, 3), d.label(&u)),
     };
     let mass_unit = u.mass().name;
-    let mut lines = vec![format!(
+    let head = vec![format!(
         "{key} = {} now{}",
         shown(s.result, q, &u),
         s.mass.map_or(String::new(), |m| format!(
@@ -60,20 +54,20 @@ pub fn open(app: &mut App, key: &str) -> Result<(), String> {
             u.num(m, 4)
         ))
     )];
-    lines.push(String::new());
+    let mut lines = Vec::new();
     for r in &s.rates {
         let name = crate::text::clean(&r.param);
         let line = match (r.per_unit, &r.failure) {
             (Some(d), _) => {
                 let mass = r.per_mass.map_or("adds no mass".into(), |pm| {
-                    format!("{} per {mass_unit}", per(pm))
+                    format!("{} per {mass_unit} it adds", per(pm))
                 });
                 let side = match r.difference {
                     Some(Difference::Forward) => " (one-sided: below does not compute)",
                     Some(Difference::Backward) => " (one-sided: above does not compute)",
                     _ => "",
                 };
-                format!("{name}: {} per {unit}, {mass}{side}", per(d))
+                format!("{name}: {} per {unit} of {name}, {mass}{side}", per(d))
             }
             (None, Some(f)) => format!("{name}: no rate ({})", f.message()),
             (None, None) => format!("{name}: no rate"),
@@ -85,9 +79,10 @@ pub fn open(app: &mut App, key: &str) -> Result<(), String> {
         "Central differences, step {STEP:e} of the value (or of the section's size); ranked by the rate per mass, then per unit."
     ));
     app.message = None;
-    app.mode = Mode::Rates(Rates {
-        title: format!("What buys the most {key}"),
+    app.mode = Mode::Rates(Listing::new(
+        format!("What buys the most {key}"),
+        head,
         lines,
-    });
+    ));
     Ok(())
 }

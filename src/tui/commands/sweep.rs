@@ -5,17 +5,23 @@
 //! the overlay shows the result plotted against the param, with the table of values
 //! and the current value marked.
 //!
-//! The sweep runs inline, before the key returns: results needing the torsion solve are
-//! refused (as seek refuses them), and 21 analyses without torsion take milliseconds,
-//! well inside a frame.
+//! A sweep of results without torsion runs inline, before the key returns: 21 analyses
+//! take milliseconds, well inside a frame. One that needs the torsion solve at every
+//! value (J, Cw, the shear areas…) runs on a thread of its own, itself parallel over
+//! the values ([`sweep_counting`]), while the screen shows how far it has got; the
+//! event loop collects it ([`poll`]), and Esc stops it through the solver's cancel flag.
 
 use super::seek::quantity;
 use crate::analysis::Options;
-use crate::iterate::sweep::{sweep, values};
+use crate::fe::TorsionOptions;
+use crate::iterate::sweep::{sweep, sweep_counting, values, Point};
 use crate::iterate::vary::{needs_torsion, read, Probe};
 use crate::report::out::OutUnits;
 use crate::report::rows::{Dim, Quantity};
 use crate::tui::app::{App, Focus, LineEdit, Mode, Target};
+use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
+use std::sync::mpsc::{channel, Receiver, TryRecvError};
+use std::sync::Arc;
 
 /// Points of a sweep when none are typed.
 pub const DEFAULT_POINTS: usize = 21;
@@ -111,17 +117,65 @@ fn parse(entry: &str) -> Result<Asked<'_>, String> {
     }
 }
 
-/// Sweeps `param` as `entry` asks and opens the overlay.
+/// What a sweep asked for, ready to be shown once its points are in.
+#[derive(Clone)]
+struct Plan {
+    param: String,
+    key: String,
+    q: &'static Quantity,
+    current: f64,
+    range: (f64, f64),
+    units: OutUnits,
+}
+
+/// A sweep running on its own thread: its points when done, how many values are
+/// analysed so far, and the flag that stops its torsion solves.
+pub struct Running {
+    plan: Plan,
+    points: Receiver<Vec<Point>>,
+    done: Arc<AtomicUsize>,
+    pub total: usize,
+    cancel: Arc<AtomicBool>,
+}
+
+impl Running {
+    /// The values analysed so far.
+    pub fn done(&self) -> usize {
+        self.done.load(Ordering::Relaxed).min(self.total)
+    }
+
+    /// The param and the result, `J over h`.
+    pub fn what(&self) -> String {
+        format!("{} over {}", self.plan.key, self.plan.param)
+    }
+
+    /// Stops the sweep: its torsion solves end early and its points are never shown.
+    pub fn stop(&self) {
+        self.cancel.store(true, Ordering::Relaxed);
+    }
+}
+
+impl Drop for Running {
+    fn drop(&mut self) {
+        self.stop();
+    }
+}
+
+/// Sweeps `param` as `entry` asks and opens the overlay; a result that needs the
+/// torsion solve starts the sweep in the background and returns at once.
 pub fn open(app: &mut App, param: &str, entry: &str) -> Result<(), String> {
     let (key, range, points) = parse(entry)?;
     let q = quantity(key)?;
-    if needs_torsion(q) {
-        return Err(format!(
-            "`{key}` needs the torsion solve for every value; use `kern sweep` on the command line"
-        ));
-    }
+    let torsion = needs_torsion(q);
+    let cancel = Arc::new(AtomicBool::new(false));
+    let opts = Options {
+        torsion: torsion.then(|| TorsionOptions {
+            cancel: Some(cancel.clone()),
+            ..TorsionOptions::default()
+        }),
+    };
     let a = &app.analysis;
-    let probe = Probe::new(&a.document, param, &Options::default())?;
+    let probe = Probe::new(&a.document, param, &opts)?.reading(&[q]);
     let current = probe.current;
     let (from, to) = match range {
         Some(r) => r,
@@ -146,7 +200,80 @@ pub fn open(app: &mut App, param: &str, entry: &str) -> Result<(), String> {
         m.replace("--steps", "points")
             .replace("--from and --to", "from and to")
     })?;
-    let samples = sweep(&probe, &xs)
+    let plan = Plan {
+        param: param.to_string(),
+        key: key.to_string(),
+        q,
+        current,
+        range: (from, to),
+        units: OutUnits::new(a.section.units, None)
+            .written(app.config.numbers, app.config.notation),
+    };
+    app.message = None;
+    if !torsion {
+        let points = sweep(&probe, &xs);
+        show(app, &plan, points);
+        return Ok(());
+    }
+    let done = Arc::new(AtomicUsize::new(0));
+    let (tx, rx) = channel();
+    let counter = done.clone();
+    std::thread::spawn(move || {
+        // The receiver is gone when the sweep was stopped: nothing to do then.
+        let _ = tx.send(sweep_counting(&probe, &xs, &counter));
+    });
+    app.sweep_job = Some(Running {
+        plan,
+        points: rx,
+        done,
+        total: n,
+        cancel,
+    });
+    app.mode = Mode::Sweeping;
+    Ok(())
+}
+
+/// Takes the points of a background sweep when they are in and opens the overlay;
+/// returns whether anything changed on the screen (the count of values done moves
+/// while it runs).
+pub fn poll(app: &mut App) -> bool {
+    let Some(job) = &app.sweep_job else {
+        return false;
+    };
+    match job.points.try_recv() {
+        Err(TryRecvError::Empty) => true,
+        Err(TryRecvError::Disconnected) => {
+            app.sweep_job = None;
+            app.mode = Mode::Main;
+            app.error("the sweep stopped without results (please report this)");
+            true
+        }
+        Ok(points) => {
+            let plan = job.plan.clone();
+            app.sweep_job = None;
+            show(app, &plan, points);
+            true
+        }
+    }
+}
+
+/// Stops a background sweep, if one runs; says so.
+pub fn stop(app: &mut App) {
+    if let Some(job) = app.sweep_job.take() {
+        job.stop();
+        app.note(format!(
+            "sweep of {} stopped after {} of {} values",
+            job.what(),
+            job.done(),
+            job.total
+        ));
+    }
+}
+
+/// Opens the overlay on the points of `plan`.
+fn show(app: &mut App, plan: &Plan, points: Vec<Point>) {
+    let (q, key) = (plan.q, &plan.key);
+    let samples = points
         .into_iter()
         .map(|p| Sample {
             value: p.value,
@@ -156,24 +283,20 @@ pub fn open(app: &mut App, param: &str, entry: &str) -> Result<(), String> {
                 .and_then(|an| read(q, &an).ok_or_else(|| format!("no {key} there"))),
         })
         .collect::<Vec<_>>();
+    let (from, to) = plan.range;
     let (lo, hi) = (from.min(to), from.max(to));
     let marked = (lo..=hi)
-        .contains(&current)
-        .then(|| nearest(&samples, current));
-    let units =
-        OutUnits::new(a.section.units, None).written(app.config.numbers, app.config.notation);
-    app.message = None;
-    app.message = None;
+        .contains(&plan.current)
+        .then(|| nearest(&samples, plan.current));
     app.mode = Mode::Sweep(Swept {
-        param: param.to_string(),
-        key: key.to_string(),
-        unit: unit_label(q, &units),
+        param: plan.param.clone(),
+        key: key.clone(),
+        unit: unit_label(q, &plan.units),
         samples,
-        current,
+        current: plan.current,
         marked,
-        units,
+        units: plan.units,
     });
-    Ok(())
 }
 
 /// The unit a result is read in (`kern calc --json`'s, the file's own lengths); a

@@ -40,7 +40,7 @@ struct Block {
 
 /// `text` broken at spaces into lines of at most `width` characters (a longer word is
 /// cut).
-fn wrap(text: &str, width: usize) -> Vec<String> {
+pub(super) fn wrap(text: &str, width: usize) -> Vec<String> {
     let width = width.max(1);
     let mut out: Vec<String> = Vec::new();
     let mut line = String::new();
@@ -282,19 +282,50 @@ pub fn picker(app: &App, pick: Picker, area: Rect, buf: &mut Buffer) {
     }
 }
 
-/// The params ranked by what they buy of a result (Esc or n closes).
-pub fn rates(app: &App, r: &crate::tui::commands::rates::Rates, area: Rect, buf: &mut Buffer) {
+/// The open file's commits to compare with, the last first, one highlighted, and a
+/// line saying what the keys do.
+pub fn revisions(
+    app: &App,
+    r: &crate::tui::commands::compare::Revisions,
+    area: Rect,
+    buf: &mut Buffer,
+) {
     let th = &app.theme;
-    let win = centred(area, 76, r.lines.len() as u16 + 4);
+    let win = centred(area, 76, r.commits.len() as u16 + 3);
     Clear.render(win, buf);
-    let title = th.text(&format!("{} (Esc closes)", r.title));
-    let block = pane(th, &title, true);
+    let block = pane(th, "Compare with a commit of this file", true);
     let inner = block.inner(win);
     block.render(win, buf);
-    let text: Vec<Line> = r.lines.iter().map(|l| Line::raw(th.text(l))).collect();
-    Paragraph::new(text)
-        .wrap(Wrap { trim: false })
-        .render(inner, buf);
+    if inner.height == 0 {
+        return;
+    }
+    let w = inner.width as usize;
+    let rows = inner.height.saturating_sub(1) as usize;
+    let top = r.row.saturating_sub(rows.saturating_sub(1));
+    for (i, c) in r.commits.iter().enumerate().skip(top).take(rows) {
+        let text = format!(
+            "{}  {}  {}",
+            clean(&c.hash),
+            clean(&c.date),
+            clean(&c.subject)
+        );
+        let style = if i == r.row {
+            th.cell_selected
+        } else {
+            th.row_selected
+        };
+        let y = inner.y + (i - top) as u16;
+        buf.set_stringn(inner.x, y, fit(&th.text(&text), w), w, style);
+    }
+    let long = "Enter compare with it · e type a file or revision · Esc close";
+    let keys = if long.chars().count() <= w {
+        long
+    } else {
+        "Enter take · e type · Esc close"
+    };
+    let keys = keys.replace('·', th.glyph("·", "-"));
+    let y = inner.bottom() - 1;
+    buf.set_stringn(inner.x, y, fit(&keys, w), w, th.muted);
 }
 
 /// The question of the moment.

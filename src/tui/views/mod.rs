@@ -5,6 +5,7 @@
 
 pub mod drawing;
 pub mod help;
+pub mod listing;
 pub mod panel;
 pub mod params;
 pub mod parts;
@@ -62,8 +63,10 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         | Mode::AskVoid(_)
         | Mode::AskDisk(_)
         | Mode::AskSeek(_) => help::question(app, main, buf),
-        Mode::Rates(r) | Mode::Compare(r) => help::rates(app, r, main, buf),
+        Mode::Rates(l) | Mode::Compare(l) => listing::render(app, l, main, buf),
         Mode::Sweep(s) => sweep::render(app, s, main, buf),
+        Mode::Sweeping => sweep::progress(app, main, buf),
+        Mode::Revisions(r) => help::revisions(app, r, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }
 }

@@ -48,7 +48,23 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
             buf.set_stringn(area.x, msg_y, th.text(&clean(m)), w, style);
         }
         None => {
-            let hint = "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit";
+            // What the keys do in a window, and a shorter form for a narrow screen.
+            let (long, short) = match app.mode {
+                Mode::Rates(_) | Mode::Compare(_) => (
+                    "Up/Down scroll  PgUp/PgDn a page  Home/End top, end  Esc close",
+                    "Up/Down PgUp/PgDn Home/End  Esc close",
+                ),
+                Mode::Revisions(_) => (
+                    "Up/Down choose  Enter compare  e type instead  Esc close",
+                    "Up/Down  Enter take  e type  Esc",
+                ),
+                Mode::Sweeping => ("Esc stops the sweep", "Esc stops the sweep"),
+                _ => (
+                    "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit",
+                    "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit",
+                ),
+            };
+            let hint = if long.chars().count() <= w { long } else { short };
             buf.set_stringn(area.x, msg_y, hint, w, th.muted);
         }
     }

@@ -118,6 +118,29 @@ pub fn render(app: &App, s: &Swept, area: Rect, buf: &mut Buffer) {
     }
 }
 
+/// How far a background sweep has got, and how to stop it.
+pub fn progress(app: &App, area: Rect, buf: &mut Buffer) {
+    let th = &app.theme;
+    let Some(job) = &app.sweep_job else {
+        return;
+    };
+    let text = format!(
+        "Sweeping {}: {} of {} values done. Each value needs its own torsion solve, so \
+         this takes longer than a sweep without torsion. Esc stops it.",
+        clean(&job.what()),
+        job.done(),
+        job.total
+    );
+    let win = centred(area, 60, 7);
+    Clear.render(win, buf);
+    let block = pane(th, "Sweep under way", true);
+    let inner = block.inner(win);
+    block.render(win, buf);
+    ratatui::widgets::Paragraph::new(th.text(&text))
+        .wrap(ratatui::widgets::Wrap { trim: true })
+        .render(inner, buf);
+}
+
 /// The result against the param in `area`: a line through the points that compute,
 /// broken where one does not, the current value marked.
 fn draw_plot(app: &App, s: &Swept, area: Rect, buf: &mut Buffer) {
