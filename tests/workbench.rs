@@ -409,11 +409,26 @@ fn anchors_cycle_or_are_typed_and_flips_toggle() {
     assert!(a.text.contains("anchor = \"top\"\n"));
 }
 
+/// The help screen at `w`×`h`, scrolled line by line from the top until every one of
+/// `needles` is in view.
+fn help_showing(a: &mut App, w: u16, h: u16, needles: &[&str]) -> String {
+    run(a, Cmd::First);
+    for _ in 0..200 {
+        let s = screen(a, w, h);
+        if needles.iter().all(|n| s.contains(n)) {
+            return s;
+        }
+        run(a, Cmd::Down);
+    }
+    panic!("{needles:?} never in view together:\n{}", screen(a, w, h))
+}
+
 #[test]
 fn help_descriptions_wrap_in_their_own_column_and_scroll() {
     let mut a = app(GIRDER);
     run(&mut a, Cmd::Help);
-    let s = screen(&a, 120, 40);
+    // The quit line and the one it wraps onto.
+    let s = help_showing(&mut a, 120, 40, &["quit (asks", "changes)"]);
     let rows: Vec<Vec<char>> = s.lines().map(|l| l.chars().collect()).collect();
     let (r, c) = rows
         .iter()
@@ -740,7 +755,8 @@ fn control_chords_edit_the_line_and_never_type_their_letter() {
 fn the_help_never_splits_a_group_from_its_heading() {
     let mut a = app(GIRDER);
     run(&mut a, Cmd::Help);
-    let s = screen(&a, 120, 40);
+    let heading = "History, baseline and file";
+    let s = help_showing(&mut a, 120, 40, &[heading, "quit (asks"]);
     // The history group: its heading and every key of it in one column, in view.
     let col_of = |needle: &str| {
         s.lines()
@@ -748,7 +764,7 @@ fn the_help_never_splits_a_group_from_its_heading() {
             .find_map(|(r, l)| l.find(needle).map(|b| (r, l[..b].chars().count())))
             .unwrap_or_else(|| panic!("{needle} in view:\n{s}"))
     };
-    let (hr, hc) = col_of("History, baseline and file");
+    let (hr, hc) = col_of(heading);
     for key in ["undo", "redo", "quit (asks"] {
         let (r, c) = col_of(key);
         assert!(r > hr && c == hc + 18, "{key} under its heading:\n{s}");
@@ -1645,9 +1661,17 @@ fn the_compare_window_has_both_designs_torsion_results() {
     let Mode::Compare(l) = a.mode.clone() else {
         panic!("the window opens: {:?} {:?}", a.mode, a.message)
     };
-    let j = l.lines.iter().find(|l| l.starts_with("J ")).expect("a row of J");
+    let j = l
+        .lines
+        .iter()
+        .find(|l| l.starts_with("J "))
+        .expect("a row of J");
     assert!(j.contains('−') && !j.contains('—'), "{j}");
-    assert!(!l.lines.iter().any(|l| l.contains("under way")), "{:?}", l.lines);
+    assert!(
+        !l.lines.iter().any(|l| l.contains("under way")),
+        "{:?}",
+        l.lines
+    );
 }
 
 #[test]

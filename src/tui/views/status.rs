@@ -64,7 +64,11 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
                     "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit",
                 ),
             };
-            let hint = if long.chars().count() <= w { long } else { short };
+            let hint = if long.chars().count() <= w {
+                long
+            } else {
+                short
+            };
             buf.set_stringn(area.x, msg_y, hint, w, th.muted);
         }
     }
