@@ -74,11 +74,17 @@ pub fn needs_torsion(q: &Quantity) -> bool {
 
 /// The stages of the analysis reading `q` needs, the one place that says so: the
 /// whole analysis with torsion; the stresses for `stress.*`; the member check for
-/// `member.*`; else the section's properties alone (every other numeric key of
-/// [`QUANTITIES`] reads `Analysis::props` or the mass from it).
+/// `member.*`; the plastic moduli for `plastic_modulus.*` and `plastic_axis.*`; else
+/// the section's properties alone (every other numeric key of [`QUANTITIES`] reads
+/// `Analysis::props` or the mass from it).
 pub fn scope_for(q: &Quantity) -> Scope {
     if needs_torsion(q) {
         Scope::FULL
+    } else if q.path.starts_with("plastic_") {
+        Scope {
+            plastic: true,
+            ..Scope::PROPERTIES
+        }
     } else if q.path.starts_with("stress.") {
         Scope {
             stress: true,
