@@ -217,12 +217,23 @@ impl Analysis {
         opts: &Options,
         scope: Scope,
     ) -> Result<Analysis, Diagnostic> {
+        let section = Resolved::resolve(&document)?;
+        Analysis::of_resolved_in(document, section, opts, scope)
+    }
+
+    /// [`Analysis::of_document_in`] of a document already resolved: `section` must be
+    /// `Resolved::resolve(&document)` (or its equal, `Resolved::resolve_varying`).
+    pub fn of_resolved_in(
+        document: Document,
+        section: Resolved,
+        opts: &Options,
+        scope: Scope,
+    ) -> Result<Analysis, Diagnostic> {
         let scope = if opts.torsion.is_some() {
             Scope::FULL
         } else {
             scope
         };
-        let section = Resolved::resolve(&document)?;
         let all = section.pieces();
         let is_hole = |p: &Piece| section.parts.get(p.part).is_some_and(|q| q.hole);
         let pieces: Vec<Piece> = all.iter().filter(|p| !is_hole(p)).cloned().collect();

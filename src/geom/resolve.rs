@@ -11,6 +11,7 @@ use crate::model::document::{Document, PartDoc, StringMaps, Val, Value};
 use crate::model::expr::{resolve_params, Expr, ExprError};
 use crate::model::schema::{Dims, KeySpec, Rule};
 use crate::model::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
+use std::cell::RefCell;
 use std::collections::BTreeMap;
 
 /// A material with SI values: `e`, `fy` and `g` in Pa, `density` in kg/m³.
@@ -127,6 +128,8 @@ fn expr_diag(v: &Val, maps: &StringMaps, e: ExprError, key: &str) -> Diagnostic 
 struct Ctx<'a> {
     params: &'a BTreeMap<String, f64>,
     maps: &'a StringMaps,
+    /// Where to note the name of every param read ([`Varying::new`]).
+    read: Option<&'a RefCell<Vec<String>>>,
 }
 
 impl Ctx<'_> {
@@ -136,7 +139,12 @@ impl Ctx<'_> {
             Value::Number(x) => *x,
             Value::Expr(s) => {
                 let e = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
-                e.eval(&|n| self.params.get(n).copied())
+                e.eval(&|n| {
+                    if let Some(r) = self.read {
+                        r.borrow_mut().push(n.to_owned());
+                    }
+                    self.params.get(n).copied()
+                })
                     .map_err(|e| expr_diag(v, self.maps, e, key))?
             }
         };
@@ -268,82 +276,49 @@ fn range(kind: Kind) -> (f64, f64, &'static str) {
 impl Resolved {
     /// Evaluates every value of the document; the first problem found is returned.
     pub fn resolve(doc: &Document) -> Result<Resolved, Diagnostic> {
+        Resolved::resolve_keeping(doc, None)
+    }
+
+    /// [`Resolved::resolve`] of `doc`, the document `varying` was made from with only
+    /// its param changed, evaluating again only what that param reaches and taking the
+    /// rest as `varying` found it: the same section and the same first problem, bit
+    /// for bit. A document of another layout (other counts of materials or parts, no
+    /// such param) is resolved whole.
+    pub fn resolve_varying(doc: &Document, varying: &Varying) -> Result<Resolved, Diagnostic> {
+        Resolved::resolve_keeping(doc, varying.fits(doc).then_some(varying))
+    }
+
+    /// The resolution, in file order (params, materials, parts, `[actions]`,
+    /// `[member]`), each item taken from `keep` where it holds one.
+    fn resolve_keeping(doc: &Document, keep: Option<&Varying>) -> Result<Resolved, Diagnostic> {
         let params = resolve_doc_params(doc)?;
         let ctx = Ctx {
             params: &params,
             maps: &doc.string_maps,
+            read: None,
         };
-        let materials = doc
-            .materials
-            .iter()
-            .map(|m| {
-                let e = m.e.as_ref().ok_or_else(|| {
-                    Diagnostic::new(
-                        m.span.clone(),
-                        format!("material `{}` needs `E`, e.g. E = \"200 GPa\"", m.name),
-                    )
-                })?;
-                let e = positive_q(&ctx, e, "E", Kind::Stress)?;
-                let fy =
-                    m.fy.as_ref()
-                        .map(|v| positive_q(&ctx, v, "fy", Kind::Stress))
-                        .transpose()?;
-                let density = m
-                    .density
-                    .as_ref()
-                    .map(|v| positive_q(&ctx, v, "density", Kind::Density))
-                    .transpose()?;
-                let (g, g_source) = shear_modulus(&ctx, m, e)?;
-                Ok(Material {
-                    name: m.name.clone(),
-                    e,
-                    fy,
-                    density,
-                    g,
-                    g_source,
-                })
+        let materials = (doc.materials.iter().enumerate())
+            .map(|(i, m)| {
+                let kept = keep.and_then(|k| k.materials.get(i));
+                or_again(kept, || resolve_material(&ctx, m))
             })
             .collect::<Result<Vec<_>, Diagnostic>>()?;
-        let parts = doc
-            .parts
-            .iter()
-            .enumerate()
-            .map(|(i, p)| resolve_part(&ctx, doc, i, p))
-            .collect::<Result<Vec<_>, Diagnostic>>()?;
-        let actions = doc
-            .actions
-            .as_ref()
-            .map(|a| -> Result<Actions, Diagnostic> {
-                let q = |v: &Option<Val>, k: &str, kind| {
-                    v.as_ref()
-                        .map_or(Ok(0.0), |v| ctx.quantity(v, k, kind, None))
-                };
-                Ok(Actions {
-                    n: q(&a.n, "N", Kind::Force)?,
-                    mx: q(&a.mx, "Mx", Kind::Moment)?,
-                    my: q(&a.my, "My", Kind::Moment)?,
-                    vx: a
-                        .vx
-                        .as_ref()
-                        .map(|v| ctx.quantity(v, "Vx", Kind::Force, None))
-                        .transpose()?,
-                    vy: a
-                        .vy
-                        .as_ref()
-                        .map(|v| ctx.quantity(v, "Vy", Kind::Force, None))
-                        .transpose()?,
-                    t: a.t
-                        .as_ref()
-                        .map(|v| ctx.quantity(v, "T", Kind::Moment, None))
-                        .transpose()?,
-                })
+        let parts = (doc.parts.iter().enumerate())
+            .map(|(i, p)| {
+                let kept = keep.and_then(|k| k.parts.get(i));
+                or_again(kept, || resolve_part(&ctx, doc, i, p))
             })
-            .transpose()?;
-        let member = doc
-            .member
-            .as_ref()
-            .map(|m| resolve_member(&ctx, doc.units, m))
-            .transpose()?;
+            .collect::<Result<Vec<_>, Diagnostic>>()?;
+        let actions = or_again(keep.map(|k| &k.actions), || {
+            (doc.actions.as_ref())
+                .map(|a| resolve_actions(&ctx, a))
+                .transpose()
+        })?;
+        let member = or_again(keep.map(|k| &k.member), || {
+            (doc.member.as_ref())
+                .map(|m| resolve_member(&ctx, doc.units, m))
+                .transpose()
+        })?;
         Ok(Resolved {
             title: doc.title.clone(),
             units: doc.units,
@@ -401,6 +376,181 @@ impl Resolved {
             })
             .collect()
     }
+}
+
+/// What resolving a document again with one param changed can keep: each material,
+/// part, `[actions]` and `[member]` whose values read no param that depends on that
+/// one (the param itself, and every param whose expression names one of those), with
+/// its result as resolved once. Which params an item reads is noted while resolving
+/// it: its result is a function of those values alone, so an item that reads none of
+/// the varied ones resolves the same at any value of the param.
+#[derive(Debug, Clone)]
+pub struct Varying {
+    /// Index of the param in `Document::params`.
+    param: usize,
+    /// Per item, `Some(result)` to keep, `None` to evaluate again.
+    materials: Vec<Option<Result<Material, Diagnostic>>>,
+    parts: Vec<Option<Result<Part, Diagnostic>>>,
+    actions: Option<Result<Option<Actions>, Diagnostic>>,
+    member: Option<Result<Option<Member>, Diagnostic>>,
+}
+
+impl Varying {
+    /// What `doc` keeps when param `param` (an index in `doc.params`) varies; nothing
+    /// when its params do not resolve.
+    pub fn new(doc: &Document, param: usize) -> Varying {
+        let mut v = Varying {
+            param,
+            materials: vec![None; doc.materials.len()],
+            parts: vec![None; doc.parts.len()],
+            actions: None,
+            member: None,
+        };
+        let (Ok(params), Some(moved)) = (resolve_doc_params(doc), dependents(doc, param)) else {
+            return v;
+        };
+        let read = RefCell::new(Vec::new());
+        let ctx = Ctx {
+            params: &params,
+            maps: &doc.string_maps,
+            read: Some(&read),
+        };
+        // The result of `f` unless it read a param that moves.
+        fn kept<T>(
+            read: &RefCell<Vec<String>>,
+            moved: &[String],
+            f: impl FnOnce() -> Result<T, Diagnostic>,
+        ) -> Option<Result<T, Diagnostic>> {
+            read.borrow_mut().clear();
+            let r = f();
+            let touched = read.borrow().iter().any(|n| moved.contains(n));
+            (!touched).then_some(r)
+        }
+        v.materials = (doc.materials.iter())
+            .map(|m| kept(&read, &moved, || resolve_material(&ctx, m)))
+            .collect();
+        v.parts = (doc.parts.iter().enumerate())
+            .map(|(i, p)| kept(&read, &moved, || resolve_part(&ctx, doc, i, p)))
+            .collect();
+        v.actions = kept(&read, &moved, || {
+            (doc.actions.as_ref())
+                .map(|a| resolve_actions(&ctx, a))
+                .transpose()
+        });
+        v.member = kept(&read, &moved, || {
+            (doc.member.as_ref())
+                .map(|m| resolve_member(&ctx, doc.units, m))
+                .transpose()
+        });
+        v
+    }
+
+    /// Whether `doc` has the layout this was made from.
+    fn fits(&self, doc: &Document) -> bool {
+        self.param < doc.params.len()
+            && self.materials.len() == doc.materials.len()
+            && self.parts.len() == doc.parts.len()
+    }
+
+    /// Whether part `i` is resolved again at each value (it reads a varied param).
+    pub fn part_moves(&self, i: usize) -> bool {
+        self.parts.get(i).is_none_or(Option::is_none)
+    }
+
+    /// Whether every material is kept (none reads a varied param).
+    pub fn materials_kept(&self) -> bool {
+        self.materials.iter().all(Option::is_some)
+    }
+}
+
+/// The names of param `param` of `doc` and of every param that depends on it, in
+/// any number of steps; `None` when there is no such param. A param whose expression
+/// does not parse counts as depending on it (it fails at every value anyway).
+fn dependents(doc: &Document, param: usize) -> Option<Vec<String>> {
+    let mut moved = vec![doc.params.get(param)?.0.clone()];
+    let names: Vec<Option<Vec<String>>> = (doc.params.iter())
+        .map(|(_, _, v)| match &v.value {
+            Value::Number(_) => Some(Vec::new()),
+            Value::Expr(s) => Expr::parse(s).ok().map(|e| e.names()),
+        })
+        .collect();
+    // Each pass adds at least one param or ends: at most one pass per param.
+    loop {
+        let more: Vec<String> = (doc.params.iter().zip(&names))
+            .filter(|((n, _, _), _)| !moved.contains(n))
+            .filter(|(_, uses)| uses.as_ref().is_none_or(|u| u.iter().any(|x| moved.contains(x))))
+            .map(|((n, _, _), _)| n.clone())
+            .collect();
+        if more.is_empty() {
+            return Some(moved);
+        }
+        moved.extend(more);
+    }
+}
+
+/// The kept result, or `again()` when there is none.
+fn or_again<T: Clone>(
+    kept: Option<&Option<Result<T, Diagnostic>>>,
+    again: impl FnOnce() -> Result<T, Diagnostic>,
+) -> Result<T, Diagnostic> {
+    match kept {
+        Some(Some(r)) => r.clone(),
+        _ => again(),
+    }
+}
+
+fn resolve_material(
+    ctx: &Ctx,
+    m: &crate::model::document::MaterialDoc,
+) -> Result<Material, Diagnostic> {
+    let e = m.e.as_ref().ok_or_else(|| {
+        Diagnostic::new(
+            m.span.clone(),
+            format!("material `{}` needs `E`, e.g. E = \"200 GPa\"", m.name),
+        )
+    })?;
+    let e = positive_q(ctx, e, "E", Kind::Stress)?;
+    let fy =
+        m.fy.as_ref()
+            .map(|v| positive_q(ctx, v, "fy", Kind::Stress))
+            .transpose()?;
+    let density = m
+        .density
+        .as_ref()
+        .map(|v| positive_q(ctx, v, "density", Kind::Density))
+        .transpose()?;
+    let (g, g_source) = shear_modulus(ctx, m, e)?;
+    Ok(Material {
+        name: m.name.clone(),
+        e,
+        fy,
+        density,
+        g,
+        g_source,
+    })
+}
+
+fn resolve_actions(
+    ctx: &Ctx,
+    a: &crate::model::document::ActionsDoc,
+) -> Result<Actions, Diagnostic> {
+    let q = |v: &Option<Val>, k: &str, kind| {
+        v.as_ref()
+            .map_or(Ok(0.0), |v| ctx.quantity(v, k, kind, None))
+    };
+    let some = |v: &Option<Val>, k: &str, kind| {
+        v.as_ref()
+            .map(|v| ctx.quantity(v, k, kind, None))
+            .transpose()
+    };
+    Ok(Actions {
+        n: q(&a.n, "N", Kind::Force)?,
+        mx: q(&a.mx, "Mx", Kind::Moment)?,
+        my: q(&a.my, "My", Kind::Moment)?,
+        vx: some(&a.vx, "Vx", Kind::Force)?,
+        vy: some(&a.vy, "Vy", Kind::Force)?,
+        t: some(&a.t, "T", Kind::Moment)?,
+    })
 }
 
 fn positive_q(ctx: &Ctx, v: &Val, key: &str, kind: Kind) -> Result<f64, Diagnostic> {

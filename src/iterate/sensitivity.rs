@@ -87,13 +87,7 @@ pub fn sensitivities(
     let params = param_values(doc).map_err(Failure::Invalid)?;
     let work: Vec<(usize, f64)> = params.iter().map(|p| p.1).enumerate().collect();
     let one = |&(i, x): &(usize, f64)| -> Rate {
-        let probe = Probe {
-            doc: doc.clone(),
-            index: i,
-            current: x,
-            opts: quick.clone(),
-            scope,
-        };
+        let probe = Probe::of_index(doc, i, x, &quick, scope);
         let h = STEP * x.abs().max(size);
         let at = |x: f64| probe.analyse(x).map(|a| (read(q, &a), read(m, &a)));
         let (lo, hi) = (at(x - h), at(x + h));
