@@ -13,6 +13,7 @@ use crate::model::schema::{Dims, KeySpec, Rule};
 use crate::model::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
 use std::cell::RefCell;
 use std::collections::BTreeMap;
+use std::sync::Arc;
 
 /// A material with SI values: `e`, `fy` and `g` in Pa, `density` in kg/m³.
 #[derive(Debug, Clone, PartialEq)]
@@ -128,8 +129,10 @@ fn expr_diag(v: &Val, maps: &StringMaps, e: ExprError, key: &str) -> Diagnostic 
 struct Ctx<'a> {
     params: &'a BTreeMap<String, f64>,
     maps: &'a StringMaps,
-    /// Where to note the name of every param read ([`Varying::new`]).
-    read: Option<&'a RefCell<Vec<String>>>,
+    /// Where to note every param read and expression parsed ([`Varying::new`]).
+    notes: Option<&'a RefCell<Notes>>,
+    /// Expressions parsed before, by where their value starts ([`Varying`]).
+    parsed: Option<&'a Parsed>,
 }
 
 impl Ctx<'_> {
@@ -138,14 +141,28 @@ impl Ctx<'_> {
         let x = match &v.value {
             Value::Number(x) => *x,
             Value::Expr(s) => {
-                let e = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
+                let before = (self.parsed)
+                    .and_then(|p| p.get(&v.span.start))
+                    .filter(|(text, _)| text == s);
+                let parsed;
+                let e = match before {
+                    Some((_, e)) => e,
+                    None => {
+                        parsed = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
+                        if let Some(n) = self.notes {
+                            let entry = (v.span.start, s.clone(), parsed.clone());
+                            n.borrow_mut().parsed.push(entry);
+                        }
+                        &parsed
+                    }
+                };
                 e.eval(&|n| {
-                    if let Some(r) = self.read {
-                        r.borrow_mut().push(n.to_owned());
+                    if let Some(notes) = self.notes {
+                        notes.borrow_mut().read.push(n.to_owned());
                     }
                     self.params.get(n).copied()
                 })
-                    .map_err(|e| expr_diag(v, self.maps, e, key))?
+                .map_err(|e| expr_diag(v, self.maps, e, key))?
             }
         };
         if x.is_finite() {
@@ -295,7 +312,8 @@ impl Resolved {
         let ctx = Ctx {
             params: &params,
             maps: &doc.string_maps,
-            read: None,
+            notes: None,
+            parsed: keep.map(|k| &*k.parsed),
         };
         let materials = (doc.materials.iter().enumerate())
             .map(|(i, m)| {
@@ -381,9 +399,10 @@ impl Resolved {
 /// What resolving a document again with one param changed can keep: each material,
 /// part, `[actions]` and `[member]` whose values read no param that depends on that
 /// one (the param itself, and every param whose expression names one of those), with
-/// its result as resolved once. Which params an item reads is noted while resolving
-/// it: its result is a function of those values alone, so an item that reads none of
-/// the varied ones resolves the same at any value of the param.
+/// its result as resolved once; and, for the items evaluated again, their expressions
+/// as parsed once. Which params an item reads is noted while resolving it: its result
+/// is a function of those values alone, so an item that reads none of the varied ones
+/// resolves the same at any value of the param.
 #[derive(Debug, Clone)]
 pub struct Varying {
     /// Index of the param in `Document::params`.
@@ -393,56 +412,140 @@ pub struct Varying {
     parts: Vec<Option<Result<Part, Diagnostic>>>,
     actions: Option<Result<Option<Actions>, Diagnostic>>,
     member: Option<Result<Option<Member>, Diagnostic>>,
+    /// Every expression of the items that parsed, by where its value starts in the
+    /// file, with its text (an entry is used only for the same text).
+    parsed: Arc<Parsed>,
+}
+
+/// Parsed expressions by the start of their value's span, with their text.
+type Parsed = BTreeMap<usize, (String, Expr)>;
+
+/// What resolving noted: the params read and the expressions parsed.
+#[derive(Debug, Default)]
+struct Notes {
+    read: Vec<String>,
+    parsed: Vec<(usize, String, Expr)>,
+}
+
+/// One item resolved, with the names of the params it read.
+struct Noted<T> {
+    result: Result<T, Diagnostic>,
+    read: Vec<String>,
+}
+
+impl<T: Clone> Noted<T> {
+    /// The result to keep, unless the item read a param that moves.
+    fn kept(&self, moved: &[String]) -> Option<Result<T, Diagnostic>> {
+        let touched = self.read.iter().any(|r| moved.contains(r));
+        (!touched).then(|| self.result.clone())
+    }
+}
+
+/// Every item of a document resolved once, noted.
+struct Items {
+    materials: Vec<Noted<Material>>,
+    parts: Vec<Noted<Part>>,
+    actions: Noted<Option<Actions>>,
+    member: Noted<Option<Member>>,
+    parsed: Arc<Parsed>,
+}
+
+impl Items {
+    /// The items resolved with the document's own params; `None` when they do not
+    /// resolve.
+    fn of(doc: &Document) -> Option<Items> {
+        let params = resolve_doc_params(doc).ok()?;
+        let notes = RefCell::new(Notes::default());
+        let ctx = Ctx {
+            params: &params,
+            maps: &doc.string_maps,
+            notes: Some(&notes),
+            parsed: None,
+        };
+        // The params read since the last call.
+        let read = || std::mem::take(&mut notes.borrow_mut().read);
+        let materials = (doc.materials.iter())
+            .map(|m| {
+                let result = resolve_material(&ctx, m);
+                Noted {
+                    result,
+                    read: read(),
+                }
+            })
+            .collect();
+        let parts = (doc.parts.iter().enumerate())
+            .map(|(i, p)| {
+                let result = resolve_part(&ctx, doc, i, p);
+                Noted {
+                    result,
+                    read: read(),
+                }
+            })
+            .collect();
+        let result = (doc.actions.as_ref())
+            .map(|a| resolve_actions(&ctx, a))
+            .transpose();
+        let actions = Noted {
+            result,
+            read: read(),
+        };
+        let result = (doc.member.as_ref())
+            .map(|m| resolve_member(&ctx, doc.units, m))
+            .transpose();
+        let member = Noted {
+            result,
+            read: read(),
+        };
+        let parsed = (notes.into_inner().parsed.into_iter())
+            .map(|(at, text, e)| (at, (text, e)))
+            .collect();
+        Some(Items {
+            materials,
+            parts,
+            actions,
+            member,
+            parsed: Arc::new(parsed),
+        })
+    }
 }
 
 impl Varying {
     /// What `doc` keeps when param `param` (an index in `doc.params`) varies; nothing
     /// when its params do not resolve.
     pub fn new(doc: &Document, param: usize) -> Varying {
-        let mut v = Varying {
-            param,
-            materials: vec![None; doc.materials.len()],
-            parts: vec![None; doc.parts.len()],
-            actions: None,
-            member: None,
+        Varying::each(doc, &[param]).remove(0)
+    }
+
+    /// [`Varying::new`] for each of `params`, from one resolution of `doc`.
+    pub fn each(doc: &Document, params: &[usize]) -> Vec<Varying> {
+        let items = Items::of(doc);
+        let one = |param: usize| {
+            let nothing = Varying {
+                param,
+                materials: vec![None; doc.materials.len()],
+                parts: vec![None; doc.parts.len()],
+                actions: None,
+                member: None,
+                parsed: Arc::default(),
+            };
+            let (Some(items), Some(moved)) = (&items, dependents(doc, param)) else {
+                return nothing;
+            };
+            Varying {
+                materials: items.materials.iter().map(|n| n.kept(&moved)).collect(),
+                parts: items.parts.iter().map(|n| n.kept(&moved)).collect(),
+                actions: items.actions.kept(&moved),
+                member: items.member.kept(&moved),
+                parsed: Arc::clone(&items.parsed),
+                ..nothing
+            }
         };
-        let (Ok(params), Some(moved)) = (resolve_doc_params(doc), dependents(doc, param)) else {
-            return v;
-        };
-        let read = RefCell::new(Vec::new());
-        let ctx = Ctx {
-            params: &params,
-            maps: &doc.string_maps,
-            read: Some(&read),
-        };
-        // The result of `f` unless it read a param that moves.
-        fn kept<T>(
-            read: &RefCell<Vec<String>>,
-            moved: &[String],
-            f: impl FnOnce() -> Result<T, Diagnostic>,
-        ) -> Option<Result<T, Diagnostic>> {
-            read.borrow_mut().clear();
-            let r = f();
-            let touched = read.borrow().iter().any(|n| moved.contains(n));
-            (!touched).then_some(r)
-        }
-        v.materials = (doc.materials.iter())
-            .map(|m| kept(&read, &moved, || resolve_material(&ctx, m)))
-            .collect();
-        v.parts = (doc.parts.iter().enumerate())
-            .map(|(i, p)| kept(&read, &moved, || resolve_part(&ctx, doc, i, p)))
-            .collect();
-        v.actions = kept(&read, &moved, || {
-            (doc.actions.as_ref())
-                .map(|a| resolve_actions(&ctx, a))
-                .transpose()
-        });
-        v.member = kept(&read, &moved, || {
-            (doc.member.as_ref())
-                .map(|m| resolve_member(&ctx, doc.units, m))
-                .transpose()
-        });
-        v
+        params.iter().map(|&p| one(p)).collect()
+    }
+
+    /// The index of the varied param in `Document::params`.
+    pub fn param(&self) -> usize {
+        self.param
     }
 
     /// Whether `doc` has the layout this was made from.
@@ -455,11 +558,6 @@ impl Varying {
     /// Whether part `i` is resolved again at each value (it reads a varied param).
     pub fn part_moves(&self, i: usize) -> bool {
         self.parts.get(i).is_none_or(Option::is_none)
-    }
-
-    /// Whether every material is kept (none reads a varied param).
-    pub fn materials_kept(&self) -> bool {
-        self.materials.iter().all(Option::is_some)
     }
 }
 
@@ -478,7 +576,7 @@ fn dependents(doc: &Document, param: usize) -> Option<Vec<String>> {
     loop {
         let more: Vec<String> = (doc.params.iter().zip(&names))
             .filter(|((n, _, _), _)| !moved.contains(n))
-            .filter(|(_, uses)| uses.as_ref().is_none_or(|u| u.iter().any(|x| moved.contains(x))))
+            .filter(|(_, uses)| (uses.as_ref()).is_none_or(|u| u.iter().any(|x| moved.contains(x))))
             .map(|((n, _, _), _)| n.clone())
             .collect();
         if more.is_empty() {

@@ -178,22 +178,24 @@ impl Probe {
             .iter()
             .find(|(n, _)| n == name)
             .map_or(f64::NAN, |v| v.1);
-        Ok(Probe::of_index(doc, index, current, opts, Scope::FULL))
+        let varying = Varying::new(doc, index);
+        Ok(Probe::of_index(doc, varying, current, opts, Scope::FULL))
     }
 
-    /// The probe of the param at `index` in `doc.params`, whose value is `current`,
-    /// analysing the stages `scope` with `opts`.
+    /// The probe of the param `varying` was made for in `doc` (`Varying::new(doc, i)`
+    /// or one of `Varying::each`), whose value is `current`, analysing the stages
+    /// `scope` with `opts`.
     pub fn of_index(
         doc: &Document,
-        index: usize,
+        varying: Varying,
         current: f64,
         opts: &Options,
         scope: Scope,
     ) -> Probe {
         Probe {
             doc: doc.clone(),
-            index,
-            varying: Varying::new(doc, index),
+            index: varying.param(),
+            varying,
             current,
             opts: opts.clone(),
             scope,
