@@ -12,7 +12,7 @@ use crate::model::expr::{resolve_params, Expr, ExprError};
 use crate::model::schema::{Dims, KeySpec, Rule};
 use crate::model::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
 use std::cell::RefCell;
-use std::collections::BTreeMap;
+use std::collections::{BTreeMap, BTreeSet};
 use std::sync::Arc;
 
 /// A material with SI values: `e`, `fy` and `g` in Pa, `density` in kg/m³.
@@ -435,7 +435,7 @@ struct Noted<T> {
 
 impl<T: Clone> Noted<T> {
     /// The result to keep, unless the item read a param that moves.
-    fn kept(&self, moved: &[String]) -> Option<Result<T, Diagnostic>> {
+    fn kept(&self, moved: &BTreeSet<String>) -> Option<Result<T, Diagnostic>> {
         let touched = self.read.iter().any(|r| moved.contains(r));
         (!touched).then(|| self.result.clone())
     }
@@ -448,6 +448,64 @@ struct Items {
     actions: Noted<Option<Actions>>,
     member: Noted<Option<Member>>,
     parsed: Arc<Parsed>,
+}
+
+/// A document resolved once, noting the params each item reads, and the params each
+/// param's expression names: what the [`Varying`] of each of its params is made from.
+pub struct Resolution {
+    /// `None` when the params do not resolve.
+    items: Option<Items>,
+    /// Per param, the names its expression uses (`None`: it does not parse).
+    uses: Vec<Option<Vec<String>>>,
+    /// By name, the params whose expression uses it.
+    users: BTreeMap<String, Vec<usize>>,
+}
+
+impl Resolution {
+    /// The resolution of `doc`, noted.
+    pub fn new(doc: &Document) -> Resolution {
+        let uses = (doc.params.iter())
+            .map(|(_, _, v)| match &v.value {
+                Value::Number(_) => Some(Vec::new()),
+                Value::Expr(s) => Expr::parse(s).ok().map(|e| e.names()),
+            })
+            .collect::<Vec<Option<Vec<String>>>>();
+        let mut users: BTreeMap<String, Vec<usize>> = BTreeMap::new();
+        for (j, names) in uses.iter().enumerate() {
+            for n in names.iter().flatten() {
+                users.entry(n.clone()).or_default().push(j);
+            }
+        }
+        Resolution {
+            items: Items::of(doc),
+            uses,
+            users,
+        }
+    }
+
+    /// The names of param `param` of `doc` and of every param that depends on it, in
+    /// any number of steps; `None` when there is no such param. A param whose
+    /// expression does not parse counts as depending on it (it fails at every value).
+    fn dependents(&self, doc: &Document, param: usize) -> Option<BTreeSet<String>> {
+        let start = &doc.params.get(param)?.0;
+        let mut moved: BTreeSet<String> = (self.uses.iter().zip(&doc.params))
+            .filter(|(u, _)| u.is_none())
+            .map(|(_, p)| p.0.clone())
+            .collect();
+        moved.insert(start.clone());
+        let mut todo: Vec<String> = moved.iter().cloned().collect();
+        while let Some(n) = todo.pop() {
+            for &j in self.users.get(n.as_str()).into_iter().flatten() {
+                let Some((name, _, _)) = doc.params.get(j) else {
+                    continue;
+                };
+                if moved.insert(name.clone()) {
+                    todo.push(name.clone());
+                }
+            }
+        }
+        Some(moved)
+    }
 }
 
 impl Items {
@@ -513,34 +571,30 @@ impl Varying {
     /// What `doc` keeps when param `param` (an index in `doc.params`) varies; nothing
     /// when its params do not resolve.
     pub fn new(doc: &Document, param: usize) -> Varying {
-        Varying::each(doc, &[param]).remove(0)
+        Varying::of(&Resolution::new(doc), doc, param)
     }
 
-    /// [`Varying::new`] for each of `params`, from one resolution of `doc`.
-    pub fn each(doc: &Document, params: &[usize]) -> Vec<Varying> {
-        let items = Items::of(doc);
-        let one = |param: usize| {
-            let nothing = Varying {
-                param,
-                materials: vec![None; doc.materials.len()],
-                parts: vec![None; doc.parts.len()],
-                actions: None,
-                member: None,
-                parsed: Arc::default(),
-            };
-            let (Some(items), Some(moved)) = (&items, dependents(doc, param)) else {
-                return nothing;
-            };
-            Varying {
-                materials: items.materials.iter().map(|n| n.kept(&moved)).collect(),
-                parts: items.parts.iter().map(|n| n.kept(&moved)).collect(),
-                actions: items.actions.kept(&moved),
-                member: items.member.kept(&moved),
-                parsed: Arc::clone(&items.parsed),
-                ..nothing
-            }
+    /// [`Varying::new`] from the resolution `r` of `doc`, made once for all its params.
+    pub fn of(r: &Resolution, doc: &Document, param: usize) -> Varying {
+        let nothing = Varying {
+            param,
+            materials: vec![None; doc.materials.len()],
+            parts: vec![None; doc.parts.len()],
+            actions: None,
+            member: None,
+            parsed: Arc::default(),
         };
-        params.iter().map(|&p| one(p)).collect()
+        let (Some(items), Some(moved)) = (&r.items, r.dependents(doc, param)) else {
+            return nothing;
+        };
+        Varying {
+            materials: items.materials.iter().map(|n| n.kept(&moved)).collect(),
+            parts: items.parts.iter().map(|n| n.kept(&moved)).collect(),
+            actions: items.actions.kept(&moved),
+            member: items.member.kept(&moved),
+            parsed: Arc::clone(&items.parsed),
+            ..nothing
+        }
     }
 
     /// The index of the varied param in `Document::params`.
@@ -558,31 +612,6 @@ impl Varying {
     /// Whether part `i` is resolved again at each value (it reads a varied param).
     pub fn part_moves(&self, i: usize) -> bool {
         self.parts.get(i).is_none_or(Option::is_none)
-    }
-}
-
-/// The names of param `param` of `doc` and of every param that depends on it, in
-/// any number of steps; `None` when there is no such param. A param whose expression
-/// does not parse counts as depending on it (it fails at every value anyway).
-fn dependents(doc: &Document, param: usize) -> Option<Vec<String>> {
-    let mut moved = vec![doc.params.get(param)?.0.clone()];
-    let names: Vec<Option<Vec<String>>> = (doc.params.iter())
-        .map(|(_, _, v)| match &v.value {
-            Value::Number(_) => Some(Vec::new()),
-            Value::Expr(s) => Expr::parse(s).ok().map(|e| e.names()),
-        })
-        .collect();
-    // Each pass adds at least one param or ends: at most one pass per param.
-    loop {
-        let more: Vec<String> = (doc.params.iter().zip(&names))
-            .filter(|((n, _, _), _)| !moved.contains(n))
-            .filter(|(_, uses)| (uses.as_ref()).is_none_or(|u| u.iter().any(|x| moved.contains(x))))
-            .map(|((n, _, _), _)| n.clone())
-            .collect();
-        if more.is_empty() {
-            return Some(moved);
-        }
-        moved.extend(more);
     }
 }
 

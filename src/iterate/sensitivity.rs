@@ -14,7 +14,7 @@
 
 use super::vary::{options_for, param_values, read, scope_for, Failure, Probe};
 use crate::analysis::{Analysis, Options};
-use crate::geom::Varying;
+use crate::geom::{Resolution, Varying};
 use crate::model::Document;
 use crate::parallel::parallel_map;
 use crate::report::rows::{Quantity, QUANTITIES};
@@ -88,13 +88,11 @@ pub fn sensitivities(
     let params = param_values(doc).map_err(Failure::Invalid)?;
     // What each param does not reach, from one resolution of the document (the
     // values are in the order of `doc.params`).
-    let indices: Vec<usize> = (0..params.len()).collect();
-    let work: Vec<(usize, Varying)> = (Varying::each(doc, &indices).into_iter())
-        .enumerate()
-        .collect();
-    let one = |(i, varying): &(usize, Varying)| -> Rate {
-        let (i, x) = (*i, params[*i].1);
-        let probe = Probe::of_index(doc, varying.clone(), x, &quick, scope);
+    let resolution = Resolution::new(doc);
+    let work: Vec<(usize, f64)> = params.iter().map(|p| p.1).enumerate().collect();
+    let one = |&(i, x): &(usize, f64)| -> Rate {
+        let varying = Varying::of(&resolution, doc, i);
+        let probe = Probe::of_index(doc, varying, x, &quick, scope);
         let h = STEP * x.abs().max(size);
         let at = |x: f64| probe.analyse(x).map(|a| (read(q, &a), read(m, &a)));
         let (lo, hi) = (at(x - h), at(x + h));
