@@ -92,7 +92,7 @@ pub fn sensitivities(
     let work: Vec<(usize, f64)> = params.iter().map(|p| p.1).enumerate().collect();
     let one = |&(i, x): &(usize, f64)| -> Rate {
         let varying = Varying::of(&resolution, doc, i);
-        let probe = Probe::of_index(doc, varying, x, &quick, scope);
+        let probe = Probe::with_varying(doc, varying, x, &quick, scope);
         let h = STEP * x.abs().max(size);
         let at = |x: f64| probe.analyse(x).map(|a| (read(q, &a), read(m, &a)));
         let (lo, hi) = (at(x - h), at(x + h));

@@ -179,13 +179,19 @@ impl Probe {
             .find(|(n, _)| n == name)
             .map_or(f64::NAN, |v| v.1);
         let varying = Varying::new(doc, index);
-        Ok(Probe::of_index(doc, varying, current, opts, Scope::FULL))
+        Ok(Probe::with_varying(
+            doc,
+            varying,
+            current,
+            opts,
+            Scope::FULL,
+        ))
     }
 
-    /// The probe of the param `varying` was made for in `doc` (`Varying::new(doc, i)`
-    /// or one of `Varying::each`), whose value is `current`, analysing the stages
-    /// `scope` with `opts`.
-    pub fn of_index(
+    /// The probe of the param `varying` was made for in `doc` (by `Varying::new` or
+    /// `Varying::of`), whose value is `current`, analysing the stages `scope` with
+    /// `opts`.
+    pub fn with_varying(
         doc: &Document,
         varying: Varying,
         current: f64,
