@@ -41,6 +41,9 @@ pub struct Options {
 /// always comes with the full analysis (the member and shear results it feeds).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct Scope {
+    /// The plastic moduli and axes (of the gross and the net section); without them
+    /// `Properties::plastic` is `None`.
+    pub plastic: bool,
     /// Stresses under `[actions]`.
     pub stress: bool,
     /// The member check.
@@ -53,13 +56,15 @@ pub struct Scope {
 impl Scope {
     /// The whole analysis.
     pub const FULL: Scope = Scope {
+        plastic: true,
         stress: true,
         member: true,
         rest: true,
     };
-    /// The section's properties alone (area, centroid, second moments, moduli,
-    /// gyration, mass).
+    /// The section's properties alone (area, centroid, second moments, elastic
+    /// moduli, gyration, mass), without the plastic moduli.
     pub const PROPERTIES: Scope = Scope {
+        plastic: false,
         stress: false,
         member: false,
         rest: false,
@@ -68,6 +73,7 @@ impl Scope {
     /// The stages of both.
     pub fn and(self, other: Scope) -> Scope {
         Scope {
+            plastic: self.plastic || other.plastic,
             stress: self.stress || other.stress,
             member: self.member || other.member,
             rest: self.rest || other.rest,
@@ -222,18 +228,29 @@ impl Analysis {
         opts: &Options,
         scope: Scope,
     ) -> Result<Analysis, Diagnostic> {
+        let section = Resolved::resolve(&document)?;
+        Analysis::of_resolved_in(document, section, opts, scope)
+    }
+
+    /// [`Analysis::of_document_in`] of a document already resolved: `section` must be
+    /// `Resolved::resolve(&document)` (or its equal, `Resolved::resolve_varying`).
+    pub fn of_resolved_in(
+        document: Document,
+        section: Resolved,
+        opts: &Options,
+        scope: Scope,
+    ) -> Result<Analysis, Diagnostic> {
         let scope = if opts.torsion.is_some() {
             Scope::FULL
         } else {
             scope
         };
-        let section = Resolved::resolve(&document)?;
         let all = section.pieces();
         let is_hole = |p: &Piece| section.parts.get(p.part).is_some_and(|q| q.hole);
         let pieces: Vec<Piece> = all.iter().filter(|p| !is_hole(p)).cloned().collect();
         // Point at the first void (or hole): that is where the area went (else the top).
         let compute = |pieces: &[Piece], first: &dyn Fn(&Piece) -> bool| {
-            Properties::compute(pieces).map_err(|m| {
+            Properties::compute_with(pieces, scope.plastic).map_err(|m| {
                 let span = pieces
                     .iter()
                     .find(|p| first(p))

@@ -22,5 +22,7 @@ pub use contour::{Contour, Pt, Seg, Turn};
 pub use moments::BoundaryIntegral;
 pub use place::{Anchor, Placement};
 pub use region::{solid_bounds, Cover, Piece};
-pub use resolve::{LoadHeight, Material, Member, Part, Resolved, ShearModulus};
+pub use resolve::{
+    LoadHeight, Material, Member, Part, Resolution, Resolved, ShearModulus, Varying,
+};
 pub use shapes::Shape;

@@ -11,7 +11,9 @@ use crate::model::document::{Document, PartDoc, StringMaps, Val, Value};
 use crate::model::expr::{resolve_params, Expr, ExprError};
 use crate::model::schema::{Dims, KeySpec, Rule};
 use crate::model::units::{parse_quantity, Dim, Kind, LengthUnit, Quantity};
-use std::collections::BTreeMap;
+use std::cell::RefCell;
+use std::collections::{BTreeMap, BTreeSet};
+use std::sync::Arc;
 
 /// A material with SI values: `e`, `fy` and `g` in Pa, `density` in kg/m³.
 #[derive(Debug, Clone, PartialEq)]
@@ -127,6 +129,10 @@ fn expr_diag(v: &Val, maps: &StringMaps, e: ExprError, key: &str) -> Diagnostic 
 struct Ctx<'a> {
     params: &'a BTreeMap<String, f64>,
     maps: &'a StringMaps,
+    /// Where to note every param read and expression parsed ([`Varying::new`]).
+    notes: Option<&'a RefCell<Notes>>,
+    /// Expressions parsed before, by where their value starts ([`Varying`]).
+    parsed: Option<&'a Parsed>,
 }
 
 impl Ctx<'_> {
@@ -135,9 +141,28 @@ impl Ctx<'_> {
         let x = match &v.value {
             Value::Number(x) => *x,
             Value::Expr(s) => {
-                let e = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
-                e.eval(&|n| self.params.get(n).copied())
-                    .map_err(|e| expr_diag(v, self.maps, e, key))?
+                let before = (self.parsed)
+                    .and_then(|p| p.get(&v.span.start))
+                    .filter(|(text, _)| text == s);
+                let parsed;
+                let e = match before {
+                    Some((_, e)) => e,
+                    None => {
+                        parsed = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
+                        if let Some(n) = self.notes {
+                            let entry = (v.span.start, s.clone(), parsed.clone());
+                            n.borrow_mut().parsed.push(entry);
+                        }
+                        &parsed
+                    }
+                };
+                e.eval(&|n| {
+                    if let Some(notes) = self.notes {
+                        notes.borrow_mut().read.push(n.to_owned());
+                    }
+                    self.params.get(n).copied()
+                })
+                .map_err(|e| expr_diag(v, self.maps, e, key))?
             }
         };
         if x.is_finite() {
@@ -268,82 +293,50 @@ fn range(kind: Kind) -> (f64, f64, &'static str) {
 impl Resolved {
     /// Evaluates every value of the document; the first problem found is returned.
     pub fn resolve(doc: &Document) -> Result<Resolved, Diagnostic> {
+        Resolved::resolve_keeping(doc, None)
+    }
+
+    /// [`Resolved::resolve`] of `doc`, the document `varying` was made from with only
+    /// its param changed, evaluating again only what that param reaches and taking the
+    /// rest as `varying` found it: the same section and the same first problem, bit
+    /// for bit. A document of another layout (other counts of materials or parts, no
+    /// such param) is resolved whole.
+    pub fn resolve_varying(doc: &Document, varying: &Varying) -> Result<Resolved, Diagnostic> {
+        Resolved::resolve_keeping(doc, varying.fits(doc).then_some(varying))
+    }
+
+    /// The resolution, in file order (params, materials, parts, `[actions]`,
+    /// `[member]`), each item taken from `keep` where it holds one.
+    fn resolve_keeping(doc: &Document, keep: Option<&Varying>) -> Result<Resolved, Diagnostic> {
         let params = resolve_doc_params(doc)?;
         let ctx = Ctx {
             params: &params,
             maps: &doc.string_maps,
+            notes: None,
+            parsed: keep.map(|k| &*k.parsed),
         };
-        let materials = doc
-            .materials
-            .iter()
-            .map(|m| {
-                let e = m.e.as_ref().ok_or_else(|| {
-                    Diagnostic::new(
-                        m.span.clone(),
-                        format!("material `{}` needs `E`, e.g. E = \"200 GPa\"", m.name),
-                    )
-                })?;
-                let e = positive_q(&ctx, e, "E", Kind::Stress)?;
-                let fy =
-                    m.fy.as_ref()
-                        .map(|v| positive_q(&ctx, v, "fy", Kind::Stress))
-                        .transpose()?;
-                let density = m
-                    .density
-                    .as_ref()
-                    .map(|v| positive_q(&ctx, v, "density", Kind::Density))
-                    .transpose()?;
-                let (g, g_source) = shear_modulus(&ctx, m, e)?;
-                Ok(Material {
-                    name: m.name.clone(),
-                    e,
-                    fy,
-                    density,
-                    g,
-                    g_source,
-                })
+        let materials = (doc.materials.iter().enumerate())
+            .map(|(i, m)| {
+                let kept = keep.and_then(|k| k.materials.get(i));
+                or_again(kept, || resolve_material(&ctx, m))
             })
             .collect::<Result<Vec<_>, Diagnostic>>()?;
-        let parts = doc
-            .parts
-            .iter()
-            .enumerate()
-            .map(|(i, p)| resolve_part(&ctx, doc, i, p))
-            .collect::<Result<Vec<_>, Diagnostic>>()?;
-        let actions = doc
-            .actions
-            .as_ref()
-            .map(|a| -> Result<Actions, Diagnostic> {
-                let q = |v: &Option<Val>, k: &str, kind| {
-                    v.as_ref()
-                        .map_or(Ok(0.0), |v| ctx.quantity(v, k, kind, None))
-                };
-                Ok(Actions {
-                    n: q(&a.n, "N", Kind::Force)?,
-                    mx: q(&a.mx, "Mx", Kind::Moment)?,
-                    my: q(&a.my, "My", Kind::Moment)?,
-                    vx: a
-                        .vx
-                        .as_ref()
-                        .map(|v| ctx.quantity(v, "Vx", Kind::Force, None))
-                        .transpose()?,
-                    vy: a
-                        .vy
-                        .as_ref()
-                        .map(|v| ctx.quantity(v, "Vy", Kind::Force, None))
-                        .transpose()?,
-                    t: a.t
-                        .as_ref()
-                        .map(|v| ctx.quantity(v, "T", Kind::Moment, None))
-                        .transpose()?,
-                })
+        let parts = (doc.parts.iter().enumerate())
+            .map(|(i, p)| {
+                let kept = keep.and_then(|k| k.parts.get(i));
+                or_again(kept, || resolve_part(&ctx, doc, i, p))
             })
-            .transpose()?;
-        let member = doc
-            .member
-            .as_ref()
-            .map(|m| resolve_member(&ctx, doc.units, m))
-            .transpose()?;
+            .collect::<Result<Vec<_>, Diagnostic>>()?;
+        let actions = or_again(keep.map(|k| &k.actions), || {
+            (doc.actions.as_ref())
+                .map(|a| resolve_actions(&ctx, a))
+                .transpose()
+        })?;
+        let member = or_again(keep.map(|k| &k.member), || {
+            (doc.member.as_ref())
+                .map(|m| resolve_member(&ctx, doc.units, m))
+                .transpose()
+        })?;
         Ok(Resolved {
             title: doc.title.clone(),
             units: doc.units,
@@ -401,6 +394,290 @@ impl Resolved {
             })
             .collect()
     }
+}
+
+/// What resolving a document again with one param changed can keep: each material,
+/// part, `[actions]` and `[member]` whose values read no param that depends on that
+/// one (the param itself, and every param whose expression names one of those), with
+/// its result as resolved once; and, for the items evaluated again, their expressions
+/// as parsed once. Which params an item reads is noted while resolving it: its result
+/// is a function of those values alone, so an item that reads none of the varied ones
+/// resolves the same at any value of the param.
+#[derive(Debug, Clone)]
+pub struct Varying {
+    /// Index of the param in `Document::params`.
+    param: usize,
+    /// Per item, `Some(result)` to keep, `None` to evaluate again.
+    materials: Vec<Option<Result<Material, Diagnostic>>>,
+    parts: Vec<Option<Result<Part, Diagnostic>>>,
+    actions: Option<Result<Option<Actions>, Diagnostic>>,
+    member: Option<Result<Option<Member>, Diagnostic>>,
+    /// Every expression of the items that parsed, by where its value starts in the
+    /// file, with its text (an entry is used only for the same text).
+    parsed: Arc<Parsed>,
+}
+
+/// Parsed expressions by the start of their value's span, with their text.
+type Parsed = BTreeMap<usize, (String, Expr)>;
+
+/// What resolving noted: the params read and the expressions parsed.
+#[derive(Debug, Default)]
+struct Notes {
+    read: Vec<String>,
+    parsed: Vec<(usize, String, Expr)>,
+}
+
+/// One item resolved, with the names of the params it read.
+struct Noted<T> {
+    result: Result<T, Diagnostic>,
+    read: Vec<String>,
+}
+
+impl<T: Clone> Noted<T> {
+    /// The result to keep, unless the item read a param that moves.
+    fn kept(&self, moved: &BTreeSet<String>) -> Option<Result<T, Diagnostic>> {
+        let touched = self.read.iter().any(|r| moved.contains(r));
+        (!touched).then(|| self.result.clone())
+    }
+}
+
+/// Every item of a document resolved once, noted.
+struct Items {
+    materials: Vec<Noted<Material>>,
+    parts: Vec<Noted<Part>>,
+    actions: Noted<Option<Actions>>,
+    member: Noted<Option<Member>>,
+    parsed: Arc<Parsed>,
+}
+
+/// A document resolved once, noting the params each item reads, and the params each
+/// param's expression names: what the [`Varying`] of each of its params is made from.
+pub struct Resolution {
+    /// `None` when the params do not resolve.
+    items: Option<Items>,
+    /// Per param, the names its expression uses (`None`: it does not parse).
+    uses: Vec<Option<Vec<String>>>,
+    /// By name, the params whose expression uses it.
+    users: BTreeMap<String, Vec<usize>>,
+}
+
+impl Resolution {
+    /// The resolution of `doc`, noted.
+    pub fn new(doc: &Document) -> Resolution {
+        let uses = (doc.params.iter())
+            .map(|(_, _, v)| match &v.value {
+                Value::Number(_) => Some(Vec::new()),
+                Value::Expr(s) => Expr::parse(s).ok().map(|e| e.names()),
+            })
+            .collect::<Vec<Option<Vec<String>>>>();
+        let mut users: BTreeMap<String, Vec<usize>> = BTreeMap::new();
+        for (j, names) in uses.iter().enumerate() {
+            for n in names.iter().flatten() {
+                users.entry(n.clone()).or_default().push(j);
+            }
+        }
+        Resolution {
+            items: Items::of(doc),
+            uses,
+            users,
+        }
+    }
+
+    /// The names of param `param` of `doc` and of every param that depends on it, in
+    /// any number of steps; `None` when there is no such param. A param whose
+    /// expression does not parse counts as depending on it (it fails at every value).
+    fn dependents(&self, doc: &Document, param: usize) -> Option<BTreeSet<String>> {
+        let start = &doc.params.get(param)?.0;
+        let mut moved: BTreeSet<String> = (self.uses.iter().zip(&doc.params))
+            .filter(|(u, _)| u.is_none())
+            .map(|(_, p)| p.0.clone())
+            .collect();
+        moved.insert(start.clone());
+        let mut todo: Vec<String> = moved.iter().cloned().collect();
+        while let Some(n) = todo.pop() {
+            for &j in self.users.get(n.as_str()).into_iter().flatten() {
+                let Some((name, _, _)) = doc.params.get(j) else {
+                    continue;
+                };
+                if moved.insert(name.clone()) {
+                    todo.push(name.clone());
+                }
+            }
+        }
+        Some(moved)
+    }
+}
+
+impl Items {
+    /// The items resolved with the document's own params; `None` when they do not
+    /// resolve.
+    fn of(doc: &Document) -> Option<Items> {
+        let params = resolve_doc_params(doc).ok()?;
+        let notes = RefCell::new(Notes::default());
+        let ctx = Ctx {
+            params: &params,
+            maps: &doc.string_maps,
+            notes: Some(&notes),
+            parsed: None,
+        };
+        // The params read since the last call.
+        let read = || std::mem::take(&mut notes.borrow_mut().read);
+        let materials = (doc.materials.iter())
+            .map(|m| {
+                let result = resolve_material(&ctx, m);
+                Noted {
+                    result,
+                    read: read(),
+                }
+            })
+            .collect();
+        let parts = (doc.parts.iter().enumerate())
+            .map(|(i, p)| {
+                let result = resolve_part(&ctx, doc, i, p);
+                Noted {
+                    result,
+                    read: read(),
+                }
+            })
+            .collect();
+        let result = (doc.actions.as_ref())
+            .map(|a| resolve_actions(&ctx, a))
+            .transpose();
+        let actions = Noted {
+            result,
+            read: read(),
+        };
+        let result = (doc.member.as_ref())
+            .map(|m| resolve_member(&ctx, doc.units, m))
+            .transpose();
+        let member = Noted {
+            result,
+            read: read(),
+        };
+        let parsed = (notes.into_inner().parsed.into_iter())
+            .map(|(at, text, e)| (at, (text, e)))
+            .collect();
+        Some(Items {
+            materials,
+            parts,
+            actions,
+            member,
+            parsed: Arc::new(parsed),
+        })
+    }
+}
+
+impl Varying {
+    /// What `doc` keeps when param `param` (an index in `doc.params`) varies; nothing
+    /// when its params do not resolve.
+    pub fn new(doc: &Document, param: usize) -> Varying {
+        Varying::of(&Resolution::new(doc), doc, param)
+    }
+
+    /// [`Varying::new`] from the resolution `r` of `doc`, made once for all its params.
+    pub fn of(r: &Resolution, doc: &Document, param: usize) -> Varying {
+        let nothing = Varying {
+            param,
+            materials: vec![None; doc.materials.len()],
+            parts: vec![None; doc.parts.len()],
+            actions: None,
+            member: None,
+            parsed: Arc::default(),
+        };
+        let (Some(items), Some(moved)) = (&r.items, r.dependents(doc, param)) else {
+            return nothing;
+        };
+        Varying {
+            materials: items.materials.iter().map(|n| n.kept(&moved)).collect(),
+            parts: items.parts.iter().map(|n| n.kept(&moved)).collect(),
+            actions: items.actions.kept(&moved),
+            member: items.member.kept(&moved),
+            parsed: Arc::clone(&items.parsed),
+            ..nothing
+        }
+    }
+
+    /// The index of the varied param in `Document::params`.
+    pub fn param(&self) -> usize {
+        self.param
+    }
+
+    /// Whether `doc` has the layout this was made from.
+    fn fits(&self, doc: &Document) -> bool {
+        self.param < doc.params.len()
+            && self.materials.len() == doc.materials.len()
+            && self.parts.len() == doc.parts.len()
+    }
+
+    /// Whether part `i` is resolved again at each value (it reads a varied param).
+    pub fn part_moves(&self, i: usize) -> bool {
+        self.parts.get(i).is_none_or(Option::is_none)
+    }
+}
+
+/// The kept result, or `again()` when there is none.
+fn or_again<T: Clone>(
+    kept: Option<&Option<Result<T, Diagnostic>>>,
+    again: impl FnOnce() -> Result<T, Diagnostic>,
+) -> Result<T, Diagnostic> {
+    match kept {
+        Some(Some(r)) => r.clone(),
+        _ => again(),
+    }
+}
+
+fn resolve_material(
+    ctx: &Ctx,
+    m: &crate::model::document::MaterialDoc,
+) -> Result<Material, Diagnostic> {
+    let e = m.e.as_ref().ok_or_else(|| {
+        Diagnostic::new(
+            m.span.clone(),
+            format!("material `{}` needs `E`, e.g. E = \"200 GPa\"", m.name),
+        )
+    })?;
+    let e = positive_q(ctx, e, "E", Kind::Stress)?;
+    let fy =
+        m.fy.as_ref()
+            .map(|v| positive_q(ctx, v, "fy", Kind::Stress))
+            .transpose()?;
+    let density = m
+        .density
+        .as_ref()
+        .map(|v| positive_q(ctx, v, "density", Kind::Density))
+        .transpose()?;
+    let (g, g_source) = shear_modulus(ctx, m, e)?;
+    Ok(Material {
+        name: m.name.clone(),
+        e,
+        fy,
+        density,
+        g,
+        g_source,
+    })
+}
+
+fn resolve_actions(
+    ctx: &Ctx,
+    a: &crate::model::document::ActionsDoc,
+) -> Result<Actions, Diagnostic> {
+    let q = |v: &Option<Val>, k: &str, kind| {
+        v.as_ref()
+            .map_or(Ok(0.0), |v| ctx.quantity(v, k, kind, None))
+    };
+    let some = |v: &Option<Val>, k: &str, kind| {
+        v.as_ref()
+            .map(|v| ctx.quantity(v, k, kind, None))
+            .transpose()
+    };
+    Ok(Actions {
+        n: q(&a.n, "N", Kind::Force)?,
+        mx: q(&a.mx, "Mx", Kind::Moment)?,
+        my: q(&a.my, "My", Kind::Moment)?,
+        vx: some(&a.vx, "Vx", Kind::Force)?,
+        vy: some(&a.vy, "Vy", Kind::Force)?,
+        t: some(&a.t, "T", Kind::Moment)?,
+    })
 }
 
 fn positive_q(ctx: &Ctx, v: &Val, key: &str, kind: Kind) -> Result<f64, Diagnostic> {

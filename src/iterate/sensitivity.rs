@@ -14,6 +14,7 @@
 
 use super::vary::{options_for, param_values, read, scope_for, Failure, Probe};
 use crate::analysis::{Analysis, Options};
+use crate::geom::{Resolution, Varying};
 use crate::model::Document;
 use crate::parallel::parallel_map;
 use crate::report::rows::{Quantity, QUANTITIES};
@@ -85,15 +86,13 @@ pub fn sensitivities(
     let b = base.props.bounds;
     let size = (b[1] - b[0]).max(b[3] - b[2]);
     let params = param_values(doc).map_err(Failure::Invalid)?;
+    // What each param does not reach, from one resolution of the document (the
+    // values are in the order of `doc.params`).
+    let resolution = Resolution::new(doc);
     let work: Vec<(usize, f64)> = params.iter().map(|p| p.1).enumerate().collect();
     let one = |&(i, x): &(usize, f64)| -> Rate {
-        let probe = Probe {
-            doc: doc.clone(),
-            index: i,
-            current: x,
-            opts: quick.clone(),
-            scope,
-        };
+        let varying = Varying::of(&resolution, doc, i);
+        let probe = Probe::with_varying(doc, varying, x, &quick, scope);
         let h = STEP * x.abs().max(size);
         let at = |x: f64| probe.analyse(x).map(|a| (read(q, &a), read(m, &a)));
         let (lo, hi) = (at(x - h), at(x + h));

@@ -5,6 +5,7 @@
 //! the one table of results, [`QUANTITIES`].
 
 use crate::analysis::{Analysis, Options, Scope};
+use crate::geom::{Resolved, Varying};
 use crate::model::expr::resolve_params;
 use crate::model::{Diagnostic, Document, Value};
 use crate::report::out::OutUnits;
@@ -74,11 +75,17 @@ pub fn needs_torsion(q: &Quantity) -> bool {
 
 /// The stages of the analysis reading `q` needs, the one place that says so: the
 /// whole analysis with torsion; the stresses for `stress.*`; the member check for
-/// `member.*`; else the section's properties alone (every other numeric key of
-/// [`QUANTITIES`] reads `Analysis::props` or the mass from it).
+/// `member.*`; the plastic moduli for `plastic_modulus.*` and `plastic_axis.*`; else
+/// the section's properties alone (every other numeric key of [`QUANTITIES`] reads
+/// `Analysis::props` or the mass from it).
 pub fn scope_for(q: &Quantity) -> Scope {
     if needs_torsion(q) {
         Scope::FULL
+    } else if q.path.starts_with("plastic_") {
+        Scope {
+            plastic: true,
+            ..Scope::PROPERTIES
+        }
     } else if q.path.starts_with("stress.") {
         Scope {
             stress: true,
@@ -129,12 +136,15 @@ pub fn param_values(doc: &Document) -> Result<Vec<(String, f64)>, Diagnostic> {
         .collect())
 }
 
-/// A document and one of its params, ready to be analysed at any value of it.
+/// A document and one of its params, ready to be analysed at any value of it: what
+/// the param does not reach is resolved once ([`Varying`]).
 #[derive(Debug, Clone)]
 pub struct Probe {
-    pub doc: Document,
+    doc: Document,
     /// Index of the param in `doc.params`.
-    pub index: usize,
+    index: usize,
+    /// What each value's resolution keeps of the document's.
+    varying: Varying,
     /// The param's value as the file has it.
     pub current: f64,
     pub opts: Options,
@@ -168,13 +178,34 @@ impl Probe {
             .iter()
             .find(|(n, _)| n == name)
             .map_or(f64::NAN, |v| v.1);
-        Ok(Probe {
+        let varying = Varying::new(doc, index);
+        Ok(Probe::with_varying(
+            doc,
+            varying,
+            current,
+            opts,
+            Scope::FULL,
+        ))
+    }
+
+    /// The probe of the param `varying` was made for in `doc` (by `Varying::new` or
+    /// `Varying::of`), whose value is `current`, analysing the stages `scope` with
+    /// `opts`.
+    pub fn with_varying(
+        doc: &Document,
+        varying: Varying,
+        current: f64,
+        opts: &Options,
+        scope: Scope,
+    ) -> Probe {
+        Probe {
             doc: doc.clone(),
-            index,
+            index: varying.param(),
+            varying,
             current,
             opts: opts.clone(),
-            scope: Scope::FULL,
-        })
+            scope,
+        }
     }
 
     /// The probe for reading only the results `qs`: its analyses run the stages they
@@ -214,8 +245,8 @@ impl Probe {
     }
 
     /// The stages `scope` of the analysis with the param at `x` and options `opts`.
-    /// The document is the probe's with the one param changed, resolved again (the
-    /// file is not read or parsed again).
+    /// The document is the probe's with the one param changed, resolved again where
+    /// the param reaches (the file is not read or parsed again).
     pub fn analyse_in(&self, x: f64, opts: &Options, scope: Scope) -> Result<Analysis, Failure> {
         if !x.is_finite() {
             return Err(Failure::Invalid(Diagnostic::new(
@@ -223,7 +254,9 @@ impl Probe {
                 format!("`{}` must be a finite number", self.name()),
             )));
         }
-        Analysis::of_document_in(self.document_at(x), opts, scope).map_err(Failure::Invalid)
+        let doc = self.document_at(x);
+        let section = Resolved::resolve_varying(&doc, &self.varying).map_err(Failure::Invalid)?;
+        Analysis::of_resolved_in(doc, section, opts, scope).map_err(Failure::Invalid)
     }
 
     /// Result `q` with the param at `x`, from the stages `q` needs alone (the torsion

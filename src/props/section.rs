@@ -105,6 +105,14 @@ impl Properties {
     /// Computes the properties of the pieces; the error says why there are none (no
     /// solid part, or a net area that is not positive).
     pub fn compute(pieces: &[Piece]) -> Result<Properties, String> {
+        Properties::compute_with(pieces, true)
+    }
+
+    /// The properties of the pieces, with the plastic moduli and axes only when
+    /// `plastic` (else `plastic` is `None`); every other figure, and every error, is
+    /// that of [`Properties::compute`], bit for bit (the plastic axes are formed last,
+    /// from nothing the others use, and never fail the computation).
+    pub fn compute_with(pieces: &[Piece], plastic: bool) -> Result<Properties, String> {
         let b = solid_bounds(pieces)
             .ok_or("the section has no enabled solid part; add one or enable one")?;
         let origin = Pt::new(0.5 * (b[0] + b[1]), 0.5 * (b[2] + b[3]));
@@ -173,26 +181,11 @@ impl Properties {
         let principal_elastic = (principal.angle_deg != 0.0 && principal.angle_deg != 90.0)
             .then(|| PrincipalElastic::of(pieces, &local, Pt::new(cx, cy), &principal))
             .flatten();
-        let weighted: Vec<Weighted> = pieces
-            .iter()
-            .zip(&local)
-            .map(|(p, c)| Weighted {
-                contours: c,
-                weight: p.sign() * p.strength,
-            })
-            .collect();
         let size = (b[1] - b[0]).max(b[3] - b[2]);
-        let plastic = match (
-            plastic_axis_x(&weighted, lb[2], lb[3]),
-            plastic_axis_y(&weighted, lb[0], lb[1]),
-        ) {
-            (Some(px), Some(py)) => Some(Plastic {
-                zx: px.z,
-                zy: py.z,
-                y: snap(px.level + origin.y, size),
-                x: snap(py.level + origin.x, size),
-            }),
-            _ => None,
+        let plastic = if plastic {
+            plastic_moduli(pieces, &local, lb, origin, size)
+        } else {
+            None
         };
         let mass_area = pieces
             .iter()
@@ -234,6 +227,34 @@ impl Properties {
             ixy: self.ixy,
         }
     }
+}
+
+/// The plastic moduli and axes of the pieces (`local`: their contours about `origin`;
+/// `lb`: the solid extent about it; `size`: the larger side of the extent), `None`
+/// when the weighted area is not positive (see [`super::plastic`]).
+fn plastic_moduli(
+    pieces: &[Piece],
+    local: &[Vec<Contour>],
+    lb: [f64; 4],
+    origin: Pt,
+    size: f64,
+) -> Option<Plastic> {
+    let weighted: Vec<Weighted> = pieces
+        .iter()
+        .zip(local)
+        .map(|(p, c)| Weighted {
+            contours: c,
+            weight: p.sign() * p.strength,
+        })
+        .collect();
+    let px = plastic_axis_x(&weighted, lb[2], lb[3])?;
+    let py = plastic_axis_y(&weighted, lb[0], lb[1])?;
+    Some(Plastic {
+        zx: px.z,
+        zy: py.z,
+        y: snap(px.level + origin.y, size),
+        x: snap(py.level + origin.x, size),
+    })
 }
 
 /// A coordinate within rounding noise of the origin (relative to the section's size
