@@ -310,7 +310,8 @@ fn bridges(adj: &[Vec<(usize, usize)>], edges: usize) -> Vec<bool> {
 }
 
 /// Warnings about how the parts are joined: contacts at a point only, parts joined to
-/// nothing, and (when a shear force is given) joints whose flow is not computed.
+/// nothing, and (when a shear force is given) joints a void lies across. Joints on a
+/// closed cell are the flexure solution's (`Analysis::cell_flow_notes`).
 pub fn warnings(
     pieces: &[Piece],
     contacts: &Contacts,
@@ -348,14 +349,6 @@ pub fn warnings(
     }
     if !shear_given {
         return out;
-    }
-    let joints: Vec<(String, String)> = conns
-        .iter()
-        .filter(|c| c.flow == Flow::ClosedCell)
-        .map(|c| (name(c.joint.a), name(c.joint.b)))
-        .collect();
-    if !joints.is_empty() {
-        out.push(Warning::ClosedCellFlow { joints });
     }
     for c in conns {
         let (a, b) = (name(c.joint.a), name(c.joint.b));
