@@ -540,8 +540,9 @@ impl Analysis {
         let mut out = Vec::new();
         for c in cells {
             let (a, b) = (name(c.joint.a), name(c.joint.b));
-            let flows: Vec<Option<JointFlow>> =
-                (loads.iter()).map(|&(vx, vy)| self.cell_flow(c, vx, vy)).collect();
+            let flows: Vec<Option<JointFlow>> = (loads.iter())
+                .map(|&(vx, vy)| self.cell_flow(c, vx, vy))
+                .collect();
             if flows.iter().flatten().any(|j| j.closed) {
                 out.push(Warning::LoopJointFlow { a, b });
                 continue;

@@ -126,8 +126,10 @@ impl Flexure {
     /// The longitudinal shear flow across the boundary pieces `a` and `b` share under
     /// shears `vx`, `vy` (force per length of member, in the forces' unit per length
     /// unit), from the finest mesh, with its estimated error (Richardson over the last
-    /// three meshes) relative to the larger of the flow and the largest change of a
-    /// piece's bending force. A joint of several stretches gives its largest.
+    /// three meshes, plus the solves' relative residual [`RTOL`]: the flux from an
+    /// inexact solve differs by about that share, measured 1e-8 on a box) relative to the
+    /// larger of the flow and the largest change of a piece's bending force. A joint of
+    /// several stretches gives its largest.
     /// `None` when the pieces share no boundary on the mesh.
     pub fn joint_flow(&self, a: usize, b: usize, vx: f64, vy: f64) -> Option<JointFlow> {
         let per: Vec<(f64, bool, usize)> = (self.levels.iter())
@@ -135,7 +137,11 @@ impl Flexure {
                 let j = l.joints.joint(a, b)?;
                 let q = |s: &super::joint_flow::Stretch| (vx * s.flux[0] + vy * s.flux[1]).abs();
                 let value = j.stretches.iter().map(q).fold(0.0, f64::max);
-                Some((value, j.stretches.iter().any(|s| s.closed), j.stretches.len()))
+                Some((
+                    value,
+                    j.stretches.iter().any(|s| s.closed),
+                    j.stretches.len(),
+                ))
             })
             .collect::<Option<_>>()?;
         let [x, y, z] = per.get(per.len().checked_sub(3)?..)? else {
@@ -151,7 +157,7 @@ impl Flexure {
             .fold(z.0, f64::max);
         Some(JointFlow {
             value: z.0,
-            rel_error: err / scale.max(f64::MIN_POSITIVE),
+            rel_error: err / scale.max(f64::MIN_POSITIVE) + RTOL,
             closed: z.1,
         })
     }
@@ -465,7 +471,8 @@ fn solve_level(
 
 /// τ from the three unit loads at a point of an element: element index, its nodes, the
 /// point (local frame) and the shape functions' gradients there.
-pub(super) type TauAt<'a> = dyn Fn(usize, &[u32; 6], f64, f64, &[f64; 6], &[f64; 6]) -> [[f64; 2]; 3] + 'a;
+pub(super) type TauAt<'a> =
+    dyn Fn(usize, &[u32; 6], f64, f64, &[f64; 6], &[f64; 6]) -> [[f64; 2]; 3] + 'a;
 
 /// Nodal stresses: each node's elements' values at it, area-weighted; at a node where
 /// materials meet, each element's own value.

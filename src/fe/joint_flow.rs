@@ -147,7 +147,10 @@ pub fn level(
     for (k, e) in edges.iter().enumerate() {
         for &v in &e.nodes {
             for side in [e.pair.0, e.pair.1] {
-                shares.entry((v, side)).or_default().push((slot[k], e.length));
+                shares
+                    .entry((v, side))
+                    .or_default()
+                    .push((slot[k], e.length));
             }
         }
     }
