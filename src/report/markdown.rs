@@ -455,11 +455,11 @@ flexure solution, as the flux across the shared boundary that balances the chang
 each part's bending force (the flows out of a part sum to it on every mesh), with its \
 estimated error (Richardson over the last three meshes, relative to the larger of the \
 flow and the largest part's change of force); a flow whose estimate is above the \
-tolerance is not given. {} Flows in {}.",
+tolerance is not given. {}Flows in {}.",
         if a.flexure().is_some() {
             ""
         } else {
-            "The flexure solution was not run for this sheet (torsion off), so no cell joint has a flow."
+            "The flexure solution was not run for this sheet (torsion off), so no cell joint has a flow. "
         },
         qu.name
     ))));
