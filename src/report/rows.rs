@@ -534,7 +534,7 @@ fn connection_rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
                 if closed {
                     closed_note
                 } else {
-                    "shear flow across the joint under Vx, Vy of [actions] (V·Q/I)"
+                    "shear flow across the joint under Vx, Vy of [actions]"
                 },
             ));
         }
@@ -546,7 +546,7 @@ fn connection_rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
                 if closed {
                     closed_note
                 } else {
-                    "shear flow across the joint at the member's Vmax (vertical shear, V·Q/I)"
+                    "shear flow across the joint at the member's Vmax (vertical shear)"
                 },
             ));
         }
