@@ -168,10 +168,9 @@ fn box_of_four_plates_is_a_closed_cell() {
         .iter()
         .all(|f| f.3.is_none() && (f.2 - 10.0).abs() < 1e-12));
     assert!(
-        a.warnings
-            .iter()
-            .any(|w| w.to_string().contains("closed cell")
-                && w.to_string().contains("--no-torsion")),
+        a.warnings.iter().any(
+            |w| w.to_string().contains("closed cell") && w.to_string().contains("--no-torsion")
+        ),
         "{:?}",
         a.warnings
     );

@@ -17,7 +17,10 @@
 //! distribution. Two parts sharing several separate stretches of boundary (a lid on a
 //! channel) or a closed loop (a core in a tube) enclose a cell: that joint counts as
 //! parallel edges, which are never bridges. Joints on a closed cell are statically
-//! indeterminate and get no flow here (the finite-element flexure solution is needed).
+//! indeterminate and get no flow here ([`Flow::ClosedCell`]): their flow is the
+//! finite-element flexure solution's boundary flux ([`crate::fe::joint_flow`], read
+//! through `Analysis::connection_flow`), given when its estimate meets the tolerance;
+//! a shared boundary that closes on itself has no one figure and gets none.
 //!
 //! Voids: a void belongs to the side whose solid parts contain it. A void that lies in
 //! parts on both sides of a joint cuts that joint: no flow is given for it. A void in
