@@ -336,3 +336,31 @@ fn a_core_in_a_tube_has_no_one_figure() {
         a.warnings
     );
 }
+
+#[test]
+fn the_crane_runway_box_prints_its_weld_flows() {
+    // tests/fixtures/crane-runway-box.toml through calc --json: the two top joints
+    // together carry Vy·Q/I of the top flange (Gere & Goodno; Vx adds and takes the
+    // same from the two sides, since the flange's Qy is zero), Q = 360·25·(512.5 − ȳ).
+    let text = std::fs::read_to_string("tests/fixtures/crane-runway-box.toml").expect("fixture");
+    let opts = Options {
+        torsion: Some(TorsionOptions::default()),
+    };
+    let a = kern::file::load::analyse(&text, &opts).expect("computes");
+    let u = kern::report::out::OutUnits::new(a.section.units, None);
+    let j = kern::report::json::to_json("box.toml", &a, &u);
+    let flow = |x: &str, y: &str| {
+        let c = (j["connections"].as_array().expect("connections").iter())
+            .find(|c| c["parts"][0] == x && c["parts"][1] == y)
+            .expect("the joint");
+        c["shear_flow"]
+            .as_f64()
+            .expect("a flow from the flexure solution")
+    };
+    let c = a.props.centroidal();
+    let by_hand = 180e3 * 360.0 * 25.0 * (512.5 - c.cy) / c.ixx; // N/mm
+    let sum = flow("top flange", "left web") + flow("top flange", "right web");
+    assert!(rel(sum, by_hand) < 1e-6, "{sum} vs {by_hand}");
+    let table = kern::report::table::to_table("box.toml", &a, &u);
+    assert!(table.contains("from the flexure solution"), "{table}");
+}
