@@ -283,13 +283,26 @@ impl Analysis {
             a.warnings.extend(a.cell_flow_notes());
         }
         if let Some(o) = &opts.torsion {
-            let o = TorsionOptions {
-                flexure: Some(nu_ref(&a.section)),
-                ..o.clone()
-            };
+            let o = a.torsion_options(o.tol, o.cancel.clone());
             a.set_torsion(torsion(&a.pieces, &o));
         }
         Ok(a)
+    }
+
+    /// The options of this section's torsion solve, here and in the workbench: with the
+    /// flexure solution (ν of the first material), and the mesh following the
+    /// boundaries parts share when a joint is on a closed cell (its flow needs it).
+    pub fn torsion_options(
+        &self,
+        tol: f64,
+        cancel: Option<std::sync::Arc<std::sync::atomic::AtomicBool>>,
+    ) -> TorsionOptions {
+        TorsionOptions {
+            tol,
+            cancel,
+            flexure: Some(nu_ref(&self.section)),
+            joints: (self.connections.iter()).any(|c| c.flow == Flow::ClosedCell),
+        }
     }
 
     /// Adds a torsion result solved separately (the workbench solves off the UI
@@ -631,7 +644,7 @@ impl Analysis {
             Some(Err(_)) => return Err(McrRefusal::TorsionFailed),
             Some(Ok(t)) => t,
         };
-        let pieces = crate::fe::mesh::base(&self.pieces, 1.0)
+        let pieces = crate::fe::mesh::base(&self.pieces, 1.0, false)
             .map(|b| b.mesh.pinned.len())
             .unwrap_or(1);
         if pieces > 1 {

@@ -33,6 +33,17 @@ fn flexure(a: &Analysis) -> &Flexure {
     a.flexure().expect("the flexure solution")
 }
 
+/// The flexure solution of `a`'s section on a mesh that follows every boundary parts
+/// share (the analysis asks for that only with a joint on a closed cell).
+fn flexure_at_joints(a: &Analysis) -> Flexure {
+    let opts = TorsionOptions {
+        joints: true,
+        ..a.torsion_options(kern::fe::DEFAULT_TOL, None)
+    };
+    let t = kern::fe::torsion(&a.pieces, &opts).expect("torsion solves");
+    t.flexure.expect("asked for").expect("the flexure solution")
+}
+
 fn index(a: &Analysis, name: &str) -> usize {
     a.pieces
         .iter()
@@ -223,7 +234,7 @@ fn plate_girder_bridge_joints_agree_with_v_q_over_i() {
     ]
     .concat();
     let a = analyse(&body);
-    let f = flexure(&a);
+    let f = flexure_at_joints(&a);
     assert_eq!(a.connections.len(), 2);
     for c in &a.connections {
         let Flow::Exact(_) = &c.flow else {
@@ -260,7 +271,7 @@ fn cover_plate_on_a_rolled_i_agrees_with_v_q_over_i() {
     let by_hand = 120e3 * qx / cen.ixx; // N/mm, symmetric section
     let exact = a.connection_flow(c).expect("V·Q/I") / 1e3;
     assert!(rel(exact, by_hand) < 1e-12, "{exact} vs {by_hand}");
-    let j = flexure(&a)
+    let j = flexure_at_joints(&a)
         .joint_flow(c.joint.a, c.joint.b, 0.0, 120e3)
         .expect("an FE flow");
     let err = rel(j.value, by_hand);

@@ -149,8 +149,9 @@ fn top(outlines: &[Outline], p: Pt) -> Option<&Outline> {
 type Cdt = ConstrainedDelaunayTriangulation<Point2<f64>>;
 
 /// Builds the base mesh of the region of `pieces`. `size` scales the largest element
-/// area allowed (1 for the default).
-pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
+/// area allowed (1 for the default); with `joints` the boundaries pieces share are
+/// element edges too.
+pub fn base(pieces: &[Piece], size: f64, joints: bool) -> Result<Base, Warning> {
     let bounds = crate::geom::solid_bounds(pieces).ok_or(Warning::NoSolidPart)?;
     if !bounds.iter().all(|v| v.is_finite()) {
         return Err(Warning::ExtentNotFinite);
@@ -250,7 +251,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
     // Only the outline of the region itself (and interfaces between materials or
     // parts) is meshed: edges of one part inside another, or of a void outside every
     // solid, are dropped with the corners only they had.
-    let (edges, interfaces) = union_outline(&all, &outlines);
+    let (edges, interfaces) = union_outline(&all, &outlines, joints);
     let mut cdt = Cdt::new();
     let mut snap = Snap::new(eps);
     for (p, q) in edges {
@@ -509,9 +510,9 @@ fn cell(p: Pt, eps: f64) -> (i64, i64) {
 
 /// The edges of the region's outline, from a triangulation of every part's boundary:
 /// the constraint edges with the region on one side only, other materials on its two
-/// sides, or two pieces that abut there (a joint: neither holds the other side); and
-/// whether any is such an interface inside the region.
-fn union_outline(cdt: &Cdt, outlines: &[Outline]) -> (Vec<(Pt, Pt)>, bool) {
+/// sides, or (with `joints`) two pieces that abut there (neither holds the other side);
+/// and whether any is such an interface inside the region.
+fn union_outline(cdt: &Cdt, outlines: &[Outline], joints: bool) -> (Vec<(Pt, Pt)>, bool) {
     let side = |f: spade::handles::FaceHandle<'_, spade::handles::PossiblyOuterTag, _, _, _, _>| {
         f.as_inner().and_then(|f| {
             let [a, b, c] = f.positions().map(pt);
@@ -528,7 +529,7 @@ fn union_outline(cdt: &Cdt, outlines: &[Outline]) -> (Vec<(Pt, Pt)>, bool) {
         let d = e.as_directed();
         let (l, r) = (side(d.face()), side(d.rev().face()));
         let joint = |(p, gp): (&Outline, Pt), (q, gq): (&Outline, Pt)| {
-            p.n != q.n || (p.piece != q.piece && p.winding(gq) == 0 && q.winding(gp) == 0)
+            p.n != q.n || (joints && p.piece != q.piece && p.winding(gq) == 0 && q.winding(gp) == 0)
         };
         let keep = match (l, r) {
             (Some(a), Some(b)) => joint(a, b),

@@ -111,7 +111,8 @@ pub enum Warning {
     /// solution, which is not there (torsion off, still solving, or failed).
     ClosedCellFlow { joints: Vec<(String, String)> },
     /// The flow across the closed-cell joint `a`–`b` from the flexure solution has an
-    /// estimated relative error `error` above the tolerance `tol`: withheld.
+    /// estimated relative error `error` above the tolerance `tol` (infinite when the
+    /// mesh does not follow that boundary): withheld.
     CellFlowWithheld {
         a: String,
         b: String,

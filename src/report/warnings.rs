@@ -184,6 +184,11 @@ impl fmt::Display for Warning {
                     names.join(", ")
                 )
             }
+            Warning::CellFlowWithheld { a, b, error, .. } if !error.is_finite() => write!(
+                f,
+                "the shear flow across the joint {} (on a closed cell) is not given: the finite-element mesh does not follow that shared boundary (the parts overlap there)",
+                joint(a, b)
+            ),
             Warning::CellFlowWithheld { a, b, error, tol } => write!(
                 f,
                 "the shear flow across the joint {} (on a closed cell) from the flexure solution has an estimated error of {error:.1e} against the tolerance {tol:.1e}: withheld",
