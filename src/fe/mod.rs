@@ -98,8 +98,9 @@ pub struct TorsionOptions {
     pub flexure: Option<f64>,
     /// Mesh the boundaries solid pieces share as element edges, so that the flexure
     /// solution gives the flow across them ([`flexure::Flexure::joint_flow`]); it costs
-    /// elements (7–28 % more on the built-up demo sections), so it is asked for only
-    /// when a joint is on a closed cell (`Analysis::torsion_options`).
+    /// elements (measured 7–28 % more on the built-up demo sections, 11 % on
+    /// tests/fixtures/crane-runway-box.toml), so it is asked for only when a joint is
+    /// on a closed cell (`Analysis::torsion_options`).
     pub joints: bool,
 }
 
