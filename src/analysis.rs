@@ -516,12 +516,16 @@ impl Analysis {
 
     /// The flow across a closed-cell joint under shears `vx`, `vy` (N) from the flexure
     /// solution, in N per file length unit, with its estimated error, whatever that is;
-    /// `None` for another joint or without the flexure solution.
+    /// `None` for another joint, without the flexure solution, or when the mesh does
+    /// not follow the shared boundary (its edges between the two parts are not within
+    /// 1 % of the joint's length: a jagged line where parts overlap, whose flux is not
+    /// the joint's).
     pub fn cell_flow(&self, c: &Connection, vx: f64, vy: f64) -> Option<JointFlow> {
         if c.flow != Flow::ClosedCell {
             return None;
         }
-        self.flexure()?.joint_flow(c.joint.a, c.joint.b, vx, vy)
+        let j = self.flexure()?.joint_flow(c.joint.a, c.joint.b, vx, vy)?;
+        ((j.length - c.joint.length).abs() <= 0.01 * c.joint.length).then_some(j)
     }
 
     /// The flow across connection `c` under the shears of `[actions]` from the flexure

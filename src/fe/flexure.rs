@@ -105,6 +105,9 @@ pub struct JointFlow {
     /// The shared boundary closes on itself (a core in a tube): the flow across it
     /// changes sign around the loop and this figure is its net, not a demand.
     pub closed: bool,
+    /// The length of mesh edges between the two pieces on the finest mesh (see
+    /// [`super::joint_flow::JointFlux::length`]).
+    pub length: f64,
 }
 
 /// The combined load on the section for [`Flexure::peaks`]: shear forces, torque and
@@ -132,16 +135,13 @@ impl Flexure {
     /// several stretches gives its largest.
     /// `None` when the pieces share no boundary on the mesh.
     pub fn joint_flow(&self, a: usize, b: usize, vx: f64, vy: f64) -> Option<JointFlow> {
-        let per: Vec<(f64, bool, usize)> = (self.levels.iter())
+        let per: Vec<(f64, bool, usize, f64)> = (self.levels.iter())
             .map(|l| {
                 let j = l.joints.joint(a, b)?;
                 let q = |s: &super::joint_flow::Stretch| (vx * s.flux[0] + vy * s.flux[1]).abs();
                 let value = j.stretches.iter().map(q).fold(0.0, f64::max);
-                Some((
-                    value,
-                    j.stretches.iter().any(|s| s.closed),
-                    j.stretches.len(),
-                ))
+                let closed = j.stretches.iter().any(|s| s.closed);
+                Some((value, closed, j.stretches.len(), j.length))
             })
             .collect::<Option<_>>()?;
         let [x, y, z] = per.get(per.len().checked_sub(3)?..)? else {
@@ -159,6 +159,7 @@ impl Flexure {
             value: z.0,
             rel_error: err / scale.max(f64::MIN_POSITIVE) + RTOL,
             closed: z.1,
+            length: z.3,
         })
     }
 

@@ -56,6 +56,10 @@ pub struct JointFlux {
     pub b: u32,
     /// Ordered by key.
     pub stretches: Vec<Stretch>,
+    /// The length of the element edges between the two pieces (chords): the shared
+    /// boundary's length when the mesh follows it, longer when it does not (a jagged
+    /// line between elements of overlapping parts).
+    pub length: f64,
 }
 
 /// One mesh's joint flows and each piece's load.
@@ -156,6 +160,10 @@ pub fn level(
     }
     let rule = Rule::degree4();
     let mut flux = vec![[0.0; 2]; heads.len()];
+    let mut length = vec![0.0; heads.len()];
+    for (k, e) in edges.iter().enumerate() {
+        length[slot[k]] += e.length;
+    }
     let mut piece_load = vec![[0.0; 2]; pieces];
     for (ei, e) in m.elems.iter().enumerate() {
         let piece = m.piece[ei];
@@ -204,11 +212,15 @@ pub fn level(
             flux: flux[s],
         };
         match joints.last_mut() {
-            Some(j) if (j.a, j.b) == (a, b) => j.stretches.push(stretch),
+            Some(j) if (j.a, j.b) == (a, b) => {
+                j.stretches.push(stretch);
+                j.length += length[s];
+            }
             _ => joints.push(JointFlux {
                 a,
                 b,
                 stretches: vec![stretch],
+                length: length[s],
             }),
         }
     }
