@@ -11,9 +11,9 @@
 use crate::checks::kern::kern_polygon;
 use crate::checks::ltb::{self, Buckling, Compressed};
 use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
-use crate::checks::shear_flow::{self, Connection};
+use crate::checks::shear_flow::{self, Connection, Flow};
 use crate::checks::stress::{extremes, Extremes, StressField};
-use crate::fe::flexure::{Flexure, Load, Peak};
+use crate::fe::flexure::{Flexure, JointFlow, Load, Peak};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{corner, joints, solid_bounds, Piece, Pt, Seg};
 use crate::geom::{LoadHeight, Resolved};
@@ -308,15 +308,29 @@ impl Analysis {
         }
         if scope.rest {
             a.warnings.extend(a.member_notes());
+            a.warnings.extend(a.cell_flow_notes());
         }
         if let Some(o) = &opts.torsion {
-            let o = TorsionOptions {
-                flexure: Some(nu_ref(&a.section)),
-                ..o.clone()
-            };
+            let o = a.torsion_options(o.tol, o.cancel.clone());
             a.set_torsion(torsion(&a.pieces, &o));
         }
         Ok(a)
+    }
+
+    /// The options of this section's torsion solve, here and in the workbench: with the
+    /// flexure solution (ν of the first material), and the mesh following the
+    /// boundaries parts share when a joint is on a closed cell (its flow needs it).
+    pub fn torsion_options(
+        &self,
+        tol: f64,
+        cancel: Option<std::sync::Arc<std::sync::atomic::AtomicBool>>,
+    ) -> TorsionOptions {
+        TorsionOptions {
+            tol,
+            cancel,
+            flexure: Some(nu_ref(&self.section)),
+            joints: (self.connections.iter()).any(|c| c.flow == Flow::ClosedCell),
+        }
     }
 
     /// Adds a torsion result solved separately (the workbench solves off the UI
@@ -336,6 +350,16 @@ impl Analysis {
         let note = (self.member.as_ref()).and_then(|m| m.shear_deflection_note.clone());
         self.warnings.extend(note);
         self.shear = self.shear_result();
+        self.warnings.retain(|w| {
+            !matches!(
+                w,
+                Warning::ClosedCellFlow { .. }
+                    | Warning::CellFlowWithheld { .. }
+                    | Warning::LoopJointFlow { .. }
+            )
+        });
+        let notes = self.cell_flow_notes();
+        self.warnings.extend(notes);
         let warning = (self.member.as_ref()).and_then(MemberResult::mcr_warning);
         if let Some(w) = warning.filter(|w| !self.warnings.contains(w)) {
             self.warnings.push(w);
@@ -513,23 +537,108 @@ impl Analysis {
     }
 
     /// The longitudinal shear flow across connection `c` in N/m under the shears of
-    /// `[actions]`; `None` without Vx or Vy, or where statics does not give it.
+    /// `[actions]`; `None` without Vx or Vy, or where it is not given (see
+    /// [`Analysis::flow_under`]).
     pub fn connection_flow(&self, c: &Connection) -> Option<f64> {
-        let act = self.section.actions?;
-        if act.vx.is_none() && act.vy.is_none() {
-            return None;
-        }
-        let (vx, vy) = (act.vx.unwrap_or(0.0), act.vy.unwrap_or(0.0));
-        c.q(&self.props.centroidal(), vx, vy)
-            .map(|q| self.si(q, Dim::PerLength))
+        let (vx, vy) = self.action_shears()?;
+        self.flow_under(c, vx, vy)
     }
 
     /// The flow across connection `c` in N/m at the member's largest shear force
     /// (vertical, `Vy = Vmax`, as the member check bends about x).
     pub fn connection_flow_at_vmax(&self, c: &Connection) -> Option<f64> {
         let v = self.member.as_ref()?.v_max;
-        c.q(&self.props.centroidal(), 0.0, v)
-            .map(|q| self.si(q, Dim::PerLength))
+        self.flow_under(c, 0.0, v)
+    }
+
+    /// `(Vx, Vy)` of `[actions]` in N (a missing one is zero), when either is given.
+    fn action_shears(&self) -> Option<(f64, f64)> {
+        let act = self.section.actions?;
+        if act.vx.is_none() && act.vy.is_none() {
+            return None;
+        }
+        Some((act.vx.unwrap_or(0.0), act.vy.unwrap_or(0.0)))
+    }
+
+    /// The flow across connection `c` in N/m under shears `vx`, `vy` (N): exact from
+    /// first moments for a joint whose cut separates the section; for a joint on a
+    /// closed cell from the flexure solution, when that is solved and within its
+    /// tolerance (not for a shared boundary that closes on itself); else `None`.
+    fn flow_under(&self, c: &Connection, vx: f64, vy: f64) -> Option<f64> {
+        let q = match c.flow {
+            Flow::ClosedCell => {
+                let tol = self.flexure()?.tol;
+                let j = self.cell_flow(c, vx, vy)?;
+                (!j.closed && j.rel_error <= tol).then_some(j.value)?
+            }
+            _ => c.q(&self.props.centroidal(), vx, vy)?,
+        };
+        Some(self.si(q, Dim::PerLength))
+    }
+
+    /// The flow across a closed-cell joint under shears `vx`, `vy` (N) from the flexure
+    /// solution, in N per file length unit, with its estimated error, whatever that is;
+    /// `None` for another joint, without the flexure solution, or when the mesh does
+    /// not follow the shared boundary (its edges between the two parts are not within
+    /// 1 % of the joint's length: a jagged line where parts overlap, whose flux is not
+    /// the joint's).
+    pub fn cell_flow(&self, c: &Connection, vx: f64, vy: f64) -> Option<JointFlow> {
+        if c.flow != Flow::ClosedCell {
+            return None;
+        }
+        let j = self.flexure()?.joint_flow(c.joint.a, c.joint.b, vx, vy)?;
+        ((j.length - c.joint.length).abs() <= 0.01 * c.joint.length).then_some(j)
+    }
+
+    /// The flow across connection `c` under the shears of `[actions]` from the flexure
+    /// solution, with its estimate (for the report's method column).
+    pub fn cell_flow_under_actions(&self, c: &Connection) -> Option<JointFlow> {
+        let (vx, vy) = self.action_shears()?;
+        self.cell_flow(c, vx, vy)
+    }
+
+    /// What the views must say about joints on a closed cell whose flow is asked for
+    /// (under `[actions]` or at the member's Vmax): that the flexure solution is not
+    /// there, or for each joint left out, why (estimate above the tolerance, a loop).
+    fn cell_flow_notes(&self) -> Vec<Warning> {
+        let cells: Vec<&Connection> = (self.connections.iter())
+            .filter(|c| c.flow == Flow::ClosedCell)
+            .collect();
+        let vmax = self.member.as_ref().map(|m| (0.0, m.v_max));
+        let loads: Vec<(f64, f64)> = self.action_shears().into_iter().chain(vmax).collect();
+        if cells.is_empty() || loads.is_empty() {
+            return Vec::new();
+        }
+        let name = |i: usize| self.pieces[i].name.clone();
+        let Some(flex) = self.flexure() else {
+            let joints = cells.iter().map(|c| (name(c.joint.a), name(c.joint.b)));
+            return vec![Warning::ClosedCellFlow {
+                joints: joints.collect(),
+            }];
+        };
+        let mut out = Vec::new();
+        for c in cells {
+            let (a, b) = (name(c.joint.a), name(c.joint.b));
+            let flows: Vec<Option<JointFlow>> = (loads.iter())
+                .map(|&(vx, vy)| self.cell_flow(c, vx, vy))
+                .collect();
+            if flows.iter().flatten().any(|j| j.closed) {
+                out.push(Warning::LoopJointFlow { a, b });
+                continue;
+            }
+            let error = (flows.iter())
+                .map(|j| j.map_or(f64::INFINITY, |j| j.rel_error))
+                .fold(0.0, f64::max);
+            if error > flex.tol {
+                out.push(Warning::CellFlowWithheld {
+                    a,
+                    b,
+                    error,
+                    tol: flex.tol,
+                });
+            }
+        }
+        out
     }
 
     /// Mass per metre in kg/m, when every part has a density.
@@ -601,7 +710,7 @@ impl Analysis {
             Some(Err(_)) => return Err(McrRefusal::TorsionFailed),
             Some(Ok(t)) => t,
         };
-        let pieces = crate::fe::mesh::base(&self.pieces, 1.0)
+        let pieces = crate::fe::mesh::base(&self.pieces, 1.0, false)
             .map(|b| b.mesh.pinned.len())
             .unwrap_or(1);
         if pieces > 1 {

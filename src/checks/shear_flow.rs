@@ -17,7 +17,10 @@
 //! distribution. Two parts sharing several separate stretches of boundary (a lid on a
 //! channel) or a closed loop (a core in a tube) enclose a cell: that joint counts as
 //! parallel edges, which are never bridges. Joints on a closed cell are statically
-//! indeterminate and get no flow here (the finite-element flexure solution is needed).
+//! indeterminate and get no flow here ([`Flow::ClosedCell`]): their flow is the
+//! finite-element flexure solution's boundary flux ([`crate::fe::joint_flow`], read
+//! through `Analysis::connection_flow`), given when its estimate meets the tolerance;
+//! a shared boundary that closes on itself has no one figure and gets none.
 //!
 //! Voids: a void belongs to the side whose solid parts contain it. A void that lies in
 //! parts on both sides of a joint cuts that joint: no flow is given for it. A void in
@@ -310,7 +313,8 @@ fn bridges(adj: &[Vec<(usize, usize)>], edges: usize) -> Vec<bool> {
 }
 
 /// Warnings about how the parts are joined: contacts at a point only, parts joined to
-/// nothing, and (when a shear force is given) joints whose flow is not computed.
+/// nothing, and (when a shear force is given) joints a void lies across. Joints on a
+/// closed cell are the flexure solution's (`Analysis::cell_flow_notes`).
 pub fn warnings(
     pieces: &[Piece],
     contacts: &Contacts,
@@ -348,14 +352,6 @@ pub fn warnings(
     }
     if !shear_given {
         return out;
-    }
-    let joints: Vec<(String, String)> = conns
-        .iter()
-        .filter(|c| c.flow == Flow::ClosedCell)
-        .map(|c| (name(c.joint.a), name(c.joint.b)))
-        .collect();
-    if !joints.is_empty() {
-        out.push(Warning::ClosedCellFlow { joints });
     }
     for c in conns {
         let (a, b) = (name(c.joint.a), name(c.joint.b));

@@ -78,6 +78,8 @@ struct FlexLevel {
     /// Shear areas for shear along x and along y (length²).
     area: [f64; 2],
     samples: Vec<Sample>,
+    /// The flows across the boundaries pieces share.
+    joints: super::joint_flow::Level,
 }
 
 /// The flexure results over the meshes solved.
@@ -105,6 +107,22 @@ pub struct Peak {
     pub rel_error: f64,
 }
 
+/// The flow across a joint from [`Flexure::joint_flow`].
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct JointFlow {
+    /// Force per length of member (the larger stretch's for a joint of several).
+    pub value: f64,
+    /// Estimated error relative to the larger of the flow and the largest change of
+    /// a piece's bending force under the same shears.
+    pub rel_error: f64,
+    /// The shared boundary closes on itself (a core in a tube): the flow across it
+    /// changes sign around the loop and this figure is its net, not a demand.
+    pub closed: bool,
+    /// The length of mesh edges between the two pieces on the finest mesh (see
+    /// [`super::joint_flow::JointFlux::length`]).
+    pub length: f64,
+}
+
 /// The combined load on the section for [`Flexure::peaks`]: shear forces, torque and
 /// the normal stress of the reference material at a point of the file frame, in one
 /// consistent set of units (e.g. `vx` in N/m² per unit² of area gives τ in Pa).
@@ -119,6 +137,48 @@ impl Flexure {
     /// The samples of the finest mesh.
     pub fn samples(&self) -> &[Sample] {
         self.levels.last().map_or(&[], |l| &l.samples)
+    }
+
+    /// The longitudinal shear flow across the boundary pieces `a` and `b` share under
+    /// shears `vx`, `vy` (force per length of member, in the forces' unit per length
+    /// unit), from the finest mesh, with its estimated error (Richardson over the last
+    /// three meshes, plus the solves' relative residual [`RTOL`]: the flux from an
+    /// inexact solve differs by about that share, measured 1e-8 on a box) relative to the
+    /// larger of the flow and the largest change of a piece's bending force. A joint of
+    /// several stretches gives its largest.
+    /// `None` when the pieces share no boundary on the mesh.
+    pub fn joint_flow(&self, a: usize, b: usize, vx: f64, vy: f64) -> Option<JointFlow> {
+        let per: Vec<(f64, bool, usize, f64)> = (self.levels.iter())
+            .map(|l| {
+                let j = l.joints.joint(a, b)?;
+                let q = |s: &super::joint_flow::Stretch| (vx * s.flux[0] + vy * s.flux[1]).abs();
+                let value = j.stretches.iter().map(q).fold(0.0, f64::max);
+                let closed = j.stretches.iter().any(|s| s.closed);
+                Some((value, closed, j.stretches.len(), j.length))
+            })
+            .collect::<Option<_>>()?;
+        let [x, y, z] = per.get(per.len().checked_sub(3)?..)? else {
+            return None;
+        };
+        if x.2 != z.2 || y.2 != z.2 {
+            return None;
+        }
+        let (_, err) = super::richardson(x.0, y.0, z.0, 4.0);
+        let finest = self.levels.last()?;
+        let scale = (finest.joints.load.iter())
+            .map(|l| (vx * l[0] + vy * l[1]).abs())
+            .fold(z.0, f64::max);
+        Some(JointFlow {
+            value: z.0,
+            rel_error: err / scale.max(f64::MIN_POSITIVE) + RTOL,
+            closed: z.1,
+            length: z.3,
+        })
+    }
+
+    /// The flows and piece loads of the finest mesh (for checks of equilibrium).
+    pub fn joint_level(&self) -> Option<&super::joint_flow::Level> {
+        self.levels.last().map(|l| &l.joints)
     }
 
     /// The largest resultant shear stress √(τzx² + τzy²) and the largest von Mises
@@ -404,16 +464,24 @@ fn solve_level(
         return Err(Failure::Degenerate);
     }
     let samples = recover(m, c, &tau_at)?;
+    // b = −∇·τ of each unit shear: n·r/D (the right-hand side above, scaled like τ).
+    let load = |ei: usize, x: f64, y: f64| {
+        let (_, r) = terms(mom, x, y);
+        [m.weight[ei] * r[0] / d, m.weight[ei] * r[1] / d]
+    };
+    let joints = super::joint_flow::level(m, c, &tau_at, &load)?;
     fl.psi = psi;
     Ok(FlexLevel {
         area: [1.0 / energy[0], 1.0 / energy[1]],
         samples,
+        joints,
     })
 }
 
 /// τ from the three unit loads at a point of an element: element index, its nodes, the
 /// point (local frame) and the shape functions' gradients there.
-type TauAt<'a> = dyn Fn(usize, &[u32; 6], f64, f64, &[f64; 6], &[f64; 6]) -> [[f64; 2]; 3] + 'a;
+pub(super) type TauAt<'a> =
+    dyn Fn(usize, &[u32; 6], f64, f64, &[f64; 6], &[f64; 6]) -> [[f64; 2]; 3] + 'a;
 
 /// Nodal stresses: each node's elements' values at it, area-weighted; at a node where
 /// materials meet, each element's own value.

@@ -80,6 +80,9 @@ pub struct Mesh {
     /// Shear modulus ratio `G/G_ref` of each element's material (the Saint-Venant
     /// shear stresses).
     pub shear: Vec<f64>,
+    /// The piece (index into the pieces meshed) each element belongs to: the solid
+    /// listed last at its centroid. Boundaries two pieces share are mesh edges.
+    pub piece: Vec<u32>,
     /// The arc each element edge lies on, or [`NO_ARC`].
     pub edge_arc: Vec<[u32; 3]>,
     /// Whether the element may be curved (a mid-side off its chord).
@@ -107,6 +110,8 @@ struct Outline {
     void: bool,
     /// `[E/E_ref, G/G_ref]` of the piece.
     n: [f64; 2],
+    /// Index of the piece among those meshed.
+    piece: u32,
 }
 
 impl Outline {
@@ -123,6 +128,11 @@ impl Outline {
 /// What the region holds at a point: `None` outside, else the ratios `[E/E_ref,
 /// G/G_ref]` of the part on top there.
 fn classify(outlines: &[Outline], p: Pt) -> Option<[f64; 2]> {
+    top(outlines, p).map(|o| o.n)
+}
+
+/// The solid piece on top at a point (the one listed last), `None` outside the region.
+fn top(outlines: &[Outline], p: Pt) -> Option<&Outline> {
     let mut solid = None;
     for o in outlines {
         if o.winding(p) != 0 {
@@ -130,7 +140,7 @@ fn classify(outlines: &[Outline], p: Pt) -> Option<[f64; 2]> {
                 return None;
             }
             // Later parts lie on top of earlier ones.
-            solid = Some(o.n);
+            solid = Some(o);
         }
     }
     solid
@@ -139,8 +149,9 @@ fn classify(outlines: &[Outline], p: Pt) -> Option<[f64; 2]> {
 type Cdt = ConstrainedDelaunayTriangulation<Point2<f64>>;
 
 /// Builds the base mesh of the region of `pieces`. `size` scales the largest element
-/// area allowed (1 for the default).
-pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
+/// area allowed (1 for the default); with `joints` the boundaries pieces share are
+/// element edges too.
+pub fn base(pieces: &[Piece], size: f64, joints: bool) -> Result<Base, Warning> {
     let bounds = crate::geom::solid_bounds(pieces).ok_or(Warning::NoSolidPart)?;
     if !bounds.iter().all(|v| v.is_finite()) {
         return Err(Warning::ExtentNotFinite);
@@ -157,7 +168,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
     let mut arcs = Vec::new();
     let mut arc_sweeps = Vec::new();
     let mut chords = Vec::new();
-    for p in pieces {
+    for (index, p) in pieces.iter().enumerate() {
         let mut loops = Vec::new();
         for c in &p.contours {
             let mut pts: Vec<Pt> = Vec::new();
@@ -214,6 +225,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
                 bounds,
                 void: p.void,
                 n: [p.n, p.g],
+                piece: index as u32,
             });
         }
     }
@@ -236,10 +248,10 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
             }
         }
     }
-    // Only the outline of the region itself (and interfaces between materials) is
-    // meshed: edges of one part inside another, or of a void outside every solid, are
-    // dropped with the corners only they had.
-    let (edges, interfaces) = union_outline(&all, &outlines);
+    // Only the outline of the region itself (and interfaces between materials or
+    // parts) is meshed: edges of one part inside another, or of a void outside every
+    // solid, are dropped with the corners only they had.
+    let (edges, interfaces) = union_outline(&all, &outlines, joints);
     let mut cdt = Cdt::new();
     let mut snap = Snap::new(eps);
     for (p, q) in edges {
@@ -377,6 +389,8 @@ struct Tri {
     constraint: [bool; 3],
     /// `[E/E_ref, G/G_ref]`.
     n: [f64; 2],
+    /// The piece on top at the centroid.
+    piece: u32,
     area: f64,
 }
 
@@ -389,12 +403,13 @@ fn region_triangles(cdt: &Cdt, outlines: &[Outline]) -> Vec<Tri> {
     for f in cdt.inner_faces() {
         let [a, b, c] = f.positions().map(pt);
         let g = a.add(b).add(c).scale(1.0 / 3.0);
-        if let Some(n) = classify(outlines, g) {
+        if let Some(o) = top(outlines, g) {
             let e = f.adjacent_edges();
             out.push(Tri {
                 v: f.vertices().map(|v| v.fix().index()),
                 constraint: e.map(|e| cdt.is_constraint_edge(e.as_undirected().fix())),
-                n,
+                n: o.n,
+                piece: o.piece,
                 area: 0.5 * b.sub(a).cross(c.sub(a)),
             });
         }
@@ -494,13 +509,15 @@ fn cell(p: Pt, eps: f64) -> (i64, i64) {
 }
 
 /// The edges of the region's outline, from a triangulation of every part's boundary:
-/// the constraint edges with the region on one side only, or other materials on
-/// its two sides; and whether any is such an interface between materials.
-fn union_outline(cdt: &Cdt, outlines: &[Outline]) -> (Vec<(Pt, Pt)>, bool) {
+/// the constraint edges with the region on one side only, other materials on its two
+/// sides, or (with `joints`) two pieces that abut there (neither holds the other side);
+/// and whether any is such an interface inside the region.
+fn union_outline(cdt: &Cdt, outlines: &[Outline], joints: bool) -> (Vec<(Pt, Pt)>, bool) {
     let side = |f: spade::handles::FaceHandle<'_, spade::handles::PossiblyOuterTag, _, _, _, _>| {
         f.as_inner().and_then(|f| {
             let [a, b, c] = f.positions().map(pt);
-            classify(outlines, a.add(b).add(c).scale(1.0 / 3.0))
+            let g = a.add(b).add(c).scale(1.0 / 3.0);
+            top(outlines, g).map(|o| (o, g))
         })
     };
     let mut edges = Vec::new();
@@ -511,7 +528,15 @@ fn union_outline(cdt: &Cdt, outlines: &[Outline]) -> (Vec<(Pt, Pt)>, bool) {
         }
         let d = e.as_directed();
         let (l, r) = (side(d.face()), side(d.rev().face()));
-        if l != r {
+        let joint = |(p, gp): (&Outline, Pt), (q, gq): (&Outline, Pt)| {
+            p.n != q.n || (joints && p.piece != q.piece && p.winding(gq) == 0 && q.winding(gp) == 0)
+        };
+        let keep = match (l, r) {
+            (Some(a), Some(b)) => joint(a, b),
+            (None, None) => false,
+            _ => true,
+        };
+        if keep {
             interfaces |= l.is_some() && r.is_some();
             let [p, q] = d.positions().map(pt);
             edges.push((p, q));
@@ -670,6 +695,7 @@ fn build(
         elems,
         weight: tris.iter().map(|t| t.n[0]).collect(),
         shear: tris.iter().map(|t| t.n[1]).collect(),
+        piece: tris.iter().map(|t| t.piece).collect(),
         edge_arc,
         curved,
         arcs,
@@ -756,6 +782,7 @@ impl Mesh {
         let mut curved = Vec::with_capacity(4 * ne);
         let mut weight = Vec::with_capacity(4 * ne);
         let mut shear = Vec::with_capacity(4 * ne);
+        let mut piece = Vec::with_capacity(4 * ne);
         let place = |e: &[u32; 6], k: usize, nodes: &[Pt]| -> Pt {
             let mut p = Pt::default();
             for i in 0..6 {
@@ -804,6 +831,7 @@ impl Mesh {
                 curved.push(self.curved[ei]);
                 weight.push(self.weight[ei]);
                 shear.push(self.shear[ei]);
+                piece.push(self.piece[ei]);
             }
         }
         let mut component = self.component.clone();
@@ -820,6 +848,7 @@ impl Mesh {
             elems,
             weight,
             shear,
+            piece,
             edge_arc,
             curved,
             arcs: self.arcs.clone(),

@@ -216,7 +216,7 @@ fn refinement_converges_at_a_consistent_rate() {
     // large, nearly constant factor below the previous (P2: up to 2⁴ for J).
     let (b, t) = (100.0, 50.0);
     let exact = rect_series(b, t);
-    let mut m = mesh::base(&solid(Shape::Rect { b, h: t }), 1.0)
+    let mut m = mesh::base(&solid(Shape::Rect { b, h: t }), 1.0, false)
         .expect("mesh")
         .mesh;
     let mut errs = Vec::new();
@@ -243,6 +243,7 @@ fn cancellation_flag_stops_the_solver() {
         tol: 1e-3,
         cancel: Some(flag),
         flexure: None,
+        joints: false,
     };
     let r = torsion(&solid(Shape::Rect { b: 10.0, h: 5.0 }), &opts);
     assert_eq!(r, Err(crate::model::Warning::Cancelled));

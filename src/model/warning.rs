@@ -107,8 +107,21 @@ pub enum Warning {
     NoSharedBoundary { solids: usize },
     /// The solid `parts` share no boundary with another solid part (the others do).
     PartsAlone { parts: Vec<String> },
-    /// Joints (pairs of part names) on a closed cell, whose flow is not computed.
+    /// Joints (pairs of part names) on a closed cell, whose flow needs the flexure
+    /// solution, which is not there (torsion off, still solving, or failed).
     ClosedCellFlow { joints: Vec<(String, String)> },
+    /// The flow across the closed-cell joint `a`–`b` from the flexure solution has an
+    /// estimated relative error `error` above the tolerance `tol` (infinite when the
+    /// mesh does not follow that boundary): withheld.
+    CellFlowWithheld {
+        a: String,
+        b: String,
+        error: f64,
+        tol: f64,
+    },
+    /// The boundary parts `a` and `b` share is a closed loop (a core in a tube): the
+    /// flow across it changes around the loop and has no one figure.
+    LoopJointFlow { a: String, b: String },
     /// Void `void` lies in parts on both sides of the joint `a`–`b`.
     VoidAcrossJoint { void: String, a: String, b: String },
     /// Void `void` is in no solid part, so the joint `a`–`b` cannot be given its share.

@@ -449,9 +449,9 @@ fn connections(s: &mut Vec<Block>, a: &Analysis, u: &OutUnits) {
 joint separates the section in two, the longitudinal shear flow it carries follows from \
 the equilibrium of the side cut off (gross section, modular ratios, voids inside that side \
 subtracted): q = |(Vy·Iyy − Vx·Ixy)·Qx + (Vx·Ixx − Vy·Ixy)·Qy| / (Ixx·Iyy − Ixy²), with \
-Qx = A′·(ȳ′ − ȳ) and Qy = A′·(x̄′ − x̄) of that side (area A′, centroid x̄′, ȳ′). Joints \
-on a closed cell are statically indeterminate: their flow needs the flexure solution and \
-is not given. Flows in {}.",
+Qx = A′·(ȳ′ − ȳ) and Qy = A′·(x̄′ − x̄) of that side (area A′, centroid x̄′, ȳ′). {}Flows \
+in {}.",
+        cell_method(a),
         qu.name
     ))));
     let name = |i: usize| Span::User(a.pieces[i].name.clone());
@@ -480,7 +480,19 @@ is not given. Flows in {}.",
                         ]),
                     )
                 }
-                Flow::ClosedCell => (own("closed cell"), none()),
+                Flow::ClosedCell => (
+                    own(match a.cell_flow_under_actions(c) {
+                        Some(j) => format!(
+                            "closed cell: from the flexure solution, estimate {}",
+                            sig(j.rel_error, 2)
+                        ),
+                        None if a.flexure().is_some() => {
+                            "closed cell: from the flexure solution".into()
+                        }
+                        None => "closed cell: needs the flexure solution".into(),
+                    }),
+                    none(),
+                ),
                 Flow::VoidAcross(_) | Flow::StrayVoid(_) => (own("a void lies across"), none()),
             };
             let q = |v: Option<f64>| own(v.map_or("—".into(), |q| fig(u, qu.from_si(q))));
@@ -519,6 +531,25 @@ is not given. Flows in {}.",
         ],
         body,
     );
+}
+
+/// How the flows of joints on a closed cell are found (empty without such joints).
+fn cell_method(a: &Analysis) -> &'static str {
+    if !a.connections.iter().any(|c| c.flow == Flow::ClosedCell) {
+        return "";
+    }
+    if a.flexure().is_some() {
+        "Joints on a closed cell are statically indeterminate: their flow is taken from the \
+finite-element flexure solution, as the flux across the shared boundary that balances the \
+change of each part's bending force (the flows out of a part sum to it on every mesh), \
+with its estimated error (Richardson over the last three meshes, relative to the larger \
+of the flow and the largest part's change of force); a flow whose estimate is above the \
+tolerance is not given. "
+    } else {
+        "Joints on a closed cell are statically indeterminate: their flow needs the \
+finite-element flexure solution, which was not run for this sheet (torsion off), so none \
+is given. "
+    }
 }
 
 /// The shear stresses and shear areas: how they were found, or why they are not given.

@@ -503,7 +503,11 @@ fn connection_rows(a: &Analysis, u: &OutUnits) -> Vec<Row> {
         .section
         .actions
         .is_some_and(|x| x.vx.is_some() || x.vy.is_some());
-    let closed_note = "joint on a closed cell: flow needs the flexure solution (not computed)";
+    let closed_note = if a.flexure().is_some() {
+        "joint on a closed cell: shear flow from the finite-element flexure solution"
+    } else {
+        "joint on a closed cell: flow needs the finite-element flexure solution (not solved)"
+    };
     let mut out = Vec::new();
     for c in &a.connections {
         let pair = format!("{}–{}", a.pieces[c.joint.a].name, a.pieces[c.joint.b].name);

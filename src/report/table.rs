@@ -84,6 +84,15 @@ pub fn to_table(file: &str, a: &Analysis, u: &OutUnits) -> String {
             t.method, t.elements
         ));
     }
+    // Which flows came from the finite elements, and how good they are.
+    let cells = (a.connections.iter())
+        .filter(|c| a.connection_flow(c).is_some())
+        .filter_map(|c| a.cell_flow_under_actions(c));
+    if let Some(worst) = cells.map(|j| j.rel_error).reduce(f64::max) {
+        s.push_str(&format!(
+            "  connections: q across joints on a closed cell from the flexure solution (boundary flux), estimated relative error {worst:.1e} at most\n"
+        ));
+    }
     for w in &a.warnings {
         s.push_str(&format!("  warning: {}\n", clean(&w.to_string())));
     }

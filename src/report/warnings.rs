@@ -186,10 +186,25 @@ impl fmt::Display for Warning {
                 let names: Vec<String> = joints.iter().map(|(a, b)| joint(a, b)).collect();
                 write!(
                     f,
-                    "the shear flow across joints on a closed cell ({}) needs the finite-element flexure solution, which is not yet computed: no flow is given for them",
+                    "the shear flow across joints on a closed cell ({}) comes from the finite-element flexure solution, which is not there (torsion is off with --no-torsion, still solving, or not computed): no flow is given for them",
                     names.join(", ")
                 )
             }
+            Warning::CellFlowWithheld { a, b, error, .. } if !error.is_finite() => write!(
+                f,
+                "the shear flow across the joint {} (on a closed cell) is not given: the finite-element mesh does not follow that shared boundary (the parts overlap there)",
+                joint(a, b)
+            ),
+            Warning::CellFlowWithheld { a, b, error, tol } => write!(
+                f,
+                "the shear flow across the joint {} (on a closed cell) from the flexure solution has an estimated error of {error:.1e} against the tolerance {tol:.1e}: withheld",
+                joint(a, b)
+            ),
+            Warning::LoopJointFlow { a, b } => write!(
+                f,
+                "the joint {} is a closed loop: the shear flow across it changes around the loop and has no one figure (none is given); see the shear stresses",
+                joint(a, b)
+            ),
             Warning::VoidAcrossJoint { void, a, b } => write!(
                 f,
                 "void `{void}` lies in parts on both sides of the joint {}: the flow across it is not computed",

@@ -9,7 +9,7 @@ use super::config::Config;
 use super::theme::Theme;
 use super::worker::{Poll, Worker};
 use crate::analysis::{nu_ref, Analysis, Options};
-use crate::fe::{torsion, TorsionOptions};
+use crate::fe::torsion;
 use crate::file::edit::{self, Edit, Place};
 use crate::file::input::read_text;
 use crate::file::recover;
@@ -642,10 +642,5 @@ impl App {
 /// The torsion solve, with the flexure solution, on this thread to the default tolerance
 /// (the inline solver).
 fn solve_here(a: &Analysis) -> Result<crate::fe::Torsion, crate::model::Warning> {
-    let opts = TorsionOptions {
-        tol: crate::fe::DEFAULT_TOL,
-        cancel: None,
-        flexure: Some(nu_ref(&a.section)),
-    };
-    torsion(&a.pieces, &opts)
+    torsion(&a.pieces, &a.torsion_options(crate::fe::DEFAULT_TOL, None))
 }

@@ -3,7 +3,7 @@
 //! the one before, so a stale solve stops early and its result is never shown. The flexure
 //! solution (shear areas and stresses) rides the same solve, with the section's ν.
 
-use crate::analysis::{nu_ref, Analysis};
+use crate::analysis::Analysis;
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::Piece;
 use std::sync::atomic::{AtomicBool, Ordering};
@@ -13,8 +13,8 @@ use std::sync::Arc;
 struct Job {
     generation: u64,
     pieces: Vec<Piece>,
-    /// Poisson's ratio of the first material, for the flexure solution.
-    nu: f64,
+    /// The solve's options (`Analysis::torsion_options`), its cancel flag among them.
+    opts: TorsionOptions,
     cancel: Arc<AtomicBool>,
 }
 
@@ -53,12 +53,8 @@ impl Worker {
                 if job.cancel.load(Ordering::Relaxed) {
                     continue;
                 }
-                let opts = TorsionOptions {
-                    tol: crate::fe::DEFAULT_TOL,
-                    cancel: Some(job.cancel.clone()),
-                    flexure: Some(job.nu),
-                };
-                let result = std::panic::catch_unwind(|| torsion(&job.pieces, &opts))
+                let opts = &job.opts;
+                let result = std::panic::catch_unwind(|| torsion(&job.pieces, opts))
                     .unwrap_or(Err(crate::model::Warning::SolverFailed));
                 if job.cancel.load(Ordering::Relaxed) {
                     continue;
@@ -89,7 +85,7 @@ impl Worker {
         let _ = self.jobs.send(Job {
             generation,
             pieces: a.pieces.clone(),
-            nu: nu_ref(&a.section),
+            opts: a.torsion_options(crate::fe::DEFAULT_TOL, Some(cancel.clone())),
             cancel,
         });
     }
