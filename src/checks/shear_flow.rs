@@ -30,6 +30,7 @@ use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::Warning;
 use crate::props::{Centroidal, Moments};
+use std::cell::OnceCell;
 
 /// The part of the section on one side of a bridge joint, about the section centroid
 /// (transformed by modular ratios, voids inside subtracted).
@@ -116,23 +117,10 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
     }
     let bridge = bridges(&adj, edges.len());
     let origin = Pt::new(c.cx, c.cy);
-    let moments: Vec<Moments> = pieces
-        .iter()
-        .map(|p| {
-            let shifted: Vec<_> = p
-                .contours
-                .iter()
-                .map(|k| crate::geom::Contour {
-                    segs: k
-                        .segs
-                        .iter()
-                        .map(|s| s.shifted(Pt::new(-origin.x, -origin.y)))
-                        .collect(),
-                })
-                .collect();
-            Moments::default().plus(&Moments::of_contours(&shifted), p.sign() * p.n)
-        })
-        .collect();
+    // The first moments of a part about the centroid, found the first time a side cut
+    // off holds it (most parts are on the larger side of every joint).
+    let moments: Vec<OnceCell<Moments>> = pieces.iter().map(|_| OnceCell::new()).collect();
+    let moment = |i: usize| *moments[i].get_or_init(|| piece_moments(&pieces[i], origin));
     let homes = void_homes(pieces);
     joints
         .iter()
@@ -142,7 +130,7 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
             let flow = if !bridge[e] || !j.is_single_open() {
                 Flow::ClosedCell
             } else {
-                cut_off(&adj, e, j, &moments, &homes, origin)
+                cut_off(&adj, e, j, &moment, &homes, origin)
             };
             Connection {
                 joint: j.clone(),
@@ -152,13 +140,29 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
         .collect()
 }
 
+/// The moments of piece `p` about `origin`, signed and weighted by its modular ratio.
+fn piece_moments(p: &Piece, origin: Pt) -> Moments {
+    let shifted: Vec<_> = p
+        .contours
+        .iter()
+        .map(|k| crate::geom::Contour {
+            segs: k
+                .segs
+                .iter()
+                .map(|s| s.shifted(Pt::new(-origin.x, -origin.y)))
+                .collect(),
+        })
+        .collect();
+    Moments::default().plus(&Moments::of_contours(&shifted), p.sign() * p.n)
+}
+
 /// The side of bridge edge `e` with fewer parts (the later part's side on a tie), its
 /// voids, and its first moments.
 fn cut_off(
     adj: &[Vec<(usize, usize)>],
     e: usize,
     j: &Joint,
-    moments: &[Moments],
+    moment: &dyn Fn(usize) -> Moments,
     homes: &[(usize, Vec<usize>)],
     origin: Pt,
 ) -> Flow {
@@ -181,7 +185,7 @@ fn cut_off(
     let side = if count(&sa) < count(&sb) { sa } else { sb };
     let mut m = Moments::default();
     for (i, _) in side.iter().enumerate().filter(|(_, &s)| s) {
-        m = m.plus(&moments[i], 1.0);
+        m = m.plus(&moment(i), 1.0);
     }
     for (v, inside) in homes {
         if inside.is_empty() {
@@ -189,7 +193,7 @@ fn cut_off(
         }
         let on = inside.iter().filter(|&&i| side[i]).count();
         if on == inside.len() {
-            m = m.plus(&moments[*v], 1.0);
+            m = m.plus(&moment(*v), 1.0);
         } else if on > 0 {
             return Flow::VoidAcross(*v);
         }
@@ -217,15 +221,14 @@ fn cut_off(
 fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
     let size = crate::geom::solid_bounds(pieces).map_or(1.0, |b| (b[1] - b[0]).max(b[3] - b[2]));
     let delta = 1e-6 * size;
-    let solids: Vec<(usize, [f64; 4], Vec<Vec<Pt>>)> = pieces
+    // A solid's outline is cut into chords the first time a void comes near it.
+    let solids: Vec<(usize, [f64; 4], OnceCell<Vec<Vec<Pt>>>)> = pieces
         .iter()
         .enumerate()
         .filter(|(_, p)| !p.void)
-        .filter_map(|(i, p)| {
-            let loops = p.contours.iter().map(|c| c.facets(1f64.to_radians()));
-            Some((i, p.bounds()?, loops.collect()))
-        })
+        .filter_map(|(i, p)| Some((i, p.bounds()?, OnceCell::new())))
         .collect();
+    let facets = |c: &crate::geom::Contour| c.facets(1f64.to_radians());
     pieces
         .iter()
         .enumerate()
@@ -254,7 +257,11 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
             let inside = solids
                 .iter()
                 .filter(|(_, b, _)| near(b))
-                .filter(|(_, _, loops)| probes.iter().any(|&q| winding(loops, q) != 0))
+                .filter(|(i, _, cell)| {
+                    let loops =
+                        cell.get_or_init(|| pieces[*i].contours.iter().map(facets).collect());
+                    probes.iter().any(|&q| winding(loops, q) != 0)
+                })
                 .map(|(i, _, _)| *i)
                 .collect();
             (v, inside)
