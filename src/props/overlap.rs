@@ -13,6 +13,7 @@
 use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::warning::{More, Warning};
+use std::cell::OnceCell;
 
 const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
 
@@ -20,7 +21,8 @@ const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
 pub const SHOWN: usize = 20;
 
 /// A region as polygons (outlines counter-clockwise, holes clockwise).
-struct Shape {
+struct Shape<'a> {
+    piece: &'a Piece,
     loops: Vec<Vec<Pt>>,
     /// Every edge of every loop in loop order, with whether it starts its loop.
     edges: Vec<Edge>,
@@ -28,12 +30,13 @@ struct Shape {
     by_x: Vec<u32>,
     bounds: [f64; 4],
     area: f64,
-    /// A point inside and its distance to the boundary (> 0), when the centroid is one.
-    core: Option<(Pt, f64)>,
+    /// A point inside and its distance to the boundary (> 0), when the centroid is one;
+    /// found the first time it is asked for ([`Shape::core`]).
+    core: OnceCell<Option<(Pt, f64)>>,
 }
 
-impl Shape {
-    fn of(p: &Piece) -> Option<Shape> {
+impl<'a> Shape<'a> {
+    fn of(p: &'a Piece) -> Option<Shape<'a>> {
         let loops: Vec<Vec<Pt>> = p.contours.iter().map(|c| c.facets(FACET)).collect();
         let bounds = p.bounds()?;
         let area = loops
@@ -44,26 +47,31 @@ impl Shape {
             .iter()
             .flat_map(|l| (0..l.len()).map(move |i| Edge::new(l[i], l[(i + 1) % l.len()], i == 0)))
             .collect();
-        let mut by_x: Vec<u32> = (0..edges.len() as u32).collect();
-        by_x.sort_unstable_by(|&i, &j| {
-            edges[i as usize].bbox[0].total_cmp(&edges[j as usize].bbox[0])
-        });
-        let mut s = Shape {
+        // Sorted on (key, index) pairs: no look-up into the edges while sorting.
+        let mut keyed: Vec<(f64, u32)> = (edges.iter().enumerate())
+            .map(|(i, e)| (e.bbox[0], i as u32))
+            .collect();
+        keyed.sort_unstable_by(|a, b| a.0.total_cmp(&b.0));
+        let by_x: Vec<u32> = keyed.into_iter().map(|(_, i)| i).collect();
+        Some(Shape {
+            piece: p,
             loops,
             edges,
             by_x,
             bounds,
             area,
-            core: None,
-        };
-        let m = crate::props::Moments::of_contours(&p.contours);
-        if let Some(c) = m.centroid() {
-            let r = s.clearance(c);
-            if s.winding(c) > 0 && r > 0.0 {
-                s.core = Some((c, r));
-            }
-        }
-        Some(s)
+            core: OnceCell::new(),
+        })
+    }
+
+    /// A point inside and its distance to the boundary (> 0): the centroid, when it is
+    /// inside.
+    fn core(&self) -> Option<(Pt, f64)> {
+        *self.core.get_or_init(|| {
+            let c = crate::props::Moments::of_contours(&self.piece.contours).centroid()?;
+            let r = self.clearance(c);
+            (self.winding(c) > 0 && r > 0.0).then_some((c, r))
+        })
     }
 
     /// Distance from `p` to the nearest edge.
@@ -79,7 +87,7 @@ impl Shape {
         [(self, q), (q, self)]
             .iter()
             .filter_map(|(a, b)| {
-                let (c, r) = a.core?;
+                let (c, r) = a.core()?;
                 (b.winding(c) > 0).then(|| {
                     let rr = r.min(b.clearance(c));
                     std::f64::consts::PI * rr * rr
@@ -512,14 +520,14 @@ mod tests {
         };
         for round in 0..20 {
             let n = 5 + round * 7;
-            let shapes: Vec<Option<Shape>> = (0..n)
+            let pieces: Vec<Piece> = (0..n)
                 .map(|_| {
                     let (x, y) = (100.0 * next(), 100.0 * next());
                     let (w, h) = (1.0 + 30.0 * next(), 1.0 + 30.0 * next());
-                    let c = Contour::rounded_rect(x, y, x + w, y + h, 0.0);
-                    Shape::of(&piece("box", c, false))
+                    piece("box", Contour::rounded_rect(x, y, x + w, y + h, 0.0), false)
                 })
                 .collect();
+            let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
             let mut swept = Vec::new();
             box_pairs(&shapes, |i, j| swept.push((i, j)));
             swept.sort_unstable();
