@@ -157,11 +157,28 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
     let meet = |a: &[f64; 4], b: &[f64; 4]| {
         a[0] - tol <= b[1] && b[0] <= a[1] + tol && a[2] - tol <= b[3] && b[2] <= a[3] + tol
     };
-    while i < p.by_x.len() || j < q.by_x.len() {
+    // Only edges whose boxes meet the other shape's box (widened by twice `tol`, which
+    // covers a chord's rounding past its arc's box) can be in a pair.
+    let near = |b: [f64; 4]| {
+        move |e: &[f64; 4]| {
+            e[0] - 2.0 * tol <= b[1]
+                && b[0] <= e[1] + 2.0 * tol
+                && e[2] - 2.0 * tol <= b[3]
+                && b[2] <= e[3] + 2.0 * tol
+        }
+    };
+    let (near_q, near_p) = (near(q.bounds), near(p.bounds));
+    let p_by_x: Vec<u32> = p.by_x.iter().copied().filter(|&k| near_q(pe(k))).collect();
+    let q_by_x: Vec<u32> = q.by_x.iter().copied().filter(|&k| near_p(qe(k))).collect();
+    if p_by_x.is_empty() || q_by_x.is_empty() {
+        return pairs;
+    }
+    let (p_by_x, q_by_x) = (&p_by_x, &q_by_x);
+    while i < p_by_x.len() || j < q_by_x.len() {
         let take_p =
-            j == q.by_x.len() || (i < p.by_x.len() && pe(p.by_x[i])[0] - tol <= qe(q.by_x[j])[0]);
+            j == q_by_x.len() || (i < p_by_x.len() && pe(p_by_x[i])[0] - tol <= qe(q_by_x[j])[0]);
         if take_p {
-            let e = p.by_x[i];
+            let e = p_by_x[i];
             i += 1;
             let x0 = pe(e)[0] - tol;
             active_q.retain(|&f| qe(f)[1] >= x0);
@@ -173,7 +190,7 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
             );
             active_p.push(e);
         } else {
-            let f = q.by_x[j];
+            let f = q_by_x[j];
             j += 1;
             let x0 = qe(f)[0];
             active_p.retain(|&e| pe(e)[1] + tol >= x0);
@@ -236,6 +253,15 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
             continue;
         }
         let d = b.sub(a);
+        // Away from ∂Q after a piece whose side is known: the whole edge is one piece on
+        // that side (the same sums as the general case below, which it skips).
+        if let (true, Some(inside)) = (near.is_empty(), side) {
+            if inside {
+                let (s0, s1) = (a.add(d.scale(0.0)), a.add(d.scale(1.0)));
+                sum += 0.5 * (s0.x + s1.x) * (s1.y - s0.y);
+            }
+            continue;
+        }
         ts.clear();
         ts.extend([0.0, 1.0]);
         for &f in &near {
