@@ -24,6 +24,7 @@
 //! no solid part leaves every flow out (the section's properties then include material
 //! no part carries).
 
+use crate::geom::contour::ArcOffsets;
 use crate::geom::joints::{Contacts, Joint};
 use crate::geom::simple::winding;
 use crate::geom::BoundaryIntegral;
@@ -229,6 +230,7 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
         .filter_map(|(i, p)| Some((i, p.bounds()?, OnceCell::new())))
         .collect();
     let facets = |c: &crate::geom::Contour| c.facets(1f64.to_radians());
+    let mut memo = ArcOffsets::default();
     pieces
         .iter()
         .enumerate()
@@ -236,7 +238,7 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
         .map(|(v, p)| {
             let mut probes = Vec::new();
             for c in &p.contours {
-                let f = c.facets(5f64.to_radians());
+                let f = c.facets_in(5f64.to_radians(), &mut memo);
                 for (k, &a) in f.iter().enumerate() {
                     let b = f[(k + 1) % f.len()];
                     let d = b.sub(a);

@@ -249,15 +249,31 @@ impl Seg {
     /// Points along the segment, excluding its end point: the start for a line; for an
     /// arc, the start and interior points with at most `max_angle` radians between them.
     pub fn facet_points(&self, max_angle: f64, out: &mut Vec<Pt>) {
+        self.facet_points_in(max_angle, &mut ArcOffsets::default(), out);
+    }
+
+    /// [`Seg::facet_points`], with an arc's points about its centre taken from `memo`
+    /// when an arc of the same radius and angles was cut before (the same numbers: a
+    /// point is the centre plus its offset either way).
+    pub fn facet_points_in(&self, max_angle: f64, memo: &mut ArcOffsets, out: &mut Vec<Pt>) {
         match *self {
             Seg::Line(a, _) => out.push(a),
             Seg::Arc { c, r, a0, a1 } => {
-                let sweep = a1 - a0;
-                let n = chords(sweep, max_angle);
-                for i in 0..n {
-                    let t = a0 + sweep * i as f64 / n as f64;
-                    out.push(c.add(Pt::new(r * t.cos(), r * t.sin())));
-                }
+                let key = [r, a0, a1, max_angle].map(f64::to_bits);
+                let k = match memo.0.iter().position(|(k, _)| *k == key) {
+                    Some(k) => k,
+                    None => {
+                        let sweep = a1 - a0;
+                        let n = chords(sweep, max_angle);
+                        let offsets = (0..n).map(|i| {
+                            let t = a0 + sweep * i as f64 / n as f64;
+                            Pt::new(r * t.cos(), r * t.sin())
+                        });
+                        memo.0.push((key, offsets.collect()));
+                        memo.0.len() - 1
+                    }
+                };
+                out.extend(memo.0[k].1.iter().map(|&v| c.add(v)));
             }
         }
     }
@@ -282,6 +298,12 @@ impl Seg {
         }
     }
 }
+
+/// The points of arcs about their centres by radius, angles and chord angle, for
+/// [`Seg::facet_points_in`]: the several bolt holes, bars or fillets of one size in a
+/// section are cut once. Kept for one section at a time (a few dozen arcs).
+#[derive(Debug, Default)]
+pub struct ArcOffsets(Vec<([u64; 4], Vec<Pt>)>);
 
 /// Chords of at most `max_angle` radians on an arc of `sweep` (1 to 4,096).
 fn chords(sweep: f64, max_angle: f64) -> usize {
@@ -350,9 +372,14 @@ impl Contour {
 
     /// The loop as a polygon, arcs cut into chords of at most `max_angle` radians.
     pub fn facets(&self, max_angle: f64) -> Vec<Pt> {
+        self.facets_in(max_angle, &mut ArcOffsets::default())
+    }
+
+    /// [`Contour::facets`], with arcs cut before taken from `memo`.
+    pub fn facets_in(&self, max_angle: f64, memo: &mut ArcOffsets) -> Vec<Pt> {
         let mut out = Vec::with_capacity(self.segs.len());
         for s in &self.segs {
-            s.facet_points(max_angle, &mut out);
+            s.facet_points_in(max_angle, memo, &mut out);
         }
         out
     }

@@ -10,6 +10,7 @@
 //! and a run of P's edges away from ∂Q is placed inside or outside Q once, so a pair
 //! costs about `n log n` in its edges rather than `n²`.
 
+use crate::geom::contour::ArcOffsets;
 use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::warning::{More, Warning};
@@ -36,8 +37,12 @@ struct Shape<'a> {
 }
 
 impl<'a> Shape<'a> {
-    fn of(p: &'a Piece) -> Option<Shape<'a>> {
-        let loops: Vec<Vec<Pt>> = p.contours.iter().map(|c| c.facets(FACET)).collect();
+    fn of(p: &'a Piece, memo: &mut ArcOffsets) -> Option<Shape<'a>> {
+        let loops: Vec<Vec<Pt>> = p
+            .contours
+            .iter()
+            .map(|c| c.facets_in(FACET, memo))
+            .collect();
         let bounds = p.bounds()?;
         let area = loops
             .iter()
@@ -380,7 +385,8 @@ fn capped(out: &mut Vec<Warning>, lines: Vec<Warning>, total: usize, kind: More)
 /// Warnings about the arrangement of the pieces; of each kind the first [`SHOWN`] in
 /// the order of the parts, then a count of the rest.
 pub fn warnings(pieces: &[Piece]) -> Vec<Warning> {
-    let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
+    let mut memo = ArcOffsets::default();
+    let shapes: Vec<Option<Shape>> = pieces.iter().map(|p| Shape::of(p, &mut memo)).collect();
     let total: f64 = shapes.iter().flatten().map(|s| s.area.abs()).sum();
     let mut out = Vec::new();
     let empty: Vec<usize> = (0..pieces.len())
@@ -553,7 +559,9 @@ mod tests {
                     piece("box", Contour::rounded_rect(x, y, x + w, y + h, 0.0), false)
                 })
                 .collect();
-            let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
+            let mut memo = ArcOffsets::default();
+            let shapes: Vec<Option<Shape>> =
+                pieces.iter().map(|p| Shape::of(p, &mut memo)).collect();
             let mut swept = Vec::new();
             box_pairs(&shapes, |i, j| swept.push((i, j)));
             swept.sort_unstable();
