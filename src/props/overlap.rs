@@ -27,8 +27,6 @@ struct Shape<'a> {
     loops: Vec<Vec<Pt>>,
     /// Every edge of every loop in loop order, with whether it starts its loop.
     edges: Vec<Edge>,
-    /// Edge indices by the left end of their boxes, for the sweep.
-    by_x: Vec<u32>,
     bounds: [f64; 4],
     area: f64,
     /// A point inside and its distance to the boundary (> 0), when the centroid is one;
@@ -52,17 +50,10 @@ impl<'a> Shape<'a> {
             .iter()
             .flat_map(|l| (0..l.len()).map(move |i| Edge::new(l[i], l[(i + 1) % l.len()], i == 0)))
             .collect();
-        // Sorted on (key, index) pairs: no look-up into the edges while sorting.
-        let mut keyed: Vec<(f64, u32)> = (edges.iter().enumerate())
-            .map(|(i, e)| (e.bbox[0], i as u32))
-            .collect();
-        keyed.sort_unstable_by(|a, b| a.0.total_cmp(&b.0));
-        let by_x: Vec<u32> = keyed.into_iter().map(|(_, i)| i).collect();
         Some(Shape {
             piece: p,
             loops,
             edges,
-            by_x,
             bounds,
             area,
             core: OnceCell::new(),
@@ -173,9 +164,21 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
         }
     };
     let (near_q, near_p) = (near(q.bounds), near(p.bounds));
-    let p_by_x: Vec<u32> = p.by_x.iter().copied().filter(|&k| near_q(pe(k))).collect();
-    let q_by_x: Vec<u32> = q.by_x.iter().copied().filter(|&k| near_p(qe(k))).collect();
-    if p_by_x.is_empty() || q_by_x.is_empty() {
+    // Those edges by the left ends of their boxes, sorted on (key, index) pairs.
+    let by_x = |s: &Shape, near: &dyn Fn(&[f64; 4]) -> bool| {
+        let mut keyed: Vec<(f64, u32)> = (s.edges.iter().enumerate())
+            .filter(|(_, e)| near(&e.bbox))
+            .map(|(i, e)| (e.bbox[0], i as u32))
+            .collect();
+        keyed.sort_unstable_by(|a, b| a.0.total_cmp(&b.0));
+        keyed.into_iter().map(|(_, i)| i).collect::<Vec<u32>>()
+    };
+    let p_by_x = by_x(p, &near_q);
+    if p_by_x.is_empty() {
+        return pairs;
+    }
+    let q_by_x = by_x(q, &near_p);
+    if q_by_x.is_empty() {
         return pairs;
     }
     let (p_by_x, q_by_x) = (&p_by_x, &q_by_x);
