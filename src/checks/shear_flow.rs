@@ -214,6 +214,9 @@ fn cut_off(
     })
 }
 
+/// A solid's outline as closed polygons.
+type Loops = Vec<Vec<Pt>>;
+
 /// For each void, the solid pieces that hold some of it: tested at points just inside
 /// the void's boundary (chords of at most 5°, offset inward by 10⁻⁶ of the section's
 /// size), against each solid's outline cut into chords of at most 1°. A solid whose box
@@ -223,7 +226,7 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
     let size = crate::geom::solid_bounds(pieces).map_or(1.0, |b| (b[1] - b[0]).max(b[3] - b[2]));
     let delta = 1e-6 * size;
     // A solid's outline is cut into chords the first time a void comes near it.
-    let solids: Vec<(usize, [f64; 4], OnceCell<Vec<Vec<Pt>>>)> = pieces
+    let solids: Vec<(usize, [f64; 4], OnceCell<Loops>)> = pieces
         .iter()
         .enumerate()
         .filter(|(_, p)| !p.void)
