@@ -249,7 +249,12 @@ impl Seg {
     /// Points along the segment, excluding its end point: the start for a line; for an
     /// arc, the start and interior points with at most `max_angle` radians between them.
     pub fn facet_points(&self, max_angle: f64, out: &mut Vec<Pt>) {
-        self.facet_points_in(max_angle, &mut ArcOffsets::default(), out);
+        match *self {
+            Seg::Line(a, _) => out.push(a),
+            Seg::Arc { c, r, a0, a1 } => {
+                out.extend(arc_offsets(r, a0, a1, max_angle).map(|v| c.add(v)))
+            }
+        }
     }
 
     /// [`Seg::facet_points`], with an arc's points about its centre taken from `memo`
@@ -263,13 +268,8 @@ impl Seg {
                 let k = match memo.0.iter().position(|(k, _)| *k == key) {
                     Some(k) => k,
                     None => {
-                        let sweep = a1 - a0;
-                        let n = chords(sweep, max_angle);
-                        let offsets = (0..n).map(|i| {
-                            let t = a0 + sweep * i as f64 / n as f64;
-                            Pt::new(r * t.cos(), r * t.sin())
-                        });
-                        memo.0.push((key, offsets.collect()));
+                        memo.0
+                            .push((key, arc_offsets(r, a0, a1, max_angle).collect()));
                         memo.0.len() - 1
                     }
                 };
@@ -297,6 +297,17 @@ impl Seg {
             }
         }
     }
+}
+
+/// The facet points of an arc of radius `r` from `a0` to `a1` about its centre: its start
+/// and interior points at most `max_angle` apart (the end excluded).
+fn arc_offsets(r: f64, a0: f64, a1: f64, max_angle: f64) -> impl Iterator<Item = Pt> {
+    let sweep = a1 - a0;
+    let n = chords(sweep, max_angle);
+    (0..n).map(move |i| {
+        let t = a0 + sweep * i as f64 / n as f64;
+        Pt::new(r * t.cos(), r * t.sin())
+    })
 }
 
 /// The points of arcs about their centres by radius, angles and chord angle, for
@@ -372,7 +383,11 @@ impl Contour {
 
     /// The loop as a polygon, arcs cut into chords of at most `max_angle` radians.
     pub fn facets(&self, max_angle: f64) -> Vec<Pt> {
-        self.facets_in(max_angle, &mut ArcOffsets::default())
+        let mut out = Vec::with_capacity(self.segs.len());
+        for s in &self.segs {
+            s.facet_points(max_angle, &mut out);
+        }
+        out
     }
 
     /// [`Contour::facets`], with arcs cut before taken from `memo`.
