@@ -27,12 +27,14 @@
 //! no solid part leaves every flow out (the section's properties then include material
 //! no part carries).
 
+use crate::geom::contour::ArcOffsets;
 use crate::geom::joints::{Contacts, Joint};
 use crate::geom::simple::winding;
 use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::Warning;
 use crate::props::{Centroidal, Moments};
+use std::cell::OnceCell;
 
 /// The part of the section on one side of a bridge joint, about the section centroid
 /// (transformed by modular ratios, voids inside subtracted).
@@ -119,23 +121,10 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
     }
     let bridge = bridges(&adj, edges.len());
     let origin = Pt::new(c.cx, c.cy);
-    let moments: Vec<Moments> = pieces
-        .iter()
-        .map(|p| {
-            let shifted: Vec<_> = p
-                .contours
-                .iter()
-                .map(|k| crate::geom::Contour {
-                    segs: k
-                        .segs
-                        .iter()
-                        .map(|s| s.shifted(Pt::new(-origin.x, -origin.y)))
-                        .collect(),
-                })
-                .collect();
-            Moments::default().plus(&Moments::of_contours(&shifted), p.sign() * p.n)
-        })
-        .collect();
+    // The first moments of a part about the centroid, found the first time a side cut
+    // off holds it (most parts are on the larger side of every joint).
+    let moments: Vec<OnceCell<Moments>> = pieces.iter().map(|_| OnceCell::new()).collect();
+    let moment = |i: usize| *moments[i].get_or_init(|| piece_moments(&pieces[i], origin));
     let homes = void_homes(pieces);
     joints
         .iter()
@@ -145,7 +134,7 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
             let flow = if !bridge[e] || !j.is_single_open() {
                 Flow::ClosedCell
             } else {
-                cut_off(&adj, e, j, &moments, &homes, origin)
+                cut_off(&adj, e, j, &moment, &homes, origin)
             };
             Connection {
                 joint: j.clone(),
@@ -155,13 +144,29 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
         .collect()
 }
 
+/// The moments of piece `p` about `origin`, signed and weighted by its modular ratio.
+fn piece_moments(p: &Piece, origin: Pt) -> Moments {
+    let shifted: Vec<_> = p
+        .contours
+        .iter()
+        .map(|k| crate::geom::Contour {
+            segs: k
+                .segs
+                .iter()
+                .map(|s| s.shifted(Pt::new(-origin.x, -origin.y)))
+                .collect(),
+        })
+        .collect();
+    Moments::default().plus(&Moments::of_contours(&shifted), p.sign() * p.n)
+}
+
 /// The side of bridge edge `e` with fewer parts (the later part's side on a tie), its
 /// voids, and its first moments.
 fn cut_off(
     adj: &[Vec<(usize, usize)>],
     e: usize,
     j: &Joint,
-    moments: &[Moments],
+    moment: &dyn Fn(usize) -> Moments,
     homes: &[(usize, Vec<usize>)],
     origin: Pt,
 ) -> Flow {
@@ -184,7 +189,7 @@ fn cut_off(
     let side = if count(&sa) < count(&sb) { sa } else { sb };
     let mut m = Moments::default();
     for (i, _) in side.iter().enumerate().filter(|(_, &s)| s) {
-        m = m.plus(&moments[i], 1.0);
+        m = m.plus(&moment(i), 1.0);
     }
     for (v, inside) in homes {
         if inside.is_empty() {
@@ -192,7 +197,7 @@ fn cut_off(
         }
         let on = inside.iter().filter(|&&i| side[i]).count();
         if on == inside.len() {
-            m = m.plus(&moments[*v], 1.0);
+            m = m.plus(&moment(*v), 1.0);
         } else if on > 0 {
             return Flow::VoidAcross(*v);
         }
@@ -212,6 +217,9 @@ fn cut_off(
     })
 }
 
+/// A solid's outline as closed polygons.
+type Loops = Vec<Vec<Pt>>;
+
 /// For each void, the solid pieces that hold some of it: tested at points just inside
 /// the void's boundary (chords of at most 5°, offset inward by 10⁻⁶ of the section's
 /// size), against each solid's outline cut into chords of at most 1°. A solid whose box
@@ -220,15 +228,15 @@ fn cut_off(
 fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
     let size = crate::geom::solid_bounds(pieces).map_or(1.0, |b| (b[1] - b[0]).max(b[3] - b[2]));
     let delta = 1e-6 * size;
-    let solids: Vec<(usize, [f64; 4], Vec<Vec<Pt>>)> = pieces
+    // A solid's outline is cut into chords the first time a void comes near it.
+    let solids: Vec<(usize, [f64; 4], OnceCell<Loops>)> = pieces
         .iter()
         .enumerate()
         .filter(|(_, p)| !p.void)
-        .filter_map(|(i, p)| {
-            let loops = p.contours.iter().map(|c| c.facets(1f64.to_radians()));
-            Some((i, p.bounds()?, loops.collect()))
-        })
+        .filter_map(|(i, p)| Some((i, p.bounds()?, OnceCell::new())))
         .collect();
+    let facets = |c: &crate::geom::Contour| c.facets(1f64.to_radians());
+    let mut memo = ArcOffsets::default();
     pieces
         .iter()
         .enumerate()
@@ -236,7 +244,7 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
         .map(|(v, p)| {
             let mut probes = Vec::new();
             for c in &p.contours {
-                let f = c.facets(5f64.to_radians());
+                let f = c.facets_in(5f64.to_radians(), &mut memo);
                 for (k, &a) in f.iter().enumerate() {
                     let b = f[(k + 1) % f.len()];
                     let d = b.sub(a);
@@ -257,7 +265,11 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
             let inside = solids
                 .iter()
                 .filter(|(_, b, _)| near(b))
-                .filter(|(_, _, loops)| probes.iter().any(|&q| winding(loops, q) != 0))
+                .filter(|(i, _, cell)| {
+                    let loops =
+                        cell.get_or_init(|| pieces[*i].contours.iter().map(facets).collect());
+                    probes.iter().any(|&q| winding(loops, q) != 0)
+                })
                 .map(|(i, _, _)| *i)
                 .collect();
             (v, inside)

@@ -252,12 +252,28 @@ impl Seg {
         match *self {
             Seg::Line(a, _) => out.push(a),
             Seg::Arc { c, r, a0, a1 } => {
-                let sweep = a1 - a0;
-                let n = chords(sweep, max_angle);
-                for i in 0..n {
-                    let t = a0 + sweep * i as f64 / n as f64;
-                    out.push(c.add(Pt::new(r * t.cos(), r * t.sin())));
-                }
+                out.extend(arc_offsets(r, a0, a1, max_angle).map(|v| c.add(v)))
+            }
+        }
+    }
+
+    /// [`Seg::facet_points`], with an arc's points about its centre taken from `memo`
+    /// when an arc of the same radius and angles was cut before (the same numbers: a
+    /// point is the centre plus its offset either way).
+    pub fn facet_points_in(&self, max_angle: f64, memo: &mut ArcOffsets, out: &mut Vec<Pt>) {
+        match *self {
+            Seg::Line(a, _) => out.push(a),
+            Seg::Arc { c, r, a0, a1 } => {
+                let key = [r, a0, a1, max_angle].map(f64::to_bits);
+                let k = match memo.0.iter().position(|(k, _)| *k == key) {
+                    Some(k) => k,
+                    None => {
+                        memo.0
+                            .push((key, arc_offsets(r, a0, a1, max_angle).collect()));
+                        memo.0.len() - 1
+                    }
+                };
+                out.extend(memo.0[k].1.iter().map(|&v| c.add(v)));
             }
         }
     }
@@ -282,6 +298,23 @@ impl Seg {
         }
     }
 }
+
+/// The facet points of an arc of radius `r` from `a0` to `a1` about its centre: its start
+/// and interior points at most `max_angle` apart (the end excluded).
+fn arc_offsets(r: f64, a0: f64, a1: f64, max_angle: f64) -> impl Iterator<Item = Pt> {
+    let sweep = a1 - a0;
+    let n = chords(sweep, max_angle);
+    (0..n).map(move |i| {
+        let t = a0 + sweep * i as f64 / n as f64;
+        Pt::new(r * t.cos(), r * t.sin())
+    })
+}
+
+/// The points of arcs about their centres by radius, angles and chord angle, for
+/// [`Seg::facet_points_in`]: the several bolt holes, bars or fillets of one size in a
+/// section are cut once. Kept for one section at a time (a few dozen arcs).
+#[derive(Debug, Default)]
+pub struct ArcOffsets(Vec<([u64; 4], Vec<Pt>)>);
 
 /// Chords of at most `max_angle` radians on an arc of `sweep` (1 to 4,096).
 fn chords(sweep: f64, max_angle: f64) -> usize {
@@ -353,6 +386,15 @@ impl Contour {
         let mut out = Vec::with_capacity(self.segs.len());
         for s in &self.segs {
             s.facet_points(max_angle, &mut out);
+        }
+        out
+    }
+
+    /// [`Contour::facets`], with arcs cut before taken from `memo`.
+    pub fn facets_in(&self, max_angle: f64, memo: &mut ArcOffsets) -> Vec<Pt> {
+        let mut out = Vec::with_capacity(self.segs.len());
+        for s in &self.segs {
+            s.facet_points_in(max_angle, memo, &mut out);
         }
         out
     }

@@ -10,9 +10,11 @@
 //! and a run of P's edges away from ∂Q is placed inside or outside Q once, so a pair
 //! costs about `n log n` in its edges rather than `n²`.
 
+use crate::geom::contour::ArcOffsets;
 use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::warning::{More, Warning};
+use std::cell::OnceCell;
 
 const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
 
@@ -20,21 +22,25 @@ const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
 pub const SHOWN: usize = 20;
 
 /// A region as polygons (outlines counter-clockwise, holes clockwise).
-struct Shape {
+struct Shape<'a> {
+    piece: &'a Piece,
     loops: Vec<Vec<Pt>>,
     /// Every edge of every loop in loop order, with whether it starts its loop.
     edges: Vec<Edge>,
-    /// Edge indices by the left end of their boxes, for the sweep.
-    by_x: Vec<u32>,
     bounds: [f64; 4],
     area: f64,
-    /// A point inside and its distance to the boundary (> 0), when the centroid is one.
-    core: Option<(Pt, f64)>,
+    /// A point inside and its distance to the boundary (> 0), when the centroid is one;
+    /// found the first time it is asked for ([`Shape::core`]).
+    core: OnceCell<Option<(Pt, f64)>>,
 }
 
-impl Shape {
-    fn of(p: &Piece) -> Option<Shape> {
-        let loops: Vec<Vec<Pt>> = p.contours.iter().map(|c| c.facets(FACET)).collect();
+impl<'a> Shape<'a> {
+    fn of(p: &'a Piece, memo: &mut ArcOffsets) -> Option<Shape<'a>> {
+        let loops: Vec<Vec<Pt>> = p
+            .contours
+            .iter()
+            .map(|c| c.facets_in(FACET, memo))
+            .collect();
         let bounds = p.bounds()?;
         let area = loops
             .iter()
@@ -44,26 +50,24 @@ impl Shape {
             .iter()
             .flat_map(|l| (0..l.len()).map(move |i| Edge::new(l[i], l[(i + 1) % l.len()], i == 0)))
             .collect();
-        let mut by_x: Vec<u32> = (0..edges.len() as u32).collect();
-        by_x.sort_unstable_by(|&i, &j| {
-            edges[i as usize].bbox[0].total_cmp(&edges[j as usize].bbox[0])
-        });
-        let mut s = Shape {
+        Some(Shape {
+            piece: p,
             loops,
             edges,
-            by_x,
             bounds,
             area,
-            core: None,
-        };
-        let m = crate::props::Moments::of_contours(&p.contours);
-        if let Some(c) = m.centroid() {
-            let r = s.clearance(c);
-            if s.winding(c) > 0 && r > 0.0 {
-                s.core = Some((c, r));
-            }
-        }
-        Some(s)
+            core: OnceCell::new(),
+        })
+    }
+
+    /// A point inside and its distance to the boundary (> 0): the centroid, when it is
+    /// inside.
+    fn core(&self) -> Option<(Pt, f64)> {
+        *self.core.get_or_init(|| {
+            let c = crate::props::Moments::of_contours(&self.piece.contours).centroid()?;
+            let r = self.clearance(c);
+            (self.winding(c) > 0 && r > 0.0).then_some((c, r))
+        })
     }
 
     /// Distance from `p` to the nearest edge.
@@ -79,7 +83,7 @@ impl Shape {
         [(self, q), (q, self)]
             .iter()
             .filter_map(|(a, b)| {
-                let (c, r) = a.core?;
+                let (c, r) = a.core()?;
                 (b.winding(c) > 0).then(|| {
                     let rr = r.min(b.clearance(c));
                     std::f64::consts::PI * rr * rr
@@ -149,11 +153,40 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
     let meet = |a: &[f64; 4], b: &[f64; 4]| {
         a[0] - tol <= b[1] && b[0] <= a[1] + tol && a[2] - tol <= b[3] && b[2] <= a[3] + tol
     };
-    while i < p.by_x.len() || j < q.by_x.len() {
+    // Only edges whose boxes meet the other shape's box (widened by twice `tol`, which
+    // covers a chord's rounding past its arc's box) can be in a pair.
+    let near = |b: [f64; 4]| {
+        move |e: &[f64; 4]| {
+            e[0] - 2.0 * tol <= b[1]
+                && b[0] <= e[1] + 2.0 * tol
+                && e[2] - 2.0 * tol <= b[3]
+                && b[2] <= e[3] + 2.0 * tol
+        }
+    };
+    let (near_q, near_p) = (near(q.bounds), near(p.bounds));
+    // Those edges by the left ends of their boxes, sorted on (key, index) pairs.
+    let by_x = |s: &Shape, near: &dyn Fn(&[f64; 4]) -> bool| {
+        let mut keyed: Vec<(f64, u32)> = (s.edges.iter().enumerate())
+            .filter(|(_, e)| near(&e.bbox))
+            .map(|(i, e)| (e.bbox[0], i as u32))
+            .collect();
+        keyed.sort_unstable_by(|a, b| a.0.total_cmp(&b.0));
+        keyed.into_iter().map(|(_, i)| i).collect::<Vec<u32>>()
+    };
+    let p_by_x = by_x(p, &near_q);
+    if p_by_x.is_empty() {
+        return pairs;
+    }
+    let q_by_x = by_x(q, &near_p);
+    if q_by_x.is_empty() {
+        return pairs;
+    }
+    let (p_by_x, q_by_x) = (&p_by_x, &q_by_x);
+    while i < p_by_x.len() || j < q_by_x.len() {
         let take_p =
-            j == q.by_x.len() || (i < p.by_x.len() && pe(p.by_x[i])[0] - tol <= qe(q.by_x[j])[0]);
+            j == q_by_x.len() || (i < p_by_x.len() && pe(p_by_x[i])[0] - tol <= qe(q_by_x[j])[0]);
         if take_p {
-            let e = p.by_x[i];
+            let e = p_by_x[i];
             i += 1;
             let x0 = pe(e)[0] - tol;
             active_q.retain(|&f| qe(f)[1] >= x0);
@@ -165,7 +198,7 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
             );
             active_p.push(e);
         } else {
-            let f = q.by_x[j];
+            let f = q_by_x[j];
             j += 1;
             let x0 = qe(f)[0];
             active_p.retain(|&e| pe(e)[1] + tol >= x0);
@@ -228,6 +261,15 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
             continue;
         }
         let d = b.sub(a);
+        // Away from ∂Q after a piece whose side is known: the whole edge is one piece on
+        // that side (the same sums as the general case below, which it skips).
+        if let (true, Some(inside)) = (near.is_empty(), side) {
+            if inside {
+                let (s0, s1) = (a.add(d.scale(0.0)), a.add(d.scale(1.0)));
+                sum += 0.5 * (s0.x + s1.x) * (s1.y - s0.y);
+            }
+            continue;
+        }
         ts.clear();
         ts.extend([0.0, 1.0]);
         for &f in &near {
@@ -346,7 +388,8 @@ fn capped(out: &mut Vec<Warning>, lines: Vec<Warning>, total: usize, kind: More)
 /// Warnings about the arrangement of the pieces; of each kind the first [`SHOWN`] in
 /// the order of the parts, then a count of the rest.
 pub fn warnings(pieces: &[Piece]) -> Vec<Warning> {
-    let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
+    let mut memo = ArcOffsets::default();
+    let shapes: Vec<Option<Shape>> = pieces.iter().map(|p| Shape::of(p, &mut memo)).collect();
     let total: f64 = shapes.iter().flatten().map(|s| s.area.abs()).sum();
     let mut out = Vec::new();
     let empty: Vec<usize> = (0..pieces.len())
@@ -512,14 +555,16 @@ mod tests {
         };
         for round in 0..20 {
             let n = 5 + round * 7;
-            let shapes: Vec<Option<Shape>> = (0..n)
+            let pieces: Vec<Piece> = (0..n)
                 .map(|_| {
                     let (x, y) = (100.0 * next(), 100.0 * next());
                     let (w, h) = (1.0 + 30.0 * next(), 1.0 + 30.0 * next());
-                    let c = Contour::rounded_rect(x, y, x + w, y + h, 0.0);
-                    Shape::of(&piece("box", c, false))
+                    piece("box", Contour::rounded_rect(x, y, x + w, y + h, 0.0), false)
                 })
                 .collect();
+            let mut memo = ArcOffsets::default();
+            let shapes: Vec<Option<Shape>> =
+                pieces.iter().map(|p| Shape::of(p, &mut memo)).collect();
             let mut swept = Vec::new();
             box_pairs(&shapes, |i, j| swept.push((i, j)));
             swept.sort_unstable();
