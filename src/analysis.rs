@@ -551,6 +551,13 @@ impl Analysis {
         self.flow_under(c, 0.0, v)
     }
 
+    /// Whether a flow across connection `c` can be given: always for a joint whose cut
+    /// separates the section; for a joint on a closed cell once the flexure solution
+    /// gives it within its tolerance (the drawing's joint marks).
+    pub fn flow_known(&self, c: &Connection) -> bool {
+        self.flow_under(c, 1.0, 1.0).is_some()
+    }
+
     /// `(Vx, Vy)` of `[actions]` in N (a missing one is zero), when either is given.
     fn action_shears(&self) -> Option<(f64, f64)> {
         let act = self.section.actions?;

@@ -7,7 +7,6 @@
 //! lines (voids keep their outlines, marks stay), with the peak marked; the legend
 //! gives each level's range, or says why the stress is not shaded.
 
-use crate::checks::shear_flow::Flow;
 use crate::geom::{solid_bounds, Cover, Pt};
 use crate::tui::app::{App, Focus};
 use crate::tui::commands::nice_step;
@@ -183,7 +182,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         r.mark(dx, dy, g);
     };
     for c in &a.connections {
-        let g = joint_glyph(th, matches!(c.flow, Flow::Exact(_)));
+        let g = joint_glyph(th, a.flow_known(c));
         for p in &c.joint.marks {
             mark(&mut r, p.x, p.y, g);
         }
@@ -217,8 +216,9 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
     }
 }
 
-/// The mark of a joint: one whose flow follows from statics, or one whose flow is not
-/// given (on a closed cell, or a void across it).
+/// The mark of a joint: one whose flow is given (from statics, or on a closed cell from
+/// the flexure solution), or one whose flow is not (a closed cell before that solution,
+/// or a void across the joint).
 fn joint_glyph(th: &Theme, exact: bool) -> char {
     let g = if exact {
         th.glyph("×", "x")
@@ -298,10 +298,7 @@ fn legend(app: &App, per_cell: f64, width: u16, shaded: &Shaded) -> Vec<String> 
     if matches!(a.torsion, Some(Ok(_))) {
         keys.push("S shear centre".into());
     }
-    let flows = a
-        .connections
-        .iter()
-        .map(|c| matches!(c.flow, Flow::Exact(_)));
+    let flows = a.connections.iter().map(|c| a.flow_known(c));
     if flows.clone().any(|exact| exact) {
         keys.push(format!("{} joint", joint_glyph(th, true)));
     }
