@@ -273,7 +273,13 @@ fn mirroring_mirrors_the_stresses_and_keeps_the_areas() {
     let (a, b) = (analyse(&body(false)), analyse(&body(true)));
     let (sa, sb) = (a.shear.as_ref().unwrap(), b.shear.as_ref().unwrap());
     let (aa, ab) = (sa.areas.unwrap(), sb.areas.unwrap());
-    assert!(rel(aa[0], ab[0]) < 1e-9 && rel(aa[1], ab[1]) < 1e-9);
+    // The two meshes are not mirror images node for node: the areas agree within their
+    // estimated errors.
+    let within = flexure(&a).shear_area_error + flexure(&b).shear_area_error;
+    assert!(
+        rel(aa[0], ab[0]) <= within && rel(aa[1], ab[1]) <= within,
+        "{aa:?} {ab:?} ±{within:.1e}"
+    );
     // The meshes of the two need not be mirror images node for node, so the fields are
     // compared through their largest values, which must agree to the accuracy asked
     // (1e-3) at mirrored heights; T turns the other way in the mirror, so |τ| from T

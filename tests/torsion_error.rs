@@ -23,9 +23,9 @@ use std::path::{Path, PathBuf};
 /// levels finer than the solve, or three where two are not ten times more accurate
 /// than the estimate under test.
 fn true_errors(pieces: &[Piece], t: &Torsion) -> ([f64; 2], f64) {
-    let mut r = fe::reference(pieces, 16 * t.elements).expect("reference solves");
+    let mut r = fe::reference(pieces, 16 * t.elements, None).expect("reference solves");
     if r.rel_error > 0.1 * t.rel_error {
-        r = fe::reference(pieces, 64 * t.elements).expect("reference solves");
+        r = fe::reference(pieces, 64 * t.elements, None).expect("reference solves");
     }
     let b = kern::geom::solid_bounds(pieces).expect("solid");
     let c = 0.5 * (b[1] - b[0]).max(b[3] - b[2]);

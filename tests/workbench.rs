@@ -1764,7 +1764,7 @@ fn the_shear_group_shows_shear_areas_and_tau_once_solved() {
     assert!(shear.areas.is_some() && shear.tau_max.is_some());
     let s = screen(&a, 120, 40);
     assert!(
-        s.contains("Asy           6000 mm²") && s.contains("τmax         7.502 MPa"),
+        s.contains("Asy           6000 mm²") && s.contains("τmax         7.500 MPa"),
         "{s}"
     );
     insta::assert_snapshot!("shear-group-120x40", s);

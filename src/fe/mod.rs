@@ -70,9 +70,11 @@ use std::sync::Arc;
 use torsion::{Failure, Level};
 
 /// Levels the flexure solution may add past the one where torsion meets its
-/// tolerance (each costs four times the last), only when its estimates are within
-/// four times the tolerance.
-const MAX_FLEXURE_LEVELS: usize = 1;
+/// tolerance (each costs four times the last), only when every one of its estimates
+/// is within reach of the tolerance on the levels left (a quarter a level: 16× with two
+/// to go, 4× with one), so that a figure that does not converge (a singular corner)
+/// never costs a level.
+const MAX_FLEXURE_LEVELS: usize = 2;
 
 /// The target relative error of J and Cw unless asked otherwise, by `kern calc`
 /// (`--torsion-tol`) and the workbench alike (docs/format.md, Accuracy).
@@ -202,11 +204,17 @@ pub fn torsion(pieces: &[Piece], opts: &TorsionOptions) -> Result<Torsion, Warni
 
 /// The solution refined until its finest mesh has at least `elements` elements (and
 /// at least three levels exist), extrapolated by Richardson over the last three: a
-/// reference far finer than [`torsion`] stops at, for checking its estimate. A
-/// refinement past the [`Budget`] stops it early with [`Warning::AboveTolerance`]
-/// (tolerance 0) among the warnings.
-pub fn reference(pieces: &[Piece], elements: usize) -> Result<Torsion, Warning> {
-    run(pieces, Stop::Elements(elements), None, None, false)
+/// reference far finer than [`torsion`] stops at, for checking its estimate. With
+/// `flexure` (Poisson's ratio, as [`TorsionOptions::flexure`]) the flexure solution of
+/// the finest mesh comes too, with its two-mesh estimate. A refinement past the
+/// [`Budget`] stops it early with [`Warning::AboveTolerance`] (tolerance 0) among the
+/// warnings.
+pub fn reference(
+    pieces: &[Piece],
+    elements: usize,
+    flexure: Option<f64>,
+) -> Result<Torsion, Warning> {
+    run(pieces, Stop::Elements(elements), None, flexure, false)
 }
 
 /// When the refinement stops.
@@ -269,13 +277,17 @@ fn run(
         if cancelled() {
             return Err(Warning::Cancelled);
         }
-        let level = ladder.solve(&mesh, step.take(), cancel).map_err(fail)?;
+        let prolong = step.take();
+        // The flexure solution keeps its own copy (its start and its estimate).
+        let flex_prolong = flex.is_some().then(|| prolong.clone()).flatten();
+        let level = ladder.solve(&mesh, prolong, cancel).map_err(fail)?;
         if let Some(fl) = flex.as_mut() {
             let pieces = mesh.pinned.len();
             let solved = if pieces > 1 {
                 Err(Warning::ShearPieces { count: pieces })
             } else {
-                fl.solve(&mesh, &ladder, level.j, cancel).map_err(fail)
+                fl.solve(&mesh, &ladder, level.j, flex_prolong, cancel)
+                    .map_err(fail)
             };
             match solved {
                 Err(Warning::Cancelled) => return Err(Warning::Cancelled),
@@ -291,7 +303,6 @@ fn run(
         }
         levels.push(level);
         let mut flex_more = false;
-        let mut flex_short = false;
         // A reference solve keeps Richardson's extrapolated value: it is checked against, not printed.
         let careful = interfaces && matches!(stop, Stop::Tolerance(_));
         if let Some(est) = estimate(&levels, span, careful) {
@@ -303,18 +314,16 @@ fn run(
                 Stop::Tolerance(tol) => est.rel_error <= tol && levels.len() >= min_levels,
                 Stop::Elements(n) => levels.len() >= 3 && mesh.elems.len() >= n,
             };
-            // The flexure stresses converge as h², slower than J: they may ask for one
-            // level more than torsion alone, when that level (a quarter of the error)
-            // can bring them within the tolerance.
-            // Its estimate is Richardson's over three levels (the observed rate, not an
-            // assumed one), so it also waits for a third level where torsion stops on two.
-            flex_short = flex.as_ref().is_some_and(|f| f.level_count() < 3);
+            // The flexure figures' estimate is the two-mesh one too (flexure::FLEX_RATE),
+            // so they are ready on torsion's levels. Their stresses converge as h², slower
+            // than J: they may ask for levels more than torsion alone, when those levels
+            // (a quarter of the error each) can bring them within the tolerance.
+            let reach = 4f64.powi(MAX_FLEXURE_LEVELS.saturating_sub(extra) as i32);
             flex_more = torsion_done
-                && (flex_short
-                    || extra < MAX_FLEXURE_LEVELS
-                        && flex
-                            .as_ref()
-                            .is_some_and(|f| !f.converged(tol) && f.converged(4.0 * tol)));
+                && extra < MAX_FLEXURE_LEVELS
+                && flex
+                    .as_ref()
+                    .is_some_and(|f| !f.converged(tol) && f.converged(reach * tol));
             if torsion_done && !flex_more {
                 return Ok(finish(est, &mesh, warnings).with_flexure(flex, flex_fail, tol));
             }
@@ -335,7 +344,7 @@ fn run(
                 mb: budget.bytes >> 20,
             });
         }
-        if flex_more && !flex_short {
+        if flex_more {
             extra += 1;
         }
         let fine = mesh.refine();
@@ -422,7 +431,7 @@ impl Torsion {
     ) -> Torsion {
         let flexure = match (flex, fail) {
             (_, Some(w)) => Some(Err(w)),
-            // Fewer than three levels: the budget stopped the refinement first.
+            // Fewer than two levels: the budget stopped the refinement first.
             (Some(fl), None) => {
                 let budget = Budget::DEFAULT;
                 Some(fl.finish(tol).ok_or(Warning::NextMeshPastBudget {

@@ -166,6 +166,7 @@ impl Csr {
 /// The prolongation from a mesh to its refinement: the first `coarse` fine nodes are
 /// the coarse nodes and keep their values; each later fine node takes the weighted sum
 /// of its parent element's nodes in its row.
+#[derive(Debug, Clone, PartialEq)]
 pub struct Prolong {
     pub coarse: usize,
     pub rows: Vec<[(u32, f64); 6]>,

@@ -81,7 +81,7 @@ pub enum Warning {
     /// The estimated relative error `error` is above the tolerance `tol` on the finest
     /// mesh the budget allows.
     AboveTolerance { error: f64, tol: f64 },
-    /// An error estimate needs three meshes and the next one (`elements` elements) is
+    /// An error estimate needs two meshes and the next one (`elements` elements) is
     /// past the budget of `max_elements` elements, `max_nodes` nodes and `mb` MB.
     NextMeshPastBudget {
         elements: usize,

@@ -126,7 +126,7 @@ impl fmt::Display for Warning {
                 mb,
             } => write!(
                 f,
-                "an error estimate needs three meshes, and the next ({elements} elements) is past \
+                "an error estimate needs two meshes, and the next ({elements} elements) is past \
                  the solver's budget of {max_elements} elements, {max_nodes} nodes and {mb} MB; simplify the \
                  section (fewer holes or corners)"
             ),
