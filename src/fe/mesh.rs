@@ -274,7 +274,7 @@ pub fn base(pieces: &[Piece], size: f64) -> Result<Base, Warning> {
             floor: FEATURE_FLOOR,
         });
     }
-    grade_corners(&mut cdt, &outlines, &chords, eps, &mut snap)?;
+    grade_corners(&mut cdt, &region, &outlines, &chords, eps, &mut snap)?;
     let before_refine = cdt.num_vertices();
     let floor = FEATURE_FLOOR * span;
     let params = RefinementParameters::<f64>::new()
@@ -442,19 +442,20 @@ fn face_labels(cdt: &Cdt, outlines: &[Outline]) -> Vec<Option<[f64; 2]>> {
 /// where they fall in the region well clear of its boundary. The warping function
 /// behaves like r^(π/α) at a corner of interior angle α > π (Grisvard, Elliptic
 /// Problems in Nonsmooth Domains, §2.7), so small elements there keep the error small.
+/// `tris` are the region's triangles of `cdt` as it is on entry.
 fn grade_corners(
     cdt: &mut Cdt,
+    tris: &[Tri],
     outlines: &[Outline],
     chords: &[(Pt, Pt, u32)],
     eps: f64,
     snap: &mut Snap,
 ) -> Result<(), Warning> {
-    let tris = region_triangles(cdt, outlines);
     let nv = cdt.num_vertices();
     let mut angle = vec![0.0; nv];
     let mut shortest = vec![f64::INFINITY; nv];
     let pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
-    for t in &tris {
+    for t in tris {
         for k in 0..3 {
             let (a, b, c) = (t.v[k], t.v[(k + 1) % 3], t.v[(k + 2) % 3]);
             let (u, w) = (pos[b].sub(pos[a]), pos[c].sub(pos[a]));
