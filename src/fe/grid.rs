@@ -9,8 +9,8 @@ use std::hash::{BuildHasherDefault, Hasher};
 /// A hash of small integer keys (grid cells, node pairs): each word is mixed in by a
 /// rotation, an exclusive or and a multiplication by an odd constant (2⁶⁴/φ, Knuth's
 /// multiplicative hashing, The Art of Computer Programming vol. 3, §6.4; cited from
-/// memory). Not for keys
-/// an adversary chooses to collide: the keys here are cells of the section's own points.
+/// memory). Not for keys an adversary chooses to collide: the keys here are cells of
+/// the section's own points.
 #[derive(Default, Clone, Copy)]
 pub struct Mix(u64);
 
