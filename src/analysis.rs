@@ -717,8 +717,14 @@ impl Analysis {
             Some(Err(_)) => return Err(McrRefusal::TorsionFailed),
             Some(Ok(t)) => t,
         };
-        let pieces = crate::fe::mesh::base(&self.pieces, 1.0, false)
-            .map(|b| b.mesh.pinned.len())
+        // The torsion solve's base mesh counted the separate pieces (and said so).
+        let pieces = t
+            .warnings
+            .iter()
+            .find_map(|w| match w {
+                Warning::SeparatePieces { count } => Some(*count),
+                _ => None,
+            })
             .unwrap_or(1);
         if pieces > 1 {
             return Err(McrRefusal::SeparatePieces { count: pieces });

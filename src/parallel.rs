@@ -24,7 +24,12 @@ pub fn parallel_map<T: Sync, R: Send>(
     items: &[T],
     f: impl Fn(&T) -> R + Sync,
 ) -> Vec<Result<R, String>> {
-    let workers = jobs().min(items.len().max(1));
+    // One item needs no thread count (that reads the environment and the cgroup files).
+    let workers = if items.len() <= 1 {
+        1
+    } else {
+        jobs().min(items.len())
+    };
     let next = AtomicUsize::new(0);
     let mut slots: Vec<Option<Result<R, String>>> = Vec::new();
     slots.resize_with(items.len(), || None);

@@ -5,7 +5,9 @@
 //! [`ARC_FACET`], goes into a constrained Delaunay triangulation as constraint edges
 //! (crossing edges of overlapping parts are split where they cross). A triangle belongs
 //! to the region when its centroid is inside some solid piece and inside no void
-//! (nonzero winding number), so overlapping solids count once. Only the outline of the
+//! (nonzero winding number), so overlapping solids count once; the triangles between
+//! constraint edges share that answer, so it is asked once per such patch (at its
+//! largest triangle), not per triangle. Only the outline of the
 //! region (and interfaces between materials) is then triangulated again and refined,
 //! the faces outside it left alone; a region whose thinnest triangle is below
 //! [`FEATURE_FLOOR`] of the section, or whose refinement would pass [`BASE_VERTICES`],
@@ -20,6 +22,7 @@
 //! that lies on a circular arc goes on the arc, so curved boundaries converge with the
 //! mesh instead of staying faceted.
 
+use super::grid::{dist2, MixMap, Near, Spans};
 use super::p2::shape;
 use super::solve::Prolong;
 use crate::geom::{Piece, Pt, Seg};
@@ -27,7 +30,6 @@ use crate::model::Warning;
 use spade::{
     AngleLimit, ConstrainedDelaunayTriangulation, Point2, RefinementParameters, Triangulation,
 };
-use std::collections::HashMap;
 use std::f64::consts::{PI, TAU};
 
 /// Largest angle an arc facet of the base mesh spans (radians); refinement then puts
@@ -81,7 +83,10 @@ pub struct Mesh {
     /// shear stresses).
     pub shear: Vec<f64>,
     /// The piece (index into the pieces meshed) each element belongs to: the solid
-    /// listed last at its centroid. Boundaries two pieces share are mesh edges.
+    /// listed last in its patch of the triangulation. Built with `joints` ([`base`]),
+    /// the boundaries two pieces share are mesh edges and each element lies in its own
+    /// piece; without, pieces of one material that abut may share a patch and its tag
+    /// (only the joint flows read it, and they are asked for only with `joints`).
     pub piece: Vec<u32>,
     /// The arc each element edge lies on, or [`NO_ARC`].
     pub edge_arc: Vec<[u32; 3]>,
@@ -133,14 +138,19 @@ fn classify(outlines: &[Outline], p: Pt) -> Option<[f64; 2]> {
 
 /// The solid piece on top at a point (the one listed last), `None` outside the region.
 fn top(outlines: &[Outline], p: Pt) -> Option<&Outline> {
+    top_index(outlines, p).map(|i| &outlines[i as usize])
+}
+
+/// The index among `outlines` of [`top`].
+fn top_index(outlines: &[Outline], p: Pt) -> Option<u32> {
     let mut solid = None;
-    for o in outlines {
+    for (i, o) in outlines.iter().enumerate() {
         if o.winding(p) != 0 {
             if o.void {
                 return None;
             }
             // Later parts lie on top of earlier ones.
-            solid = Some(o);
+            solid = Some(i as u32);
         }
     }
     solid
@@ -284,7 +294,7 @@ pub fn base(pieces: &[Piece], size: f64, joints: bool) -> Result<Base, Warning> 
             floor: FEATURE_FLOOR,
         });
     }
-    grade_corners(&mut cdt, &outlines, &chords, eps, &mut snap)?;
+    grade_corners(&mut cdt, &region, &outlines, &chords, eps, &mut snap)?;
     let before_refine = cdt.num_vertices();
     let floor = FEATURE_FLOOR * span;
     let params = RefinementParameters::<f64>::new()
@@ -342,15 +352,13 @@ pub fn base(pieces: &[Piece], size: f64, joints: bool) -> Result<Base, Warning> 
 
 /// Merges input points closer than `eps` so that parts meeting at a corner share it.
 struct Snap {
-    eps: f64,
-    grid: HashMap<(i64, i64), Vec<(Pt, spade::handles::FixedVertexHandle)>>,
+    grid: Near<spade::handles::FixedVertexHandle>,
 }
 
 impl Snap {
     fn new(eps: f64) -> Snap {
         Snap {
-            eps,
-            grid: HashMap::new(),
+            grid: Near::new(eps),
         }
     }
 
@@ -359,25 +367,15 @@ impl Snap {
         cdt: &mut Cdt,
         p: Pt,
     ) -> Result<spade::handles::FixedVertexHandle, Warning> {
-        let key = (
-            (p.x / self.eps).floor() as i64,
-            (p.y / self.eps).floor() as i64,
-        );
-        for dx in -1..=1 {
-            for dy in -1..=1 {
-                if let Some(v) = self.grid.get(&(key.0 + dx, key.1 + dy)) {
-                    if let Some(&(_, h)) = v.iter().find(|(q, _)| q.dist(p) <= self.eps) {
-                        return Ok(h);
-                    }
-                }
-            }
+        if let Some(h) = self.grid.find(p) {
+            return Ok(h);
         }
         let h = cdt
             .insert(Point2::new(p.x, p.y))
             .map_err(|e| Warning::CannotMesh {
                 cause: format!("{e:?}"),
             })?;
-        self.grid.entry(key).or_default().push((p, h));
+        self.grid.insert(p, h);
         Ok(h)
     }
 }
@@ -399,11 +397,12 @@ fn pt(p: Point2<f64>) -> Pt {
 }
 
 fn region_triangles(cdt: &Cdt, outlines: &[Outline]) -> Vec<Tri> {
+    let labels = face_labels(cdt, outlines);
     let mut out = Vec::new();
     for f in cdt.inner_faces() {
-        let [a, b, c] = f.positions().map(pt);
-        let g = a.add(b).add(c).scale(1.0 / 3.0);
-        if let Some(o) = top(outlines, g) {
+        if let Some((i, _)) = labels[f.fix().index()] {
+            let o = &outlines[i as usize];
+            let [a, b, c] = f.positions().map(pt);
             let e = f.adjacent_edges();
             out.push(Tri {
                 v: f.vertices().map(|v| v.fix().index()),
@@ -417,24 +416,71 @@ fn region_triangles(cdt: &Cdt, outlines: &[Outline]) -> Vec<Tri> {
     out
 }
 
+/// What the region holds in each face of `cdt`, by face index (the outer face `None`),
+/// when every outline edge (or at least every edge where the region or its material
+/// changes) is a constraint edge: the faces that meet across edges that are not
+/// constraints form patches of one classification, so each patch is classified once,
+/// at the centroid of its largest triangle (the one least likely to be a sliver whose
+/// centroid rounds across a boundary), instead of every triangle by winding numbers.
+/// A label is the index of the solid on top ([`top_index`]) and the point classified.
+fn face_labels(cdt: &Cdt, outlines: &[Outline]) -> Vec<Option<(u32, Pt)>> {
+    let n = cdt.num_all_faces();
+    let mut labels = vec![None; n];
+    let mut seen = vec![false; n];
+    let mut stack = Vec::new();
+    let mut patch = Vec::new();
+    for f in cdt.inner_faces() {
+        if std::mem::replace(&mut seen[f.fix().index()], true) {
+            continue;
+        }
+        stack.push(f);
+        patch.clear();
+        let mut largest = (f64::NEG_INFINITY, Pt::default());
+        while let Some(g) = stack.pop() {
+            patch.push(g.fix().index());
+            let [a, b, c] = g.positions().map(pt);
+            let area = b.sub(a).cross(c.sub(a));
+            if area > largest.0 {
+                largest = (area, a.add(b).add(c).scale(1.0 / 3.0));
+            }
+            for e in g.adjacent_edges() {
+                if cdt.is_constraint_edge(e.as_undirected().fix()) {
+                    continue;
+                }
+                if let Some(h) = e.rev().face().as_inner() {
+                    if !std::mem::replace(&mut seen[h.fix().index()], true) {
+                        stack.push(h);
+                    }
+                }
+            }
+        }
+        let label = top_index(outlines, largest.1).map(|i| (i, largest.1));
+        for &i in &patch {
+            labels[i] = label;
+        }
+    }
+    labels
+}
+
 /// Adds rings of points about every re-entrant corner of the region: at radii
 /// ρ/2, ρ/4, … ρ/32 (ρ the shortest boundary edge at the corner), eight per ring, kept
 /// where they fall in the region well clear of its boundary. The warping function
 /// behaves like r^(π/α) at a corner of interior angle α > π (Grisvard, Elliptic
 /// Problems in Nonsmooth Domains, §2.7), so small elements there keep the error small.
+/// `tris` are the region's triangles of `cdt` as it is on entry.
 fn grade_corners(
     cdt: &mut Cdt,
+    tris: &[Tri],
     outlines: &[Outline],
     chords: &[(Pt, Pt, u32)],
     eps: f64,
     snap: &mut Snap,
 ) -> Result<(), Warning> {
-    let tris = region_triangles(cdt, outlines);
     let nv = cdt.num_vertices();
     let mut angle = vec![0.0; nv];
     let mut shortest = vec![f64::INFINITY; nv];
     let pos: Vec<Pt> = cdt.vertices().map(|v| pt(v.position())).collect();
-    for t in &tris {
+    for t in tris {
         for k in 0..3 {
             let (a, b, c) = (t.v[k], t.v[(k + 1) % 3], t.v[(k + 2) % 3]);
             let (u, w) = (pos[b].sub(pos[a]), pos[c].sub(pos[a]));
@@ -442,17 +488,15 @@ fn grade_corners(
             shortest[a] = shortest[a].min(u.x.hypot(u.y)).min(w.x.hypot(w.y));
         }
     }
-    let mut ends = ArcEnds::new();
+    let mut ends = ArcEnds::new(eps);
     for &(a, b, id) in chords {
-        ends.entry(cell(a, eps)).or_default().push((a, id, true));
-        ends.entry(cell(b, eps)).or_default().push((b, id, false));
+        ends.insert(a, (id, true));
+        ends.insert(b, (id, false));
     }
     // A boundary vertex with more than 200° of region about it.
     let corners: Vec<usize> = (0..nv)
         .filter(|&v| {
-            angle[v] > PI * 200.0 / 180.0
-                && angle[v] < TAU - 1e-6
-                && !inside_arc(&ends, pos[v], eps)
+            angle[v] > PI * 200.0 / 180.0 && angle[v] < TAU - 1e-6 && !inside_arc(&ends, pos[v])
         })
         .collect();
     if corners.len() * 40 > BASE_VERTICES {
@@ -484,41 +528,24 @@ fn grade_corners(
 }
 
 /// Whether `p` joins two facets of the same arc: the boundary there is smooth, and the
-/// angle the facets make is not a corner. `ends` maps each facet end, on a grid of
-/// `eps`, to the arcs whose facets start (`.0`) or end (`.1`) there.
-fn inside_arc(ends: &ArcEnds, p: Pt, eps: f64) -> bool {
-    let key = cell(p, eps);
-    let near = |want_start: bool| -> Vec<u32> {
-        (-1..=1)
-            .flat_map(|dx| (-1..=1).map(move |dy| (key.0 + dx, key.1 + dy)))
-            .filter_map(|k| ends.get(&k))
-            .flatten()
-            .filter(|&&(q, _, start)| start == want_start && q.dist(p) <= eps)
-            .map(|&(_, id, _)| id)
-            .collect()
-    };
-    let (starts, stops) = (near(true), near(false));
-    stops.iter().any(|id| starts.contains(id))
+/// angle the facets make is not a corner. `ends` holds each facet end with its arc and
+/// whether a facet starts there.
+fn inside_arc(ends: &ArcEnds, p: Pt) -> bool {
+    ends.within(p)
+        .any(|(id, start)| !start && ends.within(p).any(|(other, s)| s && other == id))
 }
 
-/// Facet ends by grid cell: the point, its arc and whether a facet starts there.
-type ArcEnds = HashMap<(i64, i64), Vec<(Pt, u32, bool)>>;
-
-fn cell(p: Pt, eps: f64) -> (i64, i64) {
-    ((p.x / eps).floor() as i64, (p.y / eps).floor() as i64)
-}
+/// Facet ends: the arc and whether a facet starts (`true`) or ends there.
+type ArcEnds = Near<(u32, bool)>;
 
 /// The edges of the region's outline, from a triangulation of every part's boundary:
 /// the constraint edges with the region on one side only, other materials on its two
 /// sides, or (with `joints`) two pieces that abut there (neither holds the other side);
 /// and whether any is such an interface inside the region.
 fn union_outline(cdt: &Cdt, outlines: &[Outline], joints: bool) -> (Vec<(Pt, Pt)>, bool) {
+    let labels = face_labels(cdt, outlines);
     let side = |f: spade::handles::FaceHandle<'_, spade::handles::PossiblyOuterTag, _, _, _, _>| {
-        f.as_inner().and_then(|f| {
-            let [a, b, c] = f.positions().map(pt);
-            let g = a.add(b).add(c).scale(1.0 / 3.0);
-            top(outlines, g).map(|o| (o, g))
-        })
+        labels[f.fix().index()].map(|(i, g)| (&outlines[i as usize], g))
     };
     let mut edges = Vec::new();
     let mut interfaces = false;
@@ -568,6 +595,8 @@ fn snap_to_arcs(
     arcs: &[Arc],
     eps: f64,
 ) {
+    let spans = Spans::new(chords.iter().map(|&(a, b, _)| (a.x.min(b.x), a.x.max(b.x))));
+    let eps2 = eps * eps;
     for v in cdt.vertices().skip(from) {
         if !v
             .out_edges()
@@ -577,44 +606,69 @@ fn snap_to_arcs(
         }
         let i = v.fix().index();
         let p = pos[i];
-        for &(a, b, id) in chords {
+        // The first chord (in their order) that `p` lies on, strictly between its ends.
+        let on = spans.near(p.x, eps).filter(|&k| {
+            let (a, b, _) = chords[k as usize];
             let ab = b.sub(a);
-            let len = ab.x.hypot(ab.y);
-            if len <= 0.0 || p.dist(a) <= eps || p.dist(b) <= eps {
-                continue;
+            let len2 = ab.x * ab.x + ab.y * ab.y;
+            if len2 <= 0.0 || dist2(p, a) <= eps2 || dist2(p, b) <= eps2 {
+                return false;
             }
-            let t = (p.sub(a).x * ab.x + p.sub(a).y * ab.y) / (len * len);
-            if t > 0.0 && t < 1.0 && ab.cross(p.sub(a)).abs() / len <= eps {
-                if let Some(arc) = arcs.get(id as usize) {
-                    pos[i] = arc.project(p);
-                }
-                break;
+            let t = (p.sub(a).x * ab.x + p.sub(a).y * ab.y) / len2;
+            let off = ab.cross(p.sub(a));
+            t > 0.0 && t < 1.0 && off * off <= eps2 * len2
+        });
+        if let Some(k) = on.min() {
+            if let Some(arc) = arcs.get(chords[k as usize].2 as usize) {
+                pos[i] = arc.project(p);
             }
         }
     }
 }
 
-/// The index of an arc that the chord `p`–`q` follows, if any.
-fn arc_of(arcs: &[Arc], sweeps: &[(f64, f64)], p: Pt, q: Pt, eps: f64) -> u32 {
-    for (i, (a, &(lo, hi))) in arcs.iter().zip(sweeps).enumerate() {
-        if (p.dist(a.c) - a.r).abs() > eps || (q.dist(a.c) - a.r).abs() > eps {
-            continue;
-        }
-        // A chord of a facet spans a small angle; its mid-direction must be in the sweep.
-        let m = p.add(q).scale(0.5).sub(a.c);
-        if m.x.hypot(m.y) < 0.5 * a.r {
-            continue;
-        }
-        let t = m.y.atan2(m.x);
-        let inside = (-2..=2).any(|k| {
-            let t = t + TAU * k as f64;
-            t >= lo && t <= hi
-        });
-        if inside {
-            return i as u32;
+/// The arcs of a mesh with their sweeps (`[lo, hi]` radians), found by x.
+struct ArcIndex<'a> {
+    arcs: &'a [Arc],
+    sweeps: &'a [(f64, f64)],
+    spans: Spans,
+}
+
+impl<'a> ArcIndex<'a> {
+    fn new(arcs: &'a [Arc], sweeps: &'a [(f64, f64)]) -> ArcIndex<'a> {
+        ArcIndex {
+            arcs,
+            sweeps,
+            spans: Spans::new(arcs.iter().map(|a| (a.c.x - a.r, a.c.x + a.r))),
         }
     }
-    NO_ARC
+
+    /// The index of the first arc that the chord `p`–`q` follows, if any.
+    fn arc_of(&self, p: Pt, q: Pt, eps: f64) -> u32 {
+        self.spans
+            .near(p.x, eps)
+            .filter(|&i| follows(&self.arcs[i as usize], self.sweeps[i as usize], p, q, eps))
+            .min()
+            .unwrap_or(NO_ARC)
+    }
+}
+
+/// Whether the chord `p`–`q` follows the arc `a` of sweep `(lo, hi)`: both ends on
+/// its circle (within `eps`), the chord's mid-direction within the sweep.
+fn follows(a: &Arc, (lo, hi): (f64, f64), p: Pt, q: Pt, eps: f64) -> bool {
+    let off = |x: Pt| (dist2(x, a.c).sqrt() - a.r).abs();
+    if off(p) > eps || off(q) > eps {
+        return false;
+    }
+    // A chord of a facet spans a small angle; its mid-direction must be in the sweep.
+    let m = p.add(q).scale(0.5).sub(a.c);
+    if m.x * m.x + m.y * m.y < 0.25 * a.r * a.r {
+        return false;
+    }
+    let t = m.y.atan2(m.x);
+    (-2..=2).any(|k| {
+        let t = t + TAU * k as f64;
+        t >= lo && t <= hi
+    })
 }
 
 /// Turns the region's triangles into 6-node elements, numbers components and pins.
@@ -630,24 +684,17 @@ fn build(
     // another; such twins are merged and the slivers between them dropped.
     let mut map = vec![u32::MAX; pos.len()];
     let mut nodes: Vec<Pt> = Vec::new();
-    let mut grid: HashMap<(i64, i64), Vec<u32>> = HashMap::new();
+    let mut grid = Near::new(eps);
     for t in tris {
         for &v in &t.v {
             if map[v] != u32::MAX {
                 continue;
             }
             let p = pos[v];
-            let key = ((p.x / eps).floor() as i64, (p.y / eps).floor() as i64);
-            let twin = (-1..=1)
-                .flat_map(|dx| (-1..=1).map(move |dy| (key.0 + dx, key.1 + dy)))
-                .filter_map(|k| grid.get(&k))
-                .flatten()
-                .copied()
-                .find(|&i| nodes[i as usize].dist(p) <= eps);
-            map[v] = twin.unwrap_or_else(|| {
+            map[v] = grid.find(p).unwrap_or_else(|| {
                 nodes.push(p);
                 let id = nodes.len() as u32 - 1;
-                grid.entry(key).or_default().push(id);
+                grid.insert(p, id);
                 id
             });
         }
@@ -659,7 +706,8 @@ fn build(
             c[0] != c[1] && c[1] != c[2] && c[2] != c[0]
         })
         .collect();
-    let mut mids: HashMap<(u32, u32), u32> = HashMap::new();
+    let index = ArcIndex::new(&arcs, sweeps);
+    let mut mids: MixMap<(u32, u32), u32> = MixMap::default();
     let mut elems = Vec::with_capacity(tris.len());
     let mut edge_arc = Vec::with_capacity(tris.len());
     let mut curved = Vec::with_capacity(tris.len());
@@ -671,7 +719,7 @@ fn build(
             let (a, b) = (c[k], c[(k + 1) % 3]);
             let (p, q) = (nodes[a as usize], nodes[b as usize]);
             let arc = if t.constraint[k] {
-                arc_of(&arcs, sweeps, p, q, eps)
+                index.arc_of(p, q, eps)
             } else {
                 NO_ARC
             };
@@ -727,16 +775,16 @@ fn components(nodes: usize, elems: &[[u32; 6]]) -> (Vec<u32>, Vec<u32>) {
         }
     }
     let mut comp = vec![0u32; nodes];
-    let mut ids: HashMap<u32, u32> = HashMap::new();
+    // The component of each root, numbered in the order the roots are met.
+    let mut ids = vec![u32::MAX; nodes];
     let mut pinned = Vec::new();
     for i in 0..nodes as u32 {
         let r = root(&mut parent, i);
-        let next = ids.len() as u32;
-        let id = *ids.entry(r).or_insert_with(|| {
+        if ids[r as usize] == u32::MAX {
+            ids[r as usize] = pinned.len() as u32;
             pinned.push(r);
-            next
-        });
-        comp[i as usize] = id;
+        }
+        comp[i as usize] = ids[r as usize];
     }
     (comp, pinned)
 }

@@ -56,6 +56,7 @@
 //! public API, the refinement loop and the error estimate.
 
 pub mod flexure;
+mod grid;
 pub mod joint_flow;
 pub mod mesh;
 pub mod p2;

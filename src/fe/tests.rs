@@ -491,3 +491,101 @@ fn features_below_the_floor_are_refused_with_the_ratio() {
         "{e}"
     );
 }
+
+/// The base mesh's area (exact for straight-sided pieces), the same with the boundaries
+/// pieces share kept as element edges (`joints`) as without.
+fn base_area(p: &[Piece]) -> f64 {
+    let area = |joints: bool| {
+        let m = mesh::base(p, BASE_SIZE, joints).expect("meshes").mesh;
+        mesh_area(&m)
+    };
+    let (plain, joined) = (area(false), area(true));
+    assert!(
+        (plain - joined).abs() <= 1e-9 * plain,
+        "{plain} vs {joined}"
+    );
+    plain
+}
+
+fn mesh_area(m: &mesh::Mesh) -> f64 {
+    m.elems
+        .iter()
+        .map(|e| {
+            let [a, b, c] = [0, 1, 2].map(|k| m.nodes[e[k] as usize]);
+            0.5 * b.sub(a).cross(c.sub(a))
+        })
+        .sum()
+}
+
+#[test]
+fn base_mesh_covers_the_region_of_overlaps_voids_and_shared_edges() {
+    // Areas of unions and differences of rectangles, by plain geometry: the triangles
+    // classified as region (one classification per patch between constraint edges)
+    // add up to them exactly.
+    let rect =
+        |b: f64, h: f64, x: f64, y: f64| piece(Shape::Rect { b, h }, Pt::new(x, y), 0.0, false);
+    let void = |mut p: Piece| {
+        p.void = true;
+        p
+    };
+    let cases: Vec<(&str, Vec<Piece>, f64)> = vec![
+        // Two plates sharing a whole edge: 2 × 40 × 10.
+        (
+            "shared edge",
+            vec![rect(40.0, 10.0, 0.0, 0.0), rect(40.0, 10.0, 0.0, 10.0)],
+            800.0,
+        ),
+        // Two plates overlapping by 10 × 10: 2 × 400 − 100.
+        (
+            "overlap",
+            vec![rect(20.0, 20.0, 0.0, 0.0), rect(20.0, 20.0, 10.0, 10.0)],
+            700.0,
+        ),
+        // A 100 × 100 plate, a 20 × 20 core, a void half outside: 10,000 − 400 − 400.
+        (
+            "voids",
+            vec![
+                rect(100.0, 100.0, 0.0, 0.0),
+                void(rect(20.0, 20.0, 0.0, 0.0)),
+                void(rect(40.0, 20.0, 50.0, 20.0)),
+            ],
+            9_200.0,
+        ),
+        // A plate lying wholly inside another counts once.
+        (
+            "inside",
+            vec![rect(60.0, 30.0, 0.0, 0.0), rect(20.0, 10.0, 5.0, 5.0)],
+            1_800.0,
+        ),
+        // Two plates touching at a corner only, and one apart: 3 × 100.
+        (
+            "corner and apart",
+            vec![
+                rect(10.0, 10.0, 0.0, 0.0),
+                rect(10.0, 10.0, 10.0, 10.0),
+                rect(10.0, 10.0, 40.0, 0.0),
+            ],
+            300.0,
+        ),
+    ];
+    for (name, p, exact) in cases {
+        let a = base_area(&p);
+        assert!((a - exact).abs() <= 1e-9 * exact, "{name}: {a} vs {exact}");
+    }
+    // Two materials sharing an edge (an interface): each element keeps its own ratio,
+    // areas 400 of n = 1 and 400 of n = 3.
+    let p = vec![
+        rect(40.0, 10.0, 0.0, 0.0),
+        with_n(rect(40.0, 10.0, 0.0, 10.0), 3.0),
+    ];
+    let m = mesh::base(&p, BASE_SIZE, false).expect("meshes").mesh;
+    let mut by_n = [0.0; 2];
+    for (e, &n) in m.elems.iter().zip(&m.weight) {
+        let [a, b, c] = [0, 1, 2].map(|k| m.nodes[e[k] as usize]);
+        by_n[usize::from(n == 3.0)] += 0.5 * b.sub(a).cross(c.sub(a));
+    }
+    assert!(
+        (by_n[0] - 400.0).abs() < 1e-9 && (by_n[1] - 400.0).abs() < 1e-9,
+        "{by_n:?}"
+    );
+}
