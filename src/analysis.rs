@@ -403,7 +403,7 @@ impl Analysis {
                     Some(p) if corner::is_reentrant(pieces, p) => ShearCause::SharpCorner,
                     _ => ShearCause::NotSettled,
                 };
-                notes.push(Warning::ShearAboveTolerance { figure, cause });
+                notes.push((figure, cause));
             }
             ok
         };
@@ -434,7 +434,15 @@ impl Analysis {
                     within(ShearFigure::MemberTau, tau.rel_error, Some(tau.at)).then_some(tau);
             }
         }
-        for w in notes {
+        for cause in [ShearCause::SharpCorner, ShearCause::NotSettled] {
+            let figures: Vec<ShearFigure> = (notes.iter())
+                .filter(|n| n.1 == cause)
+                .map(|n| n.0)
+                .collect();
+            if figures.is_empty() {
+                continue;
+            }
+            let w = Warning::ShearAboveTolerance { figures, cause };
             if !self.warnings.contains(&w) {
                 self.warnings.push(w);
             }

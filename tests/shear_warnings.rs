@@ -55,7 +55,7 @@ fn a_peak_that_is_only_slow_to_settle_says_so_without_blaming_a_corner() {
     // the meshes allowed did not bring the estimate within the tolerance (when it is
     // withheld at all: a better-converging solver may give it).
     let json = kern(&["calc", "--json", "sections/crane-runway.toml"]);
-    let w = "member shear stress at Vmax not given: the meshes allowed did not bring its \
+    let w = "member shear stress at Vmax not given: the meshes allowed did not bring the \
              error within the tolerance";
     if json.contains("member shear stress at Vmax not given") {
         assert!(json.contains(w), "{json}");

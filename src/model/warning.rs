@@ -93,10 +93,10 @@ pub enum Warning {
     NoShear(Box<Warning>),
     /// The section is in `count` separate pieces, which share no shear flow.
     ShearPieces { count: usize },
-    /// A shear figure is left out: its estimated error is above the tolerance, for
-    /// the reason `cause`.
+    /// Shear figures are left out: their estimated errors are above the tolerance, for
+    /// the one reason `cause` (one warning a cause, the figures in the order given).
     ShearAboveTolerance {
-        figure: ShearFigure,
+        figures: Vec<ShearFigure>,
         cause: ShearCause,
     },
     /// More than `max_pairs` pairs of parts lie on one another: no connection looked for.

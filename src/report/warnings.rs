@@ -139,12 +139,19 @@ impl fmt::Display for Warning {
                  stresses and shear areas are not given (check each piece as its own member, \
                  or join them)"
             ),
-            Warning::ShearAboveTolerance { figure, cause } => {
-                let what = match figure {
-                    ShearFigure::Areas => "shear areas",
-                    ShearFigure::TauMax => "largest shear stress",
-                    ShearFigure::VonMises => "largest von Mises stress",
-                    ShearFigure::MemberTau => "member shear stress at Vmax",
+            Warning::ShearAboveTolerance { figures, cause } => {
+                let names: Vec<&str> = (figures.iter())
+                    .map(|figure| match figure {
+                        ShearFigure::Areas => "shear areas",
+                        ShearFigure::TauMax => "largest shear stress",
+                        ShearFigure::VonMises => "largest von Mises stress",
+                        ShearFigure::MemberTau => "member shear stress at Vmax",
+                    })
+                    .collect();
+                let what = match names.split_last() {
+                    Some((last, [])) => last.to_string(),
+                    Some((last, rest)) => format!("{} and {last}", rest.join(", ")),
+                    None => "shear figures".to_string(),
                 };
                 let why = match cause {
                     ShearCause::SharpCorner => {
@@ -152,7 +159,7 @@ impl fmt::Display for Warning {
                          a fillet radius on the parts gives a finite one)"
                     }
                     ShearCause::NotSettled => {
-                        "the meshes allowed did not bring its error within the tolerance"
+                        "the meshes allowed did not bring the error within the tolerance"
                     }
                 };
                 write!(f, "{what} not given: {why}")

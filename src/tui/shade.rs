@@ -147,9 +147,9 @@ pub fn field(a: &Analysis, s: Shading, solving: bool) -> Option<Result<Field, Wh
             ShearFigure::VonMises,
         ),
     };
-    let singular = a.warnings.contains(&Warning::ShearAboveTolerance {
-        figure,
-        cause: ShearCause::SharpCorner,
+    let singular = a.warnings.iter().any(|w| {
+        matches!(w, Warning::ShearAboveTolerance { figures, cause: ShearCause::SharpCorner }
+            if figures.contains(&figure))
     });
     Some(match (peak, values) {
         (Some(peak), Some(values)) => Ok(Field {
