@@ -58,7 +58,7 @@ fn start_sweep(app: &mut App) {
         kern::tui::handle_key(app, &KeyEvent::new(KeyCode::Char(c), KeyModifiers::NONE));
     }
     kern::tui::handle_key(app, &KeyEvent::new(KeyCode::Enter, KeyModifiers::NONE));
-    assert!(app.sweep_job.is_some(), "{:?}", app.message);
+    assert!(app.job.is_some(), "{:?}", app.message);
 }
 
 fn frame_during_a_torsion_sweep(c: &mut Criterion) {
@@ -68,8 +68,8 @@ fn frame_during_a_torsion_sweep(c: &mut Criterion) {
     start_sweep(&mut app);
     c.bench_function("frame while a 201-value torsion sweep runs, 120x40", |b| {
         b.iter(|| {
-            kern::tui::commands::sweep::poll(&mut app);
-            if app.sweep_job.is_none() {
+            kern::tui::commands::background::poll(&mut app);
+            if app.job.is_none() {
                 start_sweep(&mut app);
             }
             term.draw(|f| views::render(&app, f.area(), f.buffer_mut()))

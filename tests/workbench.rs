@@ -1483,11 +1483,11 @@ fn git_in(dir: &Path, args: &[&str]) -> bool {
 fn wait_for_sweep(a: &mut App) -> kern::tui::commands::sweep::Swept {
     let start = std::time::Instant::now();
     loop {
-        commands::sweep::poll(a);
+        commands::background::poll(a);
         if let Mode::Sweep(s) = &a.mode {
             return s.clone();
         }
-        assert_eq!(a.mode, Mode::Sweeping, "{:?}", a.message);
+        assert_eq!(a.mode, Mode::Working, "{:?}", a.message);
         assert!(start.elapsed().as_secs() < 300, "the sweep never finished");
         std::thread::sleep(std::time::Duration::from_millis(5));
     }
@@ -1503,14 +1503,14 @@ fn a_sweep_with_torsion_runs_in_the_background_and_esc_stops_it() {
     key(&mut a, KeyCode::Enter);
     // The key returns at once, before any value is solved: the screen says how far it
     // has got and how to stop it.
-    assert_eq!(a.mode, Mode::Sweeping, "{:?}", a.message);
+    assert_eq!(a.mode, Mode::Working, "{:?}", a.message);
     let s = screen(&a, 80, 24);
     assert!(
-        s.contains("Sweeping J over h") && s.contains("Esc stops it"),
+        s.contains("sweep of J over h") && s.contains("Esc stops it"),
         "{s}"
     );
     let swept = wait_for_sweep(&mut a);
-    assert!(a.sweep_job.is_none());
+    assert!(a.job.is_none());
     let hs: Vec<f64> = swept.samples.iter().map(|p| p.value).collect();
     assert_eq!(hs, [150.0, 200.0, 250.0]);
     // Saint-Venant torsion of a t × b rectangle (t ≤ b): J = (b·t³/3)·(1 − (192/π⁵)·(t/b)
@@ -1532,14 +1532,93 @@ fn a_sweep_with_torsion_runs_in_the_background_and_esc_stops_it() {
     run(&mut a, Cmd::Sweep);
     typed(&mut a, "J 100 300 201");
     key(&mut a, KeyCode::Enter);
-    assert_eq!(a.mode, Mode::Sweeping, "{:?}", a.message);
+    assert_eq!(a.mode, Mode::Working, "{:?}", a.message);
     key(&mut a, KeyCode::Esc);
     assert_eq!(a.mode, Mode::Main);
-    assert!(a.sweep_job.is_none());
+    assert!(a.job.is_none());
     let (note, _) = a.message.clone().unwrap();
     assert!(note.contains("sweep of J over h stopped"), "{note}");
     assert!(
-        !commands::sweep::poll(&mut a),
+        !commands::background::poll(&mut a),
+        "nothing arrives after a stop"
+    );
+    assert_eq!(a.mode, Mode::Main);
+}
+
+/// Collects a background ranking as the event loop does, until its window opens (a
+/// guard against a hang, not a time target).
+fn wait_for_rates(a: &mut App) -> kern::tui::listing::Listing {
+    let start = std::time::Instant::now();
+    loop {
+        commands::background::poll(a);
+        if let Mode::Rates(l) = &a.mode {
+            return l.clone();
+        }
+        assert_eq!(a.mode, Mode::Working, "{:?}", a.message);
+        assert!(
+            start.elapsed().as_secs() < 300,
+            "the ranking never finished"
+        );
+        std::thread::sleep(std::time::Duration::from_millis(5));
+    }
+}
+
+#[test]
+fn a_ranking_by_j_runs_in_the_background_and_esc_stops_it() {
+    let mut a = app(PLATE);
+    run(&mut a, Cmd::Rates);
+    typed(&mut a, "J");
+    key(&mut a, KeyCode::Enter);
+    // The key returns at once: the screen says how far the ranking has got.
+    assert_eq!(a.mode, Mode::Working, "{:?}", a.message);
+    let s = screen(&a, 80, 24);
+    assert!(
+        s.contains("ranking of the params by J") && s.contains("Esc stops it"),
+        "{s}"
+    );
+    let r = wait_for_rates(&mut a);
+    assert!(a.job.is_none());
+    // Saint-Venant torsion of a t × b rectangle (t ≤ b): J = (t³/3)·(b − (192/π⁵)·t
+    // ·Σ tanh(nπb/2t)/n⁵, n odd) (Timoshenko & Goodier, Theory of Elasticity, §109), so
+    // dJ/db = (t³/3)·(1 − (96/π⁴)·Σ sech²(nπb/2t)/n⁴); here t = 100 mm and b = h = 200 mm.
+    let (t, b) = (100.0f64, 200.0f64);
+    let sum: f64 = (0..20)
+        .map(|k| (2 * k + 1) as f64)
+        .map(|n| (n * PI * b / (2.0 * t)).cosh().powi(-2) / n.powi(4))
+        .sum();
+    let want = t.powi(3) / 3.0 * (1.0 - 96.0 / PI.powi(4) * sum);
+    let line = r.lines.iter().find(|l| l.starts_with("h:")).unwrap();
+    // The rate as shown, `331 000 mm⁴ per mm of h` (groups of three set apart).
+    let digits: String = line[2..]
+        .split_whitespace()
+        .take_while(|w| w.parse::<f64>().is_ok())
+        .collect();
+    let got: f64 = digits
+        .parse()
+        .unwrap_or_else(|_| panic!("a number in {line}"));
+    // Three figures shown, and the solve's tolerance of 1e-3: checked to 2 %.
+    assert!(
+        (got - want).abs() < 0.02 * want,
+        "dJ/dh {got} against {want}: {line}"
+    );
+    insta::assert_snapshot!("rates-j-80x24", screen(&a, 80, 24));
+    run(&mut a, Cmd::Cancel);
+    assert_eq!(a.mode, Mode::Main);
+    // Esc while it runs stops it: no window opens, and nothing arrives later.
+    run(&mut a, Cmd::Rates);
+    typed(&mut a, "J");
+    key(&mut a, KeyCode::Enter);
+    assert_eq!(a.mode, Mode::Working, "{:?}", a.message);
+    key(&mut a, KeyCode::Esc);
+    assert_eq!(a.mode, Mode::Main);
+    assert!(a.job.is_none());
+    let (note, _) = a.message.clone().unwrap();
+    assert!(
+        note.contains("ranking of the params by J stopped"),
+        "{note}"
+    );
+    assert!(
+        !commands::background::poll(&mut a),
         "nothing arrives after a stop"
     );
     assert_eq!(a.mode, Mode::Main);

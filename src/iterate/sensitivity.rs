@@ -18,6 +18,7 @@ use crate::geom::{Resolution, Varying};
 use crate::model::Document;
 use crate::parallel::parallel_map;
 use crate::report::rows::{Quantity, QUANTITIES};
+use std::sync::atomic::{AtomicUsize, Ordering};
 
 /// The relative step of the central difference.
 pub const STEP: f64 = 1e-4;
@@ -76,6 +77,17 @@ pub fn sensitivities(
     q: &Quantity,
     opts: &Options,
 ) -> Result<Sensitivities, Failure> {
+    sensitivities_counting(doc, q, opts, &AtomicUsize::new(0))
+}
+
+/// [`sensitivities`], counting in `done` the params finished so far (for a progress
+/// line while it runs on another thread).
+pub fn sensitivities_counting(
+    doc: &Document,
+    q: &Quantity,
+    opts: &Options,
+    done: &AtomicUsize,
+) -> Result<Sensitivities, Failure> {
     let quick = options_for(q, opts);
     // The mass is one of the properties, which every scope computes.
     let scope = scope_for(q);
@@ -131,7 +143,12 @@ pub fn sensitivities(
         }
         rate
     };
-    let mut rates: Vec<Rate> = parallel_map(&work, one)
+    let counted = |w: &(usize, f64)| {
+        let rate = one(w);
+        done.fetch_add(1, Ordering::Relaxed);
+        rate
+    };
+    let mut rates: Vec<Rate> = parallel_map(&work, counted)
         .into_iter()
         .zip(&params)
         .map(|(r, (name, x))| {

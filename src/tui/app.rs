@@ -195,8 +195,8 @@ pub enum Mode {
     Rates(super::listing::Listing),
     /// A result swept over a param: plot and table.
     Sweep(super::commands::sweep::Swept),
-    /// A sweep with the torsion solve at every value is under way ([`App::sweep_job`]).
-    Sweeping,
+    /// Work with many torsion solves is under way in the background ([`App::job`]).
+    Working,
     /// Both designs' results side by side.
     Compare(super::listing::Listing),
     /// The open file's commits, to compare with one.
@@ -255,8 +255,8 @@ pub struct App {
     pub solver: Solver,
     /// A background solve for the current text is under way.
     pub solving: bool,
-    /// A sweep running in the background (one that needs the torsion solve).
-    pub sweep_job: Option<super::commands::sweep::Running>,
+    /// Work running in the background (a sweep or a ranking that needs the torsion solve).
+    pub job: Option<super::commands::background::Job>,
     generation: u64,
     /// The generation of a background solve for the baseline, when one is under way.
     baseline_job: Option<u64>,
@@ -311,7 +311,7 @@ impl App {
             drawn_mesh: OnceCell::new(),
             solver,
             solving: false,
-            sweep_job: None,
+            job: None,
             generation: 0,
             baseline_job: None,
             tables: None,

@@ -3,6 +3,7 @@
 //! terminal: moving, typing and stepping values, history, baseline and saving here;
 //! commands on whole parts in [`parts`].
 
+pub mod background;
 pub mod compare;
 pub mod parts;
 pub mod rates;
@@ -384,9 +385,9 @@ pub fn cancel(app: &mut App) {
     if let Mode::AskDisk(_) = app.mode {
         return keep_mine(app);
     }
-    if app.mode == Mode::Sweeping {
+    if app.mode == Mode::Working {
         app.mode = Mode::Main;
-        return sweep::stop(app);
+        return background::stop(app);
     }
     app.mode = Mode::Main;
     app.message = None;

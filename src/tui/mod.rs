@@ -156,7 +156,7 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
         }
         // Block on input; wake up now and then to collect a running solve and to look
         // at the file on disk.
-        let busy = app.solving || app.sweep_job.is_some();
+        let busy = app.solving || app.job.is_some();
         let wait = match (busy, app.path.is_some()) {
             (true, _) => Some(SOLVE_POLL),
             (false, true) => Some(WATCH_POLL),
@@ -169,7 +169,7 @@ fn event_loop(terminal: &mut ratatui::DefaultTerminal, app: &mut App) -> std::io
         if app.poll_solver() {
             commands::compare::refresh(app);
         }
-        commands::sweep::poll(app);
+        commands::background::poll(app);
         commands::follow_disk(app);
         if let Some(Event::Key(k)) = ev {
             if k.kind != KeyEventKind::Release {
@@ -196,7 +196,7 @@ pub fn handle_key(app: &mut App, k: &KeyEvent) {
         | Mode::AskDisk(_)
         | Mode::AskSeek(_)
         | Mode::Sweep(_)
-        | Mode::Sweeping => Ctx::Asking,
+        | Mode::Working => Ctx::Asking,
         Mode::Rates(_) | Mode::Compare(_) => Ctx::Window,
         Mode::Revisions(_) => Ctx::Revisions,
         Mode::Help(_) => Ctx::Help,

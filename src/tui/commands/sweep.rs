@@ -8,9 +8,10 @@
 //! A sweep of results without torsion runs inline, before the key returns: 21 analyses
 //! take milliseconds, well inside a frame. One that needs the torsion solve at every
 //! value (J, Cw, the shear areas…) runs on a thread of its own, itself parallel over
-//! the values ([`sweep_counting`]), while the screen shows how far it has got; the
-//! event loop collects it ([`poll`]), and Esc stops it through the solver's cancel flag.
+//! the values ([`sweep_counting`]), as a [`background`] job: the screen shows how far
+//! it has got and Esc stops it.
 
+use super::background;
 use super::seek::quantity;
 use crate::analysis::Options;
 use crate::fe::TorsionOptions;
@@ -19,8 +20,7 @@ use crate::iterate::vary::{needs_torsion, read, Probe};
 use crate::report::out::OutUnits;
 use crate::report::rows::{Dim, Quantity};
 use crate::tui::app::{App, Focus, LineEdit, Mode, Target};
-use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
-use std::sync::mpsc::{channel, Receiver, TryRecvError};
+use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 
 /// Points of a sweep when none are typed.
@@ -118,7 +118,6 @@ fn parse(entry: &str) -> Result<Asked<'_>, String> {
 }
 
 /// What a sweep asked for, ready to be shown once its points are in.
-#[derive(Clone)]
 struct Plan {
     param: String,
     key: String,
@@ -126,39 +125,6 @@ struct Plan {
     current: f64,
     range: (f64, f64),
     units: OutUnits,
-}
-
-/// A sweep running on its own thread: its points when done, how many values are
-/// analysed so far, and the flag that stops its torsion solves.
-pub struct Running {
-    plan: Plan,
-    points: Receiver<Vec<Point>>,
-    done: Arc<AtomicUsize>,
-    pub total: usize,
-    cancel: Arc<AtomicBool>,
-}
-
-impl Running {
-    /// The values analysed so far.
-    pub fn done(&self) -> usize {
-        self.done.load(Ordering::Relaxed).min(self.total)
-    }
-
-    /// The param and the result, `J over h`.
-    pub fn what(&self) -> String {
-        format!("{} over {}", self.plan.key, self.plan.param)
-    }
-
-    /// Stops the sweep: its torsion solves end early and its points are never shown.
-    pub fn stop(&self) {
-        self.cancel.store(true, Ordering::Relaxed);
-    }
-}
-
-impl Drop for Running {
-    fn drop(&mut self) {
-        self.stop();
-    }
 }
 
 /// Sweeps `param` as `entry` asks and opens the overlay; a result that needs the
@@ -215,59 +181,19 @@ pub fn open(app: &mut App, param: &str, entry: &str) -> Result<(), String> {
         show(app, &plan, points);
         return Ok(());
     }
-    let done = Arc::new(AtomicUsize::new(0));
-    let (tx, rx) = channel();
-    let counter = done.clone();
-    std::thread::spawn(move || {
-        // The receiver is gone when the sweep was stopped: nothing to do then.
-        let _ = tx.send(sweep_counting(&probe, &xs, &counter));
-    });
-    app.sweep_job = Some(Running {
-        plan,
-        points: rx,
-        done,
-        total: n,
+    background::start(
+        app,
+        format!("sweep of {key} over {param}"),
+        "values",
+        "Each value needs its own torsion solve, so this takes longer than a sweep without torsion.",
+        n,
         cancel,
-    });
-    app.mode = Mode::Sweeping;
+        move |done| {
+            let points = sweep_counting(&probe, &xs, done);
+            Box::new(move |app: &mut App| show(app, &plan, points))
+        },
+    );
     Ok(())
-}
-
-/// Takes the points of a background sweep when they are in and opens the overlay;
-/// returns whether anything changed on the screen (the count of values done moves
-/// while it runs).
-pub fn poll(app: &mut App) -> bool {
-    let Some(job) = &app.sweep_job else {
-        return false;
-    };
-    match job.points.try_recv() {
-        Err(TryRecvError::Empty) => true,
-        Err(TryRecvError::Disconnected) => {
-            app.sweep_job = None;
-            app.mode = Mode::Main;
-            app.error("the sweep stopped without results (please report this)");
-            true
-        }
-        Ok(points) => {
-            let plan = job.plan.clone();
-            app.sweep_job = None;
-            show(app, &plan, points);
-            true
-        }
-    }
-}
-
-/// Stops a background sweep, if one runs; says so.
-pub fn stop(app: &mut App) {
-    if let Some(job) = app.sweep_job.take() {
-        job.stop();
-        app.note(format!(
-            "sweep of {} stopped after {} of {} values",
-            job.what(),
-            job.done(),
-            job.total
-        ));
-    }
 }
 
 /// Opens the overlay on the points of `plan`.

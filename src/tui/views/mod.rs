@@ -65,7 +65,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         | Mode::AskSeek(_) => help::question(app, main, buf),
         Mode::Rates(l) | Mode::Compare(l) => listing::render(app, l, main, buf),
         Mode::Sweep(s) => sweep::render(app, s, main, buf),
-        Mode::Sweeping => sweep::progress(app, main, buf),
+        Mode::Working => sweep::progress(app, main, buf),
         Mode::Revisions(r) => help::revisions(app, r, main, buf),
         Mode::Main | Mode::Typing { .. } => {}
     }

@@ -58,7 +58,7 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
                     "Up/Down choose  Enter compare  e type instead  Esc close",
                     "Up/Down  Enter take  e type  Esc",
                 ),
-                Mode::Sweeping => ("Esc stops the sweep", "Esc stops the sweep"),
+                Mode::Working => ("Esc stops it", "Esc stops it"),
                 _ => (
                     "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit",
                     "? keys  Enter edit  +/- step  a add part  u undo  s save  q quit",

@@ -118,22 +118,23 @@ pub fn render(app: &App, s: &Swept, area: Rect, buf: &mut Buffer) {
     }
 }
 
-/// How far a background sweep has got, and how to stop it.
+/// How far a background job (a sweep, a ranking) has got, and how to stop it.
 pub fn progress(app: &App, area: Rect, buf: &mut Buffer) {
     let th = &app.theme;
-    let Some(job) = &app.sweep_job else {
+    let Some(job) = &app.job else {
         return;
     };
     let text = format!(
-        "Sweeping {}: {} of {} values done. Each value needs its own torsion solve, so \
-         this takes longer than a sweep without torsion. Esc stops it.",
-        clean(&job.what()),
+        "The {}: {} of {} {} done. {} Esc stops it.",
+        clean(&job.what),
         job.done(),
-        job.total
+        job.total,
+        job.pieces,
+        job.why
     );
     let win = centred(area, 60, 7);
     Clear.render(win, buf);
-    let block = pane(th, "Sweep under way", true);
+    let block = pane(th, "Under way", true);
     let inner = block.inner(win);
     block.render(win, buf);
     ratatui::widgets::Paragraph::new(th.text(&text))
