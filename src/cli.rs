@@ -56,6 +56,22 @@ pub fn print_out(text: &str) -> i32 {
     print_all([text])
 }
 
+/// Writes `text` as [`print_out`] and gives the verb's own exit `status`, unless the
+/// writing failed.
+pub fn print_then(text: &str, status: i32) -> i32 {
+    match print_out(text) {
+        0 => status,
+        failed => failed,
+    }
+}
+
+/// Ends a verb's readable output with the caution, after a blank line.
+pub fn push_caution(out: &mut String) {
+    out.push('\n');
+    out.push_str(CAUTION);
+    out.push('\n');
+}
+
 /// Writes `texts` one after the other to stdout through one buffer, as [`print_out`].
 fn print_all<'a>(texts: impl IntoIterator<Item = &'a str>) -> i32 {
     let mut out = std::io::BufWriter::new(std::io::stdout().lock());

@@ -4,7 +4,7 @@
 //! all). One line per file with the figures that decided, or one JSON object per file.
 
 use super::source::{named, Source};
-use super::{parallel_map, print_out, say, Written};
+use super::{parallel_map, print_then, say, Written};
 use crate::analysis::{Analysis, Options};
 use crate::fe::TorsionOptions;
 use crate::iterate::check::{check as verdict, Bound, Figure, Verdict};
@@ -175,8 +175,5 @@ pub fn check(args: &CheckArgs) -> i32 {
     } else {
         0
     };
-    match print_out(&out) {
-        0 => status,
-        failed => failed,
-    }
+    print_then(&out, status)
 }

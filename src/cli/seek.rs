@@ -2,7 +2,7 @@
 //! ([`crate::iterate::seek`]); `--write` puts it into the file, one line changed.
 
 use super::source::{named, Source};
-use super::{print_out, say, Written};
+use super::{print_then, say, Written};
 use crate::analysis::Options;
 use crate::file::edit::Edit;
 use crate::file::load::analyse;
@@ -137,10 +137,7 @@ pub fn seek(args: &SeekArgs) -> i32 {
     if args.write {
         status = write(&src, args, solved.value, q, target, &mut out);
     }
-    match print_out(&out) {
-        0 => status,
-        failed => failed,
-    }
+    print_then(&out, status)
 }
 
 /// Puts `value` into the param's line of the file (the rest of the text unchanged),

@@ -3,14 +3,13 @@
 //! ([`crate::iterate::sensitivity`]).
 
 use super::source::{columns, named, Source};
-use super::{print_out, say, Written};
+use super::{print_then, push_caution, say, Written};
 use crate::analysis::Options;
 use crate::iterate::sensitivity::{sensitivities, Difference, Sensitivities, STEP};
 use crate::iterate::vary::result_key;
 use crate::numfmt::plain;
 use crate::report::out::OutUnits;
 use crate::report::rows::Quantity;
-use crate::report::CAUTION;
 use serde_json::json;
 use std::path::PathBuf;
 
@@ -157,14 +156,9 @@ pub fn sensitivity(args: &SensitivityArgs) -> i32 {
         ));
     }
     if !args.json && !out.is_empty() {
-        out.push('\n');
-        out.push_str(CAUTION);
-        out.push('\n');
+        push_caution(&mut out);
     }
-    match print_out(&out) {
-        0 => status,
-        failed => failed,
-    }
+    print_then(&out, status)
 }
 
 /// The sheet's table of sensitivities of result `key` (`kern report --sensitivity`),

@@ -3,7 +3,7 @@
 //! `"sweep": {"param", "value"}` added (FORMAT.md), or CSV for a spreadsheet.
 
 use super::source::{columns, heading, shown, Source};
-use super::{print_out, say, Written};
+use super::{print_then, push_caution, say, Written};
 use crate::analysis::Options;
 use crate::iterate::sweep::{sweep as run, values};
 use crate::iterate::vary::{read, result_key};
@@ -11,7 +11,6 @@ use crate::iterate::Probe;
 use crate::numfmt::plain;
 use crate::report::json::to_json;
 use crate::report::rows::Quantity;
-use crate::report::CAUTION;
 use serde_json::json;
 use std::path::PathBuf;
 
@@ -181,12 +180,7 @@ pub fn sweep(args: &SweepArgs) -> i32 {
             rows.push(r);
         }
         out.push_str(&columns(&rows));
-        out.push('\n');
-        out.push_str(CAUTION);
-        out.push('\n');
+        push_caution(&mut out);
     }
-    match print_out(&out) {
-        0 => status,
-        failed => failed,
-    }
+    print_then(&out, status)
 }
