@@ -159,23 +159,55 @@ fn title_line(app: &App, area: Rect, buf: &mut Buffer) {
         .title
         .as_deref()
         .map_or_else(|| "untitled section".to_string(), clean);
-    let file = app.path.as_ref().map_or_else(
-        || "bundled demo (s saves a copy)".to_string(),
-        |p| clean(&p.display().to_string()),
-    );
+    let (file, name) = match app.path.as_ref() {
+        None => (
+            "bundled demo (s saves a copy)".to_string(),
+            Some("bundled demo".to_string()),
+        ),
+        Some(p) => (
+            clean(&p.display().to_string()),
+            p.file_name().map(|n| clean(&n.to_string_lossy())),
+        ),
+    };
     let changed = if app.modified() { " [changed]" } else { "" };
-    let sep = th.glyph(" · ", " - ");
-    let text = format!(
-        "kern{sep}{title}{changed}{sep}lengths in {}{sep}{file}",
-        app.units().length.name()
-    );
-    buf.set_stringn(
-        area.x,
-        area.y,
-        th.text(&text),
+    let units = format!("lengths in {}", app.units().length.name());
+    let text = title_text(
+        &th.text(&title),
+        changed,
+        &units,
+        &[Some(th.text(&file)), name.map(|n| th.text(&n))],
+        th.glyph(" · ", " - "),
         area.width as usize,
-        th.title,
     );
+    buf.set_stringn(area.x, area.y, &text, area.width as usize, th.title);
+}
+
+/// The title bar in `width` columns, never cut mid-word: `kern · title · units · file`,
+/// or with the file's name for its path, or without it, or without the units; as a last
+/// resort the title is elided (`…`). An unsaved edit's `[changed]` is always shown.
+fn title_text(
+    title: &str,
+    changed: &str,
+    units: &str,
+    files: &[Option<String>],
+    sep: &str,
+    width: usize,
+) -> String {
+    let head = format!("kern{sep}{title}{changed}");
+    let tails = files
+        .iter()
+        .flatten()
+        .map(|f| format!("{sep}{units}{sep}{f}"))
+        .chain([format!("{sep}{units}"), String::new()]);
+    for tail in tails {
+        let text = format!("{head}{tail}");
+        if Line::raw(text.as_str()).width() <= width {
+            return text;
+        }
+    }
+    let fixed = Line::raw(format!("kern{sep}{changed}")).width();
+    let room = width.saturating_sub(fixed);
+    format!("kern{sep}{}{changed}", fit(title, room).trim_end())
 }
 
 /// Pads `s` to exactly `w` columns, or elides it: a name that does not fit keeps what
@@ -215,5 +247,40 @@ pub fn fit_right(s: &str, w: usize) -> String {
         }
     } else {
         format!("{}{s}", " ".repeat(w - width))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::title_text;
+
+    fn bar(width: usize, changed: &str) -> String {
+        let files = [
+            Some("sections/loading-bay-beam.toml".to_string()),
+            Some("loading-bay-beam.toml".to_string()),
+        ];
+        title_text(
+            "Door head beam",
+            changed,
+            "lengths in mm",
+            &files,
+            " · ",
+            width,
+        )
+    }
+
+    #[test]
+    fn title_bar_drops_whole_pieces_before_eliding() {
+        assert_eq!(
+            bar(80, ""),
+            "kern · Door head beam · lengths in mm · sections/loading-bay-beam.toml"
+        );
+        assert_eq!(
+            bar(62, ""),
+            "kern · Door head beam · lengths in mm · loading-bay-beam.toml"
+        );
+        assert_eq!(bar(40, ""), "kern · Door head beam · lengths in mm");
+        assert_eq!(bar(31, " [changed]"), "kern · Door head beam [changed]");
+        assert_eq!(bar(24, " [changed]"), "kern · Door h… [changed]");
     }
 }
