@@ -9,7 +9,7 @@
 //! clock, which on a machine shared with other work says more about the load than
 //! about kern.
 
-use criterion::{black_box, criterion_group, criterion_main, Criterion};
+use criterion::{criterion_group, criterion_main, Criterion};
 use kern::analysis::Options;
 use kern::file::parse;
 use kern::iterate::sensitivity::sensitivities;
@@ -19,27 +19,9 @@ use kern::iterate::Probe;
 use std::fmt::Write;
 use std::time::Duration;
 
-/// The CPU time the process has used so far, every thread's (POSIX
-/// `CLOCK_PROCESS_CPUTIME_ID`).
-fn cpu_time() -> Duration {
-    let mut t = libc::timespec {
-        tv_sec: 0,
-        tv_nsec: 0,
-    };
-    // SAFETY: `t` is a valid timespec for the call to write.
-    let rc = unsafe { libc::clock_gettime(libc::CLOCK_PROCESS_CPUTIME_ID, &mut t) };
-    assert_eq!(rc, 0, "the process CPU clock is readable");
-    Duration::new(t.tv_sec as u64, t.tv_nsec as u32)
-}
-
-/// Times `f` by the CPU time of `iters` runs (criterion's custom timing).
-fn on_cpu<T>(iters: u64, mut f: impl FnMut() -> T) -> Duration {
-    let start = cpu_time();
-    for _ in 0..iters {
-        black_box(f());
-    }
-    cpu_time() - start
-}
+#[path = "support/cpu.rs"]
+mod cpu;
+use cpu::on_cpu;
 
 /// A loading-bay plate girder of 20 plates stacked edge to edge: five widths and four
 /// thicknesses as params (9 params), each plate centred on the axis.

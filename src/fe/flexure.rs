@@ -41,7 +41,7 @@
 use super::mesh::Mesh;
 use super::p2::{at, Rule};
 use super::solve::{Multigrid, Prolong};
-use super::torsion::{Failure, Ladder};
+use super::torsion::{Failure, Ladder, Level};
 use crate::geom::Pt;
 use std::sync::atomic::AtomicBool;
 
@@ -90,8 +90,9 @@ struct FlexLevel {
     joints: super::joint_flow::Level,
     /// Nodes of the mesh.
     nodes: usize,
-    /// Its sharp re-entrant corners ([`reentrant_corners`]).
-    corners: Vec<u32>,
+    /// Its sharp re-entrant corners ([`reentrant_corners`]), found once the level is to
+    /// be refined ([`FlexLadder::refining`]): only the coarser of two levels needs them.
+    corners: Option<Vec<u32>>,
     /// The prolongation from the coarser mesh onto this one (none on the base mesh).
     prolong: Option<Prolong>,
 }
@@ -308,9 +309,10 @@ fn peak_two_level(coarse: &FlexLevel, coarse_v: &[f64], fine: &FlexLevel, fine_v
     // At a sharp re-entrant corner the stress is singular and grows at every refinement
     // (as h^(1 − π/α) for an interior angle α; Williams 1952): its change counts
     // whatever its value, so a corner that will overtake the peak withholds it.
-    let at_corners = (coarse.corners.iter())
-        .map(|&i| e_at(i as usize))
-        .fold(0.0, f64::max);
+    // Corners not looked for give no estimate at all.
+    let at_corners = coarse.corners.as_ref().map_or(f64::INFINITY, |c| {
+        c.iter().map(|&i| e_at(i as usize)).fold(0.0, f64::max)
+    });
     let err = ((p1 - p0).abs() / div)
         .max(FLOOR * p1.abs())
         .max(e_at(node))
@@ -342,24 +344,33 @@ impl FlexLadder {
     }
 
     /// Solves the flexure problems on `m`, the mesh `ladder` has just solved the warping
-    /// function on (with torsion constant `j`), reusing its solver.
+    /// function on (its results `level`: J, the centroid and second moments), reusing its
+    /// solver.
     /// `prolong` is the prolongation from the previous mesh onto `m` (none on the base
     /// mesh).
     pub fn solve(
         &mut self,
         m: &Mesh,
         ladder: &Ladder,
-        j: f64,
+        level: &Level,
         prolong: Option<Prolong>,
         cancel: Option<&AtomicBool>,
     ) -> Result<(), Failure> {
         let mg = ladder.solver().ok_or(Failure::Degenerate)?;
-        let level = solve_level(self, m, mg, ladder.warping(), j, prolong, cancel)?;
+        let level = solve_level(self, m, mg, ladder.warping(), level, prolong, cancel)?;
         self.levels.push(level);
         if self.levels.len() > 2 {
             self.levels.remove(0);
         }
         Ok(())
+    }
+
+    /// The latest level's mesh `m` is about to be refined: it becomes the coarser of
+    /// the next pair, whose estimate needs its sharp re-entrant corners.
+    pub fn refining(&mut self, m: &Mesh) {
+        if let Some(l) = self.levels.last_mut().filter(|l| l.nodes == m.nodes.len()) {
+            l.corners = Some(reentrant_corners(m));
+        }
     }
 
     /// Whether the shear areas and the largest shear stress of each unit load (Vx, Vy,
@@ -439,56 +450,49 @@ fn solve_level(
     m: &Mesh,
     mg: &Multigrid,
     omega: &[f64],
-    j: f64,
+    level: &Level,
     prolong: Option<Prolong>,
     cancel: Option<&AtomicBool>,
 ) -> Result<FlexLevel, Failure> {
     let nn = m.nodes.len();
+    let j = level.j;
     if omega.len() != nn || j.is_nan() || j <= 0.0 {
         return Err(Failure::Degenerate);
     }
     let r4 = Rule::degree4();
-    // n-weighted area moments about the local origin, as the torsion solve takes them.
-    let mut s = [0.0; 6];
-    for (e, &n) in m.elems.iter().zip(&m.weight) {
-        let p = e.map(|v| m.nodes[v as usize]);
-        for q in 0..r4.points() {
-            let g = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
-            let da = n * g.da;
-            for (v, t) in s
-                .iter_mut()
-                .zip([1.0, g.x, g.y, g.x * g.x, g.y * g.y, g.x * g.y])
-            {
-                *v += da * t;
-            }
-        }
-    }
-    if s[0] <= 0.0 {
-        return Err(Failure::Degenerate);
-    }
-    let c = Pt::new(s[1] / s[0], s[2] / s[0]);
-    let ixx = s[4] - s[0] * c.y * c.y;
-    let iyy = s[3] - s[0] * c.x * c.x;
-    let ixy = s[5] - s[0] * c.x * c.y;
+    // The centroid and second moments of the torsion solve on the same mesh.
+    let (c, mom) = (level.centroid, level.moments);
+    let [ixx, iyy, ixy] = mom;
     let d = ixx * iyy - ixy * ixy;
-    if d.is_nan() || d <= 0.0 {
+    if level.area.is_nan() || level.area <= 0.0 || d.is_nan() || d <= 0.0 {
         return Err(Failure::Degenerate);
     }
-    let mom = [ixx, iyy, ixy];
     let k1 = 1.0 + fl.nu_ref;
-    // Loads ∫gν·d·∇Nᵢ + 2(1 + ν)g·r·Nᵢ, with gν = n(1 + ν_ref) − g, (1 + ν)g = n(1 + ν_ref).
+    // Loads ∫gν·d·∇Nᵢ + 2(1 + ν)g·r·Nᵢ, with gν = n(1 + ν_ref) − g, (1 + ν)g = n(1 + ν_ref);
+    // for the energy below, the first term alone (`fd`) and ∫(gν)²|d|²/g dA (`dd`), over
+    // the elements with g > 0.
     let mut f = [vec![0.0; nn], vec![0.0; nn]];
+    let mut fd = [vec![0.0; nn], vec![0.0; nn]];
+    let mut dd = [0.0; 2];
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
         let (n, g) = (m.weight[ei], m.shear[ei]);
         let (gnu, w2) = (n * k1 - g, 2.0 * n * k1);
+        let stiff = g > 0.0;
         for q in 0..r4.points() {
             let at_q = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
             let (dv, r) = terms(mom, at_q.x, at_q.y);
-            for (a, &node) in e.iter().enumerate() {
-                for (fk, (dk, rk)) in f.iter_mut().zip(dv.iter().zip(r)) {
-                    fk[node as usize] += at_q.da
-                        * (gnu * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]) + w2 * rk * r4.n[q][a]);
+            for k in 0..2 {
+                let dk = dv[k];
+                if stiff {
+                    dd[k] += at_q.da * gnu * gnu * (dk[0] * dk[0] + dk[1] * dk[1]) / g;
+                }
+                for (a, &node) in e.iter().enumerate() {
+                    let from_d = gnu * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]);
+                    f[k][node as usize] += at_q.da * (from_d + w2 * r[k] * r4.n[q][a]);
+                    if stiff {
+                        fd[k][node as usize] += at_q.da * from_d;
+                    }
                 }
             }
         }
@@ -498,34 +502,48 @@ fn solve_level(
             fk[pn as usize] = 0.0;
         }
     }
+    let scale = 1.0 / (2.0 * k1 * d);
     let mut psi = [vec![0.0; nn], vec![0.0; nn]];
-    for k in 0..2 {
+    for (k, pk) in psi.iter_mut().enumerate() {
         if let Some(p) =
             (prolong.as_ref()).filter(|p| p.fine() == nn && p.coarse == fl.psi[k].len())
         {
-            p.apply(&fl.psi[k], &mut psi[k], false);
+            p.apply(&fl.psi[k], pk, false);
             for &pn in &m.pinned {
-                psi[k][pn as usize] = 0.0;
-            }
-        }
-        mg.solve(&f[k], &mut psi[k], RTOL, cancel)?;
-        if let Some(kk) = mg.finest() {
-            let mut ku = vec![0.0; nn];
-            kk.mul(&psi[k], &mut ku);
-            let fnorm = f[k].iter().map(|v| v * v).sum::<f64>().sqrt();
-            let rnorm = (ku.iter().zip(&f[k]))
-                .map(|(a, b)| (a - b) * (a - b))
-                .sum::<f64>()
-                .sqrt();
-            if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
-                return Err(Failure::Stalled {
-                    elements: m.elems.len(),
-                });
+                pk[pn as usize] = 0.0;
             }
         }
     }
+    {
+        let [p0, p1] = &mut psi;
+        mg.solve_many([&f[0], &f[1]], [p0, p1], RTOL, cancel)?;
+    }
+    let mut energy = [0.0; 2];
+    for k in 0..2 {
+        let kk = mg.finest().ok_or(Failure::Degenerate)?;
+        let mut ku = vec![0.0; nn];
+        kk.mul(&psi[k], &mut ku);
+        let fnorm = f[k].iter().map(|v| v * v).sum::<f64>().sqrt();
+        let rnorm = (ku.iter().zip(&f[k]))
+            .map(|(a, b)| (a - b) * (a - b))
+            .sum::<f64>()
+            .sqrt();
+        if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
+            return Err(Failure::Stalled {
+                elements: m.elems.len(),
+            });
+        }
+        // The energy ∫τ²/g dA of the unit shear, τ = s·(g∇Ψ − gν·d) with s = 1/(2(1 + ν_ref)D):
+        // s²·(∫g|∇Ψ|² − 2∫gν·d·∇Ψ + ∫(gν)²|d|²/g) = s²·(ΨᵀKΨ − 2Ψ·fd + dd), the first term
+        // from the level's stiffness (assembled with g by the torsion solve, exact for these
+        // quadratic integrands; Ψ is zero at the pinned nodes, where K was changed).
+        let dot = |a: &[f64], b: &[f64]| a.iter().zip(b).map(|(x, y)| x * y).sum::<f64>();
+        energy[k] = scale * scale * (dot(&psi[k], &ku) - 2.0 * dot(&psi[k], &fd[k]) + dd[k]);
+    }
+    if !(energy[0] > 0.0 && energy[1] > 0.0) {
+        return Err(Failure::Degenerate);
+    }
     // τ from unit loads at a point of element `ei` with gradients `gx`, `gy`.
-    let scale = 1.0 / (2.0 * k1 * d);
     let tau_at = |ei: usize, e: &[u32; 6], x: f64, y: f64, gx: &[f64; 6], gy: &[f64; 6]| {
         let (n, g) = (m.weight[ei], m.shear[ei]);
         let gnu = n * k1 - g;
@@ -548,25 +566,6 @@ fn solve_level(
         out[2] = [g / j * (gw[0] - y), g / j * (gw[1] + x)];
         out
     };
-    // Energy ∫τ²/g dA of each unit shear.
-    let mut energy = [0.0; 2];
-    for (ei, e) in m.elems.iter().enumerate() {
-        let p = e.map(|v| m.nodes[v as usize].sub(c));
-        let g = m.shear[ei];
-        if g <= 0.0 {
-            continue;
-        }
-        for q in 0..r4.points() {
-            let a = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
-            let t = tau_at(ei, e, a.x, a.y, &a.gx, &a.gy);
-            for k in 0..2 {
-                energy[k] += a.da * (t[k][0] * t[k][0] + t[k][1] * t[k][1]) / g;
-            }
-        }
-    }
-    if !(energy[0] > 0.0 && energy[1] > 0.0) {
-        return Err(Failure::Degenerate);
-    }
     let samples = recover(m, c, &tau_at)?;
     // b = −∇·τ of each unit shear: n·r/D (the right-hand side above, scaled like τ).
     let load = |ei: usize, x: f64, y: f64| {
@@ -580,7 +579,7 @@ fn solve_level(
         samples,
         joints,
         nodes: nn,
-        corners: reentrant_corners(m),
+        corners: None,
         prolong,
     })
 }
@@ -595,34 +594,41 @@ pub(super) type TauAt<'a> =
 fn recover(m: &Mesh, c: Pt, tau_at: &TauAt) -> Result<Vec<Sample>, Failure> {
     let rule = node_rule();
     let nn = m.nodes.len();
-    let mut sum = vec![[[0.0; 2]; 3]; nn];
-    let mut wsum = vec![0.0; nn];
     // The material of the first element seen at each node, and whether another meets it.
     let mut mat: Vec<Option<[f64; 2]>> = vec![None; nn];
     let mut mixed = vec![false; nn];
-    let mut per_elem = Vec::with_capacity(m.elems.len() * 6);
+    for (ei, e) in m.elems.iter().enumerate() {
+        let here = [m.weight[ei], m.shear[ei]];
+        for &v in e {
+            match mat[v as usize] {
+                None => mat[v as usize] = Some(here),
+                Some(h) if h != here => mixed[v as usize] = true,
+                Some(_) => {}
+            }
+        }
+    }
+    let mut sum = vec![[[0.0; 2]; 3]; nn];
+    let mut wsum = vec![0.0; nn];
+    let mut per_elem = Vec::new();
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
         let area = tri_area(&p);
-        let here = [m.weight[ei], m.shear[ei]];
         for q in 0..6 {
             let a = at(&p, &rule, q).ok_or(Failure::Degenerate)?;
             let t = tau_at(ei, e, a.x, a.y, &a.gx, &a.gy);
             let node = e[q] as usize;
-            match mat[node] {
-                None => mat[node] = Some(here),
-                Some(h) if h != here => mixed[node] = true,
-                Some(_) => {}
+            if mixed[node] {
+                per_elem.push((node, m.weight[ei], t));
+                continue;
             }
             for (s, v) in sum[node].iter_mut().zip(&t) {
                 s[0] += area * v[0];
                 s[1] += area * v[1];
             }
             wsum[node] += area;
-            per_elem.push((node, here[0], t));
         }
     }
-    let mut out = Vec::with_capacity(nn);
+    let mut out = Vec::with_capacity(nn + per_elem.len());
     for (i, (s, &w)) in sum.iter().zip(&wsum).enumerate() {
         if mixed[i] || w <= 0.0 {
             continue;
@@ -635,16 +641,12 @@ fn recover(m: &Mesh, c: Pt, tau_at: &TauAt) -> Result<Vec<Sample>, Failure> {
             tau: s.map(|v| [v[0] / w, v[1] / w]),
         });
     }
-    out.extend(
-        (per_elem.into_iter())
-            .filter(|&(node, _, _)| mixed[node])
-            .map(|(node, n, tau)| Sample {
-                at: m.nodes[node].add(m.origin),
-                node: node as u32,
-                n,
-                tau,
-            }),
-    );
+    out.extend(per_elem.into_iter().map(|(node, n, tau)| Sample {
+        at: m.nodes[node].add(m.origin),
+        node: node as u32,
+        n,
+        tau,
+    }));
     Ok(out)
 }
 

@@ -264,7 +264,8 @@ fn run(
     let min_levels = if !interfaces { 2 } else { 3 };
     let mut mesh = base.mesh;
     let mut levels: Vec<Level> = Vec::new();
-    let mut ladder = torsion::Ladder::default();
+    // The flexure problem adds two right-hand sides to each level's solver.
+    let mut ladder = torsion::Ladder::solving(if flexure.is_some() { 3 } else { 1 });
     let mut step = None;
     let mut flex = flexure.map(flexure::FlexLadder::new);
     let mut flex_fail = None;
@@ -287,7 +288,7 @@ fn run(
             let solved = if pieces > 1 {
                 Err(Warning::ShearPieces { count: pieces })
             } else {
-                fl.solve(&mesh, &ladder, level.j, flex_prolong, cancel)
+                fl.solve(&mesh, &ladder, &level, flex_prolong, cancel)
                     .map_err(fail)
             };
             match solved {
@@ -347,6 +348,9 @@ fn run(
         }
         if flex_more {
             extra += 1;
+        }
+        if let Some(fl) = flex.as_mut() {
+            fl.refining(&mesh);
         }
         let fine = mesh.refine();
         step = Some(mesh.prolongation(&fine));

@@ -37,6 +37,11 @@ pub struct Level {
     pub area: f64,
     /// Polar moment about the centroid, Ixx + Iyy.
     pub ip: f64,
+    /// The modulus-weighted centroid in the local frame of the mesh, and the second
+    /// moments `[Ixx, Iyy, Ixy]` about it (n-weighted, the same quadrature): what the
+    /// flexure problem on the same mesh needs.
+    pub centroid: Pt,
+    pub moments: [f64; 3],
     pub elements: usize,
     pub iterations: usize,
 }
@@ -87,9 +92,22 @@ const RTOL: f64 = 1e-7;
 pub struct Ladder {
     mg: Option<Multigrid>,
     u: Vec<f64>,
+    /// Right-hand sides each level's solver serves (the warping function and any the
+    /// caller adds: [`Ladder::solving`]).
+    rhs: usize,
 }
 
 impl Ladder {
+    /// A ladder whose solver will serve `rhs` right-hand sides on each level (1 for the
+    /// warping function alone, 3 with the flexure problem's two), so that a level is
+    /// factored directly when that is cheaper for all of them together.
+    pub fn solving(rhs: usize) -> Ladder {
+        Ladder {
+            rhs,
+            ..Ladder::default()
+        }
+    }
+
     /// Solves the warping problem on `m`: the base mesh when `step` is `None` (a
     /// direct solve), else the refinement of the previous mesh that `step` prolongs onto
     /// (multigrid-preconditioned conjugate gradients from the prolonged solution).
@@ -184,11 +202,12 @@ fn solve(
     let mut ku = vec![0.0; nn];
     let iterations = match step {
         None => {
-            let mg = Multigrid::new(&k, &m.pinned, cancel).map_err(|e| match e {
+            let mut mg = Multigrid::new(&k, &m.pinned, cancel).map_err(|e| match e {
                 FactorError::NotPositive => Failure::Degenerate,
                 FactorError::Cancelled => Failure::Cancelled,
                 FactorError::TooLarge { entries, flops } => Failure::TooLarge { entries, flops },
             })?;
+            mg.expect_rhs(ladder.rhs);
             let it = mg.solve(&f, &mut u, RTOL, cancel)?;
             k.mul(&u, &mut ku);
             ladder.mg = Some(mg);
@@ -316,6 +335,12 @@ fn solve(
         sc: Pt::new(c.x + xs, c.y + ys),
         area: s[0],
         ip,
+        centroid: c,
+        moments: [
+            s[4] - s[0] * c.y * c.y,
+            s[3] - s[0] * c.x * c.x,
+            s[5] - s[0] * c.x * c.y,
+        ],
         elements: m.elems.len(),
         iterations,
     })
