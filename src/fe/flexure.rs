@@ -523,16 +523,7 @@ fn solve_level(
         let kk = mg.finest().ok_or(Failure::Degenerate)?;
         let mut ku = vec![0.0; nn];
         kk.mul(&psi[k], &mut ku);
-        let fnorm = f[k].iter().map(|v| v * v).sum::<f64>().sqrt();
-        let rnorm = (ku.iter().zip(&f[k]))
-            .map(|(a, b)| (a - b) * (a - b))
-            .sum::<f64>()
-            .sqrt();
-        if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
-            return Err(Failure::Stalled {
-                elements: m.elems.len(),
-            });
-        }
+        super::torsion::converged(&ku, &f[k], m.elems.len())?;
         // The energy ∫τ²/g dA of the unit shear, τ = s·(g∇Ψ − gν·d) with s = 1/(2(1 + ν_ref)D):
         // s²·(∫g|∇Ψ|² − 2∫gν·d·∇Ψ + ∫(gν)²|d|²/g) = s²·(ΨᵀKΨ − 2Ψ·fd + dd), the first term
         // from the level's stiffness (assembled with g by the torsion solve, exact for these

@@ -231,18 +231,7 @@ fn solve(
     };
     // A solve that stopped short (iteration limit, or an indefinite matrix) is not
     // worth a figure: the residual is checked against the tolerance, with margin.
-    let fnorm = f.iter().map(|v| v * v).sum::<f64>().sqrt();
-    let rnorm = ku
-        .iter()
-        .zip(&f)
-        .map(|(a, b)| (a - b) * (a - b))
-        .sum::<f64>()
-        .sqrt();
-    if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
-        return Err(Failure::Stalled {
-            elements: m.elems.len(),
-        });
-    }
+    converged(&ku, &f, m.elems.len())?;
     // J = Ip − ∫n(x ∂ω/∂y − y ∂ω/∂x)… written as the stationary value
     // Ip − (2fᵀu − uᵀKu), whose error is second order in the solver's error.
     let fu: f64 = f.iter().zip(&u).map(|(a, b)| a * b).sum();
@@ -344,4 +333,19 @@ fn solve(
         elements: m.elems.len(),
         iterations,
     })
+}
+
+/// `Ok` when the residual ‖K·u − f‖ of a solve is within the solver's tolerance, with a
+/// margin of 100 (`RTOL`); otherwise the solve stopped short (iteration limit, or an
+/// indefinite matrix) and is not worth a figure.
+pub(super) fn converged(ku: &[f64], f: &[f64], elements: usize) -> Result<(), Failure> {
+    let fnorm = f.iter().map(|v| v * v).sum::<f64>().sqrt();
+    let rnorm = (ku.iter().zip(f))
+        .map(|(a, b)| (a - b) * (a - b))
+        .sum::<f64>()
+        .sqrt();
+    if rnorm.is_nan() || rnorm > 100.0 * RTOL * fnorm {
+        return Err(Failure::Stalled { elements });
+    }
+    Ok(())
 }
