@@ -6,6 +6,11 @@ use serde_json::Value;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
+/// `kern` run in `dir` on a command line of words separated by spaces.
+fn kern_line(dir: &Path, line: &str) -> Output {
+    kern_in(dir, &line.split_whitespace().collect::<Vec<_>>())
+}
+
 fn kern_in(dir: &Path, args: &[&str]) -> Output {
     Command::new(env!("CARGO_BIN_EXE_kern"))
         .args(args)
@@ -60,17 +65,9 @@ fn plate(dir: &Path) -> PathBuf {
 fn seek_finds_the_depth_a_hand_calculation_gives() {
     let d = scratch("seek");
     plate(&d);
-    let o = kern_in(
+    let o = kern_line(
         &d,
-        &[
-            "seek",
-            "plate.toml",
-            "--param",
-            "h",
-            "--target",
-            "inertia.xx=8e8",
-            "--json",
-        ],
+        "seek plate.toml --param h --target inertia.xx=8e8 --json",
     );
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let v = &json_lines(&o)[0];
@@ -104,18 +101,9 @@ fn seek_finds_the_depth_a_hand_calculation_gives() {
 fn seek_refuses_cleanly_without_a_root() {
     let d = scratch("noroot");
     plate(&d);
-    let o = kern_in(
+    let o = kern_line(
         &d,
-        &[
-            "seek",
-            "plate.toml",
-            "--param",
-            "h",
-            "--target",
-            "inertia.xx=1e9",
-            "--within",
-            "100..300",
-        ],
+        "seek plate.toml --param h --target inertia.xx=1e9 --within 100..300",
     );
     assert_eq!(o.status.code(), Some(1));
     assert!(stdout(&o).is_empty());
@@ -129,17 +117,7 @@ fn seek_refuses_cleanly_without_a_root() {
         "{e}"
     );
     // An unknown result key is an error with a hint.
-    let o = kern_in(
-        &d,
-        &[
-            "seek",
-            "plate.toml",
-            "--param",
-            "h",
-            "--target",
-            "inertia.x=1",
-        ],
-    );
+    let o = kern_line(&d, "seek plate.toml --param h --target inertia.x=1");
     assert_eq!(o.status.code(), Some(2));
     assert!(
         stderr(&o).contains("did you mean `inertia.xx`"),
@@ -152,17 +130,9 @@ fn seek_refuses_cleanly_without_a_root() {
 fn seek_write_changes_exactly_one_line() {
     let d = scratch("write");
     let p = plate(&d);
-    let o = kern_in(
+    let o = kern_line(
         &d,
-        &[
-            "seek",
-            "plate.toml",
-            "--param",
-            "h",
-            "--target",
-            "inertia.xx=8e8",
-            "--write",
-        ],
+        "seek plate.toml --param h --target inertia.xx=8e8 --write",
     );
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let after = std::fs::read_to_string(&p).unwrap();
@@ -190,22 +160,9 @@ fn seek_write_changes_exactly_one_line() {
 fn sweep_is_monotone_in_depth_and_matches_calc() {
     let d = scratch("sweep");
     let p = plate(&d);
-    let o = kern_in(
+    let o = kern_line(
         &d,
-        &[
-            "sweep",
-            "plate.toml",
-            "--param",
-            "h",
-            "--from",
-            "100",
-            "--to",
-            "300",
-            "--steps",
-            "5",
-            "--json",
-            "--no-torsion",
-        ],
+        "sweep plate.toml --param h --from 100 --to 300 --steps 5 --json --no-torsion",
     );
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let lines = json_lines(&o);
@@ -228,21 +185,9 @@ fn sweep_is_monotone_in_depth_and_matches_calc() {
     }
     std::fs::write(&p, PLATE).unwrap();
     // The readable table marks the current value.
-    let o = kern_in(
+    let o = kern_line(
         &d,
-        &[
-            "sweep",
-            "plate.toml",
-            "--param",
-            "h",
-            "--from",
-            "100",
-            "--to",
-            "300",
-            "--steps",
-            "5",
-            "--no-torsion",
-        ],
+        "sweep plate.toml --param h --from 100 --to 300 --steps 5 --no-torsion",
     );
     assert!(
         stdout(&o).contains("◀ now") && stdout(&o).contains("Caution"),
@@ -255,26 +200,7 @@ fn sweep_is_monotone_in_depth_and_matches_calc() {
 fn sweep_csv_parses() {
     let d = scratch("csv");
     plate(&d);
-    let o = kern_in(
-        &d,
-        &[
-            "sweep",
-            "plate.toml",
-            "--param",
-            "b",
-            "--from",
-            "50",
-            "--to",
-            "150",
-            "--steps",
-            "3",
-            "--csv",
-            "--result",
-            "inertia.xx",
-            "--result",
-            "area",
-        ],
-    );
+    let o = kern_line(&d, "sweep plate.toml --param b --from 50 --to 150 --steps 3 --csv --result inertia.xx --result area");
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let text = stdout(&o);
     let rows: Vec<Vec<&str>> = text.lines().map(|l| l.split(',').collect()).collect();
@@ -445,17 +371,7 @@ fn check_exit_codes_and_limits() {
         stdout(&o)
     );
     // The lines honour --numbers and --notation as calc's table does.
-    let o = kern_in(
-        &d,
-        &[
-            "check",
-            "lim.toml",
-            "--numbers",
-            "scientific",
-            "--notation",
-            "yz",
-        ],
-    );
+    let o = kern_line(&d, "check lim.toml --numbers scientific --notation yz");
     assert!(
         stdout(&o).contains("Iy (inertia.xx) 2.250e8 < 3.000e8 mm⁴"),
         "{}",
@@ -512,17 +428,9 @@ fn sensitivities_agree_with_finite_differences_of_calc() {
     let text = "format = 1\nunits = \"mm\"\n[params]\nbf = 200\ntf = 12\nd = 400\ntw = 8\n[[materials]]\nname = \"steel\"\nE = \"200 GPa\"\ndensity = \"7850 kg/m3\"\n[[parts]]\nshape = \"ibeam\"\nd = \"d\"\nb = \"bf\"\ntf = \"tf\"\ntw = \"tw\"\n";
     let p = d.join("girder.toml");
     std::fs::write(&p, text).unwrap();
-    let o = kern_in(
+    let o = kern_line(
         &d,
-        &[
-            "calc",
-            "girder.toml",
-            "--sensitivity",
-            "--result",
-            "inertia.xx",
-            "--json",
-            "--no-torsion",
-        ],
+        "calc girder.toml --sensitivity --result inertia.xx --json --no-torsion",
     );
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let v = &json_lines(&o)[0];
@@ -566,15 +474,9 @@ fn sensitivities_agree_with_finite_differences_of_calc() {
 fn the_report_can_carry_a_sensitivity_table() {
     let d = scratch("report");
     plate(&d);
-    let o = kern_in(
+    let o = kern_line(
         &d,
-        &[
-            "report",
-            "plate.toml",
-            "--no-torsion",
-            "--sensitivity",
-            "inertia.xx",
-        ],
+        "report plate.toml --no-torsion --sensitivity inertia.xx",
     );
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let t = stdout(&o);
