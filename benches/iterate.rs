@@ -50,7 +50,7 @@ fn plated() -> String {
 
 fn benches(c: &mut Criterion) {
     let doc = parse(&plated()).expect("the bench section reads");
-    let opts = Options { torsion: None };
+    let opts = Options::default();
     let probe = Probe::new(&doc, "b2", &opts).unwrap();
     let xs = values(150.0, 450.0, 50).unwrap();
     c.bench_function(

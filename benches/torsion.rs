@@ -50,7 +50,7 @@ pub fn girder() -> Vec<Piece> {
 /// The placed pieces of a section file of this repository.
 fn pieces_of(file: &str) -> Vec<Piece> {
     let path = Path::new(env!("CARGO_MANIFEST_DIR")).join(file);
-    kern::file::load::load(&path, &kern::analysis::Options { torsion: None })
+    kern::file::load::load(&path, &kern::analysis::Options::default())
         .expect("bench section loads")
         .pieces
 }

@@ -27,9 +27,24 @@ use crate::props::Properties;
 pub use crate::model::units::GRAVITY;
 
 /// What to compute; `torsion: None` skips the finite-element solve.
-#[derive(Debug, Clone, Default)]
+#[derive(Debug, Clone)]
 pub struct Options {
     pub torsion: Option<TorsionOptions>,
+    /// With torsion, also solve the flexure (shear) problem on its meshes (the
+    /// default): the shear areas, shear stresses, the flow across joints on a closed
+    /// cell and a deflection with shear deformation come from it. `false` (`kern calc
+    /// --no-shear`) solves torsion alone; those results are then left out as with
+    /// `--no-torsion`, and the mesh does not follow the boundaries parts share.
+    pub shear: bool,
+}
+
+impl Default for Options {
+    fn default() -> Self {
+        Options {
+            torsion: None,
+            shear: true,
+        }
+    }
 }
 
 /// Which stages of the analysis run besides the section's properties (which every
@@ -311,7 +326,11 @@ impl Analysis {
             a.warnings.extend(a.cell_flow_notes());
         }
         if let Some(o) = &opts.torsion {
-            let o = a.torsion_options(o.tol, o.cancel.clone());
+            let mut o = a.torsion_options(o.tol, o.cancel.clone());
+            if !opts.shear {
+                o.flexure = None;
+                o.joints = false;
+            }
             a.set_torsion(torsion(&a.pieces, &o));
         }
         Ok(a)
@@ -831,7 +850,12 @@ impl Analysis {
         let (beam, result, deflection_shear, shear_deflection_note) = match shear_rigidity {
             None => (beam, bending, None, None),
             Some(None) => {
-                let solved = self.torsion.is_some();
+                // Not run: torsion skipped (or still solving), or torsion alone.
+                let solved = match &self.torsion {
+                    None => false,
+                    Some(Ok(t)) => t.flexure.is_some(),
+                    Some(Err(_)) => true,
+                };
                 (
                     beam,
                     bending,

@@ -47,6 +47,11 @@ enum Verb {
         /// Skip the finite-element torsion solve.
         #[arg(long)]
         no_torsion: bool,
+        /// Solve torsion alone, without the flexure (shear) problem beside it: no shear
+        /// areas, shear stresses (shear, member.tau_max), flow across joints on a closed
+        /// cell, or deflection with shear deformation.
+        #[arg(long)]
+        no_shear: bool,
         /// Target relative error of the torsion results.
         #[arg(long, default_value_t = kern::fe::DEFAULT_TOL)]
         torsion_tol: f64,
@@ -184,6 +189,7 @@ fn parse_unit(s: &str) -> Result<LengthUnit, String> {
 fn torsion_options(no_torsion: bool) -> Options {
     Options {
         torsion: (!no_torsion).then(TorsionOptions::default),
+        ..Options::default()
     }
 }
 
@@ -199,6 +205,7 @@ fn main() {
             json,
             units,
             no_torsion,
+            no_shear,
             torsion_tol,
             sensitivity,
             result,
@@ -207,13 +214,17 @@ fn main() {
                 tol: torsion_tol,
                 ..TorsionOptions::default()
             });
+            let options = Options {
+                torsion,
+                shear: !no_shear,
+            };
             if sensitivity {
                 kern::cli::sensitivity::sensitivity(&SensitivityArgs {
                     files,
                     result,
                     json,
                     written,
-                    options: Options { torsion },
+                    options,
                 })
             } else {
                 calc(&CalcArgs {
@@ -221,7 +232,7 @@ fn main() {
                     json,
                     units,
                     written,
-                    options: Options { torsion },
+                    options,
                 })
             }
         }

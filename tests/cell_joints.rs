@@ -20,6 +20,7 @@ fn analyse(body: &str) -> Analysis {
     );
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     kern::file::load::analyse(&text, &opts).expect("the section computes")
 }
@@ -290,7 +291,7 @@ fn without_the_flexure_solution_cell_joints_say_so() {
         "format = 1\nunits = \"mm\"\n{}[actions]\nVy = \"100 kN\"\n",
         box_of_plates()
     );
-    let a = kern::file::load::analyse(&text, &Options { torsion: None }).expect("computes");
+    let a = kern::file::load::analyse(&text, &Options::default()).expect("computes");
     for c in &a.connections {
         assert_eq!(a.connection_flow(c), None);
     }
@@ -356,6 +357,7 @@ fn the_crane_runway_box_prints_its_weld_flows() {
     let text = std::fs::read_to_string("tests/fixtures/crane-runway-box.toml").expect("fixture");
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     let a = kern::file::load::analyse(&text, &opts).expect("computes");
     let u = kern::report::out::OutUnits::new(a.section.units, None);

@@ -432,3 +432,72 @@ fn calc_says_why_mcr_is_missing() {
         "{text}"
     );
 }
+
+#[test]
+fn no_shear_solves_torsion_alone_and_leaves_the_shear_results_out() {
+    // A 60 × 120 rectangle with a shear force, a member with shear deformation and a
+    // torque. J by Saint-Venant's series for a rectangle b ≤ h (Timoshenko & Goodier,
+    // Theory of Elasticity, §109): J = b³h/3·(1 − (192/π⁵)(b/h)·Σ_{n odd} tanh(nπh/2b)/n⁵).
+    let d = scratch("no-shear");
+    let f = d.join("lintel.toml");
+    std::fs::write(
+        &f,
+        "format = 1\nunits = \"mm\"\n[[materials]]\nname = \"steel\"\nE = \"200 GPa\"\n\
+         [[parts]]\nshape = \"rect\"\nb = 60\nh = 120\n[actions]\nVy = \"36 kN\"\nT = \"1 kN*m\"\n\
+         [member]\nspan = \"1.2 m\"\nsupport = \"simple\"\nudl = \"50 kN/m\"\n\
+         shear_deformation = true\n",
+    )
+    .unwrap();
+    let path = f.to_string_lossy().into_owned();
+    let (b, h) = (60.0f64, 120.0f64);
+    let pi = std::f64::consts::PI;
+    let sum: f64 = (0..50)
+        .map(|k| f64::from(2 * k + 1))
+        .map(|n| (n * pi * h / (2.0 * b)).tanh() / n.powi(5))
+        .sum();
+    let exact = b.powi(3) * h / 3.0 * (1.0 - 192.0 / pi.powi(5) * (b / h) * sum);
+
+    let both = &json_lines(&kern(&["calc", "--json", &path]))[0];
+    let alone = &json_lines(&kern(&["calc", "--json", "--no-shear", &path]))[0];
+    // Torsion is there, within its own estimate of the series.
+    let j = num(alone, &["torsion", "j"]);
+    let est = num(alone, &["torsion", "rel_error"]);
+    assert!(est <= 1e-3, "estimate {est}");
+    assert!(
+        (j - exact).abs() / exact <= est,
+        "J = {j}, series {exact}, est {est}"
+    );
+    // The flexure results are left out as with --no-torsion (docs/format.md).
+    assert!(
+        both["shear_area"].is_object() && both["shear"].is_object(),
+        "{both}"
+    );
+    assert!(both["member"]["tau_max"].is_number(), "{both}");
+    for key in ["shear_area", "shear"] {
+        assert!(alone.get(key).is_none(), "{key} in {alone}");
+    }
+    assert!(
+        alone["member"].get("tau_max").is_none(),
+        "{}",
+        alone["member"]
+    );
+    // No shear area, so the deflection with shear deformation is refused (null), and
+    // the warning says the flexure solution did not run.
+    assert!(
+        alone["member"]["deflection_max"].is_null(),
+        "{}",
+        alone["member"]
+    );
+    let warns = alone["warnings"].to_string();
+    assert!(warns.contains("--no-shear"), "{warns}");
+    // The rest is the same as with the shear.
+    for key in ["area", "inertia", "plastic_modulus", "stress"] {
+        assert_eq!(alone[key], both[key], "{key}");
+    }
+    let help = String::from_utf8(kern(&["calc", "--help"]).stdout).unwrap();
+    assert!(
+        help.contains("--no-shear") && help.contains("without the flexure"),
+        "{help}"
+    );
+    let _ = std::fs::remove_dir_all(&d);
+}

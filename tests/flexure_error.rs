@@ -129,7 +129,7 @@ fn check_files(dir: &str, skip: &[&str]) {
         if skip.contains(&name.as_str()) {
             continue;
         }
-        let a = load(&p, &Options { torsion: None }).expect("loads");
+        let a = load(&p, &Options::default()).expect("loads");
         check(
             &format!("{dir}/{name}"),
             &a.pieces,
@@ -178,7 +178,7 @@ fn plain_shapes() {
     ];
     let mut printed = 0;
     for (name, text) in cases {
-        let a = analyse(&text, &Options { torsion: None }).expect("valid section");
+        let a = analyse(&text, &Options::default()).expect("valid section");
         printed += check(name, &a.pieces, 0.3);
     }
     // The check must have something to check: smooth sections print most figures.

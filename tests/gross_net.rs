@@ -82,6 +82,7 @@ fn holes_do_not_change_torsion() {
     // J and Cw belong to the gross section: the same plate without the holes.
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     let with = calc_with(PLATE, &opts).unwrap_or_else(|m| panic!("{m}"));
     let plain = calc_with(
@@ -236,6 +237,7 @@ material = "rod"
 "#;
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     let a = calc_with(body, &opts).unwrap_or_else(|m| panic!("{m}"));
     let Some(Ok(t)) = &a.torsion else {

@@ -375,6 +375,7 @@ fn torsion_of(body: &str) -> kern::fe::Torsion {
     let text = format!("format = 1\nunits = \"mm\"\n{body}");
     let opts = Options {
         torsion: Some(kern::fe::TorsionOptions::default()),
+        ..Options::default()
     };
     match kern::file::load::analyse(&text, &opts).map(|a| a.torsion) {
         Ok(Some(Ok(t))) => t,

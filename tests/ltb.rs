@@ -15,6 +15,7 @@ fn calc(body: &str) -> Analysis {
     let t = text(body);
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     match kern::file::load::analyse(&t, &opts) {
         Ok(a) => a,
@@ -300,6 +301,7 @@ fn json_carries_beta_and_mcr() {
         &t,
         &Options {
             torsion: Some(TorsionOptions::default()),
+            ..Options::default()
         },
     )
     .unwrap();

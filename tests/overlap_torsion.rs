@@ -10,6 +10,7 @@ fn calc(parts: &str) -> Analysis {
     let text = format!("format = 1\nunits = \"mm\"\n{parts}");
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     kern::file::load::analyse(&text, &opts).expect("a valid file")
 }

@@ -165,6 +165,7 @@ fn analyse_with_torsion(file: &str) -> Analysis {
     let text = std::fs::read_to_string(&path).expect("fixture readable");
     let opts = Options {
         torsion: Some(kern::fe::TorsionOptions::default()),
+        ..Options::default()
     };
     kern::file::load::analyse(&text, &opts).expect("fixture valid")
 }

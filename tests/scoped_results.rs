@@ -37,7 +37,7 @@ fn bits(x: Option<f64>) -> Option<u64> {
 
 #[test]
 fn every_numeric_key_reads_the_same_from_its_scope_as_from_the_whole_analysis() {
-    let opts = Options { torsion: None };
+    let opts = Options::default();
     let mut compared = 0;
     for (name, doc) in demo_sections() {
         let full = Analysis::of_document(doc.clone(), &opts).expect("a demo section computes");
@@ -68,7 +68,7 @@ fn every_numeric_key_reads_the_same_from_its_scope_as_from_the_whole_analysis() 
 
 #[test]
 fn a_narrowed_probe_sweeps_the_same_results_and_fails_the_same_way() {
-    let opts = Options { torsion: None };
+    let opts = Options::default();
     for (name, doc) in demo_sections() {
         let Some((param, value)) = param_values(&doc).unwrap().into_iter().next() else {
             continue;

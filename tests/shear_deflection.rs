@@ -15,6 +15,7 @@ fn lintel(member: &str, torsion: bool) -> Analysis {
     );
     let opts = Options {
         torsion: torsion.then(TorsionOptions::default),
+        ..Options::default()
     };
     kern::file::load::analyse(&text, &opts).expect("the section computes")
 }

@@ -11,6 +11,7 @@ fn analyse(body: &str) -> Analysis {
     let text = format!("format = 1\nunits = \"mm\"\n{body}");
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     kern::file::load::analyse(&text, &opts).expect("the section computes")
 }
@@ -304,6 +305,6 @@ fn no_torsion_means_no_shear_keys() {
     // `--no-torsion` skips the finite elements: the shear areas and stresses are absent.
     let text = "format = 1\nunits = \"mm\"\n[[parts]]\nshape = \"rect\"\nb = 10\nh = 20\n\
                 [actions]\nVy = \"1 kN\"\n";
-    let a = kern::file::load::analyse(text, &Options { torsion: None }).unwrap();
+    let a = kern::file::load::analyse(text, &Options::default()).unwrap();
     assert!(a.shear.is_none());
 }

@@ -85,7 +85,7 @@ fn check_files(dir: &str, skip: &[&str]) {
         if skip.contains(&name.as_str()) {
             continue;
         }
-        let a = load(&p, &Options { torsion: None }).expect("loads");
+        let a = load(&p, &Options::default()).expect("loads");
         check(&format!("{dir}/{name}"), &a.pieces);
     }
 }
@@ -102,7 +102,7 @@ fn demo_sections() {
 #[test]
 fn demo_flitch_beam() {
     let p = Path::new(env!("CARGO_MANIFEST_DIR")).join("sections/flitch-beam.toml");
-    let a = load(&p, &Options { torsion: None }).expect("loads");
+    let a = load(&p, &Options::default()).expect("loads");
     check("sections/flitch-beam.toml", &a.pieces);
 }
 
@@ -123,7 +123,7 @@ fn bench_sections() {
 #[ignore]
 fn bench_plate_with_300_holes() {
     let p = Path::new(env!("CARGO_MANIFEST_DIR")).join("benches/sections/plate-300-holes.toml");
-    let a = load(&p, &Options { torsion: None }).expect("loads");
+    let a = load(&p, &Options::default()).expect("loads");
     check("plate-300-holes.toml", &a.pieces);
 }
 
@@ -167,7 +167,7 @@ fn plain_shapes() {
         ),
     ];
     for (name, text) in cases {
-        let a = analyse(&text, &Options { torsion: None }).expect("valid section");
+        let a = analyse(&text, &Options::default()).expect("valid section");
         check(name, &a.pieces);
     }
 }

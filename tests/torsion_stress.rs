@@ -30,7 +30,7 @@ proptest! {
     #[test]
     fn torsion_never_panics(parts in proptest::collection::vec(part(), 1..5)) {
         let text = format!("format = 1\nunits = \"mm\"\n{}", parts.concat());
-        let opts = Options { torsion: Some(TorsionOptions::default()) };
+        let opts = Options { torsion: Some(TorsionOptions::default()), ..Options::default() };
         if let Ok(a) = kern::file::load::analyse(&text, &opts) {
             if let Some(Ok(t)) = &a.torsion {
                 prop_assert!(t.j.is_finite() && t.j >= 0.0, "J = {}", t.j);
@@ -59,6 +59,7 @@ fn tangent_coincident_and_empty_arrangements() {
     ];
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     for body in cases {
         let text = format!("format = 1\nunits = \"mm\"\n{body}");

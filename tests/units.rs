@@ -103,6 +103,7 @@ fn lateral_torsional_buckling_is_the_same_in_every_unit() {
             tol: 1e-2,
             ..TorsionOptions::default()
         }),
+        ..Options::default()
     };
     let iy_flanges = 2.0 * 0.010 * 0.2f64.powi(3) / 12.0;
     let j_thin = (2.0 * 0.2 * 0.01f64.powi(3) + 0.38 * 0.008f64.powi(3)) / 3.0;

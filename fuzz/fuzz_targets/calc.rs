@@ -16,6 +16,7 @@ fuzz_target!(|data: &[u8]| {
                 tol: 1e-2,
                 ..TorsionOptions::default()
             }),
+            ..Options::default()
         };
         if let Err(d) = kern::file::load::analyse(text, &opts) {
             let _ = kern::file::locate(text, d.span.start);

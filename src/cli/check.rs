@@ -40,6 +40,7 @@ fn options(src: &Source) -> Options {
     });
     Options {
         torsion: wants.then(TorsionOptions::default),
+        ..Options::default()
     }
 }
 

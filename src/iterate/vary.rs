@@ -106,6 +106,7 @@ pub fn scope_for(q: &Quantity) -> Scope {
 pub fn options_for(q: &Quantity, opts: &Options) -> Options {
     Options {
         torsion: opts.torsion.clone().filter(|_| needs_torsion(q)),
+        shear: opts.shear,
     }
 }
 

@@ -193,7 +193,7 @@ impl fmt::Display for Warning {
                 let names: Vec<String> = joints.iter().map(|(a, b)| joint(a, b)).collect();
                 write!(
                     f,
-                    "the shear flow across joints on a closed cell ({}) comes from the finite-element flexure solution, which is not there (torsion is off with --no-torsion, still solving, or not computed): no flow is given for them",
+                    "the shear flow across joints on a closed cell ({}) comes from the finite-element flexure solution, which is not there (torsion is off with --no-torsion, the shear with --no-shear, still solving, or not computed): no flow is given for them",
                     names.join(", ")
                 )
             }
@@ -243,7 +243,7 @@ deflection out",
                 if *solved {
                     "the flexure solution gave none within its tolerance; see the warning on shear"
                 } else {
-                    "the flexure solution has not run: torsion skipped, or still solving"
+                    "the flexure solution has not run: torsion or shear skipped (--no-torsion, --no-shear), or still solving"
                 }
             ),
         }

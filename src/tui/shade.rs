@@ -257,6 +257,7 @@ mod tests {
         );
         let opts = Options {
             torsion: Some(TorsionOptions::default()),
+            ..Options::default()
         };
         crate::file::load::analyse(&text, &opts).expect("valid")
     }

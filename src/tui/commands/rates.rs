@@ -57,6 +57,7 @@ pub fn open(app: &mut App, key: &str) -> Result<(), String> {
             cancel: Some(cancel.clone()),
             ..TorsionOptions::default()
         }),
+        ..Options::default()
     };
     let doc = a.document.clone();
     let total = doc.params.len();

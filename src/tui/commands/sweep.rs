@@ -139,6 +139,7 @@ pub fn open(app: &mut App, param: &str, entry: &str) -> Result<(), String> {
             cancel: Some(cancel.clone()),
             ..TorsionOptions::default()
         }),
+        ..Options::default()
     };
     let a = &app.analysis;
     let probe = Probe::new(&a.document, param, &opts)?.reading(&[q]);
