@@ -10,6 +10,7 @@
 pub mod contour;
 pub mod corner;
 pub mod joints;
+pub mod meet;
 pub mod moments;
 pub mod place;
 pub mod region;

@@ -4,29 +4,29 @@
 //!
 //! The area shared by two regions P and Q is found with Green's theorem, `A = ∮ x dy`
 //! over the boundary of P ∩ Q, which is made of the pieces of ∂P inside Q and of ∂Q
-//! inside P (edges the two share in the same direction are counted once). Curved
-//! edges are cut into chords of at most 3°, which is ample for a warning. The edges
-//! of Q that may cut an edge of P come from a sort and sweep over the edges' boxes,
-//! and a run of P's edges away from ∂Q is placed inside or outside Q once, so a pair
-//! costs about `n log n` in its edges rather than `n²`.
+//! inside P (edges the two share in the same direction are counted once). The edges are
+//! the boundaries' own straight lines and circular arcs, cut exactly where they meet
+//! ([`crate::geom::meet`]), so the area is exact to rounding. The edges of Q that may
+//! cut an edge of P come from a sort and sweep over the edges' boxes, and a run of P's
+//! edges away from ∂Q is placed inside or outside Q once, so a pair costs about
+//! `n log n` in its edges rather than `n²`.
 
-use crate::geom::contour::ArcOffsets;
-use crate::geom::BoundaryIntegral;
-use crate::geom::{Piece, Pt};
+use crate::geom::meet::{self, Edge};
+use crate::geom::Pt;
+use crate::geom::{BoundaryIntegral, Piece};
 use crate::model::warning::{More, Warning};
 use std::cell::OnceCell;
-
-const FACET: f64 = 3.0 * std::f64::consts::PI / 180.0;
 
 /// Warnings of one kind shown in full; the rest are counted in one line.
 pub const SHOWN: usize = 20;
 
-/// A region as polygons (outlines counter-clockwise, holes clockwise).
+/// A region by its boundary segments (outlines counter-clockwise, holes clockwise).
 struct Shape<'a> {
     piece: &'a Piece,
-    loops: Vec<Vec<Pt>>,
-    /// Every edge of every loop in loop order, with whether it starts its loop.
+    /// Every edge of every loop in loop order, arcs in quarter turns at most.
     edges: Vec<Edge>,
+    /// Whether each edge starts its loop (its start does not continue the edge before).
+    first: Vec<bool>,
     bounds: [f64; 4],
     area: f64,
     /// A point inside and its distance to the boundary (> 0), when the centroid is one;
@@ -35,25 +35,19 @@ struct Shape<'a> {
 }
 
 impl<'a> Shape<'a> {
-    fn of(p: &'a Piece, memo: &mut ArcOffsets) -> Option<Shape<'a>> {
-        let loops: Vec<Vec<Pt>> = p
-            .contours
-            .iter()
-            .map(|c| c.facets_in(FACET, memo))
-            .collect();
+    fn of(p: &'a Piece) -> Option<Shape<'a>> {
         let bounds = p.bounds()?;
-        let area = loops
-            .iter()
-            .map(|l| crate::geom::simple::signed_area(l))
-            .sum();
-        let edges: Vec<Edge> = loops
-            .iter()
-            .flat_map(|l| (0..l.len()).map(move |i| Edge::new(l[i], l[(i + 1) % l.len()], i == 0)))
-            .collect();
+        let (mut edges, mut first) = (Vec::new(), Vec::new());
+        for c in &p.contours {
+            let n = edges.len();
+            c.segs.iter().for_each(|s| Edge::split(s, &mut edges));
+            first.extend((n..edges.len()).map(|k| k == n));
+        }
+        let area = edges.iter().map(|e| e.x_dy(0.0, 1.0)).sum();
         Some(Shape {
             piece: p,
-            loops,
             edges,
+            first,
             bounds,
             area,
             core: OnceCell::new(),
@@ -64,7 +58,8 @@ impl<'a> Shape<'a> {
     /// inside.
     fn core(&self) -> Option<(Pt, f64)> {
         *self.core.get_or_init(|| {
-            let c = crate::props::Moments::of_contours(&self.piece.contours).centroid()?;
+            let c = <crate::props::Moments as BoundaryIntegral>::of_contours(&self.piece.contours)
+                .centroid()?;
             let r = self.clearance(c);
             (self.winding(c) > 0 && r > 0.0).then_some((c, r))
         })
@@ -72,8 +67,9 @@ impl<'a> Shape<'a> {
 
     /// Distance from `p` to the nearest edge.
     fn clearance(&self, p: Pt) -> f64 {
-        self.edges()
-            .map(|(a, b)| p.dist_to_segment(a, b))
+        self.edges
+            .iter()
+            .map(|e| e.dist(p))
             .fold(f64::INFINITY, f64::min)
     }
 
@@ -92,51 +88,21 @@ impl<'a> Shape<'a> {
             .fold(0.0, f64::max)
     }
 
-    fn edges(&self) -> impl Iterator<Item = (Pt, Pt)> + '_ {
-        self.edges.iter().map(|e| (e.from, e.to))
-    }
-
-    /// Winding number of the region about `p` (outline +1, hole −1).
+    /// Winding number of the region about `p` (outline +1, hole −1), `p` off ∂.
     fn winding(&self, p: Pt) -> i32 {
-        crate::geom::simple::winding(&self.loops, p)
+        meet::winding(&self.edges, p)
     }
 
-    /// The direction of the first of the edges `near` (indices in edge order, every
-    /// edge within `tol` of `p` among them) that `p` lies on, if any (within `tol`).
+    /// The direction of travel of the first of the edges `near` (indices in edge
+    /// order, every edge within `tol` of `p` among them) that `p` lies on, if any
+    /// (within `tol`).
     fn edge_at(&self, near: &[u32], p: Pt, tol: f64) -> Option<Pt> {
         near.iter().find_map(|&i| {
             let e = &self.edges[i as usize];
-            let (a, b) = (e.from, e.to);
-            let d = b.sub(a);
-            let off = p.nearest_on_segment(a, b).sub(p);
-            (d != Pt::default() && off.x * off.x + off.y * off.y <= tol * tol).then_some(d)
+            let (t, q) = e.nearest(p);
+            let d = e.tangent(t);
+            (d != Pt::default() && q.dist(p) <= tol).then_some(d)
         })
-    }
-}
-
-/// One edge of a shape's polygon and its box `[xmin, xmax, ymin, ymax]`.
-struct Edge {
-    from: Pt,
-    to: Pt,
-    bbox: [f64; 4],
-    /// The edge starts its loop (its start does not continue the edge before it).
-    first: bool,
-}
-
-impl Edge {
-    fn new(from: Pt, to: Pt, first: bool) -> Edge {
-        let bbox = [
-            from.x.min(to.x),
-            from.x.max(to.x),
-            from.y.min(to.y),
-            from.y.max(to.y),
-        ];
-        Edge {
-            from,
-            to,
-            bbox,
-            first,
-        }
     }
 }
 
@@ -153,14 +119,11 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
     let meet = |a: &[f64; 4], b: &[f64; 4]| {
         a[0] - tol <= b[1] && b[0] <= a[1] + tol && a[2] - tol <= b[3] && b[2] <= a[3] + tol
     };
-    // Only edges whose boxes meet the other shape's box (widened by twice `tol`, which
-    // covers a chord's rounding past its arc's box) can be in a pair.
+    // Only edges whose boxes meet the other shape's box (widened by `tol`) can be in a
+    // pair.
     let near = |b: [f64; 4]| {
         move |e: &[f64; 4]| {
-            e[0] - 2.0 * tol <= b[1]
-                && b[0] <= e[1] + 2.0 * tol
-                && e[2] - 2.0 * tol <= b[3]
-                && b[2] <= e[3] + 2.0 * tol
+            e[0] - tol <= b[1] && b[0] <= e[1] + tol && e[2] - tol <= b[3] && b[2] <= e[3] + tol
         }
     };
     let (near_q, near_p) = (near(q.bounds), near(p.bounds));
@@ -222,10 +185,11 @@ fn boxes_overlap(a: [f64; 4], b: [f64; 4]) -> bool {
 /// `∮ x dy` over the pieces of ∂P inside Q; pieces along ∂Q count only if `shared`
 /// and running the same way.
 ///
-/// Each edge of P is cut where edges of Q (the candidates of [`edge_pairs`]) cross it,
-/// and each piece is classified by its midpoint: on ∂Q (within `tol`) or by Q's winding
-/// number. An edge with no candidate is away from ∂Q, so it lies on the same side as
-/// the end of the piece before it in its loop: a run of such edges is classified once.
+/// Each edge of P is cut where edges of Q (the candidates of [`edge_pairs`]) cross or
+/// touch it ([`Edge::cuts`]), and each piece is classified by its midpoint: on ∂Q
+/// (within `tol`) or by Q's winding number. An edge with no candidate is away from ∂Q,
+/// so it lies on the same side as the end of the piece before it in its loop: a run of
+/// such edges is classified once.
 fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
     let mut sum = 0.0;
     // An edge wholly outside Q's box (widened by `tol`) is neither inside Q nor on ∂Q.
@@ -248,62 +212,38 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
             near.push(f);
             next_pair += 1;
         }
-        if edge.first {
+        if p.first[k] {
             side = None;
         }
-        let (a, b) = (edge.from, edge.to);
-        if a.x.max(b.x) < qb[0]
-            || a.x.min(b.x) > qb[1]
-            || a.y.max(b.y) < qb[2]
-            || a.y.min(b.y) > qb[3]
-        {
+        let b = edge.bbox;
+        if b[1] < qb[0] || b[0] > qb[1] || b[3] < qb[2] || b[2] > qb[3] {
             side = Some(false);
             continue;
         }
-        let d = b.sub(a);
         // Away from ∂Q after a piece whose side is known: the whole edge is one piece on
-        // that side (the same sums as the general case below, which it skips).
+        // that side (the same sum as the general case below, which it skips).
         if let (true, Some(inside)) = (near.is_empty(), side) {
             if inside {
-                let (s0, s1) = (a.add(d.scale(0.0)), a.add(d.scale(1.0)));
-                sum += 0.5 * (s0.x + s1.x) * (s1.y - s0.y);
+                sum += edge.x_dy(0.0, 1.0);
             }
             continue;
         }
         ts.clear();
         ts.extend([0.0, 1.0]);
         for &f in &near {
-            let (c, e) = (q.edges[f as usize].from, q.edges[f as usize].to);
-            let f = e.sub(c);
-            let den = d.cross(f);
-            if den == 0.0 {
-                // Parallel: the ends of the other edge may still cut this one.
-                for r in [c, e] {
-                    let len2 = d.x * d.x + d.y * d.y;
-                    let t = (r.sub(a).x * d.x + r.sub(a).y * d.y) / len2;
-                    let off = a.add(d.scale(t)).sub(r);
-                    if t > 0.0 && t < 1.0 && off.x * off.x + off.y * off.y <= tol * tol {
-                        ts.push(t);
-                    }
-                }
-                continue;
-            }
-            let t = c.sub(a).cross(f) / den;
-            let u = c.sub(a).cross(d) / den;
-            if t > 0.0 && t < 1.0 && (-1e-12..=1.0 + 1e-12).contains(&u) {
-                ts.push(t);
-            }
+            edge.cuts(&q.edges[f as usize], tol, &mut ts);
         }
         ts.sort_by(f64::total_cmp);
         for w in ts.windows(2) {
             if w[1] - w[0] <= 1e-12 {
                 continue;
             }
-            let (s0, s1) = (a.add(d.scale(w[0])), a.add(d.scale(w[1])));
-            let mid = a.add(d.scale(0.5 * (w[0] + w[1])));
+            let t = 0.5 * (w[0] + w[1]);
+            let mid = edge.at(t);
             let keep = match q.edge_at(&near, mid, tol) {
                 Some(dir) => {
                     side = None;
+                    let d = edge.tangent(t);
                     shared && dir.x * d.x + dir.y * d.y > 0.0
                 }
                 None => {
@@ -316,7 +256,7 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
                 }
             };
             if keep {
-                sum += 0.5 * (s0.x + s1.x) * (s1.y - s0.y);
+                sum += edge.x_dy(w[0], w[1]);
             }
         }
     }
@@ -332,7 +272,7 @@ fn common_area(p: &Shape, q: &Shape) -> f64 {
         .max(p.bounds[3] - p.bounds[2])
         .max(q.bounds[1] - q.bounds[0])
         .max(q.bounds[3] - q.bounds[2]);
-    let tol = 1e-9 * size;
+    let tol = meet::tolerance(size);
     boundary_inside(p, q, true, tol) + boundary_inside(q, p, false, tol)
 }
 
@@ -388,8 +328,7 @@ fn capped(out: &mut Vec<Warning>, lines: Vec<Warning>, total: usize, kind: More)
 /// Warnings about the arrangement of the pieces; of each kind the first [`SHOWN`] in
 /// the order of the parts, then a count of the rest.
 pub fn warnings(pieces: &[Piece]) -> Vec<Warning> {
-    let mut memo = ArcOffsets::default();
-    let shapes: Vec<Option<Shape>> = pieces.iter().map(|p| Shape::of(p, &mut memo)).collect();
+    let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
     let total: f64 = shapes.iter().flatten().map(|s| s.area.abs()).sum();
     let mut out = Vec::new();
     let empty: Vec<usize> = (0..pieces.len())
@@ -562,9 +501,7 @@ mod tests {
                     piece("box", Contour::rounded_rect(x, y, x + w, y + h, 0.0), false)
                 })
                 .collect();
-            let mut memo = ArcOffsets::default();
-            let shapes: Vec<Option<Shape>> =
-                pieces.iter().map(|p| Shape::of(p, &mut memo)).collect();
+            let shapes: Vec<Option<Shape>> = pieces.iter().map(Shape::of).collect();
             let mut swept = Vec::new();
             box_pairs(&shapes, |i, j| swept.push((i, j)));
             swept.sort_unstable();
