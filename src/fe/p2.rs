@@ -144,6 +144,103 @@ pub fn at(p: &[Pt; 6], rule: &Rule, q: usize) -> Option<At> {
     })
 }
 
+/// A straight-sided element (mid-side nodes at the middles of its sides) is the affine
+/// image x = x₀ + J·(ξ, η) of the reference triangle, with J = [[x₁ − x₀, x₂ − x₀],
+/// [y₁ − y₀, y₂ − y₀]] constant, so ∇N = J⁻ᵀ∇̂N and its integrals are fixed
+/// combinations of integrals over the reference triangle, computed once
+/// ([`Straight::get`]; Zienkiewicz & Taylor, The Finite Element Method, vol. 1, §8.8 and
+/// §9.3 on the Jacobian of the mapping). With dA = det J dξ dη:
+///
+///   ∫∇Nₐ·∇N_b dA = [(x₂₀² + y₂₀²)·S_ξξ − (x₁₀x₂₀ + y₁₀y₂₀)·(S_ξη + S_ηξ) + (x₁₀² + y₁₀²)·S_ηη]ₐ_b / det J
+///
+/// (x₁₀ = x₁ − x₀ and so on; S_ab = ∫ ∂N/∂a ∂N/∂b dξ dη), and the torsion load
+///
+///   ∫(y ∂Nₐ/∂x − x ∂Nₐ/∂y) dA = ∫ ∂Nₐ/∂ξ·(y₂₀y + x₂₀x) − ∂Nₐ/∂η·(y₁₀y + x₁₀x) dξ dη
+///
+/// with x, y linear in ξ, η (det J cancels). The integrands are of degree 2, so the
+/// reference integrals by [`Rule::degree2`] are exact.
+pub struct Straight {
+    /// S_ξξ, S_ξη + S_ηξ, S_ηη.
+    s: [[[f64; 6]; 6]; 3],
+    /// ∫ ∂Nₐ/∂ξ·(1, ξ, η) and ∫ ∂Nₐ/∂η·(1, ξ, η).
+    lxi: [[f64; 6]; 3],
+    leta: [[f64; 6]; 3],
+}
+
+impl Straight {
+    /// The reference integrals, computed on first use.
+    pub fn get() -> &'static Straight {
+        static REF: std::sync::OnceLock<Straight> = std::sync::OnceLock::new();
+        REF.get_or_init(|| {
+            let r = Rule::degree2();
+            let mut t = Straight {
+                s: [[[0.0; 6]; 6]; 3],
+                lxi: [[0.0; 6]; 3],
+                leta: [[0.0; 6]; 3],
+            };
+            // The reference element itself: x = ξ, y = η, ∇N = ∇̂N, dA = dξ dη.
+            let h = 0.5;
+            let unit = [
+                (0.0, 0.0),
+                (1.0, 0.0),
+                (0.0, 1.0),
+                (h, 0.0),
+                (h, h),
+                (0.0, h),
+            ];
+            let unit = unit.map(|(x, y)| Pt::new(x, y));
+            for g in (0..r.points()).filter_map(|q| at(&unit, &r, q)) {
+                let (w, dx, de) = (g.da, &g.gx, &g.gy);
+                for a in 0..6 {
+                    for b in 0..6 {
+                        t.s[0][a][b] += w * dx[a] * dx[b];
+                        t.s[1][a][b] += w * (dx[a] * de[b] + de[a] * dx[b]);
+                        t.s[2][a][b] += w * de[a] * de[b];
+                    }
+                    for (m, v) in [1.0, g.x, g.y].into_iter().enumerate() {
+                        t.lxi[m][a] += w * dx[a] * v;
+                        t.leta[m][a] += w * de[a] * v;
+                    }
+                }
+            }
+            t
+        })
+    }
+
+    /// The stiffness ∫∇Nₐ·∇N_b dA and the torsion load ∫(y ∂Nₐ/∂x − x ∂Nₐ/∂y) dA of
+    /// the straight element with nodes `p` (its corners are read); `None` when it is
+    /// inverted or degenerate (det J ≤ 0), as [`at`] says.
+    pub fn stiffness_and_load(&self, p: &[Pt; 6]) -> Option<([[f64; 6]; 6], [f64; 6])> {
+        let (x0, y0) = (p[0].x, p[0].y);
+        let (x1, y1, x2, y2) = (p[1].x - x0, p[1].y - y0, p[2].x - x0, p[2].y - y0);
+        let det = x1 * y2 - x2 * y1;
+        if det.is_nan() || det <= 0.0 {
+            return None;
+        }
+        let c = [
+            (x2 * x2 + y2 * y2) / det,
+            -(x1 * x2 + y1 * y2) / det,
+            (x1 * x1 + y1 * y1) / det,
+        ];
+        let mut k = [[0.0; 6]; 6];
+        for (a, row) in k.iter_mut().enumerate() {
+            for (b, v) in row.iter_mut().enumerate() {
+                *v = c[0] * self.s[0][a][b] + c[1] * self.s[1][a][b] + c[2] * self.s[2][a][b];
+            }
+        }
+        // y₂₀y + x₂₀x and y₁₀y + x₁₀x as (constant, ξ, η) coefficients.
+        let u = [y2 * y0 + x2 * x0, y2 * y1 + x2 * x1, y2 * y2 + x2 * x2];
+        let v = [y1 * y0 + x1 * x0, y1 * y1 + x1 * x1, y1 * y2 + x1 * x2];
+        let mut f = [0.0; 6];
+        for (a, fa) in f.iter_mut().enumerate() {
+            *fa = (0..3)
+                .map(|m| u[m] * self.lxi[m][a] - v[m] * self.leta[m][a])
+                .sum();
+        }
+        Some((k, f))
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -174,6 +271,44 @@ mod tests {
                 }
             }
         }
+    }
+
+    #[test]
+    fn a_straight_element_from_the_reference_matches_its_quadrature() {
+        // The affine map of the reference integrals against the isoparametric
+        // quadrature of the same element (exact for it: degree-2 integrands).
+        let (a, b, c) = (Pt::new(-3.0, 1.0), Pt::new(4.0, -2.5), Pt::new(0.5, 6.0));
+        let mid = |p: Pt, q: Pt| Pt::new(0.5 * (p.x + q.x), 0.5 * (p.y + q.y));
+        let p = [a, b, c, mid(a, b), mid(b, c), mid(c, a)];
+        let (k, f) = Straight::get()
+            .stiffness_and_load(&p)
+            .expect("valid element");
+        let rule = Rule::degree2();
+        let (mut kq, mut fq) = ([[0.0; 6]; 6], [0.0; 6]);
+        for q in 0..rule.points() {
+            let g = at(&p, &rule, q).expect("valid element");
+            for i in 0..6 {
+                fq[i] += g.da * (g.y * g.gx[i] - g.x * g.gy[i]);
+                for j in 0..6 {
+                    kq[i][j] += g.da * (g.gx[i] * g.gx[j] + g.gy[i] * g.gy[j]);
+                }
+            }
+        }
+        for i in 0..6 {
+            assert!(
+                (f[i] - fq[i]).abs() < 1e-12 * 50.0,
+                "f[{i}] {} vs {}",
+                f[i],
+                fq[i]
+            );
+            for j in 0..6 {
+                assert!((k[i][j] - kq[i][j]).abs() < 1e-13 * 10.0, "k[{i}][{j}]");
+            }
+        }
+        // Rows of a stiffness sum to zero (a constant has no gradient).
+        assert!(k.iter().all(|r| r.iter().sum::<f64>().abs() < 1e-13));
+        let flipped = [a, c, b, mid(a, c), mid(c, b), mid(b, a)];
+        assert!(Straight::get().stiffness_and_load(&flipped).is_none());
     }
 
     #[test]

@@ -22,7 +22,7 @@
 //! ch. 6).
 
 use super::mesh::Mesh;
-use super::p2::{at, Rule};
+use super::p2::{at, Rule, Straight};
 use super::solve::{Cancelled, Csr, FactorError, Multigrid, Prolong};
 use crate::geom::Pt;
 use std::sync::atomic::AtomicBool;
@@ -139,7 +139,6 @@ fn solve(
     cancel: Option<&AtomicBool>,
 ) -> Result<Level, Failure> {
     let r4 = Rule::degree4();
-    let r2 = Rule::degree2();
     let pts = points(m, &r4)?;
     // Area moments [A, ∫x, ∫y, ∫x², ∫y², ∫xy] about the local origin.
     let mut s = [0.0; 6];
@@ -174,26 +173,35 @@ fn solve(
         })
         .sum();
     let nn = m.nodes.len();
-    let mut k = Csr::pattern(nn, &m.elems);
     let mut f = vec![0.0; nn];
-    // Stiffness ∫g∇Nᵢ·∇Nⱼ dA and load ∫g(y ∂Nᵢ/∂x − x ∂Nᵢ/∂y) dA, g = G/G_ref.
-    for (ei, e) in m.elems.iter().enumerate() {
+    // Stiffness ∫g∇Nᵢ·∇Nⱼ dA and load ∫g(y ∂Nᵢ/∂x − x ∂Nᵢ/∂y) dA, g = G/G_ref: a
+    // straight element from the reference integrals (p2::Straight), a curved one by
+    // quadrature.
+    let straight = Straight::get();
+    let mut k = Csr::assemble(nn, &m.elems, |ei| {
+        let e = &m.elems[ei];
         let p = e.map(|v| m.nodes[v as usize].sub(c));
-        let rule = if m.curved[ei] { &r4 } else { &r2 };
         let n = m.shear[ei];
-        let mut ke = [[0.0; 6]; 6];
-        for q in 0..rule.points() {
-            let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
-            let da = n * g.da;
-            for (a, row) in ke.iter_mut().enumerate() {
-                f[e[a] as usize] += da * (g.y * g.gx[a] - g.x * g.gy[a]);
-                for (b, v) in row.iter_mut().enumerate() {
-                    *v += da * (g.gx[a] * g.gx[b] + g.gy[a] * g.gy[b]);
+        let (mut ke, mut fe) = ([[0.0; 6]; 6], [0.0; 6]);
+        if m.curved[ei] {
+            for q in 0..r4.points() {
+                let g = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
+                for (a, row) in ke.iter_mut().enumerate() {
+                    fe[a] += g.da * (g.y * g.gx[a] - g.x * g.gy[a]);
+                    for (b, v) in row.iter_mut().enumerate() {
+                        *v += g.da * (g.gx[a] * g.gx[b] + g.gy[a] * g.gy[b]);
+                    }
                 }
             }
+        } else {
+            (ke, fe) = straight.stiffness_and_load(&p).ok_or(Failure::Degenerate)?;
         }
-        k.add_element(e, &ke);
-    }
+        for (a, row) in ke.iter_mut().enumerate() {
+            f[e[a] as usize] += n * fe[a];
+            row.iter_mut().for_each(|v| *v *= n);
+        }
+        Ok::<_, Failure>(ke)
+    })?;
     for &pn in &m.pinned {
         k.pin(pn as usize);
         f[pn as usize] = 0.0;
