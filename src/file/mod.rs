@@ -1,5 +1,6 @@
 //! Section files on disk and in text: reading TOML into a [`crate::model::Document`]
-//! with the place of every value ([`read`]), turning byte offsets into line and
+//! with the place of every value ([`read`], over the tree of [`tree`] that the strict
+//! parser of the common subset ([`strict`]) or `toml_edit` fills), turning byte offsets into line and
 //! column ([`locate`]), editing text in place keeping its layout ([`edit`]), reading a
 //! file's text within bounds ([`input`]), from a file to its analysis and the line
 //! an error prints as ([`load`]), saving atomically and securely ([`save`]) and
@@ -7,13 +8,14 @@
 //! ([`git`]).
 
 pub mod edit;
-pub mod fast_points;
 pub mod git;
 pub mod input;
 pub mod load;
 pub mod read;
 pub mod recover;
 pub mod save;
+pub mod strict;
+pub mod tree;
 
 pub use read::parse;
 
