@@ -78,7 +78,10 @@ fn every_toml_file_of_the_repository_reads_the_same() {
 
 #[test]
 fn the_batch_reads_the_same_and_computes_the_same_json() {
-    let opts = Options { torsion: None };
+    let opts = Options {
+        torsion: None,
+        ..Options::default()
+    };
     for k in 0..sections::COUNT {
         let text = sections::section(k);
         assert!(agrees(&text), "batch file {k} left to toml_edit");
