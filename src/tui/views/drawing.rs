@@ -192,8 +192,10 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         mark(&mut r, e.max_tension.x, e.max_tension.y, 'T');
         mark(&mut r, e.max_compression.x, e.max_compression.y, 'C');
     }
-    if let Some(Ok(t)) = &a.torsion {
-        mark(&mut r, t.shear_centre.x, t.shear_centre.y, 'S');
+    // With finite-element noise removed, as every view shows it: a symmetric
+    // section's shear centre is drawn on its axis of symmetry.
+    if let Some(sc) = crate::report::rows::shear_centre(a) {
+        mark(&mut r, sc.x, sc.y, 'S');
     }
     mark(
         &mut r,
