@@ -168,6 +168,13 @@ pub struct ShearResult {
     pub von_mises_max: Option<Peak>,
     /// With `[member]`: the largest shear stress from Vy = Vmax alone.
     pub member_tau: Option<Peak>,
+    /// Where `tau_max` is withheld for a sharp re-entrant corner: the largest
+    /// √(τzx² + τzy²) away from the corners ([`Flexure::peaks_away`]), when that is
+    /// within the tolerance. Not the section's τmax (the stress at the corners is
+    /// unbounded in the elastic model): it scales the shading only.
+    pub tau_away: Option<Peak>,
+    /// The same for `von_mises_max`.
+    pub von_mises_away: Option<Peak>,
 }
 
 /// Stresses under `[actions]` at the flexure samples (file frame), in Pa; a stress
@@ -415,18 +422,23 @@ impl Analysis {
         let tol = flex.tol;
         let pieces = &self.pieces;
         let mut notes = Vec::new();
-        let mut within = |figure, error: f64, at: Option<Pt>| {
+        // A figure within the tolerance is kept; one that is not is noted with its cause:
+        // a sharp re-entrant corner when its peak is at one, or when the same stress away
+        // from the corners is within the tolerance (`away_ok`), so that the corners' term
+        // is what keeps the estimate above it.
+        let mut within = |figure, error: f64, at: Option<Pt>, away_ok: bool| {
             let ok = error <= tol;
             if !ok {
                 let cause = match at {
                     Some(p) if corner::is_reentrant(pieces, p) => ShearCause::SharpCorner,
+                    _ if away_ok => ShearCause::SharpCorner,
                     _ => ShearCause::NotSettled,
                 };
                 notes.push((figure, cause));
             }
             ok
         };
-        within(ShearFigure::Areas, flex.shear_area_error, None);
+        within(ShearFigure::Areas, flex.shear_area_error, None, false);
         let areas = self.shear_areas();
         let u = self.section.units.metres();
         let zero = |_: Pt| 0.0;
@@ -435,11 +447,26 @@ impl Analysis {
             tau_max: None,
             von_mises_max: None,
             member_tau: None,
+            tau_away: None,
+            von_mises_away: None,
         };
-        if let Some((tau, vm)) = self.under_actions(|load| flex.peaks(load)).flatten() {
-            out.tau_max = within(ShearFigure::TauMax, tau.rel_error, Some(tau.at)).then_some(tau);
+        let trusted = |p: Peak| (p.rel_error <= tol).then_some(p);
+        let both = |load: &Load| flex.peaks(load).map(|p| (p, flex.peaks_away(load)));
+        if let Some(((tau, vm), away)) = self.under_actions(both).flatten() {
+            let (tau_away, vm_away) = (
+                away.and_then(|a| trusted(a.0)),
+                away.and_then(|a| trusted(a.1)),
+            );
+            let fig = |p: Peak| (p.rel_error, Some(p.at));
+            let (e, at) = fig(tau);
+            out.tau_max = within(ShearFigure::TauMax, e, at, tau_away.is_some()).then_some(tau);
+            let (e, at) = fig(vm);
             out.von_mises_max =
-                within(ShearFigure::VonMises, vm.rel_error, Some(vm.at)).then_some(vm);
+                within(ShearFigure::VonMises, e, at, vm_away.is_some()).then_some(vm);
+            // Withheld, with the stress away from the corners within the tolerance: that
+            // stress scales the shading (and is printed as nothing else).
+            out.tau_away = tau_away.filter(|_| out.tau_max.is_none());
+            out.von_mises_away = vm_away.filter(|_| out.von_mises_max.is_none());
         }
         if let Some(m) = &self.member {
             let load = Load {
@@ -449,8 +476,10 @@ impl Analysis {
                 sigma: &zero,
             };
             if let Some((tau, _)) = flex.peaks(&load).filter(|_| m.v_max.is_finite()) {
+                let away_ok = flex.peaks_away(&load).and_then(|a| trusted(a.0)).is_some();
                 out.member_tau =
-                    within(ShearFigure::MemberTau, tau.rel_error, Some(tau.at)).then_some(tau);
+                    within(ShearFigure::MemberTau, tau.rel_error, Some(tau.at), away_ok)
+                        .then_some(tau);
             }
         }
         for cause in [ShearCause::SharpCorner, ShearCause::NotSettled] {
@@ -490,8 +519,9 @@ impl Analysis {
     }
 
     /// The resultant shear stress and the von Mises stress (Pa) under `[actions]` at
-    /// every sample of the flexure solution's finest mesh, where each is within the
-    /// tolerance (`None` for a figure left out, see [`ShearResult`]); `None` without
+    /// every sample of the flexure solution's finest mesh, where its peak, or its peak
+    /// away from the sharp re-entrant corners, is within the tolerance (`None` for a
+    /// figure left out, see [`ShearResult`]); `None` without
     /// the flexure solution or without Vx, Vy or T.
     pub fn stress_samples(&self) -> Option<StressSamples> {
         let flex = self.flexure()?;
@@ -501,10 +531,12 @@ impl Analysis {
                 let (tau, vm) = s.stresses(load);
                 (s.at, tau, vm)
             });
+            let tau = shear.tau_max.or(shear.tau_away);
+            let vm = shear.von_mises_max.or(shear.von_mises_away);
             StressSamples {
                 at: all.clone().map(|s| s.0).collect(),
-                tau: shear.tau_max.map(|_| all.clone().map(|s| s.1).collect()),
-                von_mises: shear.von_mises_max.map(|_| all.map(|s| s.2).collect()),
+                tau: tau.map(|_| all.clone().map(|s| s.1).collect()),
+                von_mises: vm.map(|_| all.map(|s| s.2).collect()),
             }
         })
     }

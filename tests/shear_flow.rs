@@ -235,3 +235,112 @@ fn void_inside_one_part_goes_with_its_side() {
     let q = 1e3 * 4800.0 * (75.0 - yc) / i;
     close(json_flows(&a)[0].3.unwrap(), q, 1e-9);
 }
+
+/// `calc` with the flexure solution (torsion on), for the closed-cell joints and τ.
+fn calc_fe(body: &str) -> Analysis {
+    let text = format!("format = 1\nunits = \"mm\"\n{body}");
+    let opts = Options {
+        torsion: Some(kern::fe::TorsionOptions::default()),
+    };
+    kern::file::load::analyse(&text, &opts).unwrap_or_else(|d| panic!("{}", d.message))
+}
+
+#[test]
+fn member_check_gives_each_joint_its_flow_at_vmax() {
+    // Our own mezzanine girder, 300 × 20 flanges on a 10 × 560 web, a 200 × 12 cover
+    // plate on the top flange, on a simple 8 m span under 45 kN/m (no self-weight):
+    // Vmax = w·L/2 = 180 kN at the supports (statics). Each joint separates the section,
+    // so q@Vmax = Vmax·Q/I (Gere & Goodno, shear flow in built-up beams), Q of the side
+    // cut off about the centroid; here worked with the parallel-axis theorem.
+    let parts = [
+        ("cover", -100.0, 300.0, 200.0, 12.0),
+        ("top flange", -150.0, 280.0, 300.0, 20.0),
+        ("web", -5.0, -280.0, 10.0, 560.0),
+        ("bottom flange", -150.0, -300.0, 300.0, 20.0),
+    ];
+    let body: String = parts
+        .iter()
+        .map(|p| rect(p.0, p.1, p.2, p.3, p.4))
+        .collect();
+    let a = calc(&format!(
+        "{body}[member]\nspan = \"8 m\"\nsupport = \"simple\"\nudl = \"45 kN/m\"\n"
+    ));
+    let m = a.member.as_ref().expect("member check");
+    close(m.v_max, 45e3 * 8.0 / 2.0, 1e-12);
+    let mid = |p: &(&str, f64, f64, f64, f64)| p.2 + p.4 / 2.0;
+    let area: f64 = parts.iter().map(|p| p.3 * p.4).sum();
+    let ybar = parts.iter().map(|p| p.3 * p.4 * mid(p)).sum::<f64>() / area;
+    let i: f64 = (parts.iter())
+        .map(|p| p.3 * p.4.powi(3) / 12.0 + p.3 * p.4 * (mid(p) - ybar).powi(2))
+        .sum();
+    let q = |p: &(&str, f64, f64, f64, f64)| (p.3 * p.4 * (mid(p) - ybar)).abs();
+    let want = [q(&parts[0]), q(&parts[0]) + q(&parts[1]), q(&parts[3])];
+    assert_eq!(a.connections.len(), 3);
+    for (c, qw) in a.connections.iter().zip(want) {
+        // N/m from N and mm: V·Q/I in N/mm, times 1000.
+        let got = a.connection_flow_at_vmax(c).expect("flow at Vmax");
+        close(got, 180e3 * qw / i * 1e3, 1e-9);
+    }
+    // No Vx or Vy in [actions]: no flow under the actions, the one at Vmax only.
+    assert!(a.connections.iter().all(|c| a.connection_flow(c).is_none()));
+}
+
+#[test]
+fn member_check_box_joints_at_vmax_balance_the_flange() {
+    // Our own runway box: 250 × 12 flanges on two 8 × 300 webs at x = ±80 (a closed
+    // cell), cantilever 3 m with a 60 kN point load at the tip: Vmax = 60 kN. The flows at
+    // Vmax of the two top joints come from the flexure solution; equilibrium of the top
+    // flange along the member makes their sum Vmax·Q/I of that flange (Gere & Goodno).
+    let a = calc_fe(&format!(
+        "{}{}{}{}[member]\nspan = \"3 m\"\nsupport = \"cantilever\"\npoint = [{{ P = \"60 kN\", a = \"3 m\" }}]\n",
+        rect("top", -125.0, 150.0, 250.0, 12.0),
+        rect("left", -84.0, -150.0, 8.0, 300.0),
+        rect("right", 76.0, -150.0, 8.0, 300.0),
+        rect("bottom", -125.0, -162.0, 250.0, 12.0)
+    ));
+    let m = a.member.as_ref().expect("member check");
+    close(m.v_max, 60e3, 1e-12);
+    let i = 2.0 * (250.0 * 12f64.powi(3) / 12.0 + 3000.0 * 156f64.powi(2))
+        + 2.0 * 8.0 * 300f64.powi(3) / 12.0;
+    let q = 60e3 * 3000.0 * 156.0 / i * 1e3; // N/m
+    let flow = |x: &str, y: &str| {
+        let c = (a.connections.iter())
+            .find(|c| {
+                let name = |i: usize| a.pieces[i].name.as_str();
+                (name(c.joint.a), name(c.joint.b)) == (x, y)
+            })
+            .unwrap_or_else(|| panic!("{x}–{y}"));
+        a.connection_flow_at_vmax(c)
+            .expect("given within the tolerance")
+    };
+    // The flows' estimate is within the tolerance 1e-3 where they are given.
+    close(flow("top", "left") + flow("top", "right"), q, 2e-3);
+    close(flow("left", "bottom") + flow("right", "bottom"), q, 2e-3);
+}
+
+#[test]
+fn member_check_tau_at_vmax_is_one_and_a_half_vmax_over_a() {
+    // Our own garage lintel, a 75 × 150 mm steel bar with ν = 0, simply supported over
+    // 2.4 m under 30 kN/m: Vmax = w·L/2 = 36 kN; τ from Vmax = 1.5·Vmax/A on the neutral
+    // axis (Timoshenko & Goodier §124, exact for ν = 0), in the calc table as τ@Vmax.
+    let a = calc_fe(&format!(
+        "[[materials]]\nname = \"steel\"\nE = \"210 GPa\"\nnu = 0\n{}[member]\nspan = \"2.4 m\"\nsupport = \"simple\"\nudl = \"30 kN/m\"\n",
+        rect("lintel", -37.5, -75.0, 75.0, 150.0)
+    ));
+    let m = a.member.as_ref().expect("member check");
+    close(m.v_max, 36e3, 1e-12);
+    let tau = (a.shear.as_ref())
+        .and_then(|s| s.member_tau)
+        .expect("τ at Vmax within the tolerance");
+    let exact = 1.5 * 36e3 / (75.0 * 150.0) * 1e6; // Pa
+    close(tau.value, exact, 1e-3);
+    // On the neutral axis to the samples' resolution: τ falls off as 1 − 4y²/h², so a
+    // value within 1e-3 of the peak lies within 0.016·h of it.
+    assert!(tau.at.y.abs() < 0.02 * 150.0, "{:?}", tau.at);
+    let j = to_json("t.toml", &a, &OutUnits::new(a.section.units, None));
+    close(
+        j["member"]["tau_max"].as_f64().expect("member.tau_max"),
+        exact * 1e-6,
+        1e-3,
+    );
+}

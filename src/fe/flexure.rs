@@ -92,7 +92,7 @@ struct FlexLevel {
     nodes: usize,
     /// Its sharp re-entrant corners ([`reentrant_corners`]), found once the level is to
     /// be refined ([`FlexLadder::refining`]): only the coarser of two levels needs them.
-    corners: Option<Vec<u32>>,
+    corners: Option<Vec<Corner>>,
     /// The prolongation from the coarser mesh onto this one (none on the base mesh).
     prolong: Option<Prolong>,
 }
@@ -122,6 +122,29 @@ pub struct Peak {
     /// Estimated relative error of `value` (the two-mesh estimate, [`FLEX_RATE`]).
     pub rel_error: f64,
 }
+
+/// A sharp re-entrant corner of the region, where the elastic shear stress is singular
+/// (Williams 1952): a node of the coarser of the last two meshes.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Corner {
+    /// The mesh node (the same node on every finer mesh).
+    pub node: u32,
+    /// Where, in the file frame.
+    pub at: Pt,
+    /// The radius about it within which a stress counts as at the corner for
+    /// [`Flexure::peaks_away`]: [`AWAY`] times the distance to the nearest other corner
+    /// of the outline (convex or re-entrant), a length of the geometry and not of the
+    /// mesh: across a web welded to a flange, the web's thickness.
+    pub reach: f64,
+}
+
+/// The radius about a sharp re-entrant corner left out of [`Flexure::peaks_away`], in
+/// distances to the nearest other corner of the outline. The singular term falls off as
+/// r^(π/α − 1) (Williams 1952; r^(−1/3) at α = 270°) and dies out within about a wall
+/// thickness, where the thin-walled flow takes over (Saint-Venant's principle, common
+/// practice); one such distance out, the welded test sections settle within 1e-3
+/// (tests/shading.rs).
+pub const AWAY: f64 = 1.0;
 
 /// The flow across a joint from [`Flexure::joint_flow`].
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -202,7 +225,37 @@ impl Flexure {
     /// stress √(σ² + 3τ²) (σ = n·σ_ref) under `load`, each with its estimated error;
     /// `None` with fewer than two meshes.
     pub fn peaks(&self, load: &Load) -> Option<(Peak, Peak)> {
-        peaks_over(&self.levels, load)
+        peaks_over(&self.levels, load, None)
+    }
+
+    /// The sharp re-entrant corners of the region (of the coarser of the last two
+    /// meshes); empty where there are none, or with fewer than two meshes.
+    pub fn corners(&self) -> &[Corner] {
+        let n = self.levels.len();
+        (self.levels.get(n.wrapping_sub(2)))
+            .and_then(|l| l.corners.as_deref())
+            .unwrap_or(&[])
+    }
+
+    /// As [`Flexure::peaks`], over the samples away from the sharp re-entrant corners
+    /// only (beyond each [`Corner::reach`]), with the same two-mesh estimate over those
+    /// samples and without the corners' term: the largest stresses the elastic model
+    /// bounds where [`Flexure::peaks`] is dominated by a singular corner. `None` when the
+    /// region has no such corner (then [`Flexure::peaks`] is the answer).
+    pub fn peaks_away(&self, load: &Load) -> Option<(Peak, Peak)> {
+        let corners = self.corners();
+        let fine = self.levels.last()?;
+        if corners.is_empty() {
+            return None;
+        }
+        let mut counted = vec![true; fine.nodes];
+        for s in &fine.samples {
+            let near = corners.iter().any(|c| s.at.dist(c.at) <= c.reach);
+            if let Some(k) = counted.get_mut(s.node as usize).filter(|_| near) {
+                *k = false;
+            }
+        }
+        peaks_over(&self.levels, load, Some(&counted))
     }
 }
 
@@ -217,15 +270,16 @@ impl Flexure {
 /// rule of [`peak_two_level`]).
 pub const FLEX_RATE: f64 = 1.0;
 
-/// [`Flexure::peaks`] over `levels`, from the last two.
-fn peaks_over(levels: &[FlexLevel], load: &Load) -> Option<(Peak, Peak)> {
+/// [`Flexure::peaks`] over `levels`, from the last two; with `away`, over the nodes it
+/// marks only ([`peak_two_level`]).
+fn peaks_over(levels: &[FlexLevel], load: &Load, away: Option<&[bool]>) -> Option<(Peak, Peak)> {
     let [coarse, fine] = levels.get(levels.len().checked_sub(2)?..)? else {
         return None;
     };
     let (vc, vf) = (values_of(coarse, load), values_of(fine, load));
     Some((
-        peak_two_level(coarse, &vc[0], fine, &vf[0]),
-        peak_two_level(coarse, &vc[1], fine, &vf[1]),
+        peak_two_level(coarse, &vc[0], fine, &vf[0], away),
+        peak_two_level(coarse, &vc[1], fine, &vf[1], away),
     ))
 }
 
@@ -252,7 +306,18 @@ fn values_of(l: &FlexLevel, load: &Load) -> [Vec<f64>; 2] {
 /// the estimate follows the field near its top rather than one point: it sees a peak
 /// that moves between meshes, or a second point about to overtake it, while low
 /// stresses converging slowly elsewhere (sharp convex corners) do not count.
-fn peak_two_level(coarse: &FlexLevel, coarse_v: &[f64], fine: &FlexLevel, fine_v: &[f64]) -> Peak {
+///
+/// With `away` (a flag per node of the finer mesh, the coarser's nodes keeping their
+/// numbers), only the nodes it flags count, for the peak, its reach and the change,
+/// and the sharp re-entrant corners' term is left out: [`Flexure::peaks_away`].
+fn peak_two_level(
+    coarse: &FlexLevel,
+    coarse_v: &[f64],
+    fine: &FlexLevel,
+    fine_v: &[f64],
+    away: Option<&[bool]>,
+) -> Peak {
+    let counts = |node: usize| away.is_none_or(|a| a.get(node).copied().unwrap_or(false));
     let per_node = |l: &FlexLevel, v: &[f64]| {
         let mut out = vec![f64::NAN; l.nodes];
         for (s, &x) in l.samples.iter().zip(v) {
@@ -282,7 +347,7 @@ fn peak_two_level(coarse: &FlexLevel, coarse_v: &[f64], fine: &FlexLevel, fine_v
     }
     let largest = |l: &FlexLevel, v: &[f64]| {
         (l.samples.iter().zip(v)).fold((0.0, Pt::new(0.0, 0.0), 0), |best, (s, &x)| {
-            if x > best.0 {
+            if x > best.0 && counts(s.node as usize) {
                 (x, s.at, s.node as usize)
             } else {
                 best
@@ -303,16 +368,20 @@ fn peak_two_level(coarse: &FlexLevel, coarse_v: &[f64], fine: &FlexLevel, fine_v
         }
     };
     let reach = (0..c1.len())
-        .filter(|&i| !c1[i].is_nan())
+        .filter(|&i| !c1[i].is_nan() && counts(i))
         .map(|i| c1[i] + e_at(i))
         .fold(f64::NEG_INFINITY, f64::max);
     // At a sharp re-entrant corner the stress is singular and grows at every refinement
     // (as h^(1 − π/α) for an interior angle α; Williams 1952): its change counts
     // whatever its value, so a corner that will overtake the peak withholds it.
     // Corners not looked for give no estimate at all.
-    let at_corners = coarse.corners.as_ref().map_or(f64::INFINITY, |c| {
-        c.iter().map(|&i| e_at(i as usize)).fold(0.0, f64::max)
-    });
+    let at_corners = match (away, &coarse.corners) {
+        (Some(_), _) => 0.0,
+        (None, None) => f64::INFINITY,
+        (None, Some(c)) => (c.iter())
+            .map(|c| e_at(c.node as usize))
+            .fold(0.0, f64::max),
+    };
     let err = ((p1 - p0).abs() / div)
         .max(FLOOR * p1.abs())
         .max(e_at(node))
@@ -383,8 +452,9 @@ impl FlexLadder {
             t: f64::from(k == 2),
             sigma: &zero,
         };
-        let peaks_ok = (0..3)
-            .all(|k| peaks_over(&self.levels, &unit(k)).is_some_and(|p| p.0.rel_error <= tol));
+        let peaks_ok = (0..3).all(|k| {
+            peaks_over(&self.levels, &unit(k), None).is_some_and(|p| p.0.rel_error <= tol)
+        });
         peaks_ok && self.area_estimate().is_some_and(|(_, e)| e <= tol)
     }
 
@@ -648,8 +718,8 @@ const SMOOTH_ANGLE: f64 = 200.0;
 /// The nodes of `m` at sharp re-entrant corners of the region: corner nodes whose
 /// elements' angles (between the tangents of their curved sides, so a curved outline
 /// stays at 180°) add up to more than [`SMOOTH_ANGLE`] and short of the full turn of
-/// an interior node.
-fn reentrant_corners(m: &Mesh) -> Vec<u32> {
+/// an interior node; each with its [`Corner::reach`].
+fn reentrant_corners(m: &Mesh) -> Vec<Corner> {
     let mut angle = vec![0.0f64; m.nodes.len()];
     for e in &m.elems {
         let p = e.map(|v| m.nodes[v as usize]);
@@ -667,9 +737,26 @@ fn reentrant_corners(m: &Mesh) -> Vec<u32> {
             angle[e[a] as usize] += turn.to_degrees();
         }
     }
+    let reentrant = |a: f64| a > SMOOTH_ANGLE && a < 359.0;
+    // Every corner of the outline, convex (short of 360° − SMOOTH_ANGLE) or re-entrant.
+    let all: Vec<Pt> = (angle.iter().zip(&m.nodes))
+        .filter(|&(&a, _)| a > 0.0 && (a < 360.0 - SMOOTH_ANGLE || reentrant(a)))
+        .map(|(_, &p)| p)
+        .collect();
     (angle.iter().enumerate())
-        .filter(|&(_, &a)| a > SMOOTH_ANGLE && a < 359.0)
-        .map(|(i, _)| i as u32)
+        .filter(|&(_, &a)| reentrant(a))
+        .map(|(i, _)| {
+            let p = m.nodes[i];
+            let nearest = (all.iter())
+                .map(|q| q.dist(p))
+                .filter(|&d| d > 0.0)
+                .fold(f64::INFINITY, f64::min);
+            Corner {
+                node: i as u32,
+                at: p.add(m.origin),
+                reach: AWAY * if nearest.is_finite() { nearest } else { 0.0 },
+            }
+        })
         .collect()
 }
 

@@ -155,7 +155,9 @@ pub enum ShearFigure {
 /// Why a shear figure did not converge.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum ShearCause {
-    /// The peak is at a sharp re-entrant corner, where the elastic stress is singular.
+    /// The peak is at a sharp re-entrant corner, where the elastic stress is singular, or
+    /// the corners' term is what keeps its estimate above the tolerance (the same stress
+    /// away from the corners is within it: `Flexure::peaks_away`).
     SharpCorner,
     /// The meshes allowed did not bring the estimate under the tolerance.
     NotSettled,

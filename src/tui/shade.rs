@@ -7,7 +7,11 @@
 //!
 //! A stress is shaded only when the background finite-element solve is done and its
 //! peak is within the tolerance: a figure we cannot trust is not drawn as if it were
-//! (then [`Why`] says what is missing). Pure: no terminal here.
+//! (then [`Why`] says what is missing). Where the peak is withheld because the stress is
+//! singular at sharp re-entrant corners (every welded plate girder), the scale's top is
+//! the largest value away from the corners when that is within the tolerance
+//! (`ShearResult::tau_away`), and the corners are marked as singular ([`corner_glyph`]).
+//! Pure: no terminal here.
 
 use crate::analysis::Analysis;
 use crate::fe::flexure::Peak;
@@ -59,7 +63,8 @@ pub enum Why {
     Failed,
     /// The stress's peak is not within the tolerance (the warnings say why).
     Untrusted,
-    /// The stress's peak is at a sharp re-entrant corner, where it is singular.
+    /// The stress's peak is at a sharp re-entrant corner, where it is singular, and the
+    /// largest value away from the corners is not within the tolerance either.
     Singular,
 }
 
@@ -72,7 +77,9 @@ impl Why {
             Why::Running => "the finite-element solve is running",
             Why::Failed => "no shear solution (see the warnings)",
             Why::Untrusted => "its peak is not within the tolerance (see the warnings)",
-            Why::Singular => "its peak is at a sharp re-entrant corner (see the warnings)",
+            Why::Singular => {
+                "its peak is at a sharp re-entrant corner and the stress away from it is not within the tolerance (see the warnings)"
+            }
         }
     }
 }
@@ -82,8 +89,19 @@ impl Why {
 pub struct Field {
     pub at: Vec<Pt>,
     pub values: Vec<f64>,
-    /// The largest value (Pa) and where it is (the analysis's own peak).
+    /// The top of the scale (Pa) and where it is: the analysis's own peak, or with
+    /// `corners`, the largest value away from them.
     pub peak: Peak,
+    /// The sharp re-entrant corners (file frame) where the stress is singular, when the
+    /// scale is of the stress away from them; empty when `peak` is the section's peak.
+    pub corners: Vec<Pt>,
+}
+
+impl Field {
+    /// Whether the scale's top is the largest value away from singular corners.
+    pub fn away(&self) -> bool {
+        !self.corners.is_empty()
+    }
 }
 
 /// Number of shading levels.
@@ -105,6 +123,15 @@ pub fn peak_glyph(ascii: bool) -> char {
         'M'
     } else {
         '◆'
+    }
+}
+
+/// The mark of a sharp re-entrant corner where the stress is singular.
+pub fn corner_glyph(ascii: bool) -> char {
+    if ascii {
+        '!'
+    } else {
+        '∞'
     }
 }
 
@@ -139,10 +166,16 @@ pub fn field(a: &Analysis, s: Shading, solving: bool) -> Option<Result<Field, Wh
             Some(_) => Why::Failed,
         }));
     };
-    let (peak, values, figure) = match s {
-        Shading::Tau => (shear.tau_max, samples.tau, ShearFigure::TauMax),
+    let (peak, away, values, figure) = match s {
+        Shading::Tau => (
+            shear.tau_max,
+            shear.tau_away,
+            samples.tau,
+            ShearFigure::TauMax,
+        ),
         _ => (
             shear.von_mises_max,
+            shear.von_mises_away,
             samples.von_mises,
             ShearFigure::VonMises,
         ),
@@ -151,11 +184,23 @@ pub fn field(a: &Analysis, s: Shading, solving: bool) -> Option<Result<Field, Wh
         matches!(w, Warning::ShearAboveTolerance { figures, cause: ShearCause::SharpCorner }
             if figures.contains(&figure))
     });
-    Some(match (peak, values) {
-        (Some(peak), Some(values)) => Ok(Field {
+    let corners = || -> Vec<Pt> {
+        (a.flexure().into_iter())
+            .flat_map(|f| f.corners().iter().map(|c| c.at))
+            .collect()
+    };
+    Some(match (peak, away, values) {
+        (Some(peak), _, Some(values)) => Ok(Field {
             at: samples.at,
             values,
             peak,
+            corners: Vec::new(),
+        }),
+        (None, Some(peak), Some(values)) if singular => Ok(Field {
+            at: samples.at,
+            values,
+            peak,
+            corners: corners(),
         }),
         _ if singular => Err(Why::Singular),
         _ => Err(Why::Untrusted),
@@ -167,6 +212,10 @@ pub fn field(a: &Analysis, s: Shading, solving: bool) -> Option<Result<Field, Wh
 pub fn status(a: &Analysis, s: Shading, solving: bool) -> String {
     match field(a, s, solving) {
         None => "drawing not shaded".to_string(),
+        Some(Ok(f)) if f.away() => format!(
+            "shaded by {} away from the sharp corners (singular at the marked ones)",
+            s.name(),
+        ),
         Some(Ok(_)) => format!("drawing shaded by {}", s.name()),
         Some(Err(why)) => format!("{} not shaded: {}", s.name(), why.words()),
     }

@@ -204,6 +204,9 @@ pub fn render(app: &App, area: Rect, buf: &mut Buffer) {
         th.glyph("⊕", "+").chars().next().unwrap_or('+'),
     );
     if let Some(f) = field {
+        for c in &f.corners {
+            mark(&mut r, c.x, c.y, shade::corner_glyph(th.ascii));
+        }
         mark(
             &mut r,
             f.peak.at.x,
@@ -342,8 +345,13 @@ fn shade_keys(app: &App, shaded: &Shaded) -> Vec<String> {
         out.push(format!("{ch} {}–{}", num(lo * max), num(hi * max)));
     }
     let at = |x: f64| u.num(u.geo(x, 1), 4);
+    let top = if f.away() {
+        "max away from the sharp corners"
+    } else {
+        "max"
+    };
     out.push(format!(
-        "{} max {} {} at ({}, {}) {}",
+        "{} {top} {} {} at ({}, {}) {}",
         shade::peak_glyph(app.theme.ascii),
         num(max),
         su.name,
@@ -351,6 +359,12 @@ fn shade_keys(app: &App, shaded: &Shaded) -> Vec<String> {
         at(f.peak.at.y),
         u.length.name()
     ));
+    if f.away() {
+        out.push(format!(
+            "{} sharp re-entrant corner: singular, unbounded in the elastic model",
+            shade::corner_glyph(app.theme.ascii)
+        ));
+    }
     out
 }
 
