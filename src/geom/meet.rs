@@ -153,11 +153,8 @@ impl Edge {
     /// `tol`; a point pushed twice or a touch without a crossing only cuts a piece in two.
     pub fn cuts(&self, o: &Edge, tol: f64, out: &mut Vec<f64>) {
         let mut push = |p: Pt| {
-            if !(o.dist(p) <= tol) {
-                return;
-            }
             let (t, q) = self.nearest(p);
-            if t > 0.0 && t < 1.0 && q.dist(p) <= tol {
+            if t > 0.0 && t < 1.0 && q.dist(p) <= tol && o.dist(p) <= tol {
                 out.push(t);
             }
         };
@@ -216,7 +213,7 @@ impl Edge {
 fn line_circle(a: Pt, b: Pt, c: Pt, r: f64, tol: f64) -> [Option<Pt>; 2] {
     let d = b.sub(a);
     let len2 = d.x * d.x + d.y * d.y;
-    if !(len2 > 0.0) {
+    if len2.is_nan() || len2 <= 0.0 {
         return [None, None];
     }
     let m = a.sub(c);
@@ -236,7 +233,7 @@ fn line_circle(a: Pt, b: Pt, c: Pt, r: f64, tol: f64) -> [Option<Pt>; 2] {
 fn circle_circle(c1: Pt, r1: f64, c2: Pt, r2: f64, tol: f64) -> [Option<Pt>; 2] {
     let v = c2.sub(c1);
     let d = v.x.hypot(v.y);
-    if !(d > 0.0) || d > r1 + r2 + tol || d < (r1 - r2).abs() - tol {
+    if d.is_nan() || d <= 0.0 || d > r1 + r2 + tol || d < (r1 - r2).abs() - tol {
         return [None, None];
     }
     let a = (d * d + r1 * r1 - r2 * r2) / (2.0 * d);
