@@ -114,7 +114,7 @@ fn calc_one(args: &CalcArgs, path: &Path) -> Result<String, String> {
     let u = args.written.units(a.section.units, args.units);
     let name = path.display().to_string();
     Ok(if args.json {
-        let mut line = to_json(&name, &a, &u).to_string();
+        let mut line = to_json(&name, &a, &u);
         line.push('\n');
         line
     } else {
