@@ -33,84 +33,70 @@ impl Writer {
         Writer::default()
     }
 
-    fn sep(&mut self) {
+    /// Writes `text` where a value, a key or an opening bracket goes: after a comma
+    /// if a value ended just before; `ends` says whether a value ends with it (not
+    /// after a key or an opening bracket).
+    fn put(&mut self, text: impl FnOnce(&mut Vec<u8>), ends: bool) -> &mut Writer {
         if self.comma {
             self.buf.push(b',');
         }
+        text(&mut self.buf);
+        self.comma = ends;
+        self
+    }
+
+    /// A closing bracket: the object or array it closes is a value that has ended.
+    fn end(&mut self, bracket: u8) -> &mut Writer {
+        self.buf.push(bracket);
+        self.comma = true;
+        self
     }
 
     /// Opens an object (as a value: after a key, in an array or at the top).
     pub fn open(&mut self) -> &mut Writer {
-        self.sep();
-        self.buf.push(b'{');
-        self.comma = false;
-        self
+        self.put(|b| b.push(b'{'), false)
     }
 
     pub fn close(&mut self) -> &mut Writer {
-        self.buf.push(b'}');
-        self.comma = true;
-        self
+        self.end(b'}')
     }
 
     pub fn open_array(&mut self) -> &mut Writer {
-        self.sep();
-        self.buf.push(b'[');
-        self.comma = false;
-        self
+        self.put(|b| b.push(b'['), false)
     }
 
     pub fn close_array(&mut self) -> &mut Writer {
-        self.buf.push(b']');
-        self.comma = true;
-        self
+        self.end(b']')
     }
 
     /// The key of the next member of the open object.
     pub fn key(&mut self, k: &str) -> &mut Writer {
-        self.sep();
-        self.string(k);
-        self.buf.push(b':');
-        self.comma = false;
-        self
+        self.put(
+            |b| {
+                string(b, k);
+                b.push(b':');
+            },
+            false,
+        )
     }
 
     pub fn str(&mut self, s: &str) -> &mut Writer {
-        self.sep();
-        self.string(s);
-        self.comma = true;
-        self
+        self.put(|b| string(b, s), true)
     }
 
     /// A float as serde_json writes an `f64` (the shortest text that reads back to the
     /// same value; `null` for NaN and the infinities, as `json!(x)` gave).
     pub fn num(&mut self, x: f64) -> &mut Writer {
-        self.sep();
         // Into a Vec, a number cannot fail to be written.
-        let _ = serde_json::to_writer(&mut self.buf, &x);
-        self.comma = true;
-        self
+        self.put(|b| drop(serde_json::to_writer(b, &x)), true)
     }
 
     pub fn count(&mut self, n: usize) -> &mut Writer {
-        self.sep();
-        let _ = serde_json::to_writer(&mut self.buf, &n);
-        self.comma = true;
-        self
+        self.put(|b| drop(serde_json::to_writer(b, &n)), true)
     }
 
     pub fn null(&mut self) -> &mut Writer {
-        self.sep();
-        self.buf.extend_from_slice(b"null");
-        self.comma = true;
-        self
-    }
-
-    /// `s` quoted and escaped by serde_json itself (one definition of JSON's escaping:
-    /// the crate's, as before this writer).
-    fn string(&mut self, s: &str) {
-        // Into a Vec, a string cannot fail to be written.
-        let _ = serde_json::to_writer(&mut self.buf, s);
+        self.put(|b| b.extend_from_slice(b"null"), true)
     }
 
     /// The text written.
@@ -119,6 +105,13 @@ impl Writer {
         String::from_utf8(self.buf)
             .unwrap_or_else(|e| String::from_utf8_lossy(e.as_bytes()).into_owned())
     }
+}
+
+/// `s` quoted and escaped by serde_json itself (one definition of JSON's escaping: the
+/// crate's, as before this writer).
+fn string(buf: &mut Vec<u8>, s: &str) {
+    // Into a Vec, a string cannot fail to be written.
+    drop(serde_json::to_writer(buf, s));
 }
 
 /// One key of the quantities' objects: its name, the quantity written at exactly
