@@ -97,7 +97,7 @@ fn bench_batch(c: &mut Criterion) {
                 .iter()
                 .map(|a| {
                     let u = OutUnits::new(a.section.units, None);
-                    to_json("member.toml", black_box(a), &u).to_string().len()
+                    to_json("member.toml", black_box(a), &u).len()
                 })
                 .sum::<usize>()
         })

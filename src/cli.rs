@@ -14,6 +14,7 @@ pub use crate::file::load::{diagnostic_line, load, say};
 use crate::file::save::{save, Overwrite, SaveError};
 use crate::model::units::LengthUnit;
 use crate::numfmt::Numbers;
+use crate::parallel::parallel_for_each as for_each_in_order;
 pub use crate::parallel::parallel_map;
 use crate::report::out::OutUnits;
 use crate::report::rows::Notation;
@@ -81,30 +82,90 @@ fn print_all<'a>(texts: impl IntoIterator<Item = &'a str>) -> i32 {
         .and_then(|()| out.flush());
     match written {
         Ok(()) => 0,
-        Err(e) if e.kind() == ErrorKind::BrokenPipe => 0,
-        Err(e) => {
-            say(&format!("kern: cannot write the output: {e}"));
-            1
-        }
+        Err(e) => write_failed(&e, say),
     }
 }
 
-/// `kern calc`: prints a table (or one JSON line) per file, in input order; invalid
-/// files print `FILE:LINE:COLUMN: message` on stderr and make the status 2; a file whose
-/// analysis failed inside kern prints `FILE: internal error: …` and makes the status 1
-/// (which wins over 2: it is kern's fault, not the file's). Each worker thread lays out
-/// the files it computed.
-pub fn calc(args: &CalcArgs) -> i32 {
-    let results = parallel_map(&args.files, |p| calc_one(args, p));
-    let done = calc_output(args, results);
-    for line in &done.errors {
-        say(line);
+/// The status of output that could not be written: 0 when the reader has gone (a
+/// closed pipe), else 1 with a message through `say`.
+fn write_failed(e: &std::io::Error, mut say: impl FnMut(&str)) -> i32 {
+    if e.kind() == ErrorKind::BrokenPipe {
+        0
+    } else {
+        say(&format!("kern: cannot write the output: {e}"));
+        1
     }
-    let caution = (!args.json && !done.out.is_empty()).then_some(["\n", CAUTION, "\n"]);
-    let texts = done.out.iter().map(String::as_str);
-    match print_all(texts.chain(caution.into_iter().flatten())) {
-        0 => done.status,
-        failed => failed,
+}
+
+/// `kern calc`: prints a table (or one JSON line) per file, in input order, each as
+/// soon as it and the files before it are done (at most [`crate::parallel::WINDOW`]
+/// wait, so a huge batch stays in bounded memory); invalid files print
+/// `FILE:LINE:COLUMN: message` on stderr and make the status 2; a file whose analysis
+/// failed inside kern prints `FILE: internal error: …` and makes the status 1 (which
+/// wins over 2: it is kern's fault, not the file's). Each worker thread lays out the
+/// files it computed; the calling thread writes them through one buffered, locked
+/// stdout. When the output cannot be written (the reader has gone) no more files are
+/// started.
+pub fn calc(args: &CalcArgs) -> i32 {
+    let out = std::io::BufWriter::new(std::io::stdout().lock());
+    calc_into(args, |p| calc_one(args, p), out, say)
+}
+
+/// [`calc`] with each file's work `one`, the output `out` and the error lines to `say`.
+fn calc_into(
+    args: &CalcArgs,
+    one: impl Fn(&PathBuf) -> Result<String, String> + Sync,
+    mut out: impl Write,
+    mut say: impl FnMut(&str),
+) -> i32 {
+    let mut status = 0;
+    let mut printed = false;
+    let mut failed = None;
+    for_each_in_order(&args.files, one, |i, r| {
+        match r {
+            Err(panic) => {
+                say(&format!(
+                    "{}: internal error: {panic}; please report it with this file",
+                    args.files[i].display()
+                ));
+                status = 1;
+            }
+            Ok(Err(line)) => {
+                say(&line);
+                if status == 0 {
+                    status = 2;
+                }
+            }
+            Ok(Ok(text)) => {
+                // Tables are separated by a blank line.
+                let gap = if !args.json && printed { "\n" } else { "" };
+                printed = true;
+                if let Err(e) = out
+                    .write_all(gap.as_bytes())
+                    .and_then(|()| out.write_all(text.as_bytes()))
+                {
+                    failed = Some(e);
+                    return false;
+                }
+            }
+        }
+        true
+    });
+    let caution = if !args.json && printed {
+        ["\n", CAUTION, "\n"].concat()
+    } else {
+        String::new()
+    };
+    let written = match failed {
+        Some(e) => Err(e),
+        None => out.write_all(caution.as_bytes()).and_then(|()| out.flush()),
+    };
+    match written {
+        Ok(()) => status,
+        Err(e) => match write_failed(&e, say) {
+            0 => status,
+            failed => failed,
+        },
     }
 }
 
@@ -114,56 +175,12 @@ fn calc_one(args: &CalcArgs, path: &Path) -> Result<String, String> {
     let u = args.written.units(a.section.units, args.units);
     let name = path.display().to_string();
     Ok(if args.json {
-        let mut line = to_json(&name, &a, &u).to_string();
+        let mut line = to_json(&name, &a, &u);
         line.push('\n');
         line
     } else {
         to_table(&name, &a, &u)
     })
-}
-
-/// What `kern calc` prints and returns: the texts of the files that computed, in
-/// order (tables separated by a blank line), the error lines, and the status.
-struct CalcOutput {
-    out: Vec<String>,
-    errors: Vec<String>,
-    status: i32,
-}
-
-/// Lays out the results of `kern calc`, one per file of `args.files` in order.
-fn calc_output(
-    args: &CalcArgs,
-    results: Vec<Result<Result<String, String>, String>>,
-) -> CalcOutput {
-    let mut done = CalcOutput {
-        out: Vec::new(),
-        errors: Vec::new(),
-        status: 0,
-    };
-    for (path, r) in args.files.iter().zip(results) {
-        match r {
-            Err(panic) => {
-                done.errors.push(format!(
-                    "{}: internal error: {panic}; please report it with this file",
-                    path.display()
-                ));
-                done.status = 1;
-            }
-            Ok(Ok(mut text)) => {
-                if !args.json && !done.out.is_empty() {
-                    text.insert(0, '\n');
-                }
-                done.out.push(text);
-            }
-            Ok(Err(line)) => {
-                done.errors.push(line);
-                if done.status == 0 {
-                    done.status = 2;
-                }
-            }
-        }
-    }
-    done
 }
 
 /// Options of `kern report`.
@@ -315,24 +332,29 @@ mod tests {
             json: true,
             ..CalcArgs::default()
         };
-        let results = parallel_map(&files, |p| {
-            if p == &files[2] {
-                panic!("injected");
-            }
-            calc_one(&args, p)
-        });
-        let done = calc_output(&args, results);
-        assert_eq!(done.status, 1);
+        let mut out = Vec::new();
+        let mut errors = Vec::new();
+        let status = calc_into(
+            &args,
+            |p| {
+                if p == &files[2] {
+                    panic!("injected");
+                }
+                calc_one(&args, p)
+            },
+            &mut out,
+            |l| errors.push(l.to_string()),
+        );
+        assert_eq!(status, 1);
         assert_eq!(
-            done.errors,
+            errors,
             vec![format!(
                 "{}: internal error: injected; please report it with this file",
                 files[2].display()
             )]
         );
-        let lines: Vec<serde_json::Value> = done
-            .out
-            .concat()
+        let lines: Vec<serde_json::Value> = String::from_utf8(out)
+            .unwrap()
             .lines()
             .map(|l| serde_json::from_str(l).unwrap())
             .collect();

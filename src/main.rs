@@ -32,7 +32,10 @@ struct Cli {
     notation: Option<Notation>,
 }
 
+/// Each verb's arguments are built only when that verb runs (`defer`): a start builds
+/// the names and summaries of all, and the arguments of one.
 #[derive(Subcommand)]
+#[command(defer = true)]
 enum Verb {
     /// Compute every property of one or more section files.
     Calc {

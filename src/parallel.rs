@@ -2,8 +2,9 @@
 //! in the sensitivities): scoped threads on every core (or `KERN_JOBS` of them), results in input order, a
 //! panic caught per item. It names nothing of the crate, so every layer may use it.
 
+use std::collections::VecDeque;
 use std::panic::{catch_unwind, AssertUnwindSafe};
-use std::sync::atomic::{AtomicUsize, Ordering};
+use std::sync::{Condvar, Mutex, MutexGuard, PoisonError};
 
 /// The most worker threads `KERN_JOBS` may ask for.
 const MAX_JOBS: usize = 256;
@@ -18,48 +19,154 @@ fn jobs() -> usize {
         .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get()))
 }
 
+/// How many results may be computed ahead of the one [`parallel_for_each`] hands on
+/// next (waiting for their turn, or in work): what a huge batch keeps in memory at once.
+pub const WINDOW: usize = 64;
+
 /// Runs `f` over `items` on [`jobs`] threads, keeping the input order of the results.
 /// A panic in `f` is caught for its item alone: that slot holds the panic's message.
 pub fn parallel_map<T: Sync, R: Send>(
     items: &[T],
     f: impl Fn(&T) -> R + Sync,
 ) -> Vec<Result<R, String>> {
+    let mut out = Vec::with_capacity(items.len());
+    parallel_for_each(items, f, |_, r| {
+        out.push(r);
+        true
+    });
+    out
+}
+
+/// Runs `f` over `items` on [`jobs`] threads and hands each result to `take` on the
+/// calling thread, in input order, as soon as it and every one before it are done (so
+/// `take` may write to a locked stdout). At most [`WINDOW`] items are computed ahead
+/// of the one `take` gets next. `take` returns `false` to stop: no item is started
+/// after that. A panic in `f` is caught for its item alone: `take` gets its message.
+pub fn parallel_for_each<T: Sync, R: Send>(
+    items: &[T],
+    f: impl Fn(&T) -> R + Sync,
+    mut take: impl FnMut(usize, Result<R, String>) -> bool,
+) {
+    let one = |item: &T| {
+        catch_unwind(AssertUnwindSafe(|| f(item))).map_err(|p| panic_message(p.as_ref()))
+    };
     // One item needs no thread count (that reads the environment and the cgroup files).
     let workers = if items.len() <= 1 {
         1
     } else {
         jobs().min(items.len())
     };
-    let next = AtomicUsize::new(0);
-    let mut slots: Vec<Option<Result<R, String>>> = Vec::new();
-    slots.resize_with(items.len(), || None);
-    let run = || {
-        let mut mine = Vec::new();
-        loop {
-            let i = next.fetch_add(1, Ordering::Relaxed);
-            let Some(item) = items.get(i) else { break };
-            let r = catch_unwind(AssertUnwindSafe(|| f(item)));
-            mine.push((i, r.map_err(|p| panic_message(p.as_ref()))));
-        }
-        mine
-    };
-    let done: Vec<Vec<(usize, Result<R, String>)>> = if workers <= 1 {
+    if workers <= 1 {
         // One worker: no thread to start (a short batch stays cheap).
-        vec![run()]
-    } else {
-        std::thread::scope(|s| {
-            let handles: Vec<_> = (0..workers).map(|_| s.spawn(run)).collect();
-            // Every panic is caught above, so a worker always returns its results.
-            handles.into_iter().filter_map(|h| h.join().ok()).collect()
-        })
-    };
-    for (i, r) in done.into_iter().flatten() {
-        slots[i] = Some(r);
+        for (i, item) in items.iter().enumerate() {
+            if !take(i, one(item)) {
+                return;
+            }
+        }
+        return;
     }
-    slots
-        .into_iter()
-        .map(|s| s.unwrap_or_else(|| Err("the worker thread stopped".into())))
-        .collect()
+    let queue = Queue {
+        state: Mutex::new(State {
+            waiting: VecDeque::new(),
+            taken: 0,
+            started: 0,
+            stop: false,
+        }),
+        room: Condvar::new(),
+        done: Condvar::new(),
+    };
+    std::thread::scope(|s| {
+        for _ in 0..workers {
+            s.spawn(|| {
+                while let Some(i) = queue.start(items.len()) {
+                    queue.finish(i, one(&items[i]));
+                }
+            });
+        }
+        while let Some((i, r)) = queue.next(items.len()) {
+            if !take(i, r) {
+                queue.stop();
+                break;
+            }
+        }
+    });
+}
+
+/// The items of a [`parallel_for_each`] between the one taken next and the last one
+/// started, with what the threads wait on.
+struct Queue<R> {
+    state: Mutex<State<R>>,
+    /// Signalled when an item may be started (a result taken) or the run stops.
+    room: Condvar,
+    /// Signalled when the result to take next is done.
+    done: Condvar,
+}
+
+struct State<R> {
+    /// The results of items `taken..started`, `None` while in work.
+    waiting: VecDeque<Option<Result<R, String>>>,
+    taken: usize,
+    started: usize,
+    stop: bool,
+}
+
+impl<R> Queue<R> {
+    /// The state; a poisoned lock is taken as it is (nothing panics while holding it).
+    fn lock(&self) -> MutexGuard<'_, State<R>> {
+        self.state.lock().unwrap_or_else(PoisonError::into_inner)
+    }
+
+    /// The next of `len` items for a worker to compute, once the window has room;
+    /// `None` when every item is started or the run stops.
+    fn start(&self, len: usize) -> Option<usize> {
+        let mut st = self.lock();
+        loop {
+            if st.stop || st.started >= len {
+                return None;
+            }
+            if st.started - st.taken < WINDOW {
+                let i = st.started;
+                st.started += 1;
+                st.waiting.push_back(None);
+                return Some(i);
+            }
+            st = self.room.wait(st).unwrap_or_else(PoisonError::into_inner);
+        }
+    }
+
+    /// Item `i` is done with `r`.
+    fn finish(&self, i: usize, r: Result<R, String>) {
+        let mut st = self.lock();
+        let at = i - st.taken;
+        st.waiting[at] = Some(r);
+        if at == 0 {
+            self.done.notify_one();
+        }
+    }
+
+    /// The next result in input order, once it is done; `None` after the last of `len`.
+    fn next(&self, len: usize) -> Option<(usize, Result<R, String>)> {
+        let mut st = self.lock();
+        loop {
+            if st.taken >= len {
+                return None;
+            }
+            if let Some(Some(_)) = st.waiting.front() {
+                let r = st.waiting.pop_front().flatten()?;
+                let i = st.taken;
+                st.taken += 1;
+                self.room.notify_one();
+                return Some((i, r));
+            }
+            st = self.done.wait(st).unwrap_or_else(PoisonError::into_inner);
+        }
+    }
+
+    /// No item is started after this.
+    fn stop(&self) {
+        self.lock().stop = true;
+        self.room.notify_all();
+    }
 }
 
 /// The text of a panic's payload.
@@ -96,5 +203,36 @@ mod tests {
             }
         }
         assert_eq!(r.iter().filter(|x| x.is_err()).count(), 2);
+    }
+
+    /// Results come in input order while no item starts more than [`WINDOW`] ahead of
+    /// the one taken next, and a `take` that says stop starts nothing more.
+    #[test]
+    fn results_come_in_order_within_the_window_and_stop_on_request() {
+        use std::sync::atomic::{AtomicUsize, Ordering};
+        std::env::set_var("KERN_JOBS", "2");
+        let items: Vec<usize> = (0..1000).collect();
+        let taken = AtomicUsize::new(0);
+        let ahead = AtomicUsize::new(0);
+        let started = AtomicUsize::new(0);
+        let mut order = Vec::new();
+        parallel_for_each(
+            &items,
+            |&i| {
+                started.fetch_add(1, Ordering::SeqCst);
+                ahead.fetch_max(i - taken.load(Ordering::SeqCst), Ordering::SeqCst);
+                i * 2
+            },
+            |i, r| {
+                order.push((i, r.unwrap()));
+                taken.store(i + 1, Ordering::SeqCst);
+                i < 599
+            },
+        );
+        assert_eq!(order, (0..600).map(|i| (i, i * 2)).collect::<Vec<_>>());
+        // `taken` is stored after `take` runs, the queue counts an item taken just
+        // before: so one more than the window can show here.
+        assert!(ahead.load(Ordering::SeqCst) <= WINDOW);
+        assert!(started.load(Ordering::SeqCst) <= 600 + WINDOW);
     }
 }

@@ -361,7 +361,9 @@ fn the_crane_runway_box_prints_its_weld_flows() {
     };
     let a = kern::file::load::analyse(&text, &opts).expect("computes");
     let u = kern::report::out::OutUnits::new(a.section.units, None);
-    let j = kern::report::json::to_json("box.toml", &a, &u);
+    let j =
+        serde_json::from_str::<serde_json::Value>(&kern::report::json::to_json("box.toml", &a, &u))
+            .expect("JSON");
     let flow = |x: &str, y: &str| {
         let c = (j["connections"].as_array().expect("connections").iter())
             .find(|c| c["parts"][0] == x && c["parts"][1] == y)

@@ -190,7 +190,12 @@ fn flitch_beam_each_material_against_its_own_fy() {
 fn net_section_json_keys() {
     let a = calc(PLATE);
     let u = kern::report::out::OutUnits::new(a.section.units, None);
-    let j = kern::report::json::to_json("plate.toml", &a, &u);
+    let j = serde_json::from_str::<serde_json::Value>(&kern::report::json::to_json(
+        "plate.toml",
+        &a,
+        &u,
+    ))
+    .expect("JSON");
     let ah = PI * 100.0;
     close(j["area"].as_f64().unwrap(), 20_000.0, 1e-12);
     close(

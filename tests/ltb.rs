@@ -306,7 +306,9 @@ fn json_carries_beta_and_mcr() {
     )
     .unwrap();
     let u = kern::report::out::OutUnits::new(a.section.units, None);
-    let j = kern::report::json::to_json("g.toml", &a, &u);
+    let j =
+        serde_json::from_str::<serde_json::Value>(&kern::report::json::to_json("g.toml", &a, &u))
+            .expect("JSON");
     let bx = j["torsion"]["beta"]["x"].as_f64().unwrap();
     assert!(j["torsion"]["beta"]["y"].as_f64().unwrap().abs() < 1e-3);
     close(j["member"]["beta_x"].as_f64().unwrap(), bx, 1e-12);

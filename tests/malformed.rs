@@ -737,7 +737,7 @@ fn survives(text: &str) {
                 assert!(v.is_finite(), "{v} from\n{text}");
             }
             let u = kern::report::out::OutUnits::new(a.section.units, None);
-            let j = kern::report::json::to_json("f.toml", &a, &u).to_string();
+            let j = kern::report::json::to_json("f.toml", &a, &u);
             assert!(serde_json::from_str::<serde_json::Value>(&j).is_ok());
         }
     }

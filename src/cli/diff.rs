@@ -10,12 +10,11 @@ use crate::file::git::git_text;
 use crate::iterate::compare::{compare, Trend};
 use crate::model::units::LengthUnit;
 use crate::numfmt::change;
-use crate::report::json::to_json;
+use crate::report::json::{members, Writer};
 use crate::report::out::OutUnits;
 use crate::report::table::FIGURES;
 use crate::report::CAUTION;
 use crate::text::clean;
-use serde_json::json;
 use std::path::{Path, PathBuf};
 
 /// Options of `kern diff`.
@@ -61,8 +60,16 @@ pub fn diff(args: &DiffArgs) -> i32 {
     let ua = args.written.units(a.section.units, args.units);
     let out = if args.json {
         let ub = OutUnits::new(b.section.units, Some(ua.length));
-        let o = json!({ "a": to_json(&sa.name, &a, &ua), "b": to_json(&sb.name, &b, &ub) });
-        format!("{o}\n")
+        let mut w = Writer::new();
+        w.open();
+        w.key("a").open();
+        members(&mut w, &sa.name, &a, &ua);
+        w.close().key("b").open();
+        members(&mut w, &sb.name, &b, &ub);
+        w.close().close();
+        let mut o = w.finish();
+        o.push('\n');
+        o
     } else {
         table(&sa.name, &sb.name, &a, &b, &ua)
     };

@@ -12,8 +12,7 @@ use crate::iterate::target::parse_value;
 use crate::iterate::vary::{needs_torsion, read, result_key};
 use crate::iterate::Probe;
 use crate::numfmt::{plain, sig};
-use crate::report::json::to_json;
-use serde_json::json;
+use crate::report::json::{members, Writer};
 use std::path::PathBuf;
 
 /// Options of `kern seek`.
@@ -106,12 +105,14 @@ pub fn seek(args: &SeekArgs) -> i32 {
     };
     let mut out = String::new();
     if args.json {
-        let o = json!({
-            "param": args.param,
-            "value": solved.value,
-            "result": to_json(&src.name, &solved.analysis, &u),
-        });
-        out.push_str(&o.to_string());
+        let mut w = Writer::new();
+        w.open();
+        w.key("param").str(&args.param);
+        w.key("value").num(solved.value);
+        w.key("result").open();
+        members(&mut w, &src.name, &solved.analysis, &u);
+        w.close().close();
+        out.push_str(&w.finish());
         out.push('\n');
     } else {
         out.push_str(&src.say_line(&format!(

@@ -9,9 +9,8 @@ use crate::iterate::sweep::{sweep as run, values};
 use crate::iterate::vary::{read, result_key};
 use crate::iterate::Probe;
 use crate::numfmt::plain;
-use crate::report::json::to_json;
+use crate::report::json::{members, Writer};
 use crate::report::rows::Quantity;
-use serde_json::json;
 use std::path::PathBuf;
 
 /// The results a sweep shows when no `--result` is given (those the section has).
@@ -121,9 +120,14 @@ pub fn sweep(args: &SweepArgs) -> i32 {
     let mut out = String::new();
     if args.json {
         for (x, a) in &ok {
-            let mut o = to_json(&src.name, a, &u);
-            o["sweep"] = json!({ "param": args.param, "value": x });
-            out.push_str(&o.to_string());
+            let mut w = Writer::new();
+            w.open();
+            members(&mut w, &src.name, a, &u);
+            w.key("sweep").open();
+            w.key("param").str(&args.param);
+            w.key("value").num(*x);
+            w.close().close();
+            out.push_str(&w.finish());
             out.push('\n');
         }
     } else if args.csv {
