@@ -905,6 +905,33 @@ impl Mesh {
         }
     }
 
+    /// The prolongation from the linear (3-node) elements on this mesh's corners onto
+    /// its 6-node elements: a corner keeps its value, a mid-side node takes the mean of
+    /// its side's two ends (the linear field there; exact on a straight side). `None`
+    /// unless the corners are numbered before the mid-side nodes, as [`base`] numbers
+    /// them, and every node is a corner or a mid-side node of some element.
+    pub fn corner_prolongation(&self) -> Option<Prolong> {
+        let corners = (self.elems.iter())
+            .flat_map(|e| e[..3].iter())
+            .max()
+            .map_or(0, |&c| c as usize + 1);
+        let mids = self.nodes.len().checked_sub(corners)?;
+        let mut rows = vec![[(0u32, 0.0); 6]; mids];
+        let mut set = vec![false; mids];
+        for e in &self.elems {
+            for k in 0..3 {
+                let (a, b) = (e[k], e[(k + 1) % 3]);
+                let i = (e[3 + k] as usize).checked_sub(corners)?;
+                rows[i] = [(a, 0.5), (b, 0.5), (a, 0.0), (a, 0.0), (a, 0.0), (a, 0.0)];
+                set[i] = true;
+            }
+        }
+        set.iter().all(|&s| s).then_some(Prolong {
+            coarse: corners,
+            rows,
+        })
+    }
+
     /// The prolongation onto this mesh's refinement `fine`: the quadratic field of each
     /// parent element at its children's new nodes (exact for straight elements, whose
     /// finer space holds the coarser one).

@@ -22,7 +22,8 @@
 //! and a warning says how many corners were kept.
 //!
 //! Method: 6-node triangles ([`p2`]) on a quality mesh of the region ([`mesh`]); the
-//! base mesh solved directly, each refinement by conjugate gradients with a multigrid
+//! base mesh solved directly (a large one by conjugate gradients over its linear
+//! elements, [`torsion`](mod@torsion)), each refinement by conjugate gradients with a multigrid
 //! V-cycle over the nested meshes as preconditioner ([`solve`]); J, the shear centre
 //! (Trefftz) and Cw on each mesh ([`torsion`](mod@torsion)). The mesh is refined by
 //! splitting every triangle into four until the estimated error is below the

@@ -289,8 +289,8 @@ mod tests {
             let g = at(&p, &rule, q).expect("valid element");
             for i in 0..6 {
                 fq[i] += g.da * (g.y * g.gx[i] - g.x * g.gy[i]);
-                for j in 0..6 {
-                    kq[i][j] += g.da * (g.gx[i] * g.gx[j] + g.gy[i] * g.gy[j]);
+                for (j, v) in kq[i].iter_mut().enumerate() {
+                    *v += g.da * (g.gx[i] * g.gx[j] + g.gy[i] * g.gy[j]);
                 }
             }
         }

@@ -16,6 +16,8 @@
 //! - The base mesh is solved directly: reverse Cuthill–McKee ordering and an envelope
 //!   (profile) Cholesky factor (George & Liu, Computer Solution of Large Sparse Positive
 //!   Definite Systems, 1981, ch. 4), which also serves as the V-cycle's coarsest solve.
+//!   A large base mesh is iterated instead, with the Galerkin product Pᵀ·A·P of its
+//!   linear (3-node) elements factored beneath it ([`Csr::galerkin`]).
 //!   A refinement whose factor is cheap (at most `DIRECT_FLOPS_PER_ENTRY`
 //!   multiply-adds per matrix entry) is factored too and becomes the coarsest level.
 //!
@@ -152,6 +154,60 @@ impl Csr {
             val: vec![0.0; nnz],
             diag,
         }
+    }
+
+    /// The Galerkin coarse matrix Pᵀ·A·P (Briggs, Henson & McCormick, A Multigrid
+    /// Tutorial, 2nd ed., ch. 5), for a prolongation whose rows couple only coarse
+    /// nodes that A already couples among its first `p.coarse` rows, as the corner
+    /// prolongation does (a mid-side node's two ends share its element): the coarse
+    /// pattern is A's restricted to those rows and columns. `None` when an entry falls
+    /// outside it or the sizes differ.
+    pub fn galerkin(&self, p: &Prolong) -> Option<Csr> {
+        let (n, nc) = (self.rows(), p.coarse);
+        if p.fine() != n || nc > n {
+            return None;
+        }
+        let mut ptr = Vec::with_capacity(nc + 1);
+        ptr.push(0);
+        let (mut col, mut diag) = (Vec::new(), Vec::with_capacity(nc));
+        for i in 0..nc {
+            let r = &self.col[self.ptr[i]..self.ptr[i + 1]];
+            let keep = r.partition_point(|&c| (c as usize) < nc);
+            diag.push(col.len() + self.diag[i] - self.ptr[i]);
+            col.extend_from_slice(&r[..keep]);
+            ptr.push(col.len());
+        }
+        let val = vec![0.0; col.len()];
+        let mut c = Csr {
+            ptr,
+            col,
+            val,
+            diag,
+        };
+        // Row i of P: the coarse nodes and weights it takes.
+        let row = |i: usize| -> ([(u32, f64); 6], usize) {
+            match i.checked_sub(nc) {
+                None => ([(i as u32, 1.0); 6], 1),
+                Some(k) => (p.rows[k], 6),
+            }
+        };
+        for i in 0..n {
+            let (ri, ni) = row(i);
+            for k in self.ptr[i]..self.ptr[i + 1] {
+                let v = self.val[k];
+                if v == 0.0 {
+                    continue;
+                }
+                let (rj, nj) = row(self.col[k] as usize);
+                for &(a, wa) in ri[..ni].iter().filter(|t| t.1 != 0.0) {
+                    for &(b, wb) in rj[..nj].iter().filter(|t| t.1 != 0.0) {
+                        let at = c.find(a as usize, b)?;
+                        c.val[at] += wa * wb * v;
+                    }
+                }
+            }
+        }
+        Some(c)
     }
 
     pub fn rows(&self) -> usize {
@@ -560,7 +616,7 @@ const DIRECT_FLOPS_PER_ENTRY: f64 = 40.0;
 /// Refinements with more rows than this are not considered for a direct factor (its
 /// ordering alone would cost a good part of an iterative solve, and the factor of a
 /// 2-D mesh grows faster than its rows).
-const DIRECT_MAX_ROWS: usize = 8_000;
+pub const DIRECT_MAX_ROWS: usize = 8_000;
 
 impl Multigrid {
     /// Starts the hierarchy at the base mesh's matrix.
@@ -849,6 +905,48 @@ mod tests {
             Csr::assemble(10, &elems, |k| if k == 1 { Err(k) } else { Ok(ke(k)) }).err(),
             Some(1)
         );
+    }
+
+    #[test]
+    fn galerkin_product_is_p_transpose_a_p() {
+        // Against the dense product Pᵀ·A·P formed entry by entry.
+        let (a, _) = small();
+        let p = Prolong {
+            coarse: 4,
+            rows: vec![
+                [(1, 0.5), (2, 0.5), (0, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
+                [(3, 0.5), (1, 0.5), (0, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
+                [(2, 0.5), (3, 0.5), (0, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
+            ],
+        };
+        let c = a.galerkin(&p).expect("pattern holds it");
+        let dense = |m: &Csr, i: usize, j: usize| m.find(i, j as u32).map_or(0.0, |k| m.val[k]);
+        let pm = |i: usize, j: usize| {
+            if i < 4 {
+                f64::from(u8::from(i == j))
+            } else {
+                p.rows[i - 4]
+                    .iter()
+                    .filter(|t| t.0 as usize == j)
+                    .map(|t| t.1)
+                    .sum()
+            }
+        };
+        for i in 0..4 {
+            for j in 0..4 {
+                let mut s = 0.0;
+                for k in 0..7 {
+                    for l in 0..7 {
+                        s += pm(k, i) * dense(&a, k, l) * pm(l, j);
+                    }
+                }
+                assert!(
+                    (dense(&c, i, j) - s).abs() < 1e-12,
+                    "({i}, {j}): {} vs {s}",
+                    dense(&c, i, j)
+                );
+            }
+        }
     }
 
     #[test]

@@ -589,3 +589,29 @@ fn base_mesh_covers_the_region_of_overlaps_voids_and_shared_edges() {
         "{by_n:?}"
     );
 }
+
+#[test]
+fn a_large_base_mesh_is_solved_in_two_levels() {
+    // A base mesh past the factor's size (solve::DIRECT_MAX_ROWS unknowns) is iterated
+    // over its linear elements; J then agrees with Saint-Venant's series for the
+    // rectangle (Timoshenko & Goodier §109) to the fine mesh's discretisation error.
+    let (b, t) = (120.0, 60.0);
+    let base = mesh::base(&solid(Shape::Rect { b, h: t }), 0.01, false).expect("meshes");
+    let m = &base.mesh;
+    assert!(
+        m.nodes.len() > solve::DIRECT_MAX_ROWS,
+        "{} nodes",
+        m.nodes.len()
+    );
+    let mut ladder = torsion::Ladder::solving(1);
+    let level = ladder.solve(m, None, None).expect("solves");
+    assert!(!ladder.solver().expect("a solver").direct());
+    assert!(
+        level.iterations > 1 && level.iterations < 60,
+        "{} iterations",
+        level.iterations
+    );
+    let exact = rect_series(b, t);
+    let err = (level.j - exact).abs() / exact;
+    assert!(err < 1e-6, "J = {} vs {exact}: {err:.1e}", level.j);
+}

@@ -210,14 +210,9 @@ fn solve(
     let mut ku = vec![0.0; nn];
     let iterations = match step {
         None => {
-            let mut mg = Multigrid::new(&k, &m.pinned, cancel).map_err(|e| match e {
-                FactorError::NotPositive => Failure::Degenerate,
-                FactorError::Cancelled => Failure::Cancelled,
-                FactorError::TooLarge { entries, flops } => Failure::TooLarge { entries, flops },
-            })?;
-            mg.expect_rhs(ladder.rhs);
+            let mg = base_solver(k, m, ladder.rhs, cancel)?;
             let it = mg.solve(&f, &mut u, RTOL, cancel)?;
-            k.mul(&u, &mut ku);
+            mg.finest().ok_or(Failure::Degenerate)?.mul(&u, &mut ku);
             ladder.mg = Some(mg);
             it
         }
@@ -342,6 +337,52 @@ fn solve(
         iterations,
     })
 }
+
+/// The solver of the base mesh's matrix `k` (pinned): its envelope factor, or, past
+/// [`TWO_LEVEL_ROWS`] unknowns, where that factor grows to most of the run (the
+/// 300-hole plate: 41,000 unknowns; DEVELOPERS.md, "Benchmark figures"), conjugate
+/// gradients with a two-level V-cycle: Gauss–Seidel on the 6-node matrix, and beneath
+/// it the linear (3-node) elements on the same corners, Pᵀ·K·P with P the corner
+/// prolongation (the linear elements' own stiffness on straight elements), factored.
+/// The solve then stops at the same relative residual as the refinements ([`RTOL`]).
+/// A mesh whose nodes do not allow it is factored as before.
+fn base_solver(
+    k: Csr,
+    m: &Mesh,
+    rhs: usize,
+    cancel: Option<&AtomicBool>,
+) -> Result<Multigrid, Failure> {
+    let factor_error = |e| match e {
+        FactorError::NotPositive => Failure::Degenerate,
+        FactorError::Cancelled => Failure::Cancelled,
+        FactorError::TooLarge { entries, flops } => Failure::TooLarge { entries, flops },
+    };
+    let coarse = (k.rows() > TWO_LEVEL_ROWS)
+        .then(|| m.corner_prolongation())
+        .flatten()
+        .and_then(|p| {
+            let mut c = k.galerkin(&p)?;
+            for &pn in &m.pinned {
+                c.pin(pn as usize);
+            }
+            Some((p, c))
+        });
+    let mut mg = match coarse {
+        Some((p, c)) => {
+            let mut mg = Multigrid::new(&c, &m.pinned, cancel).map_err(factor_error)?;
+            mg.push(p, k, cancel);
+            mg
+        }
+        None => Multigrid::new(&k, &m.pinned, cancel).map_err(factor_error)?,
+    };
+    mg.expect_rhs(rhs);
+    Ok(mg)
+}
+
+/// Unknowns past which the base mesh is solved by the two-level iteration rather than
+/// factored ([`base_solver`]): those of a refinement that is no longer considered for
+/// a factor (`solve::DIRECT_MAX_ROWS`).
+const TWO_LEVEL_ROWS: usize = super::solve::DIRECT_MAX_ROWS;
 
 /// `Ok` when the residual ‖K·u − f‖ of a solve is within the solver's tolerance, with a
 /// margin of 100 (`RTOL`); otherwise the solve stopped short (iteration limit, or an
