@@ -169,7 +169,7 @@ fn every_repository_file_writes_the_json_serde_json_would() {
     let mut files = Vec::new();
     tomls(root, &mut files);
     files.sort();
-    let opts = Options { torsion: None };
+    let opts = Options::default();
     let mut checked = 0;
     for f in &files {
         let Ok(text) = std::fs::read_to_string(f) else {
@@ -188,6 +188,7 @@ fn torsion_keys_are_written_as_serde_json_would() {
     let root = Path::new(env!("CARGO_MANIFEST_DIR"));
     let opts = Options {
         torsion: Some(TorsionOptions::default()),
+        ..Options::default()
     };
     for f in [
         "sections/garage-lintel.toml",
@@ -203,7 +204,7 @@ fn torsion_keys_are_written_as_serde_json_would() {
 /// The 300 sections of the throughput batch, without torsion (as `benches/batch.sh`).
 #[test]
 fn the_batch_writes_the_json_serde_json_would() {
-    let opts = Options { torsion: None };
+    let opts = Options::default();
     for k in 0..sections::COUNT {
         let name = format!("member-{k:03}.toml");
         assert!(check(&name, &sections::section(k), &opts), "{name}");
@@ -218,11 +219,7 @@ fn strings_are_escaped_as_serde_json_escapes_them() {
     let text = "format = 1\nunits = \"mm\"\ntitle = \"a \\\"quoted\\\" \\\\ title\\t\\u007f é ∑ \
 \\u0001\"\n[[parts]]\nname = \"plate \\\"A\\\"\"\nshape = \"rect\"\nb = 100\nh = 10\n\
 [[parts]]\nname = \"bar\\\\2\"\nshape = \"rect\"\nb = 10\nh = 50\nat = [0, 30]\n";
-    assert!(check(
-        "odd \"name\"\\.toml",
-        text,
-        &Options { torsion: None }
-    ));
+    assert!(check("odd \"name\"\\.toml", text, &Options::default()));
 }
 
 /// The layout puts a key that is a quantity of its own before its members: a `null`

@@ -243,6 +243,7 @@ fn calc_fe(body: &str) -> Analysis {
     let text = format!("format = 1\nunits = \"mm\"\n{body}");
     let opts = Options {
         torsion: Some(kern::fe::TorsionOptions::default()),
+        ..Options::default()
     };
     kern::file::load::analyse(&text, &opts).unwrap_or_else(|d| panic!("{}", d.message))
 }
@@ -339,7 +340,12 @@ fn member_check_tau_at_vmax_is_one_and_a_half_vmax_over_a() {
     // On the neutral axis to the samples' resolution: τ falls off as 1 − 4y²/h², so a
     // value within 1e-3 of the peak lies within 0.016·h of it.
     assert!(tau.at.y.abs() < 0.02 * 150.0, "{:?}", tau.at);
-    let j = to_json("t.toml", &a, &OutUnits::new(a.section.units, None));
+    let j: serde_json::Value = serde_json::from_str(&to_json(
+        "t.toml",
+        &a,
+        &OutUnits::new(a.section.units, None),
+    ))
+    .expect("JSON");
     close(
         j["member"]["tau_max"].as_f64().expect("member.tau_max"),
         exact * 1e-6,
