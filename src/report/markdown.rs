@@ -590,9 +590,6 @@ isotropic. The von Mises stress √(σ² + 3τ²) adds the normal stress of N, M
             st = st.name,
         ));
     }
-    text.push_str(
-        " Flows across joints on closed cells are not given by this version (see Connections).",
-    );
     s.push(Block::Para(own(text)));
 }
 
