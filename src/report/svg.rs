@@ -300,6 +300,28 @@ pub fn drawing(a: &Analysis, u: &OutUnits) -> String {
             legend.push("red: neutral axis under the actions");
         }
     }
+    // The joints between parts (their shear flow is in the Connections table): a
+    // cross at the middle of each shared stretch of boundary.
+    let marks: Vec<Pt> = (a.connections.iter())
+        .flat_map(|c| c.joint.marks.iter().copied())
+        .collect();
+    for m in &marks {
+        let (jx, jy) = (v.x(m.x), v.y(m.y));
+        s.push_str(&format!(
+            "<path d=\"M{} {}L{} {}M{} {}L{} {}\" stroke=\"#117a65\" stroke-width=\"1.6\"/>\n",
+            n(jx - 4.0),
+            n(jy - 4.0),
+            n(jx + 4.0),
+            n(jy + 4.0),
+            n(jx - 4.0),
+            n(jy + 4.0),
+            n(jx + 4.0),
+            n(jy - 4.0)
+        ));
+    }
+    if !marks.is_empty() {
+        legend.push("green cross: joint between parts (its shear flow under Connections)");
+    }
     // The shear centre, when torsion is known.
     if let Some(sc) = super::rows::shear_centre(a) {
         let (sx, sy) = (v.x(sc.x), v.y(sc.y));
