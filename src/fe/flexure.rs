@@ -226,9 +226,10 @@ impl Flexure {
     /// stress √(σ² + 3τ²) (σ = n·σ_ref) under `load`, each with its estimated error;
     /// `None` with fewer than two meshes.
     ///
-    /// With three meshes solved, each estimate also covers the change of the peak's
-    /// value over all three ([`three_mesh_bound`]), so that a last pair not yet in the
-    /// asymptotic range does not give too small an estimate.
+    /// With three meshes solved, where the peak's values on them do not show the rate
+    /// the two-mesh estimate assumes, its estimate also covers the change over all three
+    /// ([`three_mesh_bound`]), so that a last pair not yet in the asymptotic range does
+    /// not give too small an estimate.
     pub fn peaks(&self, load: &Load) -> Option<(Peak, Peak)> {
         peaks_over(&self.levels, load, None, true)
     }
@@ -321,15 +322,23 @@ fn largest(l: &FlexLevel, v: &[f64], away: Option<&[bool]>) -> (f64, Pt, usize) 
 }
 
 /// A bound on the error of q₂ from the values q₀, q₁, q₂ of a quantity on three meshes,
-/// each halving the element size, that does not trust the last pair alone: the coarser
-/// pair's two-mesh estimate bounds the error of q₁ by |q₁ − q₀|/(2^p − 1)
-/// ([`FLEX_RATE`]), and the triangle inequality |q₂ − q*| ≤ |q₂ − q₁| + |q₁ − q*| carries
-/// it to q₂ (Roache, Verification and Validation in Computational Science and
-/// Engineering, 1998, §5.4, for the grid-convergence reasoning). It holds where the last
-/// pair is not yet in the asymptotic range (its change smaller than the error left, as
-/// measured at a fillet's peak: DEVELOPERS.md, "Shear stress estimates").
+/// each halving the element size, for when the three do not show the convergence the
+/// two-mesh estimate assumes. Where the changes keep their sign and the last is at most
+/// 2^−p of the one before ([`FLEX_RATE`]: the rate is observed, Roache, Verification and
+/// Validation in Computational Science and Engineering, 1998, §5.4, the asymptotic range
+/// from three grids), 0: the two-mesh estimate stands. Otherwise the coarser pair's
+/// two-mesh estimate of the error of q₁, |q₁ − q₀|/(2^p − 1), carried to q₂ by the
+/// triangle inequality: |q₁ − q₀|/(2^p − 1) + |q₂ − q₁|, which holds where the last
+/// change is smaller than the error left (measured at a fillet's peak, the values going
+/// down and then up: DEVELOPERS.md, "Shear stress estimates").
 fn three_mesh_bound([q0, q1, q2]: [f64; 3]) -> f64 {
-    (q1 - q0).abs() / (2f64.powf(FLEX_RATE) - 1.0) + (q2 - q1).abs()
+    let (d1, d2) = (q1 - q0, q2 - q1);
+    let rate = 2f64.powf(FLEX_RATE);
+    if d1 * d2 >= 0.0 && d1.abs() >= rate * d2.abs() {
+        0.0
+    } else {
+        d1.abs() / (rate - 1.0) + d2.abs()
+    }
 }
 
 /// τ = √(τx² + τy²) and von Mises at every sample of a level under `load`.
