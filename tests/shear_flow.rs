@@ -241,6 +241,7 @@ fn calc_fe(body: &str) -> Analysis {
     let text = format!("format = 1\nunits = \"mm\"\n{body}");
     let opts = Options {
         torsion: Some(kern::fe::TorsionOptions::default()),
+        ..Options::default()
     };
     kern::file::load::analyse(&text, &opts).unwrap_or_else(|d| panic!("{}", d.message))
 }
