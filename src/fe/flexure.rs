@@ -109,7 +109,7 @@ pub struct Flexure {
     pub nu_ref: f64,
     /// The tolerance the solve was asked for (the torsion solve's).
     pub tol: f64,
-    /// The last two levels, coarser first.
+    /// The last three levels (two when only two were solved), coarser first.
     levels: Vec<FlexLevel>,
 }
 
@@ -188,7 +188,8 @@ impl Flexure {
     /// several stretches gives its largest.
     /// `None` when the pieces share no boundary on the mesh.
     pub fn joint_flow(&self, a: usize, b: usize, vx: f64, vy: f64) -> Option<JointFlow> {
-        let per: Vec<(f64, bool, usize, f64)> = (self.levels.iter())
+        let last_two = self.levels.get(self.levels.len().saturating_sub(2)..)?;
+        let per: Vec<(f64, bool, usize, f64)> = (last_two.iter())
             .map(|l| {
                 let j = l.joints.joint(a, b)?;
                 let q = |s: &super::joint_flow::Stretch| (vx * s.flux[0] + vy * s.flux[1]).abs();
@@ -224,8 +225,13 @@ impl Flexure {
     /// The largest resultant shear stress √(τzx² + τzy²) and the largest von Mises
     /// stress √(σ² + 3τ²) (σ = n·σ_ref) under `load`, each with its estimated error;
     /// `None` with fewer than two meshes.
+    ///
+    /// With three meshes solved, where the peak's values on them do not show the rate
+    /// the two-mesh estimate assumes, its estimate also covers the change over all three
+    /// ([`three_mesh_bound`]), so that a last pair not yet in the asymptotic range does
+    /// not give too small an estimate.
     pub fn peaks(&self, load: &Load) -> Option<(Peak, Peak)> {
-        peaks_over(&self.levels, load, None)
+        peaks_over(&self.levels, load, None, true)
     }
 
     /// The sharp re-entrant corners of the region (of the coarser of the last two
@@ -255,7 +261,7 @@ impl Flexure {
                 *k = false;
             }
         }
-        peaks_over(&self.levels, load, Some(&counted))
+        peaks_over(&self.levels, load, Some(&counted), true)
     }
 }
 
@@ -271,16 +277,68 @@ impl Flexure {
 pub const FLEX_RATE: f64 = 1.0;
 
 /// [`Flexure::peaks`] over `levels`, from the last two; with `away`, over the nodes it
-/// marks only ([`peak_two_level`]).
-fn peaks_over(levels: &[FlexLevel], load: &Load, away: Option<&[bool]>) -> Option<(Peak, Peak)> {
-    let [coarse, fine] = levels.get(levels.len().checked_sub(2)?..)? else {
+/// marks only ([`peak_two_level`]). With `three` and a third level before them, each
+/// estimate also covers the change of the peak over the three ([`three_mesh_bound`]).
+fn peaks_over(
+    levels: &[FlexLevel],
+    load: &Load,
+    away: Option<&[bool]>,
+    three: bool,
+) -> Option<(Peak, Peak)> {
+    let n = levels.len();
+    let [coarse, fine] = levels.get(n.checked_sub(2)?..)? else {
         return None;
     };
     let (vc, vf) = (values_of(coarse, load), values_of(fine, load));
-    Some((
-        peak_two_level(coarse, &vc[0], fine, &vf[0], away),
-        peak_two_level(coarse, &vc[1], fine, &vf[1], away),
-    ))
+    let first = (n.checked_sub(3).and_then(|i| levels.get(i))).filter(|_| three);
+    let v0 = first.map(|l| values_of(l, load));
+    let one = |k: usize| {
+        let p = peak_two_level(coarse, &vc[k], fine, &vf[k], away);
+        let Some((l0, v0)) = first.zip(v0.as_ref()) else {
+            return p;
+        };
+        let q =
+            [(l0, &v0[k]), (coarse, &vc[k]), (fine, &vf[k])].map(|(l, v)| largest(l, v, away).0);
+        let extra = three_mesh_bound(q) / p.value.abs().max(f64::MIN_POSITIVE);
+        Peak {
+            rel_error: p.rel_error.max(extra),
+            ..p
+        }
+    };
+    Some((one(0), one(1)))
+}
+
+/// The largest of `v` (values at the samples of `l`) over the nodes `away` flags (all
+/// without it): the value, where, and its node.
+fn largest(l: &FlexLevel, v: &[f64], away: Option<&[bool]>) -> (f64, Pt, usize) {
+    let counts = |node: usize| away.is_none_or(|a| a.get(node).copied().unwrap_or(false));
+    (l.samples.iter().zip(v)).fold((0.0, Pt::new(0.0, 0.0), 0), |best, (s, &x)| {
+        if x > best.0 && counts(s.node as usize) {
+            (x, s.at, s.node as usize)
+        } else {
+            best
+        }
+    })
+}
+
+/// A bound on the error of q₂ from the values q₀, q₁, q₂ of a quantity on three meshes,
+/// each halving the element size, for when the three do not show the convergence the
+/// two-mesh estimate assumes. Where the changes keep their sign and the last is at most
+/// 2^−p of the one before ([`FLEX_RATE`]: the rate is observed, Roache, Verification and
+/// Validation in Computational Science and Engineering, 1998, §5.4, the asymptotic range
+/// from three grids), 0: the two-mesh estimate stands. Otherwise the coarser pair's
+/// two-mesh estimate of the error of q₁, |q₁ − q₀|/(2^p − 1), carried to q₂ by the
+/// triangle inequality: |q₁ − q₀|/(2^p − 1) + |q₂ − q₁|, which holds where the last
+/// change is smaller than the error left (measured at a fillet's peak, the values going
+/// down and then up: DEVELOPERS.md, "Shear stress estimates").
+fn three_mesh_bound([q0, q1, q2]: [f64; 3]) -> f64 {
+    let (d1, d2) = (q1 - q0, q2 - q1);
+    let rate = 2f64.powf(FLEX_RATE);
+    if d1 * d2 >= 0.0 && d1.abs() >= rate * d2.abs() {
+        0.0
+    } else {
+        d1.abs() / (rate - 1.0) + d2.abs()
+    }
 }
 
 /// τ = √(τx² + τy²) and von Mises at every sample of a level under `load`.
@@ -345,16 +403,8 @@ fn peak_two_level(
             }
         }
     }
-    let largest = |l: &FlexLevel, v: &[f64]| {
-        (l.samples.iter().zip(v)).fold((0.0, Pt::new(0.0, 0.0), 0), |best, (s, &x)| {
-            if x > best.0 && counts(s.node as usize) {
-                (x, s.at, s.node as usize)
-            } else {
-                best
-            }
-        })
-    };
-    let ((p0, _, _), (p1, at, node)) = (largest(coarse, coarse_v), largest(fine, fine_v));
+    let ((p0, _, _), (p1, at, node)) =
+        (largest(coarse, coarse_v, away), largest(fine, fine_v, away));
     let div = 2f64.powf(FLEX_RATE) - 1.0;
     let e_at = |i: usize| {
         let e = (c1.get(i).copied().unwrap_or(f64::NAN)
@@ -428,7 +478,7 @@ impl FlexLadder {
         let mg = ladder.solver().ok_or(Failure::Degenerate)?;
         let level = solve_level(self, m, mg, ladder.warping(), level, prolong, cancel)?;
         self.levels.push(level);
-        if self.levels.len() > 2 {
+        if self.levels.len() > 3 {
             self.levels.remove(0);
         }
         Ok(())
@@ -443,7 +493,9 @@ impl FlexLadder {
     }
 
     /// Whether the shear areas and the largest shear stress of each unit load (Vx, Vy,
-    /// T alone) are within `tol` on the levels so far (two are needed).
+    /// T alone) are within `tol` on the levels so far (two are needed), by the two-mesh
+    /// estimates alone: the stopping rule, so that a peak that has not settled costs no
+    /// level; the peaks given ([`Flexure::peaks`]) add the three-mesh check.
     pub fn converged(&self, tol: f64) -> bool {
         let zero = |_: Pt| 0.0;
         let unit = |k: usize| Load {
@@ -453,7 +505,7 @@ impl FlexLadder {
             sigma: &zero,
         };
         let peaks_ok = (0..3).all(|k| {
-            peaks_over(&self.levels, &unit(k), None).is_some_and(|p| p.0.rel_error <= tol)
+            peaks_over(&self.levels, &unit(k), None, false).is_some_and(|p| p.0.rel_error <= tol)
         });
         peaks_ok && self.area_estimate().is_some_and(|(_, e)| e <= tol)
     }
