@@ -51,7 +51,7 @@ pub fn parse(text: &str) -> Option<Table<'_>> {
                         Item::Value(_) => return None,
                     },
                 };
-                let entry = p.keyval(table)?;
+                let entry = p.keyval(table, 0)?;
                 p.line_end()?;
                 if let (Some(t), Some(v)) = (&table.span, entry.item.span()) {
                     table.span = Some(t.start..v.end);
@@ -204,8 +204,9 @@ impl<'a> Parser<'a> {
         }
     }
 
-    /// `key = value` (the line's end not taken); `None` for a key already in `table`.
-    fn keyval(&mut self, table: &Table<'a>) -> Option<Entry<'a>> {
+    /// `key = value` (the line's end not taken), its value nested `depth` deep; `None`
+    /// for a key already in `table`.
+    fn keyval(&mut self, table: &Table<'a>, depth: usize) -> Option<Entry<'a>> {
         let (key, key_span) = self.key()?;
         self.skip_ws();
         if self.peek() != Some(b'=') {
@@ -213,7 +214,7 @@ impl<'a> Parser<'a> {
         }
         self.i += 1;
         self.skip_ws();
-        let value = self.value(0)?;
+        let value = self.value(depth)?;
         if table.entries.iter().any(|e| e.key == key) {
             return None;
         }
@@ -418,22 +419,8 @@ impl<'a> Parser<'a> {
         }
         loop {
             self.skip_ws();
-            let (key, key_span) = self.key()?;
-            self.skip_ws();
-            if self.peek() != Some(b'=') {
-                return None;
-            }
-            self.i += 1;
-            self.skip_ws();
-            let value = self.value(depth)?;
-            if t.entries.iter().any(|e| e.key == key) {
-                return None;
-            }
-            t.entries.push(Entry {
-                key: Cow::Borrowed(key),
-                key_span: Some(key_span),
-                item: Item::Value(value),
-            });
+            let entry = self.keyval(&t, depth)?;
+            t.entries.push(entry);
             self.skip_ws();
             match self.peek()? {
                 b',' => self.i += 1,

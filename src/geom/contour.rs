@@ -40,14 +40,19 @@ impl Pt {
     /// `t = (p − a)·(b − a) / |b − a|²` clamped to [0, 1] (the foot of the
     /// perpendicular, or the nearer end); `a` itself for a segment of no length.
     pub fn nearest_on_segment(self, a: Pt, b: Pt) -> Pt {
+        a.add(b.sub(a).scale(self.param_on_segment(a, b)))
+    }
+
+    /// The `t` of [`Pt::nearest_on_segment`]: `(p − a)·(b − a) / |b − a|²` clamped to
+    /// [0, 1], 0 for a segment of no length.
+    pub fn param_on_segment(self, a: Pt, b: Pt) -> f64 {
         let d = b.sub(a);
         let len2 = d.x * d.x + d.y * d.y;
-        let t = if len2 > 0.0 {
+        if len2 > 0.0 {
             ((self.sub(a).x * d.x + self.sub(a).y * d.y) / len2).clamp(0.0, 1.0)
         } else {
             0.0
-        };
-        a.add(d.scale(t))
+        }
     }
     /// Distance to the segment `a`–`b` (to its nearest point, [`Pt::nearest_on_segment`]).
     pub fn dist_to_segment(self, a: Pt, b: Pt) -> f64 {

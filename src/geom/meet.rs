@@ -97,14 +97,8 @@ impl Edge {
     pub fn nearest(&self, p: Pt) -> (f64, Pt) {
         match self.seg {
             Seg::Line(a, b) => {
-                let d = b.sub(a);
-                let len2 = d.x * d.x + d.y * d.y;
-                let t = if len2 > 0.0 {
-                    ((p.sub(a).x * d.x + p.sub(a).y * d.y) / len2).clamp(0.0, 1.0)
-                } else {
-                    0.0
-                };
-                (t, a.add(d.scale(t)))
+                let t = p.param_on_segment(a, b);
+                (t, a.add(b.sub(a).scale(t)))
             }
             Seg::Arc { c, r, a0, a1 } => {
                 let v = p.sub(c);
