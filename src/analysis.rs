@@ -333,29 +333,27 @@ impl Analysis {
             a.warnings.extend(a.cell_flow_notes());
         }
         if let Some(o) = &opts.torsion {
-            let mut o = a.torsion_options(o.tol, o.cancel.clone());
-            if !opts.shear {
-                o.flexure = None;
-                o.joints = false;
-            }
+            let o = a.torsion_options(o.tol, o.cancel.clone(), opts.shear);
             a.set_torsion(torsion(&a.pieces, &o));
         }
         Ok(a)
     }
 
-    /// The options of this section's torsion solve, here and in the workbench: with the
-    /// flexure solution (ν of the first material), and the mesh following the
-    /// boundaries parts share when a joint is on a closed cell (its flow needs it).
+    /// The options of this section's torsion solve, here and in the workbench: with
+    /// `shear` (`Options::shear`), the flexure solution (ν of the first material) and
+    /// the mesh following the boundaries parts share when a joint is on a closed cell
+    /// (its flow needs it); without, torsion alone.
     pub fn torsion_options(
         &self,
         tol: f64,
         cancel: Option<std::sync::Arc<std::sync::atomic::AtomicBool>>,
+        shear: bool,
     ) -> TorsionOptions {
         TorsionOptions {
             tol,
             cancel,
-            flexure: Some(nu_ref(&self.section)),
-            joints: (self.connections.iter()).any(|c| c.flow == Flow::ClosedCell),
+            flexure: shear.then(|| nu_ref(&self.section)),
+            joints: shear && (self.connections.iter()).any(|c| c.flow == Flow::ClosedCell),
         }
     }
 

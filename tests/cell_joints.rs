@@ -39,7 +39,7 @@ fn flexure(a: &Analysis) -> &Flexure {
 fn flexure_at_joints(a: &Analysis) -> Flexure {
     let opts = TorsionOptions {
         joints: true,
-        ..a.torsion_options(kern::fe::DEFAULT_TOL, None)
+        ..a.torsion_options(kern::fe::DEFAULT_TOL, None, true)
     };
     let t = kern::fe::torsion(&a.pieces, &opts).expect("torsion solves");
     t.flexure.expect("asked for").expect("the flexure solution")

@@ -3,8 +3,12 @@
 //! `FILE:LINE:COLUMN: message` and status 2 for an invalid file.
 
 use serde_json::Value;
-use std::path::{Path, PathBuf};
+use std::path::Path;
 use std::process::{Command, Output};
+
+#[path = "support/scratch.rs"]
+mod support_scratch;
+use support_scratch::scratch;
 
 fn kern(args: &[&str]) -> Output {
     Command::new(env!("CARGO_BIN_EXE_kern"))
@@ -34,13 +38,6 @@ fn json_lines(out: &Output) -> Vec<Value> {
         .lines()
         .map(|l| serde_json::from_str(l).unwrap_or_else(|e| panic!("{e}: {l}")))
         .collect()
-}
-
-/// A scratch directory for this test.
-fn scratch(name: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("kern-cli-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&d).unwrap();
-    d
 }
 
 fn num(v: &Value, path: &[&str]) -> f64 {

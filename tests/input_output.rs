@@ -5,9 +5,13 @@
 //! committed, so they are made here; hostile files that can be are in `tests/hostile/`.
 
 use std::io::Read;
-use std::path::{Path, PathBuf};
+use std::path::Path;
 use std::process::{Command, Output, Stdio};
 use std::time::{Duration, Instant};
+
+#[path = "support/scratch.rs"]
+mod support_scratch;
+use support_scratch::scratch;
 
 /// A bound on hangs (a debug build on a loaded machine), not a speed target.
 const WATCHDOG: Duration = Duration::from_secs(60);
@@ -37,13 +41,6 @@ fn kern(args: &[&str]) -> Output {
         std::thread::sleep(Duration::from_millis(10));
     }
     child.wait_with_output().expect("output")
-}
-
-fn scratch(tag: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("kern-io-{tag}-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).unwrap();
-    d
 }
 
 fn refused(path: &Path, why: &str) {

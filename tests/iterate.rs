@@ -6,6 +6,10 @@ use serde_json::Value;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
+#[path = "support/scratch.rs"]
+mod support_scratch;
+use support_scratch::scratch;
+
 /// `kern` run in `dir` on a command line of words separated by spaces.
 fn kern_line(dir: &Path, line: &str) -> Output {
     kern_in(dir, &line.split_whitespace().collect::<Vec<_>>())
@@ -17,14 +21,6 @@ fn kern_in(dir: &Path, args: &[&str]) -> Output {
         .current_dir(dir)
         .output()
         .expect("kern runs")
-}
-
-/// A scratch directory for this test.
-fn scratch(name: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("kern-iter-{}-{name}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).unwrap();
-    d
 }
 
 fn stdout(o: &Output) -> String {

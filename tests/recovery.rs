@@ -8,16 +8,13 @@ use kern::tui::commands::run;
 use kern::tui::config::Config;
 use kern::tui::keys::Cmd;
 use kern::tui::rescue;
-use std::path::{Path, PathBuf};
+use std::path::Path;
+
+#[path = "support/scratch.rs"]
+mod support_scratch;
+use support_scratch::scratch;
 
 const LINTEL: &str = include_str!("../sections/garage-lintel.toml");
-
-fn scratch(tag: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("kern-rec-{tag}-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).unwrap();
-    d
-}
 
 fn open(file: &Path) -> App {
     let text = std::fs::read_to_string(file).unwrap();

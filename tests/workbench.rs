@@ -19,6 +19,10 @@ use ratatui::Terminal;
 use std::f64::consts::PI;
 use std::path::{Path, PathBuf};
 
+#[path = "support/scratch.rs"]
+mod support_scratch;
+use support_scratch::scratch;
+
 const GIRDER: &str = include_str!("../sections/mezzanine-girder.toml");
 
 fn app(text: &str) -> App {
@@ -464,15 +468,9 @@ fn help_descriptions_wrap_in_their_own_column_and_scroll() {
     assert_eq!(a.mode, Mode::Help(page.min(end)));
 }
 
-fn temp_dir(tag: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("kern-wb-{tag}-{}", std::process::id()));
-    std::fs::create_dir_all(&d).unwrap();
-    d
-}
-
 #[test]
 fn save_round_trip_keeps_comments_and_notices_changes_on_disk() {
-    let dir = temp_dir("save");
+    let dir = scratch("save");
     let file = dir.join("girder.toml");
     std::fs::write(&file, GIRDER).unwrap();
     let mut a = App::new(
@@ -512,7 +510,7 @@ fn save_round_trip_keeps_comments_and_notices_changes_on_disk() {
 
 #[test]
 fn the_demo_saves_under_a_new_name_and_quitting_asks_first() {
-    let dir = temp_dir("demo");
+    let dir = scratch("demo");
     let mut a = app(GIRDER);
     run(&mut a, Cmd::ToggleVoid);
     run(&mut a, Cmd::Quit);
@@ -656,7 +654,7 @@ fn scrolling_the_results_back_up_answers_at_once() {
 
 #[test]
 fn a_file_that_does_not_exist_starts_a_new_section() {
-    let dir = temp_dir("new");
+    let dir = scratch("new");
     let file = dir.join("cap-plate.toml");
     let text = kern::tui::starter(&file);
     let mut a = App::new(
@@ -773,7 +771,7 @@ fn the_help_never_splits_a_group_from_its_heading() {
 
 #[test]
 fn saving_onto_another_file_asks_plainly_and_a_new_name_asks_nothing() {
-    let dir = temp_dir("save-as");
+    let dir = scratch("save-as");
     let other = dir.join("other.toml");
     std::fs::write(&other, "# someone's file\n").unwrap();
     let mut a = app(GIRDER);
@@ -1280,7 +1278,7 @@ fn snapshots_of_the_keys_window() {
 
 #[test]
 fn the_open_file_is_followed_on_disk() {
-    let dir = temp_dir("watch");
+    let dir = scratch("watch");
     let file = dir.join("lintel.toml");
     let lintel = section("garage-lintel.toml");
     std::fs::write(&file, &lintel).unwrap();
@@ -1626,7 +1624,7 @@ fn a_ranking_by_j_runs_in_the_background_and_esc_stops_it() {
 
 #[test]
 fn compares_with_a_commit_chosen_from_the_list_or_another_file_side_by_side() {
-    let dir = temp_dir("compare");
+    let dir = scratch("compare");
     let file = dir.join("plate.toml");
     std::fs::write(&file, PLATE).unwrap();
     assert!(git_in(&dir, &["init", "-q"]), "git init");
@@ -1730,7 +1728,7 @@ fn compares_with_a_commit_chosen_from_the_list_or_another_file_side_by_side() {
 fn the_compare_window_has_both_designs_torsion_results() {
     // Solved inline (deterministic): the baseline's torsion is solved when it is set,
     // so J is compared too; a deeper plate twists less easily (J grows with h).
-    let dir = temp_dir("compare-torsion");
+    let dir = scratch("compare-torsion");
     let other = dir.join("deeper.toml");
     std::fs::write(&other, PLATE.replace("h = 200", "h = 300")).unwrap();
     let mut a = App::new(PLATE.into(), None, Config::default(), Solver::Inline).unwrap();
@@ -1755,7 +1753,7 @@ fn the_compare_window_has_both_designs_torsion_results() {
 
 #[test]
 fn the_compare_window_scrolls_with_a_hint_of_what_is_out_of_view() {
-    let dir = temp_dir("compare-scroll");
+    let dir = scratch("compare-scroll");
     let file = dir.join("plate.toml");
     std::fs::write(&file, PLATE).unwrap();
     assert!(git_in(&dir, &["init", "-q"]), "git init");

@@ -642,5 +642,8 @@ impl App {
 /// The torsion solve, with the flexure solution, on this thread to the default tolerance
 /// (the inline solver).
 fn solve_here(a: &Analysis) -> Result<crate::fe::Torsion, crate::model::Warning> {
-    torsion(&a.pieces, &a.torsion_options(crate::fe::DEFAULT_TOL, None))
+    torsion(
+        &a.pieces,
+        &a.torsion_options(crate::fe::DEFAULT_TOL, None, true),
+    )
 }

@@ -85,7 +85,7 @@ impl Worker {
         let _ = self.jobs.send(Job {
             generation,
             pieces: a.pieces.clone(),
-            opts: a.torsion_options(crate::fe::DEFAULT_TOL, Some(cancel.clone())),
+            opts: a.torsion_options(crate::fe::DEFAULT_TOL, Some(cancel.clone()), true),
             cancel,
         });
     }
