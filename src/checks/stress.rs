@@ -199,19 +199,15 @@ pub fn extremes(field: &StressField, points: &[(f64, f64)]) -> Option<Extremes> 
 /// repeated points. Non-finite points are ignored; with fewer than three distinct points the
 /// distinct points are returned (sorted), and a collinear set gives its two ends.
 ///
-/// Points well inside the octagon of the extreme points in x, y, x + y and x − y are
-/// dropped before the sort (Akl and Toussaint, "A fast convex hull algorithm",
-/// Information Processing Letters 7, 1978): they cannot be on the hull, so the result
-/// is the same, and an outline's points are mostly such points.
+/// The sort is most of the cost: for a large set, leave out the points well inside its
+/// [`Octagon`] first (they cannot be on the hull, so the result is the same).
 pub fn convex_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
-    let finite = |p: &(f64, f64)| p.0.is_finite() && p.1.is_finite();
-    let octagon = extreme_octagon(points.iter().copied().filter(finite));
     let mut pts: Vec<(f64, f64)> = points
         .iter()
         .copied()
-        .filter(|p| finite(p) && !octagon.as_ref().is_some_and(|o| o.holds(*p)))
+        .filter(|p| p.0.is_finite() && p.1.is_finite())
         .collect();
-    pts.sort_unstable_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
+    pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
     pts.dedup();
     if pts.len() < 3 {
         return pts;
@@ -246,61 +242,93 @@ fn cross(o: (f64, f64), a: (f64, f64), b: (f64, f64)) -> f64 {
 }
 
 /// The convex polygon of a point set's extreme points in the directions −x, −x−y, −y,
-/// x−y, x, x+y, y, y−x (counter-clockwise; neighbours may coincide).
-struct Octagon {
-    corners: [(f64, f64); 8],
-    /// How far inside an edge (as a cross product) a point must be to count as inside:
-    /// far above the rounding of the cross products.
+/// x−y, x, x+y, y, y−x (counter-clockwise; coincident neighbours merged). It lies in
+/// the set's convex hull, so a point well inside it (by more than the rounding of the
+/// hull's turn tests) is not a vertex of the hull, of this set or of any set that holds
+/// the corners: leaving such points out before [`convex_hull`] gives the same hull
+/// (Akl and Toussaint, "A fast convex hull algorithm", Information Processing Letters 7,
+/// 1978).
+#[derive(Debug, Clone, Copy)]
+pub struct Octagon {
+    /// Edges as start point and direction `b − a`; the first `len` are used.
+    edges: [((f64, f64), (f64, f64)); 8],
+    len: usize,
+    /// How far inside an edge (as the cross product `d × (p − a)`) a point must be to
+    /// count as inside: far above the rounding of the cross products.
     margin: f64,
 }
 
 impl Octagon {
-    /// Is `p` inside every edge by more than the margin (so inside the hull)?
-    fn holds(&self, p: (f64, f64)) -> bool {
-        let c = &self.corners;
-        (0..8).all(|i| {
-            let (a, b) = (c[i], c[(i + 1) % 8]);
-            a == b || cross(a, b, p) > self.margin
-        })
-    }
-}
-
-/// The extreme octagon of finite points; `None` for no points.
-fn extreme_octagon(points: impl Iterator<Item = (f64, f64)>) -> Option<Octagon> {
-    let keys: [fn((f64, f64)) -> f64; 8] = [
-        |p| -p.0,
-        |p| -p.0 - p.1,
-        |p| -p.1,
-        |p| p.0 - p.1,
-        |p| p.0,
-        |p| p.0 + p.1,
-        |p| p.1,
-        |p| p.1 - p.0,
-    ];
-    let mut best: Option<[(f64, (f64, f64)); 8]> = None;
-    for p in points {
-        let b = best.get_or_insert_with(|| keys.map(|k| (k(p), p)));
-        for (slot, k) in b.iter_mut().zip(keys) {
-            let v = k(p);
-            if v > slot.0 {
-                *slot = (v, p);
+    /// The extreme octagon of the finite points; `None` with fewer than three distinct
+    /// corners (nothing is strictly inside).
+    pub fn of(points: &[(f64, f64)]) -> Option<Octagon> {
+        let mut best = [f64::NEG_INFINITY; 8];
+        let mut at = [usize::MAX; 8];
+        for (j, &(x, y)) in points.iter().enumerate() {
+            if !(x.is_finite() && y.is_finite()) {
+                continue;
+            }
+            let keys = [-x, -x - y, -y, x - y, x, x + y, y, y - x];
+            for i in 0..8 {
+                if keys[i] > best[i] {
+                    best[i] = keys[i];
+                    at[i] = j;
+                }
             }
         }
+        let corners = at.map(|j| points.get(j).copied());
+        let corners = corners.map(|c| c.unwrap_or_default());
+        if at[0] == usize::MAX {
+            return None;
+        }
+        let mut edges = [((0.0, 0.0), (0.0, 0.0)); 8];
+        let mut len = 0;
+        for i in 0..8 {
+            let (a, b) = (corners[i], corners[(i + 1) % 8]);
+            if a != b {
+                edges[len] = (a, (b.0 - a.0, b.1 - a.1));
+                len += 1;
+            }
+        }
+        if len < 3 {
+            return None;
+        }
+        let (w, h) = (corners[4].0 - corners[0].0, corners[6].1 - corners[2].1);
+        let size = w.max(h);
+        Some(Octagon {
+            edges,
+            len,
+            margin: 1e-9 * size * size,
+        })
     }
-    let corners = best?.map(|(_, p)| p);
-    // With fewer than three distinct corners nothing is strictly inside.
-    let distinct = (0..8)
-        .filter(|&i| corners[i] != corners[(i + 1) % 8])
-        .count();
-    if distinct < 3 {
-        return None;
+
+    /// Is `p` inside every edge by more than the margin (so inside the hull, not on it)?
+    pub fn holds(&self, p: (f64, f64)) -> bool {
+        self.edges[..self.len]
+            .iter()
+            .all(|&(a, d)| d.0 * (p.1 - a.1) - d.1 * (p.0 - a.0) > self.margin)
     }
-    let (w, h) = (corners[4].0 - corners[0].0, corners[6].1 - corners[2].1);
-    let size = w.max(h);
-    Some(Octagon {
-        corners,
-        margin: 1e-9 * size * size,
-    })
+
+    /// The octagon's edges that a point within `reach` of `c` may fail [`Octagon::holds`]
+    /// at: for an edge from a in direction d, such a point is at most `|d|·reach` nearer
+    /// the edge's line (as a cross product) than c, so the edges that c is inside by more
+    /// than the margin plus that are left out. For those points its `holds` is the
+    /// octagon's; with no edge left ([`Octagon::is_open`]) every such point holds.
+    pub fn near(&self, c: (f64, f64), reach: f64) -> Octagon {
+        let mut near = Octagon { len: 0, ..*self };
+        for &(a, d) in &self.edges[..self.len] {
+            if d.0 * (c.1 - a.1) - d.1 * (c.0 - a.0) <= self.margin + d.0.hypot(d.1) * reach {
+                near.edges[near.len] = (a, d);
+                near.len += 1;
+            }
+        }
+        near
+    }
+
+    /// No edge to test: every point holds.
+    pub fn is_open(&self) -> bool {
+        self.len == 0
+    }
 }
 
 #[cfg(test)]
