@@ -250,20 +250,22 @@ fn cross(o: (f64, f64), a: (f64, f64), b: (f64, f64)) -> f64 {
 /// 1978).
 #[derive(Debug, Clone, Copy)]
 pub struct Octagon {
-    /// Edges as start point and direction `b − a`; the first `len` are used.
-    edges: [((f64, f64), (f64, f64)); 8],
+    /// Edges as start point a, direction `d = b − a` and `|d|`; the first `len` are used.
+    edges: [Edge; 8],
     len: usize,
     /// How far inside an edge (as the cross product `d × (p − a)`) a point must be to
     /// count as inside: far above the rounding of the cross products.
     margin: f64,
 }
 
+type Edge = ((f64, f64), (f64, f64), f64);
+
 impl Octagon {
     /// The extreme octagon of the finite points; `None` with fewer than three distinct
     /// corners (nothing is strictly inside).
     pub fn of(points: &[(f64, f64)]) -> Option<Octagon> {
         let mut best = [f64::NEG_INFINITY; 8];
-        let mut at = [usize::MAX; 8];
+        let mut at = [0; 8];
         for (j, &(x, y)) in points.iter().enumerate() {
             if !(x.is_finite() && y.is_finite()) {
                 continue;
@@ -276,17 +278,18 @@ impl Octagon {
                 }
             }
         }
-        let corners = at.map(|j| points.get(j).copied());
-        let corners = corners.map(|c| c.unwrap_or_default());
-        if at[0] == usize::MAX {
+        // Every key finite: a corner in each direction (none without finite points).
+        if !best.iter().all(|k| k.is_finite()) {
             return None;
         }
-        let mut edges = [((0.0, 0.0), (0.0, 0.0)); 8];
+        let corners = at.map(|j| points[j]);
+        let mut edges = [((0.0, 0.0), (0.0, 0.0), 0.0); 8];
         let mut len = 0;
         for i in 0..8 {
             let (a, b) = (corners[i], corners[(i + 1) % 8]);
             if a != b {
-                edges[len] = (a, (b.0 - a.0, b.1 - a.1));
+                let d = (b.0 - a.0, b.1 - a.1);
+                edges[len] = (a, d, d.0.hypot(d.1));
                 len += 1;
             }
         }
@@ -306,7 +309,7 @@ impl Octagon {
     pub fn holds(&self, p: (f64, f64)) -> bool {
         self.edges[..self.len]
             .iter()
-            .all(|&(a, d)| d.0 * (p.1 - a.1) - d.1 * (p.0 - a.0) > self.margin)
+            .all(|&(a, d, _)| d.0 * (p.1 - a.1) - d.1 * (p.0 - a.0) > self.margin)
     }
 
     /// The octagon's edges that a point within `reach` of `c` may fail [`Octagon::holds`]
@@ -316,9 +319,10 @@ impl Octagon {
     /// octagon's; with no edge left ([`Octagon::is_open`]) every such point holds.
     pub fn near(&self, c: (f64, f64), reach: f64) -> Octagon {
         let mut near = Octagon { len: 0, ..*self };
-        for &(a, d) in &self.edges[..self.len] {
-            if d.0 * (c.1 - a.1) - d.1 * (c.0 - a.0) <= self.margin + d.0.hypot(d.1) * reach {
-                near.edges[near.len] = (a, d);
+        for &(a, d, len) in &self.edges[..self.len] {
+            // Kept unless surely clear (a NaN keeps it).
+            if !(d.0 * (c.1 - a.1) - d.1 * (c.0 - a.0) > self.margin + len * reach) {
+                near.edges[near.len] = (a, d, len);
                 near.len += 1;
             }
         }
