@@ -641,76 +641,128 @@ mod tests {
         assert!(polygon_centroidal(&hull).area > 0.0);
     }
 
-    /// The plain monotone chain (Andrew 1979) over every point, sorted stably: the
-    /// reference the prefiltered hull must match exactly.
-    fn plain_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
-        let mut pts: Vec<(f64, f64)> = points
-            .iter()
-            .copied()
-            .filter(|p| p.0.is_finite() && p.1.is_finite())
-            .collect();
-        pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
-        pts.dedup();
-        if pts.len() < 3 {
-            return pts;
+    /// The points of `pts` the octagon of `pts` does not hold.
+    fn prefiltered(pts: &[(f64, f64)]) -> Vec<(f64, f64)> {
+        match Octagon::of(pts) {
+            Some(o) => pts.iter().copied().filter(|&p| !o.holds(p)).collect(),
+            None => pts.to_vec(),
         }
-        let mut hull: Vec<(f64, f64)> = Vec::new();
-        for pass in 0..2 {
-            let start = hull.len();
-            let ordered: Vec<(f64, f64)> = if pass == 0 {
-                pts.clone()
-            } else {
-                pts.iter().rev().copied().collect()
-            };
-            for p in ordered {
-                while hull.len() >= start + 2 {
-                    let (o, a) = (hull[hull.len() - 2], hull[hull.len() - 1]);
-                    if cross(o, a, p) > 0.0 {
-                        break;
-                    }
-                    hull.pop();
-                }
-                hull.push(p);
-            }
-            hull.pop();
-        }
-        hull
     }
 
     #[test]
-    fn prefiltered_hull_matches_the_plain_chain_on_random_sets() {
-        // Random sets from a linear congruential generator (Knuth's MMIX constants):
-        // points in a square, on circles (as outline points of arcs are), on the edges of
-        // a rectangle (collinear runs), with repeats and a few non-finite points.
-        let mut seed = 2024u64;
+    fn hull_of_a_circles_points_is_all_of_them() {
+        // Every point of a circle is extreme, so the hull of n points on it is the regular
+        // n-gon through them, of area (n/2)·r²·sin(2π/n) (n isosceles triangles).
+        let (n, r, c) = (360, 75.0, (12.0, -40.0));
+        let pts: Vec<(f64, f64)> = (0..n)
+            .map(|k| {
+                let t = std::f64::consts::TAU * k as f64 / n as f64;
+                (c.0 + r * t.cos(), c.1 + r * t.sin())
+            })
+            .collect();
+        let hull = convex_hull(&pts);
+        assert_eq!(hull.len(), n);
+        let want = n as f64 / 2.0 * r * r * (std::f64::consts::TAU / n as f64).sin();
+        assert!(close(polygon_centroidal(&hull).area, want, 1e-12));
+        // The octagon (the points at 0°, 45°, … 315°) leaves out none of them.
+        assert_eq!(prefiltered(&pts).len(), n);
+    }
+
+    #[test]
+    fn hull_of_a_rectangle_with_a_hole_is_its_corners() {
+        // A 300 × 200 plate with a round hole and a square hole: the hull of a set is the
+        // hull of its extreme points, here the plate's four corners (counter-clockwise from
+        // the lowest x, then lowest y).
+        let mut pts = rectangle(300.0, 200.0, 150.0, 100.0, 0.0);
+        pts.extend((0..72).map(|k| {
+            let t = std::f64::consts::TAU * k as f64 / 72.0;
+            (90.0 + 40.0 * t.cos(), 100.0 + 40.0 * t.sin())
+        }));
+        pts.extend(rectangle(60.0, 60.0, 220.0, 100.0, 0.0));
+        let corners = vec![(0.0, 0.0), (300.0, 0.0), (300.0, 200.0), (0.0, 200.0)];
+        assert_eq!(convex_hull(&pts), corners);
+        assert_eq!(prefiltered(&pts), corners);
+    }
+
+    /// Random sets from a linear congruential generator (Knuth's MMIX constants): points
+    /// in a square, on circles (as outline points of arcs are), on the edges of a
+    /// rectangle (collinear runs), with repeats and a few non-finite points.
+    fn awkward_set(round: usize, seed: &mut u64) -> Vec<(f64, f64)> {
         let mut next = || {
-            seed = seed
+            *seed = seed
                 .wrapping_mul(6364136223846793005)
                 .wrapping_add(1442695040888963407);
-            (seed >> 11) as f64 / (1u64 << 53) as f64
+            (*seed >> 11) as f64 / (1u64 << 53) as f64
         };
-        for round in 0..300 {
-            let n = 1 + round % 97 * 7;
-            let scale = 10f64.powi(round % 7 - 3);
-            let pts: Vec<(f64, f64)> = (0..n)
-                .map(|k| {
-                    let (u, v) = (next(), next());
-                    match (round + k) % 5 {
-                        0 => (scale * u, scale * v),
-                        1 => {
-                            let t = std::f64::consts::TAU * u;
-                            (scale * (0.5 + 0.5 * t.cos()), scale * (0.5 + 0.5 * t.sin()))
-                        }
-                        2 => (scale * (u * 4.0).floor() / 4.0, scale * v),
-                        3 if k % 11 == 0 => (f64::NAN, v),
-                        _ => (
-                            scale * (u * 3.0).round() / 3.0,
-                            scale * (v * 3.0).round() / 3.0,
-                        ),
+        let n = 1 + round % 97 * 7;
+        let scale = 10f64.powi(round as i32 % 7 - 3);
+        (0..n)
+            .map(|k| {
+                let (u, v) = (next(), next());
+                match (round + k) % 5 {
+                    0 => (scale * u, scale * v),
+                    1 => {
+                        let t = std::f64::consts::TAU * u;
+                        (scale * (0.5 + 0.5 * t.cos()), scale * (0.5 + 0.5 * t.sin()))
                     }
-                })
-                .collect();
-            assert_eq!(convex_hull(&pts), plain_hull(&pts), "round {round}");
+                    2 => (scale * (u * 4.0).floor() / 4.0, scale * v),
+                    3 if k % 11 == 0 => (f64::NAN, v),
+                    _ => (
+                        scale * (u * 3.0).round() / 3.0,
+                        scale * (v * 3.0).round() / 3.0,
+                    ),
+                }
+            })
+            .collect()
+    }
+
+    #[test]
+    fn prefiltered_hull_matches_the_whole_sets_on_awkward_sets() {
+        // Leaving out the points the extreme octagon holds changes nothing (Akl and
+        // Toussaint 1978): the monotone chain over all points is the reference.
+        let mut seed = 2024u64;
+        for round in 0..300 {
+            let pts = awkward_set(round, &mut seed);
+            assert_eq!(
+                convex_hull(&prefiltered(&pts)),
+                convex_hull(&pts),
+                "round {round}"
+            );
+        }
+    }
+
+    fn point_set() -> impl proptest::strategy::Strategy<Value = Vec<(f64, f64)>> {
+        use proptest::prelude::*;
+        // Points in a box, and points on a circle (as outline points of arcs are).
+        let free = (-1e3f64..1e3, -1e3f64..1e3);
+        let on_circle = (0.0f64..std::f64::consts::TAU, 1e-3f64..1e3, -1e3f64..1e3)
+            .prop_map(|(t, r, x)| (x + r * t.cos(), r * t.sin()));
+        proptest::collection::vec(prop_oneof![free, on_circle], 0..400)
+    }
+
+    proptest::proptest! {
+        #[test]
+        fn prefilter_leaves_the_hull_alone(pts in point_set()) {
+            proptest::prop_assert_eq!(convex_hull(&prefiltered(&pts)), convex_hull(&pts));
+        }
+
+        #[test]
+        fn near_edges_decide_as_the_octagon_does(
+            pts in point_set(),
+            c in (-1.2e3f64..1.2e3, -1.2e3f64..1.2e3),
+            reach in 0.0f64..500.0,
+            offsets in proptest::collection::vec((0.0f64..0.99, 0.0f64..std::f64::consts::TAU), 1..50),
+        ) {
+            // Within `reach` of c the octagon's nearby edges give its own answer, and
+            // with none left every such point is held.
+            if let Some(o) = Octagon::of(&pts) {
+                let near = o.near(c, reach);
+                for (f, t) in offsets {
+                    let p = (c.0 + f * reach * t.cos(), c.1 + f * reach * t.sin());
+                    proptest::prop_assert_eq!(near.holds(p), o.holds(p));
+                    proptest::prop_assert!(!near.is_open() || o.holds(p));
+                }
+            }
         }
     }
 }
