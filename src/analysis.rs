@@ -1031,7 +1031,8 @@ pub fn extreme_candidates(
 /// Points on the outline of the solid parts, arcs cut into chords of at most 1°
 /// ([`Seg::sample_points`]), for the convex hull behind the kern: those that may be
 /// vertices of the hull of all of them. Points well inside the [`Octagon`] of the
-/// segments' starts and every eighth chord point are left out; an arc whose whole
+/// segments' starts and every eighth chord point are left out (each arc's against the
+/// octagon's edges near it, [`Octagon::near`]); an arc whose whole
 /// [`Seg::sample_disc`] lies well inside the octagon of the starts alone (a root fillet,
 /// the inner edge of a tube) is not cut at all.
 pub fn outline_points(pieces: &[Piece]) -> Vec<(f64, f64)> {
@@ -1063,9 +1064,12 @@ pub fn outline_points(pieces: &[Piece]) -> Vec<(f64, f64)> {
         s.sample_points(1f64.to_radians(), &mut chords);
         runs.push(((c.x, c.y), reach, chords.len()));
     }
-    let corners: Vec<(f64, f64)> = (starts.iter().copied())
-        .chain(chords.iter().step_by(8).map(|q| (q.x, q.y)))
-        .collect();
+    // The extremes of the starts are the first octagon's corners.
+    let mut corners: Vec<(f64, f64)> = match &first {
+        Some(o) => o.corners().collect(),
+        None => starts.clone(),
+    };
+    corners.extend(chords.iter().step_by(8).map(|q| (q.x, q.y)));
     let Some(inner) = Octagon::of(&corners) else {
         let mut pts = starts;
         pts.extend(chords.iter().map(|q| (q.x, q.y)));

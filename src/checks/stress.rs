@@ -202,11 +202,13 @@ pub fn extremes(field: &StressField, points: &[(f64, f64)]) -> Option<Extremes> 
 /// The sort is most of the cost: for a large set, leave out the points well inside its
 /// [`Octagon`] first (they cannot be on the hull, so the result is the same).
 pub fn convex_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
-    let mut pts: Vec<(f64, f64)> = points
-        .iter()
-        .copied()
-        .filter(|p| p.0.is_finite() && p.1.is_finite())
-        .collect();
+    let mut pts: Vec<(f64, f64)> = Vec::with_capacity(points.len());
+    pts.extend(
+        points
+            .iter()
+            .copied()
+            .filter(|p| p.0.is_finite() && p.1.is_finite()),
+    );
     pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
     pts.dedup();
     if pts.len() < 3 {
@@ -327,6 +329,11 @@ impl Octagon {
             }
         }
         near
+    }
+
+    /// The corners (the ends of the edges), counter-clockwise.
+    pub fn corners(&self) -> impl Iterator<Item = (f64, f64)> + '_ {
+        self.edges[..self.len].iter().map(|e| e.0)
     }
 
     /// No edge to test: every point holds.
