@@ -12,7 +12,7 @@ use crate::checks::kern::kern_polygon;
 use crate::checks::ltb::{self, Buckling, Compressed};
 use crate::checks::member::{self, Beam, BeamResult, PointLoad, Support};
 use crate::checks::shear_flow::{self, Connection, Flow};
-use crate::checks::stress::{extremes, Extremes, StressField};
+use crate::checks::stress::{extremes, Extremes, Octagon, StressField};
 use crate::fe::flexure::{Flexure, JointFlow, Load, Peak};
 use crate::fe::{torsion, Torsion, TorsionOptions};
 use crate::geom::{corner, joints, solid_bounds, Piece, Pt, Seg};
@@ -1027,18 +1027,61 @@ pub fn extreme_candidates(
 }
 
 /// Points on the outline of the solid parts, arcs cut into chords of at most 1°
-/// (for the convex hull behind the kern).
+/// ([`Seg::sample_points`]), for the convex hull behind the kern: those that may be
+/// vertices of the hull of all of them. Points well inside the [`Octagon`] of the
+/// segments' starts and every eighth chord point are left out (each arc's against the
+/// octagon's edges near it, [`Octagon::near`]); an arc whose whole
+/// [`Seg::sample_disc`] lies well inside the octagon of the starts alone (a root fillet,
+/// the inner edge of a tube) is not cut at all.
 pub fn outline_points(pieces: &[Piece]) -> Vec<(f64, f64)> {
-    let mut pts = Vec::new();
-    let segs = pieces
+    let segs: Vec<&Seg> = pieces
         .iter()
         .filter(|p| !p.void)
         .flat_map(|p| p.contours.iter())
-        .flat_map(|c| c.segs.iter());
+        .flat_map(|c| c.segs.iter())
+        .collect();
+    let starts: Vec<(f64, f64)> = segs
+        .iter()
+        .map(|s| {
+            let q = s.start();
+            (q.x, q.y)
+        })
+        .collect();
+    let first = Octagon::of(&starts);
+    // The chord points of the arcs that may reach the hull, with each arc's disc and the
+    // end of its run.
+    let mut chords = Vec::new();
+    let mut runs = Vec::new();
     for s in segs {
-        s.sample_points(1f64.to_radians(), &mut pts);
+        let Some((c, reach)) = s.sample_disc() else {
+            continue;
+        };
+        if first.is_some_and(|o| o.near((c.x, c.y), reach).is_open()) {
+            continue;
+        }
+        s.sample_points(1f64.to_radians(), &mut chords);
+        runs.push(((c.x, c.y), reach, chords.len()));
     }
-    pts.into_iter().map(|q| (q.x, q.y)).collect()
+    // The extremes of the starts are the first octagon's corners.
+    let mut corners: Vec<(f64, f64)> = match &first {
+        Some(o) => o.corners().collect(),
+        None => starts.clone(),
+    };
+    corners.extend(chords.iter().step_by(8).map(|q| (q.x, q.y)));
+    let Some(inner) = Octagon::of(&corners) else {
+        let mut pts = starts;
+        pts.extend(chords.iter().map(|q| (q.x, q.y)));
+        return pts;
+    };
+    let mut pts: Vec<(f64, f64)> = starts.into_iter().filter(|&p| !inner.holds(p)).collect();
+    let mut from = 0;
+    for (c, reach, to) in runs {
+        let near = inner.near(c, reach);
+        let run = chords[from..to].iter().map(|q| (q.x, q.y));
+        pts.extend(run.filter(|&p| !near.holds(p)));
+        from = to;
+    }
+    pts
 }
 
 /// Is angle `t` (any turn) within the sweep from `a0` to `a1`?

@@ -199,19 +199,17 @@ pub fn extremes(field: &StressField, points: &[(f64, f64)]) -> Option<Extremes> 
 /// repeated points. Non-finite points are ignored; with fewer than three distinct points the
 /// distinct points are returned (sorted), and a collinear set gives its two ends.
 ///
-/// Points well inside the octagon of the extreme points in x, y, x + y and x − y are
-/// dropped before the sort (Akl and Toussaint, "A fast convex hull algorithm",
-/// Information Processing Letters 7, 1978): they cannot be on the hull, so the result
-/// is the same, and an outline's points are mostly such points.
+/// The sort is most of the cost: for a large set, leave out the points well inside its
+/// [`Octagon`] first (they cannot be on the hull, so the result is the same).
 pub fn convex_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
-    let finite = |p: &(f64, f64)| p.0.is_finite() && p.1.is_finite();
-    let octagon = extreme_octagon(points.iter().copied().filter(finite));
-    let mut pts: Vec<(f64, f64)> = points
-        .iter()
-        .copied()
-        .filter(|p| finite(p) && !octagon.as_ref().is_some_and(|o| o.holds(*p)))
-        .collect();
-    pts.sort_unstable_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
+    let mut pts: Vec<(f64, f64)> = Vec::with_capacity(points.len());
+    pts.extend(
+        points
+            .iter()
+            .copied()
+            .filter(|p| p.0.is_finite() && p.1.is_finite()),
+    );
+    pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
     pts.dedup();
     if pts.len() < 3 {
         return pts;
@@ -246,61 +244,102 @@ fn cross(o: (f64, f64), a: (f64, f64), b: (f64, f64)) -> f64 {
 }
 
 /// The convex polygon of a point set's extreme points in the directions −x, −x−y, −y,
-/// x−y, x, x+y, y, y−x (counter-clockwise; neighbours may coincide).
-struct Octagon {
-    corners: [(f64, f64); 8],
-    /// How far inside an edge (as a cross product) a point must be to count as inside:
-    /// far above the rounding of the cross products.
+/// x−y, x, x+y, y, y−x (counter-clockwise; coincident neighbours merged). It lies in
+/// the set's convex hull, so a point well inside it (by more than the rounding of the
+/// hull's turn tests) is not a vertex of the hull, of this set or of any set that holds
+/// the corners: leaving such points out before [`convex_hull`] gives the same hull
+/// (Akl and Toussaint, "A fast convex hull algorithm", Information Processing Letters 7,
+/// 1978).
+#[derive(Debug, Clone, Copy)]
+pub struct Octagon {
+    /// Edges as start point a, direction `d = b − a` and `|d|`; the first `len` are used.
+    edges: [Edge; 8],
+    len: usize,
+    /// How far inside an edge (as the cross product `d × (p − a)`) a point must be to
+    /// count as inside: far above the rounding of the cross products.
     margin: f64,
 }
 
-impl Octagon {
-    /// Is `p` inside every edge by more than the margin (so inside the hull)?
-    fn holds(&self, p: (f64, f64)) -> bool {
-        let c = &self.corners;
-        (0..8).all(|i| {
-            let (a, b) = (c[i], c[(i + 1) % 8]);
-            a == b || cross(a, b, p) > self.margin
-        })
-    }
-}
+type Edge = ((f64, f64), (f64, f64), f64);
 
-/// The extreme octagon of finite points; `None` for no points.
-fn extreme_octagon(points: impl Iterator<Item = (f64, f64)>) -> Option<Octagon> {
-    let keys: [fn((f64, f64)) -> f64; 8] = [
-        |p| -p.0,
-        |p| -p.0 - p.1,
-        |p| -p.1,
-        |p| p.0 - p.1,
-        |p| p.0,
-        |p| p.0 + p.1,
-        |p| p.1,
-        |p| p.1 - p.0,
-    ];
-    let mut best: Option<[(f64, (f64, f64)); 8]> = None;
-    for p in points {
-        let b = best.get_or_insert_with(|| keys.map(|k| (k(p), p)));
-        for (slot, k) in b.iter_mut().zip(keys) {
-            let v = k(p);
-            if v > slot.0 {
-                *slot = (v, p);
+impl Octagon {
+    /// The extreme octagon of the finite points; `None` with fewer than three distinct
+    /// corners (nothing is strictly inside).
+    pub fn of(points: &[(f64, f64)]) -> Option<Octagon> {
+        let mut best = [f64::NEG_INFINITY; 8];
+        let mut at = [0; 8];
+        for (j, &(x, y)) in points.iter().enumerate() {
+            if !(x.is_finite() && y.is_finite()) {
+                continue;
+            }
+            let keys = [-x, -x - y, -y, x - y, x, x + y, y, y - x];
+            for i in 0..8 {
+                if keys[i] > best[i] {
+                    best[i] = keys[i];
+                    at[i] = j;
+                }
             }
         }
+        // Every key finite: a corner in each direction (none without finite points).
+        if !best.iter().all(|k| k.is_finite()) {
+            return None;
+        }
+        let corners = at.map(|j| points[j]);
+        let mut edges = [((0.0, 0.0), (0.0, 0.0), 0.0); 8];
+        let mut len = 0;
+        for i in 0..8 {
+            let (a, b) = (corners[i], corners[(i + 1) % 8]);
+            if a != b {
+                let d = (b.0 - a.0, b.1 - a.1);
+                edges[len] = (a, d, d.0.hypot(d.1));
+                len += 1;
+            }
+        }
+        if len < 3 {
+            return None;
+        }
+        let (w, h) = (corners[4].0 - corners[0].0, corners[6].1 - corners[2].1);
+        let size = w.max(h);
+        Some(Octagon {
+            edges,
+            len,
+            margin: 1e-9 * size * size,
+        })
     }
-    let corners = best?.map(|(_, p)| p);
-    // With fewer than three distinct corners nothing is strictly inside.
-    let distinct = (0..8)
-        .filter(|&i| corners[i] != corners[(i + 1) % 8])
-        .count();
-    if distinct < 3 {
-        return None;
+
+    /// Is `p` inside every edge by more than the margin (so inside the hull, not on it)?
+    pub fn holds(&self, p: (f64, f64)) -> bool {
+        self.edges[..self.len]
+            .iter()
+            .all(|&(a, d, _)| d.0 * (p.1 - a.1) - d.1 * (p.0 - a.0) > self.margin)
     }
-    let (w, h) = (corners[4].0 - corners[0].0, corners[6].1 - corners[2].1);
-    let size = w.max(h);
-    Some(Octagon {
-        corners,
-        margin: 1e-9 * size * size,
-    })
+
+    /// The octagon's edges that a point within `reach` of `c` may fail [`Octagon::holds`]
+    /// at: for an edge from a in direction d, such a point is at most `|d|·reach` nearer
+    /// the edge's line (as a cross product) than c, so the edges that c is inside by more
+    /// than the margin plus that are left out. For those points its `holds` is the
+    /// octagon's; with no edge left ([`Octagon::is_open`]) every such point holds.
+    pub fn near(&self, c: (f64, f64), reach: f64) -> Octagon {
+        let mut near = Octagon { len: 0, ..*self };
+        for &(a, d, len) in &self.edges[..self.len] {
+            // Kept unless surely clear (a NaN keeps it).
+            if !(d.0 * (c.1 - a.1) - d.1 * (c.0 - a.0) > self.margin + len * reach) {
+                near.edges[near.len] = (a, d, len);
+                near.len += 1;
+            }
+        }
+        near
+    }
+
+    /// The corners (the ends of the edges), counter-clockwise.
+    pub fn corners(&self) -> impl Iterator<Item = (f64, f64)> + '_ {
+        self.edges[..self.len].iter().map(|e| e.0)
+    }
+
+    /// No edge to test: every point holds.
+    pub fn is_open(&self) -> bool {
+        self.len == 0
+    }
 }
 
 #[cfg(test)]
@@ -609,76 +648,128 @@ mod tests {
         assert!(polygon_centroidal(&hull).area > 0.0);
     }
 
-    /// The plain monotone chain (Andrew 1979) over every point, sorted stably: the
-    /// reference the prefiltered hull must match exactly.
-    fn plain_hull(points: &[(f64, f64)]) -> Vec<(f64, f64)> {
-        let mut pts: Vec<(f64, f64)> = points
-            .iter()
-            .copied()
-            .filter(|p| p.0.is_finite() && p.1.is_finite())
-            .collect();
-        pts.sort_by(|p, q| p.0.total_cmp(&q.0).then(p.1.total_cmp(&q.1)));
-        pts.dedup();
-        if pts.len() < 3 {
-            return pts;
+    /// The points of `pts` the octagon of `pts` does not hold.
+    fn prefiltered(pts: &[(f64, f64)]) -> Vec<(f64, f64)> {
+        match Octagon::of(pts) {
+            Some(o) => pts.iter().copied().filter(|&p| !o.holds(p)).collect(),
+            None => pts.to_vec(),
         }
-        let mut hull: Vec<(f64, f64)> = Vec::new();
-        for pass in 0..2 {
-            let start = hull.len();
-            let ordered: Vec<(f64, f64)> = if pass == 0 {
-                pts.clone()
-            } else {
-                pts.iter().rev().copied().collect()
-            };
-            for p in ordered {
-                while hull.len() >= start + 2 {
-                    let (o, a) = (hull[hull.len() - 2], hull[hull.len() - 1]);
-                    if cross(o, a, p) > 0.0 {
-                        break;
-                    }
-                    hull.pop();
-                }
-                hull.push(p);
-            }
-            hull.pop();
-        }
-        hull
     }
 
     #[test]
-    fn prefiltered_hull_matches_the_plain_chain_on_random_sets() {
-        // Random sets from a linear congruential generator (Knuth's MMIX constants):
-        // points in a square, on circles (as outline points of arcs are), on the edges of
-        // a rectangle (collinear runs), with repeats and a few non-finite points.
-        let mut seed = 2024u64;
+    fn hull_of_a_circles_points_is_all_of_them() {
+        // Every point of a circle is extreme, so the hull of n points on it is the regular
+        // n-gon through them, of area (n/2)·r²·sin(2π/n) (n isosceles triangles).
+        let (n, r, c) = (360, 75.0, (12.0, -40.0));
+        let pts: Vec<(f64, f64)> = (0..n)
+            .map(|k| {
+                let t = std::f64::consts::TAU * k as f64 / n as f64;
+                (c.0 + r * t.cos(), c.1 + r * t.sin())
+            })
+            .collect();
+        let hull = convex_hull(&pts);
+        assert_eq!(hull.len(), n);
+        let want = n as f64 / 2.0 * r * r * (std::f64::consts::TAU / n as f64).sin();
+        assert!(close(polygon_centroidal(&hull).area, want, 1e-12));
+        // The octagon (the points at 0°, 45°, … 315°) leaves out none of them.
+        assert_eq!(prefiltered(&pts).len(), n);
+    }
+
+    #[test]
+    fn hull_of_a_rectangle_with_a_hole_is_its_corners() {
+        // A 300 × 200 plate with a round hole and a square hole: the hull of a set is the
+        // hull of its extreme points, here the plate's four corners (counter-clockwise from
+        // the lowest x, then lowest y).
+        let mut pts = rectangle(300.0, 200.0, 150.0, 100.0, 0.0);
+        pts.extend((0..72).map(|k| {
+            let t = std::f64::consts::TAU * k as f64 / 72.0;
+            (90.0 + 40.0 * t.cos(), 100.0 + 40.0 * t.sin())
+        }));
+        pts.extend(rectangle(60.0, 60.0, 220.0, 100.0, 0.0));
+        let corners = vec![(0.0, 0.0), (300.0, 0.0), (300.0, 200.0), (0.0, 200.0)];
+        assert_eq!(convex_hull(&pts), corners);
+        assert_eq!(prefiltered(&pts), corners);
+    }
+
+    /// Random sets from a linear congruential generator (Knuth's MMIX constants): points
+    /// in a square, on circles (as outline points of arcs are), on the edges of a
+    /// rectangle (collinear runs), with repeats and a few non-finite points.
+    fn awkward_set(round: usize, seed: &mut u64) -> Vec<(f64, f64)> {
         let mut next = || {
-            seed = seed
+            *seed = seed
                 .wrapping_mul(6364136223846793005)
                 .wrapping_add(1442695040888963407);
-            (seed >> 11) as f64 / (1u64 << 53) as f64
+            (*seed >> 11) as f64 / (1u64 << 53) as f64
         };
-        for round in 0..300 {
-            let n = 1 + round % 97 * 7;
-            let scale = 10f64.powi(round % 7 - 3);
-            let pts: Vec<(f64, f64)> = (0..n)
-                .map(|k| {
-                    let (u, v) = (next(), next());
-                    match (round + k) % 5 {
-                        0 => (scale * u, scale * v),
-                        1 => {
-                            let t = std::f64::consts::TAU * u;
-                            (scale * (0.5 + 0.5 * t.cos()), scale * (0.5 + 0.5 * t.sin()))
-                        }
-                        2 => (scale * (u * 4.0).floor() / 4.0, scale * v),
-                        3 if k % 11 == 0 => (f64::NAN, v),
-                        _ => (
-                            scale * (u * 3.0).round() / 3.0,
-                            scale * (v * 3.0).round() / 3.0,
-                        ),
+        let n = 1 + round % 97 * 7;
+        let scale = 10f64.powi(round as i32 % 7 - 3);
+        (0..n)
+            .map(|k| {
+                let (u, v) = (next(), next());
+                match (round + k) % 5 {
+                    0 => (scale * u, scale * v),
+                    1 => {
+                        let t = std::f64::consts::TAU * u;
+                        (scale * (0.5 + 0.5 * t.cos()), scale * (0.5 + 0.5 * t.sin()))
                     }
-                })
-                .collect();
-            assert_eq!(convex_hull(&pts), plain_hull(&pts), "round {round}");
+                    2 => (scale * (u * 4.0).floor() / 4.0, scale * v),
+                    3 if k % 11 == 0 => (f64::NAN, v),
+                    _ => (
+                        scale * (u * 3.0).round() / 3.0,
+                        scale * (v * 3.0).round() / 3.0,
+                    ),
+                }
+            })
+            .collect()
+    }
+
+    #[test]
+    fn prefiltered_hull_matches_the_whole_sets_on_awkward_sets() {
+        // Leaving out the points the extreme octagon holds changes nothing (Akl and
+        // Toussaint 1978): the monotone chain over all points is the reference.
+        let mut seed = 2024u64;
+        for round in 0..300 {
+            let pts = awkward_set(round, &mut seed);
+            assert_eq!(
+                convex_hull(&prefiltered(&pts)),
+                convex_hull(&pts),
+                "round {round}"
+            );
+        }
+    }
+
+    fn point_set() -> impl proptest::strategy::Strategy<Value = Vec<(f64, f64)>> {
+        use proptest::prelude::*;
+        // Points in a box, and points on a circle (as outline points of arcs are).
+        let free = (-1e3f64..1e3, -1e3f64..1e3);
+        let on_circle = (0.0f64..std::f64::consts::TAU, 1e-3f64..1e3, -1e3f64..1e3)
+            .prop_map(|(t, r, x)| (x + r * t.cos(), r * t.sin()));
+        proptest::collection::vec(prop_oneof![free, on_circle], 0..400)
+    }
+
+    proptest::proptest! {
+        #[test]
+        fn prefilter_leaves_the_hull_alone(pts in point_set()) {
+            proptest::prop_assert_eq!(convex_hull(&prefiltered(&pts)), convex_hull(&pts));
+        }
+
+        #[test]
+        fn near_edges_decide_as_the_octagon_does(
+            pts in point_set(),
+            c in (-1.2e3f64..1.2e3, -1.2e3f64..1.2e3),
+            reach in 0.0f64..500.0,
+            offsets in proptest::collection::vec((0.0f64..0.99, 0.0f64..std::f64::consts::TAU), 1..50),
+        ) {
+            // Within `reach` of c the octagon's nearby edges give its own answer, and
+            // with none left every such point is held.
+            if let Some(o) = Octagon::of(&pts) {
+                let near = o.near(c, reach);
+                for (f, t) in offsets {
+                    let p = (c.0 + f * reach * t.cos(), c.1 + f * reach * t.sin());
+                    proptest::prop_assert_eq!(near.holds(p), o.holds(p));
+                    proptest::prop_assert!(!near.is_open() || o.holds(p));
+                }
+            }
         }
     }
 }
