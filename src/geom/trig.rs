@@ -7,17 +7,25 @@
 //! degree 5 over one arc ([`Monomials`]) come from the cosines and sines of its two end
 //! angles alone, so an arc costs two `sin_cos` however many moments are taken over it.
 
-/// A polynomial `Σ c[i][j] cosⁱ t sinʲ t` of total degree below 6.
-#[derive(Debug, Clone, Copy, PartialEq, Default)]
-pub struct TrigPoly(pub [[f64; 6]; 6]);
+/// A polynomial `Σ c[i][j] cosⁱ t sinʲ t` of total degree `deg` below 6 (every
+/// coefficient of a higher total degree is zero), `c[i][j]` stored at `6i + j`, so
+/// that the product of two terms is stored at the sum of their places.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct TrigPoly {
+    c: [f64; 36],
+    deg: usize,
+}
 
 impl TrigPoly {
     /// `a + b cos t + c sin t`
     pub fn linear(a: f64, b: f64, c: f64) -> TrigPoly {
-        let mut p = TrigPoly::default();
-        p.0[0][0] = a;
-        p.0[1][0] = b;
-        p.0[0][1] = c;
+        let mut p = TrigPoly {
+            c: [0.0; 36],
+            deg: 1,
+        };
+        p.c[0] = a;
+        p.c[6] = b;
+        p.c[1] = c;
         p
     }
 
@@ -32,29 +40,23 @@ impl TrigPoly {
         ]
     }
 
-    /// The product; terms beyond degree 5 are dropped (no caller makes them). Only the
-    /// nonzero coefficients of either factor are multiplied.
+    /// The product; terms beyond degree 5 are dropped (no caller makes them). Each
+    /// nonzero coefficient of `self` (in the order of `i`, then `j`) times every term
+    /// of `o` that stays within degree 5.
     pub fn mul(&self, o: &TrigPoly) -> TrigPoly {
-        let mut terms = [(0, 0, 0.0); 21];
-        let mut n = 0;
-        for (k, row) in o.0.iter().enumerate() {
-            for (l, &b) in row.iter().enumerate().take(6 - k) {
-                if b != 0.0 {
-                    terms[n] = (k, l, b);
-                    n += 1;
-                }
-            }
-        }
-        let mut out = TrigPoly::default();
-        for (i, row) in self.0.iter().enumerate() {
-            for (j, &a) in row.iter().enumerate().take(6 - i) {
+        let mut out = TrigPoly {
+            c: [0.0; 36],
+            deg: (self.deg + o.deg).min(5),
+        };
+        for i in 0..=self.deg {
+            for j in 0..=self.deg - i {
+                let a = self.c[6 * i + j];
                 if a == 0.0 {
                     continue;
                 }
-                for &(k, l, b) in &terms[..n] {
-                    if i + j + k + l <= 5 {
-                        out.0[i + k][j + l] += a * b;
-                    }
+                let room = o.deg.min(5 - i - j);
+                for &at in &BY_DEGREE[..(room + 1) * (room + 2) / 2] {
+                    out.c[6 * i + j + at] += a * o.c[at];
                 }
             }
         }
@@ -64,8 +66,9 @@ impl TrigPoly {
     /// `∫ p(t) dt` over the arc of `m`, exactly: `Σ c[i][j]·∫cosⁱ t sinʲ t dt`.
     pub fn integral(&self, m: &Monomials) -> f64 {
         let mut sum = 0.0;
-        for (i, row) in self.0.iter().enumerate() {
-            for (j, &a) in row.iter().enumerate().take(6 - i) {
+        for i in 0..=self.deg {
+            for j in 0..=self.deg - i {
+                let a = self.c[6 * i + j];
                 if a != 0.0 {
                     sum += a * m.0[i][j];
                 }
@@ -74,6 +77,12 @@ impl TrigPoly {
         sum
     }
 }
+
+/// The places `6k + l` of the terms `cosᵏ sinˡ` in order of total degree `k + l`:
+/// those up to degree `d` are the first `(d + 1)(d + 2)/2`.
+const BY_DEGREE: [usize; 21] = [
+    0, 1, 6, 2, 7, 12, 3, 8, 13, 18, 4, 9, 14, 19, 24, 5, 10, 15, 20, 25, 30,
+];
 
 /// An end angle `t` of an arc with its cosine and sine.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -145,8 +154,11 @@ mod tests {
     use std::f64::consts::{PI, TAU};
 
     fn mono(i: usize, j: usize) -> TrigPoly {
-        let mut p = TrigPoly::default();
-        p.0[i][j] = 1.0;
+        let mut p = TrigPoly {
+            c: [0.0; 36],
+            deg: i + j,
+        };
+        p.c[6 * i + j] = 1.0;
         p
     }
 
