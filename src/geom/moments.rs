@@ -16,7 +16,7 @@
 //! up part by part; [`Moments::centroidal`] applies the parallel axis theorem,
 //! `I_c = I_o − A·d²`.
 
-use super::trig::TrigPoly;
+use super::trig::{Monomials, TrigPoly};
 use super::{Contour, Pt, Seg};
 
 /// Area moments about the origin: `a = ∫dA`, `sx = ∫x dA`, `sy = ∫y dA`,
@@ -100,13 +100,14 @@ impl BoundaryIntegral for Moments {
                 let [x, y, w] = TrigPoly::arc(c, r);
                 let xw = x.mul(&w);
                 let yw = y.mul(&w);
+                let m = Monomials::new(a0, a1);
                 Moments {
-                    a: w.integral(a0, a1) / 2.0,
-                    sx: xw.integral(a0, a1) / 3.0,
-                    sy: yw.integral(a0, a1) / 3.0,
-                    ixx: y.mul(&yw).integral(a0, a1) / 4.0,
-                    iyy: x.mul(&xw).integral(a0, a1) / 4.0,
-                    ixy: x.mul(&yw).integral(a0, a1) / 4.0,
+                    a: w.integral(&m) / 2.0,
+                    sx: xw.integral(&m) / 3.0,
+                    sy: yw.integral(&m) / 3.0,
+                    ixx: y.mul(&yw).integral(&m) / 4.0,
+                    iyy: x.mul(&xw).integral(&m) / 4.0,
+                    ixy: x.mul(&yw).integral(&m) / 4.0,
                 }
             }
         }

@@ -21,7 +21,7 @@
 //! expansion of `(x − x̄)ⁱ(y − ȳ)ʲ`.
 
 use crate::geom::moments::Moments;
-use crate::geom::trig::TrigPoly;
+use crate::geom::trig::{Monomials, TrigPoly};
 use crate::geom::{BoundaryIntegral, Seg};
 
 /// Third area moments: `xxx = ∫x³ dA`, `xxy = ∫x²y dA`, `xyy = ∫xy² dA`, `yyy = ∫y³ dA`
@@ -72,10 +72,12 @@ impl BoundaryIntegral for Cubic {
                 let [x, y, w] = TrigPoly::arc(c, r);
                 let xw = x.mul(&w);
                 let yw = y.mul(&w);
-                let int = |p: TrigPoly| p.integral(a0, a1) / 5.0;
+                let m = Monomials::new(a0, a1);
+                let int = |p: TrigPoly| p.integral(&m) / 5.0;
+                let xx = x.mul(&x);
                 Cubic {
-                    xxx: int(x.mul(&x).mul(&xw)),
-                    xxy: int(x.mul(&x).mul(&yw)),
+                    xxx: int(xx.mul(&xw)),
+                    xxy: int(xx.mul(&yw)),
                     xyy: int(x.mul(&y).mul(&yw)),
                     yyy: int(y.mul(&y).mul(&yw)),
                 }

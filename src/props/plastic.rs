@@ -12,9 +12,9 @@
 //! so the modulus is accurate to rounding. The axis parallel to y is found the same way
 //! after a quarter turn of the section.
 
-use crate::geom::trig::TrigPoly;
-use crate::geom::{Contour, Seg};
-use std::f64::consts::TAU;
+use crate::geom::trig::{Angle, Monomials, TrigPoly};
+use crate::geom::{Contour, Pt, Seg};
+use std::f64::consts::{PI, TAU};
 
 /// A set of boundaries with a weight (sign × strength ratio).
 pub struct Weighted<'a> {
@@ -40,7 +40,21 @@ struct Below {
 /// The plastic axis parallel to x of a weighted region spanning `ymin..ymax`.
 /// `None` if the weighted area is not positive.
 pub fn plastic_axis_x(parts: &[Weighted], ymin: f64, ymax: f64) -> Option<PlasticAxis> {
-    let total = below(parts, f64::INFINITY);
+    search(&edges(parts, |s| *s), ymin, ymax)
+}
+
+/// The plastic axis parallel to y: the same problem after `(x, y) ↦ (y, −x)`; the
+/// level returned is the x of the axis.
+pub fn plastic_axis_y(parts: &[Weighted], xmin: f64, xmax: f64) -> Option<PlasticAxis> {
+    search(&edges(parts, Seg::quarter_turn_cw), -xmax, -xmin).map(|p| PlasticAxis {
+        level: -p.level,
+        z: p.z,
+    })
+}
+
+/// The level halving the weighted area of `edges` within `ymin..ymax`, and `Z` there.
+fn search(edges: &Edges, ymin: f64, ymax: f64) -> Option<PlasticAxis> {
+    let total = below(edges, f64::INFINITY);
     if total.a.is_nan() || total.a <= 0.0 || ymax.is_nan() || ymin.is_nan() || ymax <= ymin {
         return None;
     }
@@ -48,7 +62,7 @@ pub fn plastic_axis_x(parts: &[Weighted], ymin: f64, ymax: f64) -> Option<Plasti
     let (mut lo, mut hi) = (ymin, ymax);
     // Start at mid-depth; Newton needs only a few steps on the piecewise polynomial.
     let mut c = 0.5 * (lo + hi);
-    let mut at = below(parts, c);
+    let mut at = below(edges, c);
     for _ in 0..200 {
         let f = at.a - half;
         if f.abs() <= 1e-15 * total.a {
@@ -69,63 +83,114 @@ pub fn plastic_axis_x(parts: &[Weighted], ymin: f64, ymax: f64) -> Option<Plasti
             break;
         }
         c = next;
-        at = below(parts, c);
+        at = below(edges, c);
     }
     let z = total.q - 2.0 * at.q - c * (total.a - 2.0 * at.a);
     Some(PlasticAxis { level: c, z })
 }
 
-/// The plastic axis parallel to y: the same problem after `(x, y) ↦ (y, −x)`; the
-/// level returned is the x of the axis.
-pub fn plastic_axis_y(parts: &[Weighted], xmin: f64, xmax: f64) -> Option<PlasticAxis> {
-    let turned: Vec<Vec<Contour>> = parts
-        .iter()
-        .map(|p| {
-            p.contours
-                .iter()
-                .map(|c| Contour {
-                    segs: c.segs.iter().map(Seg::quarter_turn_cw).collect(),
-                })
-                .collect()
-        })
-        .collect();
-    let weighted: Vec<Weighted> = turned
-        .iter()
-        .zip(parts)
-        .map(|(c, p)| Weighted {
-            contours: c,
-            weight: p.weight,
-        })
-        .collect();
-    plastic_axis_x(&weighted, -xmax, -xmin).map(|p| PlasticAxis {
-        level: -p.level,
-        z: p.z,
-    })
+/// The weighted boundary segments of a section in order, prepared once for every level
+/// of the search: each one's whole share, and the arcs' integrands and end angles.
+struct Edges {
+    edges: Vec<Edge>,
+    arcs: Vec<ArcEdge>,
 }
 
-fn below(parts: &[Weighted], c: f64) -> Below {
-    let mut sum = Below::default();
+struct Edge {
+    weight: f64,
+    whole: Below,
+    shape: Shape,
+}
+
+enum Shape {
+    Line(Pt, Pt),
+    /// Index into [`Edges::arcs`].
+    Arc(usize),
+}
+
+/// An arc about `o` of radius `r` from `a0` to `a1`, with `x dy = xdy(t) dt` and
+/// `x·y dy = xydy(t) dt` (`dy = r cos t dt`).
+struct ArcEdge {
+    o: Pt,
+    r: f64,
+    a0: Angle,
+    a1: Angle,
+    xdy: TrigPoly,
+    xydy: TrigPoly,
+}
+
+impl ArcEdge {
+    /// `∮ x dy`, `∮ x·y dy` from `e0` to `e1` along the arc, exactly.
+    fn part(&self, e0: &Angle, e1: &Angle) -> Below {
+        let m = Monomials::between(e0, e1);
+        Below {
+            a: self.xdy.integral(&m),
+            q: self.xydy.integral(&m),
+            width: 0.0,
+        }
+    }
+}
+
+/// The edges of every part, each segment mapped by `turn` first.
+fn edges(parts: &[Weighted], turn: impl Fn(&Seg) -> Seg) -> Edges {
+    let segs = parts.iter().flat_map(|p| p.contours).flat_map(|c| &c.segs);
+    let arcs = segs.clone().filter(|s| matches!(s, Seg::Arc { .. })).count();
+    let mut out = Edges {
+        edges: Vec::with_capacity(segs.count()),
+        arcs: Vec::with_capacity(arcs),
+    };
     for p in parts {
         for contour in p.contours {
             for s in &contour.segs {
-                let b = seg_below(s, c);
-                sum.a += p.weight * b.a;
-                sum.q += p.weight * b.q;
-                sum.width += p.weight * b.width;
+                let (whole, shape) = match turn(s) {
+                    Seg::Line(a, b) => (line_part(a.x, a.y, b.x, b.y, 0.0), Shape::Line(a, b)),
+                    Seg::Arc { c: o, r, a0, a1 } => {
+                        let x = TrigPoly::linear(o.x, r, 0.0);
+                        let y = TrigPoly::linear(o.y, 0.0, r);
+                        let xdy = x.mul(&TrigPoly::linear(0.0, r, 0.0));
+                        let arc = ArcEdge {
+                            o,
+                            r,
+                            a0: Angle::new(a0),
+                            a1: Angle::new(a1),
+                            xdy,
+                            xydy: xdy.mul(&y),
+                        };
+                        let whole = arc.part(&arc.a0, &arc.a1);
+                        out.arcs.push(arc);
+                        (whole, Shape::Arc(out.arcs.len() - 1))
+                    }
+                };
+                out.edges.push(Edge {
+                    weight: p.weight,
+                    whole,
+                    shape,
+                });
             }
         }
+    }
+    out
+}
+
+fn below(edges: &Edges, c: f64) -> Below {
+    let mut sum = Below::default();
+    for e in &edges.edges {
+        let b = edge_below(e, &edges.arcs, c);
+        sum.a += e.weight * b.a;
+        sum.q += e.weight * b.q;
+        sum.width += e.weight * b.width;
     }
     sum
 }
 
-/// `∮ x dy`, `∮ x·y dy` over the part of a segment with `y ≤ c`, and its crossing of
+/// `∮ x dy`, `∮ x·y dy` over the part of an edge with `y ≤ c`, and its crossing of
 /// the level (`x·sign(dy)`), whose sum over a closed boundary is the width at `c`.
-fn seg_below(s: &Seg, c: f64) -> Below {
-    match *s {
-        Seg::Line(p, q) => {
+fn edge_below(e: &Edge, arcs: &[ArcEdge], c: f64) -> Below {
+    match e.shape {
+        Shape::Line(p, q) => {
             let (pb, qb) = (p.y <= c, q.y <= c);
             if pb && qb {
-                return line_part(p.x, p.y, q.x, q.y, 0.0);
+                return e.whole;
             }
             if !pb && !qb {
                 return Below::default();
@@ -139,48 +204,55 @@ fn seg_below(s: &Seg, c: f64) -> Below {
                 line_part(xc, c, q.x, q.y, cross)
             }
         }
-        Seg::Arc { c: o, r, a0, a1 } => {
-            let (lo, hi) = (a0.min(a1), a0.max(a1));
+        Shape::Arc(i) => {
+            let arc = &arcs[i];
+            let (o, r) = (arc.o, arc.r);
+            let forward = arc.a1.t >= arc.a0.t;
+            let (lo, hi) = if forward {
+                (arc.a0, arc.a1)
+            } else {
+                (arc.a1, arc.a0)
+            };
             let s = (c - o.y) / r;
             if s >= 1.0 {
-                return arc_part(o.x, o.y, r, a0, a1);
+                return e.whole;
             }
             if s <= -1.0 {
                 return Below::default();
             }
-            // Angles where the circle meets y = c, within the sweep.
+            // Angles where the circle meets y = c, within the sweep: at most two a
+            // turn, over the four turns looked at.
             let base = s.asin();
-            let mut cuts = vec![lo];
-            let k0 = ((lo - base) / TAU).floor() as i64 - 1;
+            let mut cuts = [lo; 10];
+            let mut n = 1;
+            let k0 = ((lo.t - base) / TAU).floor() as i64 - 1;
             for k in k0..k0 + 4 {
-                for t in [
-                    base + k as f64 * TAU,
-                    std::f64::consts::PI - base + k as f64 * TAU,
-                ] {
-                    if t > lo && t < hi {
-                        cuts.push(t);
+                for t in [base + k as f64 * TAU, PI - base + k as f64 * TAU] {
+                    if t > lo.t && t < hi.t {
+                        cuts[n] = Angle::new(t);
+                        n += 1;
                     }
                 }
             }
-            cuts.push(hi);
-            cuts.sort_by(f64::total_cmp);
-            let dir = if a1 >= a0 { 1.0 } else { -1.0 };
+            cuts[n] = hi;
+            let cuts = &mut cuts[..n + 1];
+            cuts.sort_by(|a, b| a.t.total_cmp(&b.t));
             let mut out = Below::default();
             for w in cuts.windows(2) {
-                let mid = 0.5 * (w[0] + w[1]);
+                let mid = 0.5 * (w[0].t + w[1].t);
                 if o.y + r * mid.sin() <= c {
-                    let (t0, t1) = if dir > 0.0 {
-                        (w[0], w[1])
+                    let b = if forward {
+                        arc.part(&w[0], &w[1])
                     } else {
-                        (w[1], w[0])
+                        arc.part(&w[1], &w[0])
                     };
-                    let b = arc_part(o.x, o.y, r, t0, t1);
                     out.a += b.a;
                     out.q += b.q;
                 }
             }
-            for &t in &cuts[1..cuts.len() - 1] {
-                out.width += (o.x + r * t.cos()) * (dir * t.cos()).signum();
+            let dir = if forward { 1.0 } else { -1.0 };
+            for t in &cuts[1..cuts.len() - 1] {
+                out.width += (o.x + r * t.cos) * (dir * t.cos).signum();
             }
             out
         }
@@ -198,23 +270,9 @@ fn line_part(x0: f64, y0: f64, x1: f64, y1: f64, width: f64) -> Below {
     }
 }
 
-/// The same integrals over an arc, exactly: `dy = r cos t dt`.
-fn arc_part(cx: f64, cy: f64, r: f64, t0: f64, t1: f64) -> Below {
-    let x = TrigPoly::linear(cx, r, 0.0);
-    let y = TrigPoly::linear(cy, 0.0, r);
-    let dy = TrigPoly::linear(0.0, r, 0.0);
-    let xdy = x.mul(&dy);
-    Below {
-        a: xdy.integral(t0, t1),
-        q: xdy.mul(&y).integral(t0, t1),
-        width: 0.0,
-    }
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::geom::Pt;
 
     #[test]
     fn rectangle_plastic_modulus_is_bh2_over_4() {

@@ -120,12 +120,11 @@ impl Properties {
             .iter()
             .map(|p| shifted(&p.contours, origin))
             .collect();
+        let each: Vec<Moments> = local.iter().map(|c| Moments::of_contours(c)).collect();
         let m = pieces
             .iter()
-            .zip(&local)
-            .fold(Moments::default(), |s, (p, c)| {
-                s.plus(&Moments::of_contours(c), p.sign() * p.n)
-            });
+            .zip(&each)
+            .fold(Moments::default(), |s, (p, pm)| s.plus(pm, p.sign() * p.n));
         let cubic = pieces
             .iter()
             .zip(&local)
@@ -189,11 +188,8 @@ impl Properties {
         };
         let mass_area = pieces
             .iter()
-            .zip(&local)
-            .map(|(p, c)| {
-                p.density
-                    .map(|rho| p.sign() * rho * Moments::of_contours(c).a)
-            })
+            .zip(&each)
+            .map(|(p, pm)| p.density.map(|rho| p.sign() * rho * pm.a))
             .sum::<Option<f64>>();
         Ok(Properties {
             area,
