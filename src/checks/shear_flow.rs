@@ -261,25 +261,29 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
         (f, y)
     };
     let mut memo = ArcOffsets::default();
-    let mut probes = Vec::new();
     pieces
         .iter()
         .enumerate()
         .filter(|(_, p)| p.void)
         .map(|(v, p)| {
-            probes.clear();
-            for c in &p.contours {
-                let f = c.facets_in(5f64.to_radians(), &mut memo);
-                for (k, &a) in f.iter().enumerate() {
-                    let b = f[(k + 1) % f.len()];
-                    let d = b.sub(a);
-                    let len = d.x.hypot(d.y);
-                    if len > 0.0 {
-                        let mid = a.add(d.scale(0.5));
-                        probes.push(mid.add(Pt::new(-d.y, d.x).scale(delta / len)));
-                    }
-                }
-            }
+            let rings: Vec<Vec<Pt>> = (p.contours.iter())
+                .map(|c| c.facets_in(5f64.to_radians(), &mut memo))
+                .collect();
+            // The probes in order, each made when it is asked for (the first one inside
+            // a solid settles it).
+            let probes = || {
+                rings.iter().flat_map(|f| {
+                    (0..f.len()).filter_map(move |k| {
+                        let (a, b) = (f[k], f[(k + 1) % f.len()]);
+                        let d = b.sub(a);
+                        let len = d.x.hypot(d.y);
+                        (len > 0.0).then(|| {
+                            let mid = a.add(d.scale(0.5));
+                            mid.add(Pt::new(-d.y, d.x).scale(delta / len))
+                        })
+                    })
+                })
+            };
             let reach = bounds[v].map(|b| {
                 let w = 2.0 * delta;
                 [b[0] - w, b[1] + w, b[2] - w, b[3] + w]
@@ -293,7 +297,7 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
                 .filter(|(i, _, cell)| {
                     let loops =
                         cell.get_or_init(|| pieces[*i].contours.iter().map(facets).collect());
-                    probes.iter().any(|&q| winding_in(loops, q) != 0)
+                    probes().any(|q| winding_in(loops, q) != 0)
                 })
                 .map(|(i, _, _)| *i)
                 .collect();
