@@ -412,3 +412,41 @@ pub fn warnings(
     }
     out
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::Contour;
+
+    #[test]
+    fn winding_skipping_loops_out_of_range_matches_the_crossing_rule() {
+        // A square ring, outline 0..10 counter-clockwise and hole 3..7 clockwise: by the
+        // crossing-number rule with a half-open y test (Hormann & Agathos, "The point
+        // in polygon problem for arbitrary polygons", 2001) the winding number is 1 in
+        // the ring, 0 in the hole and outside, and 0 on the top edge y = 10 but 1 on
+        // the bottom edge y = 0 (left of the right side).
+        let outline = Contour::rounded_rect(0.0, 0.0, 10.0, 10.0, 0.0);
+        let hole = Contour::rounded_rect(3.0, 3.0, 7.0, 7.0, 0.0).reversed();
+        let loops: Loops = [outline, hole]
+            .iter()
+            .map(|c| {
+                let f = c.facets(1f64.to_radians());
+                let lo = f.iter().map(|p| p.y).fold(f64::INFINITY, f64::min);
+                let hi = f.iter().map(|p| p.y).fold(f64::NEG_INFINITY, f64::max);
+                (f, [lo, hi])
+            })
+            .collect();
+        for (q, w) in [
+            (Pt::new(1.0, 5.0), 1),
+            (Pt::new(5.0, 5.0), 0),
+            (Pt::new(5.0, 1.0), 1),
+            (Pt::new(5.0, -1.0), 0),
+            (Pt::new(5.0, 11.0), 0),
+            (Pt::new(5.0, 10.0), 0),
+            (Pt::new(5.0, 0.0), 1),
+            (Pt::new(5.0, f64::NAN), 0),
+        ] {
+            assert_eq!(winding_in(&loops, q), w, "{q:?}");
+        }
+    }
+}

@@ -74,7 +74,10 @@ impl Outline {
         // The union of the segments' boxes is the piece's box (`Piece::bounds`: min and
         // max do not depend on how they are grouped).
         let bounds = segs.iter().map(|(_, b)| *b).reduce(union_bounds)?;
-        bounds.iter().all(|v| v.is_finite()).then_some(Outline { segs, bounds })
+        bounds
+            .iter()
+            .all(|v| v.is_finite())
+            .then_some(Outline { segs, bounds })
     }
 }
 
@@ -323,6 +326,31 @@ mod tests {
         let c = contacts(&[rect("a", 0.0, 0.0, 1.0, 1.0), rect("b", 1.0, 1.0, 2.0, 2.0)]);
         assert!(c.joints.is_empty());
         assert_eq!(c.points, vec![(0, 1)]);
+    }
+
+    #[test]
+    fn vertex_on_an_edge_is_a_point_contact_one_just_clear_is_none() {
+        // A square standing on its corner at the middle of a plate's top edge touches
+        // it at (5, 1); lifted by 10 joint tolerances it touches
+        // nothing (the section is 10 wide).
+        let diamond = |lift: f64| {
+            Piece::plain(
+                "d",
+                vec![Contour::polygon(&[
+                    Pt::new(5.0, 1.0 + lift),
+                    Pt::new(6.0, 2.0 + lift),
+                    Pt::new(5.0, 3.0 + lift),
+                    Pt::new(4.0, 2.0 + lift),
+                ])],
+                false,
+            )
+        };
+        let plate = rect("p", 0.0, 0.0, 10.0, 1.0);
+        let c = contacts(&[plate.clone(), diamond(0.0)]);
+        assert!(c.joints.is_empty());
+        assert_eq!(c.points, vec![(0, 1)]);
+        let c = contacts(&[plate, diamond(10.0 * JOINT_TOL * 10.0)]);
+        assert!(c.joints.is_empty() && c.points.is_empty(), "{c:?}");
     }
 
     #[test]

@@ -11,8 +11,8 @@
 //! edges away from ∂Q is placed inside or outside Q once, so a pair costs about
 //! `n log n` in its edges rather than `n²`.
 
-use crate::geom::meet::{self, Edge};
 use crate::geom::contour::union_bounds;
+use crate::geom::meet::{self, Edge};
 use crate::geom::Pt;
 use crate::geom::{BoundaryIntegral, Piece};
 use crate::model::warning::{More, Warning};
