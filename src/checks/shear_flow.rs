@@ -144,20 +144,20 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
         .collect()
 }
 
-/// The moments of piece `p` about `origin`, signed and weighted by its modular ratio.
+/// The moments of piece `p` about `origin`, signed and weighted by its modular ratio:
+/// each segment shifted by `−origin` as it is integrated (the sums of
+/// [`BoundaryIntegral::of_contours`], in its order).
 fn piece_moments(p: &Piece, origin: Pt) -> Moments {
-    let shifted: Vec<_> = p
-        .contours
-        .iter()
-        .map(|k| crate::geom::Contour {
-            segs: k
-                .segs
-                .iter()
-                .map(|s| s.shifted(Pt::new(-origin.x, -origin.y)))
-                .collect(),
-        })
-        .collect();
-    Moments::default().plus(&Moments::of_contours(&shifted), p.sign() * p.n)
+    let back = Pt::new(-origin.x, -origin.y);
+    let of_contour = |k: &crate::geom::Contour| {
+        (k.segs.iter())
+            .map(|s| Moments::of_seg(&s.shifted(back)))
+            .fold(Moments::default(), |m, o| m.plus(&o, 1.0))
+    };
+    let all = (p.contours.iter())
+        .map(of_contour)
+        .fold(Moments::default(), |m, o| m.plus(&o, 1.0));
+    Moments::default().plus(&all, p.sign() * p.n)
 }
 
 /// The side of bridge edge `e` with fewer parts (the later part's side on a tie), its
@@ -217,8 +217,18 @@ fn cut_off(
     })
 }
 
-/// A solid's outline as closed polygons.
-type Loops = Vec<Vec<Pt>>;
+/// A solid's outline as closed polygons, each with the range of its points' `y`.
+type Loops = Vec<(Vec<Pt>, [f64; 2])>;
+
+/// The winding number of `loops` about `q`: a loop whose points all lie above `q`, or
+/// none above it, is not crossed by the ray from `q` (the half-open rule of
+/// [`winding`]) and adds nothing.
+fn winding_in(loops: &Loops, q: Pt) -> i32 {
+    (loops.iter())
+        .filter(|(_, y)| q.y >= y[0] && q.y < y[1])
+        .map(|(l, _)| winding(std::slice::from_ref(l), q))
+        .sum()
+}
 
 /// For each void, the solid pieces that hold some of it: tested at points just inside
 /// the void's boundary (chords of at most 5°, offset inward by 10⁻⁶ of the section's
@@ -226,36 +236,55 @@ type Loops = Vec<Vec<Pt>>;
 /// stays clear of the void's (widened by twice that offset) holds none of it and is
 /// not tested.
 fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
-    let size = crate::geom::solid_bounds(pieces).map_or(1.0, |b| (b[1] - b[0]).max(b[3] - b[2]));
+    if !pieces.iter().any(|p| p.void) {
+        return Vec::new();
+    }
+    let bounds: Vec<Option<[f64; 4]>> = pieces.iter().map(Piece::bounds).collect();
+    // `geom::solid_bounds`, from the boxes above.
+    let size = (pieces.iter().zip(&bounds))
+        .filter(|(p, _)| !p.void)
+        .filter_map(|(_, b)| *b)
+        .reduce(crate::geom::contour::union_bounds)
+        .map_or(1.0, |b| (b[1] - b[0]).max(b[3] - b[2]));
     let delta = 1e-6 * size;
     // A solid's outline is cut into chords the first time a void comes near it.
-    let solids: Vec<(usize, [f64; 4], OnceCell<Loops>)> = pieces
-        .iter()
+    let solids: Vec<(usize, [f64; 4], OnceCell<Loops>)> = (pieces.iter().zip(&bounds))
         .enumerate()
-        .filter(|(_, p)| !p.void)
-        .filter_map(|(i, p)| Some((i, p.bounds()?, OnceCell::new())))
+        .filter(|(_, (p, _))| !p.void)
+        .filter_map(|(i, (_, b))| Some((i, (*b)?, OnceCell::new())))
         .collect();
-    let facets = |c: &crate::geom::Contour| c.facets(1f64.to_radians());
+    let facets = |c: &crate::geom::Contour| {
+        let f = c.facets(1f64.to_radians());
+        let y = (f.iter()).fold([f64::INFINITY, f64::NEG_INFINITY], |y, q| {
+            [y[0].min(q.y), y[1].max(q.y)]
+        });
+        (f, y)
+    };
     let mut memo = ArcOffsets::default();
     pieces
         .iter()
         .enumerate()
         .filter(|(_, p)| p.void)
         .map(|(v, p)| {
-            let mut probes = Vec::new();
-            for c in &p.contours {
-                let f = c.facets_in(5f64.to_radians(), &mut memo);
-                for (k, &a) in f.iter().enumerate() {
-                    let b = f[(k + 1) % f.len()];
-                    let d = b.sub(a);
-                    let len = d.x.hypot(d.y);
-                    if len > 0.0 {
-                        let mid = a.add(d.scale(0.5));
-                        probes.push(mid.add(Pt::new(-d.y, d.x).scale(delta / len)));
-                    }
-                }
-            }
-            let reach = p.bounds().map(|b| {
+            let rings: Vec<Vec<Pt>> = (p.contours.iter())
+                .map(|c| c.facets_in(5f64.to_radians(), &mut memo))
+                .collect();
+            // The probes in order, each made when it is asked for (the first one inside
+            // a solid settles it).
+            let probes = || {
+                rings.iter().flat_map(|f| {
+                    (0..f.len()).filter_map(move |k| {
+                        let (a, b) = (f[k], f[(k + 1) % f.len()]);
+                        let d = b.sub(a);
+                        let len = d.x.hypot(d.y);
+                        (len > 0.0).then(|| {
+                            let mid = a.add(d.scale(0.5));
+                            mid.add(Pt::new(-d.y, d.x).scale(delta / len))
+                        })
+                    })
+                })
+            };
+            let reach = bounds[v].map(|b| {
                 let w = 2.0 * delta;
                 [b[0] - w, b[1] + w, b[2] - w, b[3] + w]
             });
@@ -268,7 +297,7 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
                 .filter(|(i, _, cell)| {
                     let loops =
                         cell.get_or_init(|| pieces[*i].contours.iter().map(facets).collect());
-                    probes.iter().any(|&q| winding(loops, q) != 0)
+                    probes().any(|q| winding_in(loops, q) != 0)
                 })
                 .map(|(i, _, _)| *i)
                 .collect();
@@ -382,4 +411,42 @@ pub fn warnings(
         }
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::geom::Contour;
+
+    #[test]
+    fn winding_skipping_loops_out_of_range_matches_the_crossing_rule() {
+        // A square ring, outline 0..10 counter-clockwise and hole 3..7 clockwise: by the
+        // crossing-number rule with a half-open y test (Hormann & Agathos, "The point
+        // in polygon problem for arbitrary polygons", 2001) the winding number is 1 in
+        // the ring, 0 in the hole and outside, and 0 on the top edge y = 10 but 1 on
+        // the bottom edge y = 0 (left of the right side).
+        let outline = Contour::rounded_rect(0.0, 0.0, 10.0, 10.0, 0.0);
+        let hole = Contour::rounded_rect(3.0, 3.0, 7.0, 7.0, 0.0).reversed();
+        let loops: Loops = [outline, hole]
+            .iter()
+            .map(|c| {
+                let f = c.facets(1f64.to_radians());
+                let lo = f.iter().map(|p| p.y).fold(f64::INFINITY, f64::min);
+                let hi = f.iter().map(|p| p.y).fold(f64::NEG_INFINITY, f64::max);
+                (f, [lo, hi])
+            })
+            .collect();
+        for (q, w) in [
+            (Pt::new(1.0, 5.0), 1),
+            (Pt::new(5.0, 5.0), 0),
+            (Pt::new(5.0, 1.0), 1),
+            (Pt::new(5.0, -1.0), 0),
+            (Pt::new(5.0, 11.0), 0),
+            (Pt::new(5.0, 10.0), 0),
+            (Pt::new(5.0, 0.0), 1),
+            (Pt::new(5.0, f64::NAN), 0),
+        ] {
+            assert_eq!(winding_in(&loops, q), w, "{q:?}");
+        }
+    }
 }

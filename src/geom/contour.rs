@@ -228,7 +228,12 @@ impl Seg {
 
     /// Extent of the segment: `[xmin, xmax, ymin, ymax]`, exact for arcs.
     pub fn bounds(&self) -> [f64; 4] {
-        let (p, q) = (self.start(), self.end());
+        self.bounds_between(self.start(), self.end())
+    }
+
+    /// [`Seg::bounds`] given the segment's own `start()` and `end()` (an arc's ends
+    /// cost a sine and cosine each: a caller that has them passes them on).
+    pub fn bounds_between(&self, p: Pt, q: Pt) -> [f64; 4] {
         let mut b = [p.x.min(q.x), p.x.max(q.x), p.y.min(q.y), p.y.max(q.y)];
         if let Seg::Arc { c, r, a0, a1 } = *self {
             let (lo, hi) = (a0.min(a1), a0.max(a1));

@@ -58,25 +58,55 @@ pub struct Contacts {
 /// place would otherwise make the search (and the flows after it) quadratic or worse.
 pub const MAX_PAIRS: usize = 20_000;
 
+/// A solid piece's boundary segments, each with its box, and the piece's box: worked
+/// out once a piece however many pairs it is in.
+struct Outline {
+    segs: Vec<(Seg, [f64; 4])>,
+    bounds: [f64; 4],
+}
+
+impl Outline {
+    /// `None` for a piece with no segments or a box that is not finite.
+    fn of(p: &Piece) -> Option<Outline> {
+        let segs: Vec<(Seg, [f64; 4])> = (p.contours.iter().flat_map(|c| &c.segs))
+            .map(|s| (*s, s.bounds()))
+            .collect();
+        // The union of the segments' boxes is the piece's box (`Piece::bounds`: min and
+        // max do not depend on how they are grouped).
+        let bounds = segs.iter().map(|(_, b)| *b).reduce(union_bounds)?;
+        bounds
+            .iter()
+            .all(|v| v.is_finite())
+            .then_some(Outline { segs, bounds })
+    }
+}
+
+/// Whether box `a` widened by `w` meets box `b`.
+fn near(a: &[f64; 4], b: &[f64; 4], w: f64) -> bool {
+    !(b[0] > a[1] + w || a[0] > b[1] + w || b[2] > a[3] + w || a[2] > b[3] + w)
+}
+
 /// Finds every joint and point contact between enabled solid pieces (voids are skipped).
 pub fn contacts(pieces: &[Piece]) -> Contacts {
-    let boxes: Vec<(usize, [f64; 4])> = pieces
+    let outlines: Vec<(usize, Outline)> = pieces
         .iter()
         .enumerate()
         .filter(|(_, p)| !p.void)
-        .filter_map(|(i, p)| p.bounds().map(|b| (i, b)))
-        .filter(|(_, b)| b.iter().all(|v| v.is_finite()))
+        .filter_map(|(i, p)| Some((i, Outline::of(p)?)))
         .collect();
-    let Some(all) = boxes.iter().map(|(_, b)| *b).reduce(union_bounds) else {
+    let Some(all) = outlines.iter().map(|(_, o)| o.bounds).reduce(union_bounds) else {
         return Contacts::default();
     };
     let tol = JOINT_TOL * (all[1] - all[0]).max(all[3] - all[2]);
-    let mut order = boxes;
-    order.sort_by(|a, b| a.1[0].total_cmp(&b.1[0]));
+    let mut order: Vec<&(usize, Outline)> = outlines.iter().collect();
+    order.sort_by(|a, b| a.1.bounds[0].total_cmp(&b.1.bounds[0]));
     let mut out = Contacts::default();
     let mut pairs = 0;
-    for (k, (i, bi)) in order.iter().enumerate() {
-        for (j, bj) in &order[k + 1..] {
+    let mut bits = Vec::new();
+    for (k, &(i, ref oi)) in order.iter().copied().enumerate() {
+        let bi = &oi.bounds;
+        for &(j, ref oj) in order[k + 1..].iter().copied() {
+            let bj = &oj.bounds;
             if bj[0] > bi[1] + tol {
                 break;
             }
@@ -90,10 +120,14 @@ pub fn contacts(pieces: &[Piece]) -> Contacts {
                     ..Contacts::default()
                 };
             }
-            let (a, b) = ((*i).min(*j), (*i).max(*j));
-            match shared(&pieces[a], &pieces[b], tol) {
+            let ((a, oa), (b, ob)) = if i < j {
+                ((i, oi), (j, oj))
+            } else {
+                ((j, oj), (i, oi))
+            };
+            match shared(oa, ob, tol, &mut bits) {
                 Some(joint) => out.joints.push(Joint { a, b, ..joint }),
-                None if touch_at_point(&pieces[a], &pieces[b], tol) => out.points.push((a, b)),
+                None if touch_at_point(oa, ob, tol) => out.points.push((a, b)),
                 None => {}
             }
         }
@@ -103,32 +137,20 @@ pub fn contacts(pieces: &[Piece]) -> Contacts {
     out
 }
 
-/// The boundary two pieces share, if it has positive length.
-fn shared(p: &Piece, q: &Piece, tol: f64) -> Option<Joint> {
-    let mut bits: Vec<Bit> = Vec::new();
-    let qsegs: Vec<(&Seg, [f64; 4])> = q
-        .contours
-        .iter()
-        .flat_map(|c| &c.segs)
-        .map(|s| (s, s.bounds()))
-        .collect();
-    for s in p.contours.iter().flat_map(|c| &c.segs) {
-        let bs = s.bounds();
-        for (t, bt) in &qsegs {
-            if bt[0] > bs[1] + tol
-                || bs[0] > bt[1] + tol
-                || bt[2] > bs[3] + tol
-                || bs[2] > bt[3] + tol
-            {
-                continue;
+/// The boundary two pieces share, if it has positive length (`bits` is scratch).
+fn shared(p: &Outline, q: &Outline, tol: f64, bits: &mut Vec<Bit>) -> Option<Joint> {
+    bits.clear();
+    for (s, bs) in &p.segs {
+        for (t, bt) in &q.segs {
+            if near(bs, bt, tol) {
+                overlap(s, t, tol, bits);
             }
-            overlap(s, t, tol, &mut bits);
         }
     }
     if bits.is_empty() {
         return None;
     }
-    let (stretches, closed) = stretches(&bits, tol);
+    let (stretches, closed) = stretches(bits, tol);
     Some(Joint {
         a: 0,
         b: 0,
@@ -234,15 +256,14 @@ fn stretches(bits: &[Bit], tol: f64) -> (usize, bool) {
     (groups, free_ends == 0)
 }
 
-/// Does a vertex of either piece lie on the other's boundary?
-fn touch_at_point(p: &Piece, q: &Piece, tol: f64) -> bool {
-    let on = |a: &Piece, b: &Piece| {
-        a.contours.iter().flat_map(|c| &c.segs).any(|s| {
+/// Does a vertex of either piece lie on the other's boundary? A segment whose box,
+/// widened by twice `tol`, leaves the vertex out is farther than `tol` from it.
+fn touch_at_point(p: &Outline, q: &Outline, tol: f64) -> bool {
+    let on = |a: &Outline, b: &Outline| {
+        a.segs.iter().any(|(s, _)| {
             let v = s.start();
-            b.contours
-                .iter()
-                .flat_map(|c| &c.segs)
-                .any(|t| distance(v, t) <= tol)
+            let at = [v.x, v.x, v.y, v.y];
+            (b.segs.iter()).any(|(t, bt)| near(bt, &at, 2.0 * tol) && distance(v, t) <= tol)
         })
     };
     on(p, q) || on(q, p)
@@ -305,6 +326,31 @@ mod tests {
         let c = contacts(&[rect("a", 0.0, 0.0, 1.0, 1.0), rect("b", 1.0, 1.0, 2.0, 2.0)]);
         assert!(c.joints.is_empty());
         assert_eq!(c.points, vec![(0, 1)]);
+    }
+
+    #[test]
+    fn vertex_on_an_edge_is_a_point_contact_one_just_clear_is_none() {
+        // A square standing on its corner at the middle of a plate's top edge touches
+        // it at (5, 1); lifted by 10 joint tolerances it touches
+        // nothing (the section is 10 wide).
+        let diamond = |lift: f64| {
+            Piece::plain(
+                "d",
+                vec![Contour::polygon(&[
+                    Pt::new(5.0, 1.0 + lift),
+                    Pt::new(6.0, 2.0 + lift),
+                    Pt::new(5.0, 3.0 + lift),
+                    Pt::new(4.0, 2.0 + lift),
+                ])],
+                false,
+            )
+        };
+        let plate = rect("p", 0.0, 0.0, 10.0, 1.0);
+        let c = contacts(&[plate.clone(), diamond(0.0)]);
+        assert!(c.joints.is_empty());
+        assert_eq!(c.points, vec![(0, 1)]);
+        let c = contacts(&[plate, diamond(10.0 * JOINT_TOL * 10.0)]);
+        assert!(c.joints.is_empty() && c.points.is_empty(), "{c:?}");
     }
 
     #[test]

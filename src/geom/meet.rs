@@ -60,11 +60,12 @@ impl Edge {
     }
 
     fn new(seg: Seg) -> Edge {
+        let (from, to) = (seg.start(), seg.end());
         Edge {
             seg,
-            from: seg.start(),
-            to: seg.end(),
-            bbox: seg.bounds(),
+            from,
+            to,
+            bbox: seg.bounds_between(from, to),
         }
     }
 

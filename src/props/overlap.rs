@@ -11,6 +11,7 @@
 //! edges away from ∂Q is placed inside or outside Q once, so a pair costs about
 //! `n log n` in its edges rather than `n²`.
 
+use crate::geom::contour::union_bounds;
 use crate::geom::meet::{self, Edge};
 use crate::geom::Pt;
 use crate::geom::{BoundaryIntegral, Piece};
@@ -36,13 +37,25 @@ struct Shape<'a> {
 
 impl<'a> Shape<'a> {
     fn of(p: &'a Piece) -> Option<Shape<'a>> {
-        let bounds = p.bounds()?;
         let (mut edges, mut first) = (Vec::new(), Vec::new());
+        // `Piece::bounds`: a segment kept whole as one edge has that edge's box (the same
+        // ends and extreme points), an arc cut in several its own.
+        let mut bounds: Option<[f64; 4]> = None;
         for c in &p.contours {
             let n = edges.len();
-            c.segs.iter().for_each(|s| Edge::split(s, &mut edges));
+            for s in &c.segs {
+                let m = edges.len();
+                Edge::split(s, &mut edges);
+                let b = if edges.len() == m + 1 {
+                    edges[m].bbox
+                } else {
+                    s.bounds()
+                };
+                bounds = Some(bounds.map_or(b, |u| union_bounds(u, b)));
+            }
             first.extend((n..edges.len()).map(|k| k == n));
         }
+        let bounds = bounds?;
         let area = edges.iter().map(|e| e.x_dy(0.0, 1.0)).sum();
         Some(Shape {
             piece: p,
@@ -106,14 +119,26 @@ impl<'a> Shape<'a> {
     }
 }
 
-/// Pairs `(i, j)` of an edge of `p` and an edge of `q` whose boxes, `p`'s widened by
-/// `tol`, meet — by sort and sweep along x over both sets — sorted by `i`, then `j`.
-/// Every edge of `q` that an edge of `p` crosses, touches or runs along within `tol`
-/// is among its pairs.
-fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
-    let mut pairs = Vec::new();
-    let (mut active_p, mut active_q): (Vec<u32>, Vec<u32>) = (Vec::new(), Vec::new());
-    let (mut i, mut j) = (0, 0);
+/// Buffers reused from one pair of shapes to the next.
+#[derive(Default)]
+struct Scratch {
+    pairs: Vec<(u32, u32)>,
+    p_by_x: Vec<(f64, u32)>,
+    q_by_x: Vec<(f64, u32)>,
+    active_p: Vec<u32>,
+    active_q: Vec<u32>,
+    near: Vec<u32>,
+    ts: Vec<f64>,
+}
+
+/// Into `w.pairs`: the pairs `(i, j)` of an edge of `p` and an edge of `q` whose boxes,
+/// `p`'s widened by `tol`, meet — by sort and sweep along x over both sets — sorted by
+/// `i`, then `j`. Every edge of `q` that an edge of `p` crosses, touches or runs along
+/// within `tol` is among its pairs.
+fn edge_pairs(p: &Shape, q: &Shape, tol: f64, w: &mut Scratch) {
+    w.pairs.clear();
+    w.active_p.clear();
+    w.active_q.clear();
     let pe = |k: u32| &p.edges[k as usize].bbox;
     let qe = |k: u32| &q.edges[k as usize].bbox;
     let meet = |a: &[f64; 4], b: &[f64; 4]| {
@@ -128,28 +153,31 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
     };
     let (near_q, near_p) = (near(q.bounds), near(p.bounds));
     // Those edges by the left ends of their boxes, sorted on (key, index) pairs.
-    let by_x = |s: &Shape, near: &dyn Fn(&[f64; 4]) -> bool| {
-        let mut keyed: Vec<(f64, u32)> = (s.edges.iter().enumerate())
-            .filter(|(_, e)| near(&e.bbox))
-            .map(|(i, e)| (e.bbox[0], i as u32))
-            .collect();
+    let by_x = |s: &Shape, near: &dyn Fn(&[f64; 4]) -> bool, keyed: &mut Vec<(f64, u32)>| {
+        keyed.clear();
+        keyed.extend(
+            (s.edges.iter().enumerate())
+                .filter(|(_, e)| near(&e.bbox))
+                .map(|(i, e)| (e.bbox[0], i as u32)),
+        );
         keyed.sort_unstable_by(|a, b| a.0.total_cmp(&b.0));
-        keyed.into_iter().map(|(_, i)| i).collect::<Vec<u32>>()
     };
-    let p_by_x = by_x(p, &near_q);
-    if p_by_x.is_empty() {
-        return pairs;
+    by_x(p, &near_q, &mut w.p_by_x);
+    if w.p_by_x.is_empty() {
+        return;
     }
-    let q_by_x = by_x(q, &near_p);
-    if q_by_x.is_empty() {
-        return pairs;
+    by_x(q, &near_p, &mut w.q_by_x);
+    if w.q_by_x.is_empty() {
+        return;
     }
-    let (p_by_x, q_by_x) = (&p_by_x, &q_by_x);
+    let (p_by_x, q_by_x) = (&w.p_by_x, &w.q_by_x);
+    let (active_p, active_q, pairs) = (&mut w.active_p, &mut w.active_q, &mut w.pairs);
+    let (mut i, mut j) = (0, 0);
     while i < p_by_x.len() || j < q_by_x.len() {
-        let take_p =
-            j == q_by_x.len() || (i < p_by_x.len() && pe(p_by_x[i])[0] - tol <= qe(q_by_x[j])[0]);
+        let take_p = j == q_by_x.len()
+            || (i < p_by_x.len() && pe(p_by_x[i].1)[0] - tol <= qe(q_by_x[j].1)[0]);
         if take_p {
-            let e = p_by_x[i];
+            let e = p_by_x[i].1;
             i += 1;
             let x0 = pe(e)[0] - tol;
             active_q.retain(|&f| qe(f)[1] >= x0);
@@ -161,7 +189,7 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
             );
             active_p.push(e);
         } else {
-            let f = q_by_x[j];
+            let f = q_by_x[j].1;
             j += 1;
             let x0 = qe(f)[0];
             active_p.retain(|&e| pe(e)[1] + tol >= x0);
@@ -175,7 +203,6 @@ fn edge_pairs(p: &Shape, q: &Shape, tol: f64) -> Vec<(u32, u32)> {
         }
     }
     pairs.sort_unstable();
-    pairs
 }
 
 fn boxes_overlap(a: [f64; 4], b: [f64; 4]) -> bool {
@@ -190,7 +217,7 @@ fn boxes_overlap(a: [f64; 4], b: [f64; 4]) -> bool {
 /// (within `tol`) or by Q's winding number. An edge with no candidate is away from ∂Q,
 /// so it lies on the same side as the end of the piece before it in its loop: a run of
 /// such edges is classified once.
-fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
+fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64, w: &mut Scratch) -> f64 {
     let mut sum = 0.0;
     // An edge wholly outside Q's box (widened by `tol`) is neither inside Q nor on ∂Q.
     let qb = [
@@ -199,10 +226,9 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
         q.bounds[2] - tol,
         q.bounds[3] + tol,
     ];
-    let pairs = edge_pairs(p, q, tol);
+    edge_pairs(p, q, tol, w);
+    let (pairs, near, ts) = (&w.pairs, &mut w.near, &mut w.ts);
     let mut next_pair = 0;
-    let mut near: Vec<u32> = Vec::new();
-    let mut ts: Vec<f64> = Vec::new();
     // Whether the end of the last piece is inside Q, when known and off ∂Q.
     let mut side: Option<bool> = None;
     for (k, edge) in p.edges.iter().enumerate() {
@@ -230,8 +256,8 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
         }
         ts.clear();
         ts.extend([0.0, 1.0]);
-        for &f in &near {
-            edge.cuts(&q.edges[f as usize], tol, &mut ts);
+        for &f in near.iter() {
+            edge.cuts(&q.edges[f as usize], tol, ts);
         }
         ts.sort_by(f64::total_cmp);
         for w in ts.windows(2) {
@@ -240,7 +266,7 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
             }
             let t = 0.5 * (w[0] + w[1]);
             let mid = edge.at(t);
-            let keep = match q.edge_at(&near, mid, tol) {
+            let keep = match q.edge_at(near, mid, tol) {
                 Some(dir) => {
                     side = None;
                     let d = edge.tangent(t);
@@ -264,7 +290,7 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64) -> f64 {
 }
 
 /// Area common to two regions.
-fn common_area(p: &Shape, q: &Shape) -> f64 {
+fn common_area(p: &Shape, q: &Shape, w: &mut Scratch) -> f64 {
     if !boxes_overlap(p.bounds, q.bounds) {
         return 0.0;
     }
@@ -273,7 +299,7 @@ fn common_area(p: &Shape, q: &Shape) -> f64 {
         .max(q.bounds[1] - q.bounds[0])
         .max(q.bounds[3] - q.bounds[2]);
     let tol = meet::tolerance(size);
-    boundary_inside(p, q, true, tol) + boundary_inside(q, p, false, tol)
+    boundary_inside(p, q, true, tol, w) + boundary_inside(q, p, false, tol, w)
 }
 
 /// Calls `f(i, j)`, `i < j`, for the shapes whose boxes overlap, by sort and sweep
@@ -309,9 +335,9 @@ fn box_pairs(shapes: &[Option<Shape>], mut f: impl FnMut(usize, usize)) {
 
 /// Whether two shapes share more than the warning's threshold of area: the cores
 /// decide most pairs at once, the exact common area the rest.
-fn overlaps(a: &Shape, b: &Shape) -> bool {
+fn overlaps(a: &Shape, b: &Shape, w: &mut Scratch) -> bool {
     let threshold = 1e-6 * a.area.min(b.area);
-    a.shared_at_least(b) > threshold || common_area(a, b) > threshold
+    a.shared_at_least(b) > threshold || common_area(a, b, w) > threshold
 }
 
 /// The first [`SHOWN`] of `lines`, then one counting the rest.
@@ -347,13 +373,14 @@ pub fn warnings(pieces: &[Piece]) -> Vec<Warning> {
         .collect();
     capped(&mut out, lines, empty.len(), More::PartsWithNoArea);
     // The overlapping pairs: all counted, the first SHOWN (by part order) kept.
+    let mut w = Scratch::default();
     let mut first = std::collections::BinaryHeap::new();
     let mut count = 0usize;
     box_pairs(&shapes, |i, j| {
         let (Some(a), Some(b)) = (&shapes[i], &shapes[j]) else {
             return;
         };
-        if pieces[i].void != pieces[j].void || !overlaps(a, b) {
+        if pieces[i].void != pieces[j].void || !overlaps(a, b, &mut w) {
             return;
         }
         count += 1;
@@ -367,7 +394,7 @@ pub fn warnings(pieces: &[Piece]) -> Vec<Warning> {
         .into_iter()
         .filter_map(|(i, j)| {
             let (a, b) = (shapes[i].as_ref()?, shapes[j].as_ref()?);
-            let common = common_area(a, b).max(a.shared_at_least(b));
+            let common = common_area(a, b, &mut w).max(a.shared_at_least(b));
             let pct = 100.0 * common / a.area.min(b.area);
             let (pi, pj) = (&pieces[i], &pieces[j]);
             let (a, b, percent) = (pi.name.clone(), pj.name.clone(), pct);
@@ -389,7 +416,7 @@ pub fn warnings(pieces: &[Piece]) -> Vec<Warning> {
     let mut count = 0usize;
     for (i, v) in pieces.iter().enumerate().filter(|(_, p)| p.void) {
         let Some(vs) = &shapes[i] else { continue };
-        let inside: f64 = solids.iter().map(|s| common_area(vs, s)).sum();
+        let inside: f64 = solids.iter().map(|s| common_area(vs, s, &mut w)).sum();
         if inside < (1.0 - 1e-6) * vs.area {
             count += 1;
             if outside.len() < SHOWN {
