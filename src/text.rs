@@ -18,7 +18,7 @@
 /// ```
 pub fn clean(s: &str) -> String {
     // Printable ASCII (space to `~`) holds nothing to remove: copied as it stands.
-    if s.bytes().all(|b| (0x20..0x7f).contains(&b)) {
+    if s.bytes().fold(true, |ok, b| ok & (0x20..0x7f).contains(&b)) {
         return s.to_string();
     }
     let mut out = String::with_capacity(s.len());
