@@ -17,6 +17,10 @@
 /// assert_eq!(clean("a\x1b]0;evil\x07b\tc"), "ab c");
 /// ```
 pub fn clean(s: &str) -> String {
+    // Printable ASCII (space to `~`) holds nothing to remove: copied as it stands.
+    if s.bytes().fold(true, |ok, b| ok & (0x20..0x7f).contains(&b)) {
+        return s.to_string();
+    }
     let mut out = String::with_capacity(s.len());
     let mut it = s.chars().peekable();
     while let Some(c) = it.next() {

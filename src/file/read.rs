@@ -511,14 +511,19 @@ impl Reader<'_> {
                 format!("unknown shape `{shape}`; {hint}shapes: {}", shape_names()),
             ));
         };
-        let keys = kind.spec().keys;
-        let mut allowed: Vec<&str> = PART_KEYS.to_vec();
-        allowed.extend(keys.iter().map(|k| k.key));
-        if kind.has_points() {
-            allowed.push("points");
+        let allowed_here = |k: &str| {
+            PART_KEYS.contains(&k) || kind.key(k).is_some() || (k == "points" && kind.has_points())
+        };
+        // The list and the place are spelt out only for the message of an unknown key.
+        if !t.entries.iter().all(|e| allowed_here(&e.key)) {
+            let mut allowed: Vec<&str> = PART_KEYS.to_vec();
+            allowed.extend(kind.spec().keys.iter().map(|k| k.key));
+            if kind.has_points() {
+                allowed.push("points");
+            }
+            self.known_keys(t, &allowed, &format!("a {shape} part"), sp.clone())?;
         }
-        self.known_keys(t, &allowed, &format!("a {shape} part"), sp.clone())?;
-        let mut dims = Vec::new();
+        let mut dims = Vec::with_capacity(t.entries.len());
         for e in &t.entries {
             if kind.key(&e.key).is_some() {
                 dims.push((e.key.to_string(), self.val(&e.item, &e.key, sp.clone())?));

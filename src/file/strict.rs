@@ -17,6 +17,10 @@ use std::borrow::Cow;
 /// (a section file needs two: a list of `[x, y]` pairs).
 pub const MAX_DEPTH: usize = 8;
 
+/// Room reserved for the entries of a `[name]` table or the root, so that the usual
+/// few (a part's shape, dimensions and placement) are pushed without growing.
+const ENTRIES: usize = 8;
+
 /// The tree of `text`, or `None` when the strict subset does not cover it.
 pub fn parse(text: &str) -> Option<Table<'_>> {
     let mut p = Parser {
@@ -25,7 +29,7 @@ pub fn parse(text: &str) -> Option<Table<'_>> {
         i: 0,
     };
     let mut root = Table {
-        entries: Vec::new(),
+        entries: Vec::with_capacity(ENTRIES),
         // As toml_edit: the root's range runs from 0 to the end of its last value.
         span: Some(0..0),
     };
@@ -173,7 +177,7 @@ impl<'a> Parser<'a> {
         }
         self.i += close.len();
         let table = Table {
-            entries: Vec::new(),
+            entries: Vec::with_capacity(ENTRIES),
             span: Some(start..self.i),
         };
         self.line_end()?;

@@ -136,34 +136,47 @@ struct Ctx<'a> {
 }
 
 impl Ctx<'_> {
+    /// The finite value of the param `s` names alone ([`Expr::lone_name`]), unless
+    /// notes are taken (they record every param read).
+    fn lone_param(&self, s: &str) -> Option<f64> {
+        let name = Expr::lone_name(s).filter(|_| self.notes.is_none())?;
+        self.params.get(name).copied().filter(|x| x.is_finite())
+    }
+
     /// A length or plain number in the file's unit.
     fn number(&self, v: &Val, key: &str) -> Result<f64, Diagnostic> {
         let x = match &v.value {
             Value::Number(x) => *x,
-            Value::Expr(s) => {
-                let before = (self.parsed)
-                    .and_then(|p| p.get(&v.span.start))
-                    .filter(|(text, _)| text == s);
-                let parsed;
-                let e = match before {
-                    Some((_, e)) => e,
-                    None => {
-                        parsed = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
-                        if let Some(n) = self.notes {
-                            let entry = (v.span.start, s.clone(), parsed.clone());
-                            n.borrow_mut().parsed.push(entry);
+            // A lone param name (most values of a parametric file) is the param's
+            // value, looked up without parsing; when it is not a param, or notes are
+            // taken, the expression is parsed and its error is the parser's.
+            Value::Expr(s) => match self.lone_param(s) {
+                Some(x) => x,
+                None => {
+                    let before = (self.parsed)
+                        .and_then(|p| p.get(&v.span.start))
+                        .filter(|(text, _)| text == s);
+                    let parsed;
+                    let e = match before {
+                        Some((_, e)) => e,
+                        None => {
+                            parsed = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
+                            if let Some(n) = self.notes {
+                                let entry = (v.span.start, s.clone(), parsed.clone());
+                                n.borrow_mut().parsed.push(entry);
+                            }
+                            &parsed
                         }
-                        &parsed
-                    }
-                };
-                e.eval(&|n| {
-                    if let Some(notes) = self.notes {
-                        notes.borrow_mut().read.push(n.to_owned());
-                    }
-                    self.params.get(n).copied()
-                })
-                .map_err(|e| expr_diag(v, self.maps, e, key))?
-            }
+                    };
+                    e.eval(&|n| {
+                        if let Some(notes) = self.notes {
+                            notes.borrow_mut().read.push(n.to_owned());
+                        }
+                        self.params.get(n).copied()
+                    })
+                    .map_err(|e| expr_diag(v, self.maps, e, key))?
+                }
+            },
         };
         if x.is_finite() {
             Ok(x)

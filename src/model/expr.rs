@@ -179,6 +179,22 @@ impl Expr {
         }
     }
 
+    /// The param name `src` is, when it is nothing else: one name as [`Expr::parse`]
+    /// reads it (ASCII letters, digits and `_`, not starting with a digit), not `pi`
+    /// nor a function, with nothing but whitespace around it. Such an expression's
+    /// value is the param's, so a caller may look it up without parsing; any other
+    /// text (and any error) is [`Expr::parse`]'s.
+    pub fn lone_name(src: &str) -> Option<&str> {
+        let name = src.trim();
+        let b = name.as_bytes();
+        let plain = b
+            .first()
+            .is_some_and(|c| c.is_ascii_alphabetic() || *c == b'_')
+            && b.iter().all(|c| c.is_ascii_alphanumeric() || *c == b'_');
+        (plain && src.len() <= MAX_LEN && name != "pi" && Func::named(name).is_none())
+            .then_some(name)
+    }
+
     /// Evaluate; `lookup` gives the value of a name (a param).
     pub fn eval(&self, lookup: &dyn Fn(&str) -> Option<f64>) -> Result<f64, ExprError> {
         eval_node(&self.root, lookup)
@@ -285,14 +301,18 @@ impl Parser<'_> {
 
     /// The next character after any whitespace (which is skipped).
     fn peek(&mut self) -> Option<char> {
-        let ws: usize = self
-            .rest()
-            .chars()
-            .take_while(|c| c.is_whitespace())
-            .map(char::len_utf8)
-            .sum();
-        self.pos += ws;
-        self.rest().chars().next()
+        loop {
+            // An ASCII byte is its character: no decoding for the usual text.
+            let c = match self.src.as_bytes().get(self.pos) {
+                None => return None,
+                Some(&b) if b.is_ascii() => char::from(b),
+                Some(_) => self.rest().chars().next()?,
+            };
+            if !c.is_whitespace() {
+                return Some(c);
+            }
+            self.pos += c.len_utf8();
+        }
     }
 
     fn bump(&mut self) {
