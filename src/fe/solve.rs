@@ -51,7 +51,7 @@ impl Csr {
 
     /// The matrix of a mesh in one pass over its elements: the pattern, with for every
     /// element where each of its 36 entries lies in `val` (found while the rows are
-    /// built, a binary search in the sorted row), then `element(k)`'s matrix (full
+    /// built: each column's place in its sorted row, noted once per row), then `element(k)`'s matrix (full
     /// 6 × 6, row-major) added through that map, elements in order: the same sums in
     /// the same order as [`Csr::add_element`] element by element, without a search
     /// per entry. An `Err` from `element` stops the assembly and is returned.
@@ -112,16 +112,24 @@ impl Csr {
         let mut col = Vec::with_capacity(nodes * 16);
         let mut diag = Vec::with_capacity(nodes);
         let mut row: Vec<u32> = Vec::with_capacity(64);
+        // The last row that listed each column (each column enters a row once, so only
+        // the distinct columns are sorted), and each column's place in the current row.
+        let mut listed = vec![usize::MAX; nodes];
+        let mut place = vec![0u32; if map.is_some() { nodes } else { 0 }];
         for i in 0..nodes {
             row.clear();
             for &k in &adj[count[i]..count[i + 1]] {
-                row.extend_from_slice(&elems[k as usize]);
+                for &v in &elems[k as usize] {
+                    if listed[v as usize] != i {
+                        listed[v as usize] = i;
+                        row.push(v);
+                    }
+                }
             }
             if row.is_empty() {
                 row.push(i as u32);
             }
             row.sort_unstable();
-            row.dedup();
             let start = col.len();
             diag.push(start + row.partition_point(|&c| c < i as u32));
             col.extend_from_slice(&row);
@@ -130,13 +138,15 @@ impl Csr {
                 .as_deref_mut()
                 .filter(|_| col.len() <= u32::MAX as usize)
             {
+                for (off, &c) in row.iter().enumerate() {
+                    place[c as usize] = (start + off) as u32;
+                }
                 for &k in &adj[count[i]..count[i + 1]] {
                     let e = &elems[k as usize];
                     let at = &mut m[k as usize];
                     for a in (0..6).filter(|&a| e[a] as usize == i) {
                         for b in 0..6 {
-                            let off = row.partition_point(|&c| c < e[b]);
-                            at[6 * a + b] = (start + off) as u32;
+                            at[6 * a + b] = place[e[b] as usize];
                         }
                     }
                 }
