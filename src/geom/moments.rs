@@ -229,7 +229,11 @@ mod tests {
                 Seg::Line(Pt::new(-r, 0.0), Pt::new(r, 0.0)),
             ],
         };
-        assert!(close(Moments::of_contour(&at).ixx, PI * r.powi(4) / 8.0, 1e-15));
+        assert!(close(
+            Moments::of_contour(&at).ixx,
+            PI * r.powi(4) / 8.0,
+            1e-15
+        ));
     }
 
     #[test]

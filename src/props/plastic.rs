@@ -134,7 +134,10 @@ impl ArcEdge {
 /// The edges of every part, each segment mapped by `turn` first.
 fn edges(parts: &[Weighted], turn: impl Fn(&Seg) -> Seg) -> Edges {
     let segs = parts.iter().flat_map(|p| p.contours).flat_map(|c| &c.segs);
-    let arcs = segs.clone().filter(|s| matches!(s, Seg::Arc { .. })).count();
+    let arcs = segs
+        .clone()
+        .filter(|s| matches!(s, Seg::Arc { .. }))
+        .count();
     let mut out = Edges {
         edges: Vec::with_capacity(segs.count()),
         arcs: Vec::with_capacity(arcs),
