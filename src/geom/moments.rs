@@ -183,6 +183,84 @@ mod tests {
     }
 
     #[test]
+    fn full_circle_as_one_arc_and_as_three() {
+        // A = πr², I = πr⁴/4 about any diameter, Ixy = 0 (Gere & Goodno, Mechanics of
+        // Materials, Appendix E, case 9), whether the boundary is one arc or three.
+        let r = 7.5;
+        let one = Moments::of_seg(&Seg::arc(Pt::new(0.0, 0.0), r, 0.0, 2.0 * PI));
+        let three = [(0.4, 2.1), (2.1, 4.0), (4.0, 0.4 + 2.0 * PI)]
+            .iter()
+            .map(|&(a0, a1)| Moments::of_seg(&Seg::arc(Pt::new(0.0, 0.0), r, a0, a1)))
+            .fold(Moments::default(), |s, m| s.plus(&m, 1.0));
+        for m in [one, three] {
+            assert!(close(m.a, PI * r * r, 1e-15));
+            assert!(close(m.ixx, PI * r.powi(4) / 4.0, 1e-15));
+            assert!(close(m.iyy, PI * r.powi(4) / 4.0, 1e-15));
+            assert!(m.sx.abs() < 1e-12 && m.sy.abs() < 1e-12 && m.ixy.abs() < 1e-10);
+        }
+        // Travelled clockwise, the same circle is a hole: every moment changes sign.
+        let cw = Moments::of_seg(&Seg::arc(Pt::new(0.0, 0.0), r, 2.0 * PI, 0.0));
+        assert!(close(-cw.a, PI * r * r, 1e-15) && close(-cw.ixx, PI * r.powi(4) / 4.0, 1e-15));
+    }
+
+    #[test]
+    fn half_circle_centroid_and_second_moments() {
+        // Flat side on the x axis: A = πr²/2, ȳ = 4r/(3π), Ix about the diameter = πr⁴/8,
+        // about the centroid (9π² − 64)r⁴/(72π) (Gere & Goodno, Appendix E, case 10).
+        let (r, c0) = (3.0, Pt::new(-40.0, 25.0));
+        let half = Contour {
+            segs: vec![
+                Seg::arc(c0, r, 0.0, PI),
+                Seg::Line(Pt::new(c0.x - r, c0.y), Pt::new(c0.x + r, c0.y)),
+            ],
+        };
+        let c = Moments::of_contour(&half).centroidal().unwrap();
+        assert!(close(c.area, PI * r * r / 2.0, 1e-14));
+        assert!(close(c.cx, c0.x, 1e-14));
+        assert!(close(c.cy - c0.y, 4.0 * r / (3.0 * PI), 1e-12));
+        let ix = (9.0 * PI * PI - 64.0) * r.powi(4) / (72.0 * PI);
+        assert!(close(c.ixx, ix, 1e-11));
+        assert!(close(c.iyy, PI * r.powi(4) / 8.0, 1e-11));
+        assert!(c.ixy.abs() < 1e-9);
+        // About the diameter itself (moments taken with the centre as origin).
+        let at = Contour {
+            segs: vec![
+                Seg::arc(Pt::new(0.0, 0.0), r, 0.0, PI),
+                Seg::Line(Pt::new(-r, 0.0), Pt::new(r, 0.0)),
+            ],
+        };
+        assert!(close(
+            Moments::of_contour(&at).ixx,
+            PI * r.powi(4) / 8.0,
+            1e-15
+        ));
+    }
+
+    #[test]
+    fn quarter_circle_product_of_inertia() {
+        // Quarter disc in the first quadrant, corner at the origin: A = πr²/4,
+        // x̄ = ȳ = 4r/(3π), Ix = Iy = πr⁴/16 and Ixy = r⁴/8 about the straight edges
+        // (Gere & Goodno, Appendix E, case 11).
+        let r = 12.0;
+        let o = Pt::new(0.0, 0.0);
+        let quarter = Contour {
+            segs: vec![
+                Seg::Line(o, Pt::new(r, 0.0)),
+                Seg::arc(o, r, 0.0, PI / 2.0),
+                Seg::Line(Pt::new(0.0, r), o),
+            ],
+        };
+        let m = Moments::of_contour(&quarter);
+        assert!(close(m.a, PI * r * r / 4.0, 1e-15));
+        let c = m.centroid().unwrap();
+        assert!(close(c.x, 4.0 * r / (3.0 * PI), 1e-14));
+        assert!(close(c.y, 4.0 * r / (3.0 * PI), 1e-14));
+        assert!(close(m.ixx, PI * r.powi(4) / 16.0, 1e-15));
+        assert!(close(m.iyy, PI * r.powi(4) / 16.0, 1e-15));
+        assert!(close(m.ixy, r.powi(4) / 8.0, 1e-15));
+    }
+
+    #[test]
     fn a_hole_cancels_its_solid() {
         let solid = Contour::circle(Pt::new(3.0, 4.0), 2.0);
         let m = Moments::of_contour(&solid).plus(&Moments::of_contour(&solid.reversed()), 1.0);

@@ -134,7 +134,10 @@ impl ArcEdge {
 /// The edges of every part, each segment mapped by `turn` first.
 fn edges(parts: &[Weighted], turn: impl Fn(&Seg) -> Seg) -> Edges {
     let segs = parts.iter().flat_map(|p| p.contours).flat_map(|c| &c.segs);
-    let arcs = segs.clone().filter(|s| matches!(s, Seg::Arc { .. })).count();
+    let arcs = segs
+        .clone()
+        .filter(|s| matches!(s, Seg::Arc { .. }))
+        .count();
     let mut out = Edges {
         edges: Vec::with_capacity(segs.count()),
         arcs: Vec::with_capacity(arcs),
@@ -304,5 +307,28 @@ mod tests {
         let px = plastic_axis_x(&w, 7.0 - 30.0, 37.0).unwrap();
         assert!((px.level - 7.0).abs() < 1e-10);
         assert!((px.z - d.powi(3) / 6.0).abs() < 1e-9 * d.powi(3));
+    }
+
+    #[test]
+    fn tube_plastic_modulus_is_the_difference_of_the_discs() {
+        // Z = (d³ − dᵢ³)/6 for a circular tube (the solid disc's d³/6 less the bore's;
+        // Gere & Goodno, App. E, case 10, as above), the bore a clockwise arc of the same
+        // part, both axes.
+        let (d, di, o) = (50.0, 38.0, Pt::new(-3.0, 11.0));
+        let c = [
+            Contour::circle(o, d / 2.0),
+            Contour::circle(o, di / 2.0).reversed(),
+        ];
+        let w = [Weighted {
+            contours: &c,
+            weight: 1.0,
+        }];
+        let z = (d.powi(3) - di.powi(3)) / 6.0;
+        let px = plastic_axis_x(&w, o.y - 25.0, o.y + 25.0).unwrap();
+        assert!((px.level - o.y).abs() < 1e-10);
+        assert!((px.z - z).abs() < 1e-12 * z);
+        let py = plastic_axis_y(&w, o.x - 25.0, o.x + 25.0).unwrap();
+        assert!((py.level - o.x).abs() < 1e-10);
+        assert!((py.z - z).abs() < 1e-12 * z);
     }
 }
