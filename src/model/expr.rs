@@ -929,6 +929,25 @@ mod tests {
         eval_str(src).expect_err(src)
     }
 
+    /// A lone name is what the parser reads as one param and nothing else: its value
+    /// is the param's (the parser's own result is the reference), and `pi`, functions,
+    /// numbers and anything with an operator are left to the parser.
+    #[test]
+    fn a_lone_name_is_the_parsers_single_param() {
+        let tf = |n: &str| (n == "tf" || n == "_b2").then_some(16.0);
+        for src in ["tf", " tf\t", "_b2"] {
+            let name = Expr::lone_name(src).expect(src);
+            let parsed = Expr::parse(src).unwrap();
+            assert_eq!(parsed.names(), vec![name.to_string()], "{src}");
+            assert_eq!(parsed.eval(&tf), Ok(16.0), "{src}");
+        }
+        for src in [
+            "pi", "sqrt", "2tf", "tf*2", "-tf", "", " ", "t f", "tf)", "é",
+        ] {
+            assert_eq!(Expr::lone_name(src), None, "{src}");
+        }
+    }
+
     fn params(list: &[(&str, &str)]) -> Vec<(String, Value)> {
         list.iter()
             .map(|&(n, v)| {
