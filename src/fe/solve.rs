@@ -562,8 +562,8 @@ impl Envelope {
 }
 
 /// Reverse Cuthill–McKee ordering of the graph of `a` (George & Liu §4.3): breadth-first
-/// from a node of least degree, neighbours in order of increasing degree, each
-/// connected component in turn; the order is then reversed.
+/// from a pseudo-peripheral node ([`peripheral`]), neighbours in order of increasing
+/// degree, each connected component in turn; the order is then reversed.
 fn rcm(a: &Csr) -> Vec<u32> {
     let n = a.rows();
     let degree = |i: usize| a.ptr[i + 1] - a.ptr[i];
@@ -572,10 +572,16 @@ fn rcm(a: &Csr) -> Vec<u32> {
     let mut by_degree: Vec<usize> = (0..n).collect();
     by_degree.sort_by_key(|&i| degree(i));
     let mut nbr: Vec<usize> = Vec::new();
+    let mut trial = Trial {
+        reached: vec![usize::MAX; n],
+        count: 0,
+        queue: Vec::new(),
+    };
     for &s in &by_degree {
         if seen[s] {
             continue;
         }
+        let s = peripheral(a, s, &seen, &mut trial);
         seen[s] = true;
         let mut head = order.len();
         order.push(s as u32);
@@ -598,6 +604,60 @@ fn rcm(a: &Csr) -> Vec<u32> {
     }
     order.reverse();
     order
+}
+
+/// Scratch of [`levels`]: which trial last reached each node, and its queue.
+struct Trial {
+    reached: Vec<usize>,
+    count: usize,
+    queue: Vec<usize>,
+}
+
+/// The rooted level structure from `root` over the nodes not `seen` (breadth-first):
+/// its depth (eccentricity of `root` in its component) and a node of least degree in
+/// its last level.
+fn levels(a: &Csr, root: usize, seen: &[bool], t: &mut Trial) -> (usize, usize) {
+    t.count += 1;
+    t.queue.clear();
+    t.queue.push(root);
+    t.reached[root] = t.count;
+    let (mut depth, mut lo) = (0, 0);
+    loop {
+        let hi = t.queue.len();
+        for q in lo..hi {
+            let i = t.queue[q];
+            for &j in &a.col[a.ptr[i]..a.ptr[i + 1]] {
+                let j = j as usize;
+                if !seen[j] && t.reached[j] != t.count {
+                    t.reached[j] = t.count;
+                    t.queue.push(j);
+                }
+            }
+        }
+        if t.queue.len() == hi {
+            let far = (t.queue[lo..hi].iter().copied())
+                .min_by_key(|&i| a.ptr[i + 1] - a.ptr[i])
+                .unwrap_or(root);
+            return (depth, far);
+        }
+        depth += 1;
+        lo = hi;
+    }
+}
+
+/// A pseudo-peripheral node of the component of `start` among the nodes not `seen`
+/// (George & Liu §4.3.2, after Gibbs, Poole & Stockmeyer): from the root, a node of
+/// least degree in the last level becomes the root while its level structure is
+/// deeper. Each step deepens it, so it ends within the component's diameter.
+fn peripheral(a: &Csr, start: usize, seen: &[bool], t: &mut Trial) -> usize {
+    let (mut root, (mut depth, mut far)) = (start, levels(a, start, seen, t));
+    loop {
+        let (d, f) = levels(a, far, seen, t);
+        if d <= depth {
+            return root;
+        }
+        (root, depth, far) = (far, d, f);
+    }
 }
 
 /// The multigrid hierarchy: the factor of its coarsest matrix (the base mesh's, or a
