@@ -46,6 +46,9 @@ impl Edge {
                     1.0
                 };
                 let step = (a1 - a0) / n;
+                // A piece starts at the angle the one before ends at: its start is that
+                // one's end, the same numbers.
+                let mut from: Option<Pt> = None;
                 for k in 0..n as usize {
                     let lo = a0 + step * k as f64;
                     let hi = if k + 1 == n as usize {
@@ -53,14 +56,25 @@ impl Edge {
                     } else {
                         a0 + step * (k + 1) as f64
                     };
-                    out.push(Edge::new(Seg::arc(c, r, lo, hi)));
+                    let seg = Seg::arc(c, r, lo, hi);
+                    let to = seg.end();
+                    out.push(Edge::with_ends(
+                        seg,
+                        from.unwrap_or_else(|| seg.start()),
+                        to,
+                    ));
+                    from = Some(to);
                 }
             }
         }
     }
 
     fn new(seg: Seg) -> Edge {
-        let (from, to) = (seg.start(), seg.end());
+        Edge::with_ends(seg, seg.start(), seg.end())
+    }
+
+    /// `from` and `to` must be `seg.start()` and `seg.end()`.
+    fn with_ends(seg: Seg, from: Pt, to: Pt) -> Edge {
         Edge {
             seg,
             from,
