@@ -18,6 +18,7 @@ pub use crate::props::Centroidal;
 
 use crate::geom::contour::clip_line;
 use crate::geom::Pt;
+use std::cmp::Ordering;
 
 /// `D = Ixx·Iyy − Ixy²`, positive for every real section (Cauchy–Schwarz).
 pub(crate) fn det(sec: &Centroidal) -> f64 {
@@ -322,8 +323,9 @@ impl Octagon {
     pub fn near(&self, c: (f64, f64), reach: f64) -> Octagon {
         let mut near = Octagon { len: 0, ..*self };
         for &(a, d, len) in &self.edges[..self.len] {
-            // Kept unless surely clear (a NaN keeps it).
-            if !(d.0 * (c.1 - a.1) - d.1 * (c.0 - a.0) > self.margin + len * reach) {
+            // Kept unless surely clear (a NaN keeps it: no ordering).
+            let inside = d.0 * (c.1 - a.1) - d.1 * (c.0 - a.0);
+            if inside.partial_cmp(&(self.margin + len * reach)) != Some(Ordering::Greater) {
                 near.edges[near.len] = (a, d, len);
                 near.len += 1;
             }
