@@ -14,13 +14,6 @@ use kern::numfmt::Numbers;
 use kern::report::rows::Notation;
 use std::path::PathBuf;
 
-/// The allocator: a batch makes many small, short-lived allocations (documents,
-/// contours, JSON lines) on every worker thread; mimalloc's per-thread heaps take about
-/// 11 % fewer instructions over the 300-file batch than the system allocator
-/// (DEVELOPERS.md, Benchmark figures).
-#[global_allocator]
-static ALLOC: mimalloc::MiMalloc = mimalloc::MiMalloc;
-
 /// Design and check beam and column cross-sections in the terminal.
 #[derive(Parser)]
 #[command(name = "kern", version, about, long_about = None)]
