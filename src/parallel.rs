@@ -39,9 +39,12 @@ pub fn parallel_map<T: Sync, R: Send>(
 
 /// Runs `f` over `items` on [`jobs`] threads and hands each result to `take` on the
 /// calling thread, in input order, as soon as it and every one before it are done (so
-/// `take` may write to a locked stdout). At most [`WINDOW`] items are computed ahead
-/// of the one `take` gets next. `take` returns `false` to stop: no item is started
-/// after that. A panic in `f` is caught for its item alone: `take` gets its message.
+/// `take` may write to a locked stdout). The calling thread is one of the workers: it
+/// hands on what is ready and computes an item when nothing is, so `n` jobs are `n`
+/// threads in all (no extra thread waking between the workers on a machine of `n`
+/// cores). At most [`WINDOW`] items are computed ahead of the one `take` gets next.
+/// `take` returns `false` to stop: no item is started after that. A panic in `f` is
+/// caught for its item alone: `take` gets its message.
 pub fn parallel_for_each<T: Sync, R: Send>(
     items: &[T],
     f: impl Fn(&T) -> R + Sync,
@@ -76,20 +79,36 @@ pub fn parallel_for_each<T: Sync, R: Send>(
         done: Condvar::new(),
     };
     std::thread::scope(|s| {
-        for _ in 0..workers {
+        for _ in 1..workers {
             s.spawn(|| {
                 while let Some(i) = queue.start(items.len()) {
                     queue.finish(i, one(&items[i]));
                 }
             });
         }
-        while let Some((i, r)) = queue.next(items.len()) {
-            if !take(i, r) {
-                queue.stop();
-                break;
+        loop {
+            match queue.next_or_start(items.len()) {
+                Step::Take(i, r) => {
+                    if !take(i, r) {
+                        queue.stop();
+                        break;
+                    }
+                }
+                Step::Work(i) => queue.finish(i, one(&items[i])),
+                Step::Done => break,
             }
         }
     });
+}
+
+/// What the calling thread of a [`parallel_for_each`] does next.
+enum Step<R> {
+    /// Hand on item `i`'s result.
+    Take(usize, Result<R, String>),
+    /// Compute item `i`.
+    Work(usize),
+    /// Every result is handed on.
+    Done,
 }
 
 /// The items of a [`parallel_for_each`] between the one taken next and the last one
@@ -110,6 +129,19 @@ struct State<R> {
     stop: bool,
 }
 
+impl<R> State<R> {
+    /// Starts the next of `len` items when the run goes on and the window has room.
+    fn begin(&mut self, len: usize) -> Option<usize> {
+        if self.stop || self.started >= len || self.started - self.taken >= WINDOW {
+            return None;
+        }
+        let i = self.started;
+        self.started += 1;
+        self.waiting.push_back(None);
+        Some(i)
+    }
+}
+
 impl<R> Queue<R> {
     /// The state; a poisoned lock is taken as it is (nothing panics while holding it).
     fn lock(&self) -> MutexGuard<'_, State<R>> {
@@ -124,10 +156,7 @@ impl<R> Queue<R> {
             if st.stop || st.started >= len {
                 return None;
             }
-            if st.started - st.taken < WINDOW {
-                let i = st.started;
-                st.started += 1;
-                st.waiting.push_back(None);
+            if let Some(i) = st.begin(len) {
                 return Some(i);
             }
             st = self.room.wait(st).unwrap_or_else(PoisonError::into_inner);
@@ -144,19 +173,26 @@ impl<R> Queue<R> {
         }
     }
 
-    /// The next result in input order, once it is done; `None` after the last of `len`.
-    fn next(&self, len: usize) -> Option<(usize, Result<R, String>)> {
+    /// For the calling thread: the next result in input order if it is done, else the
+    /// next item to compute if the window has room, else it waits for either; `Done`
+    /// after the last of `len` results.
+    fn next_or_start(&self, len: usize) -> Step<R> {
         let mut st = self.lock();
         loop {
             if st.taken >= len {
-                return None;
+                return Step::Done;
             }
             if let Some(Some(_)) = st.waiting.front() {
-                let r = st.waiting.pop_front().flatten()?;
+                let Some(r) = st.waiting.pop_front().flatten() else {
+                    return Step::Done;
+                };
                 let i = st.taken;
                 st.taken += 1;
                 self.room.notify_one();
-                return Some((i, r));
+                return Step::Take(i, r);
+            }
+            if let Some(i) = st.begin(len) {
+                return Step::Work(i);
             }
             st = self.done.wait(st).unwrap_or_else(PoisonError::into_inner);
         }
