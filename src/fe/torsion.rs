@@ -70,14 +70,30 @@ impl From<Cancelled> for Failure {
 }
 
 /// The degree-4 quadrature points of every element: `[n·dA, x, y]` in the mesh's
-/// local frame, element by element.
+/// local frame, element by element. A straight element's Jacobian is constant (twice
+/// its corners' area; p2::Straight), so only a curved one is mapped point by point.
 fn points(m: &Mesh, rule: &Rule) -> Result<Vec<[f64; 3]>, Failure> {
     let mut out = Vec::with_capacity(m.elems.len() * rule.points());
-    for (e, &n) in m.elems.iter().zip(&m.weight) {
+    for ((e, &n), &curved) in m.elems.iter().zip(&m.weight).zip(&m.curved) {
         let p = e.map(|v| m.nodes[v as usize]);
-        for q in 0..rule.points() {
-            let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
-            out.push([n * g.da, g.x, g.y]);
+        if curved {
+            for q in 0..rule.points() {
+                let g = at(&p, rule, q).ok_or(Failure::Degenerate)?;
+                out.push([n * g.da, g.x, g.y]);
+            }
+            continue;
+        }
+        let det = p[1].sub(p[0]).cross(p[2].sub(p[0]));
+        if det.is_nan() || det <= 0.0 {
+            return Err(Failure::Degenerate);
+        }
+        for (w, nq) in rule.w.iter().zip(&rule.n) {
+            let (mut x, mut y) = (0.0, 0.0);
+            for (ni, pi) in nq.iter().zip(&p) {
+                x += ni * pi.x;
+                y += ni * pi.y;
+            }
+            out.push([n * 0.5 * w * det, x, y]);
         }
     }
     Ok(out)
