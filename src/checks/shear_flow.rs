@@ -29,11 +29,12 @@
 
 use crate::geom::contour::ArcOffsets;
 use crate::geom::joints::{Contacts, Joint};
+use crate::geom::moments::FirstMoments;
 use crate::geom::simple::winding;
 use crate::geom::BoundaryIntegral;
 use crate::geom::{Piece, Pt};
 use crate::model::Warning;
-use crate::props::{Centroidal, Moments};
+use crate::props::Centroidal;
 use std::cell::OnceCell;
 
 /// The part of the section on one side of a bridge joint, about the section centroid
@@ -123,7 +124,7 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
     let origin = Pt::new(c.cx, c.cy);
     // The first moments of a part about the centroid, found the first time a side cut
     // off holds it (most parts are on the larger side of every joint).
-    let moments: Vec<OnceCell<Moments>> = pieces.iter().map(|_| OnceCell::new()).collect();
+    let moments: Vec<OnceCell<FirstMoments>> = pieces.iter().map(|_| OnceCell::new()).collect();
     let moment = |i: usize| *moments[i].get_or_init(|| piece_moments(&pieces[i], origin));
     let homes = void_homes(pieces);
     joints
@@ -144,20 +145,20 @@ pub fn connections(pieces: &[Piece], contacts: &Contacts, c: &Centroidal) -> Vec
         .collect()
 }
 
-/// The moments of piece `p` about `origin`, signed and weighted by its modular ratio:
-/// each segment shifted by `−origin` as it is integrated (the sums of
+/// The area and first moments of piece `p` about `origin`, signed and weighted by its
+/// modular ratio: each segment shifted by `−origin` as it is integrated (the sums of
 /// [`BoundaryIntegral::of_contours`], in its order).
-fn piece_moments(p: &Piece, origin: Pt) -> Moments {
+fn piece_moments(p: &Piece, origin: Pt) -> FirstMoments {
     let back = Pt::new(-origin.x, -origin.y);
     let of_contour = |k: &crate::geom::Contour| {
         (k.segs.iter())
-            .map(|s| Moments::of_seg(&s.shifted(back)))
-            .fold(Moments::default(), |m, o| m.plus(&o, 1.0))
+            .map(|s| FirstMoments::of_seg(&s.shifted(back)))
+            .fold(FirstMoments::default(), |m, o| m.plus(&o, 1.0))
     };
     let all = (p.contours.iter())
         .map(of_contour)
-        .fold(Moments::default(), |m, o| m.plus(&o, 1.0));
-    Moments::default().plus(&all, p.sign() * p.n)
+        .fold(FirstMoments::default(), |m, o| m.plus(&o, 1.0));
+    FirstMoments::default().plus(&all, p.sign() * p.n)
 }
 
 /// The side of bridge edge `e` with fewer parts (the later part's side on a tie), its
@@ -166,7 +167,7 @@ fn cut_off(
     adj: &[Vec<(usize, usize)>],
     e: usize,
     j: &Joint,
-    moment: &dyn Fn(usize) -> Moments,
+    moment: &dyn Fn(usize) -> FirstMoments,
     homes: &[(usize, Vec<usize>)],
     origin: Pt,
 ) -> Flow {
@@ -187,7 +188,7 @@ fn cut_off(
     let (sa, sb) = (reach(j.a), reach(j.b));
     let count = |s: &[bool]| s.iter().filter(|&&x| x).count();
     let side = if count(&sa) < count(&sb) { sa } else { sb };
-    let mut m = Moments::default();
+    let mut m = FirstMoments::default();
     for (i, _) in side.iter().enumerate().filter(|(_, &s)| s) {
         m = m.plus(&moment(i), 1.0);
     }
@@ -230,6 +231,13 @@ fn winding_in(loops: &Loops, q: Pt) -> i32 {
         .sum()
 }
 
+thread_local! {
+    /// The arcs [`void_homes`] has cut into chords on this thread, kept from one section
+    /// to the next (a batch's bolt holes and bars recur): the same points as cutting
+    /// them afresh.
+    static ARCS: std::cell::RefCell<ArcOffsets> = std::cell::RefCell::default();
+}
+
 /// For each void, the solid pieces that hold some of it: tested at points just inside
 /// the void's boundary (chords of at most 5°, offset inward by 10⁻⁶ of the section's
 /// size), against each solid's outline cut into chords of at most 1°. A solid whose box
@@ -253,57 +261,63 @@ fn void_homes(pieces: &[Piece]) -> Vec<(usize, Vec<usize>)> {
         .filter(|(_, (p, _))| !p.void)
         .filter_map(|(i, (_, b))| Some((i, (*b)?, OnceCell::new())))
         .collect();
-    let facets = |c: &crate::geom::Contour| {
-        let f = c.facets(1f64.to_radians());
+    let facets = |c: &crate::geom::Contour, memo: &mut ArcOffsets| {
+        let f = c.facets_in(1f64.to_radians(), memo);
         let y = (f.iter()).fold([f64::INFINITY, f64::NEG_INFINITY], |y, q| {
             [y[0].min(q.y), y[1].max(q.y)]
         });
         (f, y)
     };
-    let mut memo = ArcOffsets::default();
-    pieces
-        .iter()
-        .enumerate()
-        .filter(|(_, p)| p.void)
-        .map(|(v, p)| {
-            let rings: Vec<Vec<Pt>> = (p.contours.iter())
-                .map(|c| c.facets_in(5f64.to_radians(), &mut memo))
-                .collect();
-            // The probes in order, each made when it is asked for (the first one inside
-            // a solid settles it).
-            let probes = || {
-                rings.iter().flat_map(|f| {
-                    (0..f.len()).filter_map(move |k| {
-                        let (a, b) = (f[k], f[(k + 1) % f.len()]);
-                        let d = b.sub(a);
-                        let len = d.x.hypot(d.y);
-                        (len > 0.0).then(|| {
-                            let mid = a.add(d.scale(0.5));
-                            mid.add(Pt::new(-d.y, d.x).scale(delta / len))
+    ARCS.with_borrow_mut(|memo| {
+        pieces
+            .iter()
+            .enumerate()
+            .filter(|(_, p)| p.void)
+            .map(|(v, p)| {
+                let rings: Vec<Vec<Pt>> = (p.contours.iter())
+                    .map(|c| c.facets_in(5f64.to_radians(), memo))
+                    .collect();
+                // The probes in order, each made when it is asked for (the first one inside
+                // a solid settles it).
+                let probes = || {
+                    rings.iter().flat_map(|f| {
+                        (0..f.len()).filter_map(move |k| {
+                            let (a, b) = (f[k], f[(k + 1) % f.len()]);
+                            let d = b.sub(a);
+                            let len = d.x.hypot(d.y);
+                            (len > 0.0).then(|| {
+                                let mid = a.add(d.scale(0.5));
+                                mid.add(Pt::new(-d.y, d.x).scale(delta / len))
+                            })
                         })
                     })
-                })
-            };
-            let reach = bounds[v].map(|b| {
-                let w = 2.0 * delta;
-                [b[0] - w, b[1] + w, b[2] - w, b[3] + w]
-            });
-            let near = |s: &[f64; 4]| {
-                reach.is_none_or(|v| s[0] <= v[1] && v[0] <= s[1] && s[2] <= v[3] && v[2] <= s[3])
-            };
-            let inside = solids
-                .iter()
-                .filter(|(_, b, _)| near(b))
-                .filter(|(i, _, cell)| {
-                    let loops =
-                        cell.get_or_init(|| pieces[*i].contours.iter().map(facets).collect());
-                    probes().any(|q| winding_in(loops, q) != 0)
-                })
-                .map(|(i, _, _)| *i)
-                .collect();
-            (v, inside)
-        })
-        .collect()
+                };
+                let reach = bounds[v].map(|b| {
+                    let w = 2.0 * delta;
+                    [b[0] - w, b[1] + w, b[2] - w, b[3] + w]
+                });
+                let near = |s: &[f64; 4]| {
+                    reach.is_none_or(|v| {
+                        s[0] <= v[1] && v[0] <= s[1] && s[2] <= v[3] && v[2] <= s[3]
+                    })
+                };
+                let inside = solids
+                    .iter()
+                    .filter(|(_, b, _)| near(b))
+                    .filter(|(i, _, cell)| {
+                        let loops = cell.get_or_init(|| {
+                            (pieces[*i].contours.iter())
+                                .map(|c| facets(c, memo))
+                                .collect()
+                        });
+                        probes().any(|q| winding_in(loops, q) != 0)
+                    })
+                    .map(|(i, _, _)| *i)
+                    .collect();
+                (v, inside)
+            })
+            .collect()
+    })
 }
 
 /// Which edges are bridges: an iterative form of Tarjan's low-link search, so that a

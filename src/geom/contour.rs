@@ -248,7 +248,8 @@ impl Seg {
                     if t > hi {
                         break;
                     }
-                    let e = c.add(Pt::new(r * t.cos(), r * t.sin()));
+                    let (cos, sin) = quarter_cos_sin(first + i as f64, t);
+                    let e = c.add(Pt::new(r * cos, r * sin));
                     b = [b[0].min(e.x), b[1].max(e.x), b[2].min(e.y), b[3].max(e.y)];
                 }
             }
@@ -274,16 +275,7 @@ impl Seg {
         match *self {
             Seg::Line(a, _) => out.push(a),
             Seg::Arc { c, r, a0, a1 } => {
-                let key = [r, a0, a1, max_angle].map(f64::to_bits);
-                let k = match memo.0.iter().position(|(k, _)| *k == key) {
-                    Some(k) => k,
-                    None => {
-                        memo.0
-                            .push((key, arc_offsets(r, a0, a1, max_angle).collect()));
-                        memo.0.len() - 1
-                    }
-                };
-                out.extend(memo.0[k].1.iter().map(|&v| c.add(v)));
+                out.extend(memo.offsets(r, a0, a1, max_angle).iter().map(|&v| c.add(v)));
             }
         }
     }
@@ -324,6 +316,25 @@ impl Seg {
     }
 }
 
+/// `(cos t, sin t)` at `t = q·(π/2)` (`q` a whole number, `t` the product as rounded):
+/// from a table worked out once by the same functions for the `q` of the first few
+/// turns either way, else directly (the same numbers either way).
+fn quarter_cos_sin(q: f64, t: f64) -> (f64, f64) {
+    const LAST: i32 = 16;
+    static TABLE: std::sync::OnceLock<[(f64, f64); 2 * LAST as usize + 1]> =
+        std::sync::OnceLock::new();
+    if q.abs() > f64::from(LAST) {
+        return (t.cos(), t.sin());
+    }
+    let table = TABLE.get_or_init(|| {
+        std::array::from_fn(|k| {
+            let t = f64::from(k as i32 - LAST) * FRAC_PI_2;
+            (t.cos(), t.sin())
+        })
+    });
+    table[(q as i32 + LAST) as usize]
+}
+
 /// The facet points of an arc of radius `r` from `a0` to `a1` about its centre: its start
 /// and interior points at most `max_angle` apart (the end excluded).
 fn arc_offsets(r: f64, a0: f64, a1: f64, max_angle: f64) -> impl Iterator<Item = Pt> {
@@ -337,9 +348,34 @@ fn arc_offsets(r: f64, a0: f64, a1: f64, max_angle: f64) -> impl Iterator<Item =
 
 /// The points of arcs about their centres by radius, angles and chord angle, for
 /// [`Seg::facet_points_in`]: the several bolt holes, bars or fillets of one size in a
-/// section are cut once. Kept for one section at a time (a few dozen arcs).
+/// section (or in a batch of sections, when one is kept from one to the next) are cut
+/// once. At most [`ArcOffsets::POINTS`] points are kept: past that it starts afresh.
 #[derive(Debug, Default)]
-pub struct ArcOffsets(Vec<([u64; 4], Vec<Pt>)>);
+pub struct ArcOffsets {
+    arcs: std::collections::HashMap<[u64; 4], Vec<Pt>>,
+    points: usize,
+}
+
+impl ArcOffsets {
+    /// The most points kept (16 MiB).
+    pub const POINTS: usize = 1 << 20;
+
+    /// The facet points about its centre of the arc of radius `r` from `a0` to `a1`,
+    /// chords of at most `max_angle` ([`arc_offsets`]), cut the first time.
+    fn offsets(&mut self, r: f64, a0: f64, a1: f64, max_angle: f64) -> &[Pt] {
+        let key = [r, a0, a1, max_angle].map(f64::to_bits);
+        if !self.arcs.contains_key(&key) {
+            let pts: Vec<Pt> = arc_offsets(r, a0, a1, max_angle).collect();
+            if self.points + pts.len() > Self::POINTS {
+                self.arcs.clear();
+                self.points = 0;
+            }
+            self.points += pts.len();
+            self.arcs.insert(key, pts);
+        }
+        &self.arcs[&key]
+    }
+}
 
 /// Chords of at most `max_angle` radians on an arc of `sweep` (1 to 4,096).
 fn chords(sweep: f64, max_angle: f64) -> usize {
@@ -500,5 +536,52 @@ impl Builder {
             self.line(first);
         }
         Contour { segs: self.segs }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn quarter_turns_from_the_table_are_the_functions_values() {
+        // The table holds cos and sin of q·(π/2) as the library works them out: compared
+        // bit for bit with calling them, inside the table and past it.
+        for q in -40..=40 {
+            let t = f64::from(q) * FRAC_PI_2;
+            let (c, s) = quarter_cos_sin(f64::from(q), t);
+            assert_eq!(c.to_bits(), t.cos().to_bits(), "{q}");
+            assert_eq!(s.to_bits(), t.sin().to_bits(), "{q}");
+        }
+    }
+
+    #[test]
+    fn circle_extent_is_centre_plus_and_minus_the_radius() {
+        // The extreme points of a circle lie a radius from its centre along each axis;
+        // within rounding of cos(π/2) ≈ 6e-17 in the cross direction.
+        let (c, r) = (Pt::new(3.0, -2.0), 1.5);
+        let b = Contour::circle(c, r).bounds().unwrap();
+        let want = [c.x - r, c.x + r, c.y - r, c.y + r];
+        for (got, w) in b.iter().zip(want) {
+            assert!((got - w).abs() < 1e-15, "{b:?}");
+        }
+    }
+
+    #[test]
+    fn remembered_arcs_give_the_facets_cut_afresh() {
+        // Two holes of one size and a third of another, through one memo and twice over:
+        // the same points as `Contour::facets`.
+        let mut memo = ArcOffsets::default();
+        let holes = [
+            Contour::circle(Pt::new(0.0, 0.0), 2.0),
+            Contour::circle(Pt::new(5.0, 1.0), 2.0),
+            Contour::circle(Pt::new(5.0, 1.0), 3.0).reversed(),
+        ];
+        for _ in 0..2 {
+            for h in &holes {
+                assert_eq!(h.facets_in(0.1, &mut memo), h.facets(0.1));
+            }
+        }
+        assert_eq!(memo.arcs.len(), 2);
     }
 }

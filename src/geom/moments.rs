@@ -80,36 +80,99 @@ pub trait BoundaryIntegral: Default {
     }
 }
 
+/// The polynomials every moment over one arc is built from, and the integrals of the
+/// monomials over it ([`Monomials`]: the sines and cosines of its two ends): formed once
+/// an arc, however many moments are taken over it. On `x = cx + r cos t`,
+/// `y = cy + r sin t`: `x`, `y`, the weight `w` of `x dy − y dx = w dt`, `x·w`, `y·w`.
+pub struct ArcTerms {
+    pub x: TrigPoly,
+    pub y: TrigPoly,
+    pub w: TrigPoly,
+    pub xw: TrigPoly,
+    pub yw: TrigPoly,
+    pub m: Monomials,
+}
+
+impl ArcTerms {
+    /// The arc about `c` of radius `r` from `a0` to `a1` (radians).
+    pub fn new(c: Pt, r: f64, a0: f64, a1: f64) -> ArcTerms {
+        let [x, y, w] = TrigPoly::arc(c, r);
+        ArcTerms {
+            x,
+            y,
+            w,
+            xw: x.mul(&w),
+            yw: y.mul(&w),
+            m: Monomials::new(a0, a1),
+        }
+    }
+}
+
+/// The area and first moments alone, `a = ∫dA`, `sx = ∫x dA`, `sy = ∫y dA` (the first
+/// three of [`Moments`], the same sums), for what needs no second moments.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct FirstMoments {
+    pub a: f64,
+    pub sx: f64,
+    pub sy: f64,
+}
+
+impl FirstMoments {
+    /// Over the straight edge `p`–`q`: `c/2`, `(x₀ + x₁)c/6`, `(y₀ + y₁)c/6`.
+    fn of_line(p: Pt, q: Pt) -> FirstMoments {
+        let c = p.cross(q);
+        FirstMoments {
+            a: c / 2.0,
+            sx: (p.x + q.x) * c / 6.0,
+            sy: (p.y + q.y) * c / 6.0,
+        }
+    }
+
+    /// Over an arc: `∮w/2`, `∮x·w/3`, `∮y·w/3`.
+    fn of_arc(t: &ArcTerms) -> FirstMoments {
+        FirstMoments {
+            a: t.w.integral(&t.m) / 2.0,
+            sx: t.xw.integral(&t.m) / 3.0,
+            sy: t.yw.integral(&t.m) / 3.0,
+        }
+    }
+}
+
+impl BoundaryIntegral for FirstMoments {
+    fn of_seg(s: &Seg) -> FirstMoments {
+        match *s {
+            Seg::Line(p, q) => FirstMoments::of_line(p, q),
+            Seg::Arc { c, r, a0, a1 } => FirstMoments::of_arc(&ArcTerms::new(c, r, a0, a1)),
+        }
+    }
+
+    fn plus(&self, o: &FirstMoments, w: f64) -> FirstMoments {
+        FirstMoments {
+            a: self.a + w * o.a,
+            sx: self.sx + w * o.sx,
+            sy: self.sy + w * o.sy,
+        }
+    }
+}
+
 impl BoundaryIntegral for Moments {
     /// Moments of the region to the left of one boundary segment (its share of the
     /// closed-contour integral).
     fn of_seg(s: &Seg) -> Moments {
         match *s {
             Seg::Line(p, q) => {
+                let FirstMoments { a, sx, sy } = FirstMoments::of_line(p, q);
                 let c = p.cross(q);
                 Moments {
-                    a: c / 2.0,
-                    sx: (p.x + q.x) * c / 6.0,
-                    sy: (p.y + q.y) * c / 6.0,
+                    a,
+                    sx,
+                    sy,
                     ixx: (p.y * p.y + p.y * q.y + q.y * q.y) * c / 12.0,
                     iyy: (p.x * p.x + p.x * q.x + q.x * q.x) * c / 12.0,
                     ixy: (2.0 * p.x * p.y + p.x * q.y + q.x * p.y + 2.0 * q.x * q.y) * c / 24.0,
                 }
             }
-            Seg::Arc { c, r, a0, a1 } => {
-                let [x, y, w] = TrigPoly::arc(c, r);
-                let xw = x.mul(&w);
-                let yw = y.mul(&w);
-                let m = Monomials::new(a0, a1);
-                Moments {
-                    a: w.integral(&m) / 2.0,
-                    sx: xw.integral(&m) / 3.0,
-                    sy: yw.integral(&m) / 3.0,
-                    ixx: y.mul(&yw).integral(&m) / 4.0,
-                    iyy: x.mul(&xw).integral(&m) / 4.0,
-                    ixy: x.mul(&yw).integral(&m) / 4.0,
-                }
-            }
+            Seg::Arc { c, r, a0, a1 } => Moments::of_arc(&ArcTerms::new(c, r, a0, a1)),
         }
     }
 
@@ -128,6 +191,20 @@ impl BoundaryIntegral for Moments {
 }
 
 impl Moments {
+    /// Over an arc: the first moments of [`FirstMoments`], then `∮y²w/4`, `∮x²w/4`,
+    /// `∮xyw/4`.
+    pub fn of_arc(t: &ArcTerms) -> Moments {
+        let FirstMoments { a, sx, sy } = FirstMoments::of_arc(t);
+        Moments {
+            a,
+            sx,
+            sy,
+            ixx: t.y.mul(&t.yw).integral(&t.m) / 4.0,
+            iyy: t.x.mul(&t.xw).integral(&t.m) / 4.0,
+            ixy: t.x.mul(&t.yw).integral(&t.m) / 4.0,
+        }
+    }
+
     /// `(x̄, ȳ) = (∫x dA / A, ∫y dA / A)`; `None` when the area is not positive.
     pub fn centroid(&self) -> Option<Pt> {
         (self.a > 0.0 && self.a.is_finite()).then(|| Pt::new(self.sx / self.a, self.sy / self.a))
@@ -258,6 +335,18 @@ mod tests {
         assert!(close(m.ixx, PI * r.powi(4) / 16.0, 1e-15));
         assert!(close(m.iyy, PI * r.powi(4) / 16.0, 1e-15));
         assert!(close(m.ixy, r.powi(4) / 8.0, 1e-15));
+    }
+
+    #[test]
+    fn first_moments_are_those_of_the_second_moments_pass() {
+        // A rounded rectangle (lines and quarter arcs) off the origin: A, ∫x dA, ∫y dA
+        // from either pass are the same sums; A = bh − (4 − π)r² (four corners cut).
+        let k = Contour::rounded_rect(2.0, -1.0, 12.0, 5.0, 1.5);
+        let (f, m) = (FirstMoments::of_contour(&k), Moments::of_contour(&k));
+        assert_eq!((f.a, f.sx, f.sy), (m.a, m.sx, m.sy));
+        assert!(close(f.a, 60.0 - (4.0 - PI) * 2.25, 1e-14));
+        // The shape is symmetric about its middle (7, 2): the centroid.
+        assert!(close(f.sx / f.a, 7.0, 1e-14) && close(f.sy / f.a, 2.0, 1e-14));
     }
 
     #[test]

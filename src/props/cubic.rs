@@ -20,8 +20,8 @@
 //! [`super::Moments`]; [`Cubic::central`] carries them to the centroid by the binomial
 //! expansion of `(x − x̄)ⁱ(y − ȳ)ʲ`.
 
-use crate::geom::moments::Moments;
-use crate::geom::trig::{Monomials, TrigPoly};
+use crate::geom::moments::{ArcTerms, Moments};
+use crate::geom::trig::TrigPoly;
 use crate::geom::{BoundaryIntegral, Seg};
 
 /// Third area moments: `xxx = ∫x³ dA`, `xxy = ∫x²y dA`, `xyy = ∫xy² dA`, `yyy = ∫y³ dA`
@@ -68,20 +68,7 @@ impl BoundaryIntegral for Cubic {
                     yyy: k * triple(y, y, y),
                 }
             }
-            Seg::Arc { c, r, a0, a1 } => {
-                let [x, y, w] = TrigPoly::arc(c, r);
-                let xw = x.mul(&w);
-                let yw = y.mul(&w);
-                let m = Monomials::new(a0, a1);
-                let int = |p: TrigPoly| p.integral(&m) / 5.0;
-                let xx = x.mul(&x);
-                Cubic {
-                    xxx: int(xx.mul(&xw)),
-                    xxy: int(xx.mul(&yw)),
-                    xyy: int(x.mul(&y).mul(&yw)),
-                    yyy: int(y.mul(&y).mul(&yw)),
-                }
-            }
+            Seg::Arc { c, r, a0, a1 } => Cubic::of_arc(&ArcTerms::new(c, r, a0, a1)),
         }
     }
 
@@ -97,7 +84,38 @@ impl BoundaryIntegral for Cubic {
     }
 }
 
+/// The second and the third moments together: over an arc, the polynomials and
+/// integrals both are built from ([`ArcTerms`]) are formed once; the same sums as each
+/// alone.
+impl BoundaryIntegral for (Moments, Cubic) {
+    fn of_seg(s: &Seg) -> (Moments, Cubic) {
+        match *s {
+            Seg::Line(..) => (Moments::of_seg(s), Cubic::of_seg(s)),
+            Seg::Arc { c, r, a0, a1 } => {
+                let t = ArcTerms::new(c, r, a0, a1);
+                (Moments::of_arc(&t), Cubic::of_arc(&t))
+            }
+        }
+    }
+
+    fn plus(&self, o: &(Moments, Cubic), w: f64) -> (Moments, Cubic) {
+        (self.0.plus(&o.0, w), self.1.plus(&o.1, w))
+    }
+}
+
 impl Cubic {
+    /// Over an arc: `∮x³w/5`, `∮x²y·w/5`, `∮xy²w/5`, `∮y³w/5`.
+    pub fn of_arc(t: &ArcTerms) -> Cubic {
+        let int = |p: TrigPoly| p.integral(&t.m) / 5.0;
+        let xx = t.x.mul(&t.x);
+        Cubic {
+            xxx: int(xx.mul(&t.xw)),
+            xxy: int(xx.mul(&t.yw)),
+            xyy: int(t.x.mul(&t.y).mul(&t.yw)),
+            yyy: int(t.y.mul(&t.y).mul(&t.yw)),
+        }
+    }
+
     /// About the centroid of `m` (the lower moments of the same region, same origin):
     /// `∫X³ = ∫x³ − 3x̄∫x² + 3x̄²∫x − x̄³A` with `X = x − x̄`, and alike for the mixed
     /// ones. `None` when the area is not positive.

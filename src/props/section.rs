@@ -120,17 +120,21 @@ impl Properties {
             .iter()
             .map(|p| shifted(&p.contours, origin))
             .collect();
-        let each: Vec<Moments> = local.iter().map(|c| Moments::of_contours(c)).collect();
+        // Second and third moments of each piece in one pass over its arcs.
+        let each: Vec<(Moments, Cubic)> = local
+            .iter()
+            .map(|c| <(Moments, Cubic)>::of_contours(c))
+            .collect();
         let m = pieces
             .iter()
             .zip(&each)
-            .fold(Moments::default(), |s, (p, pm)| s.plus(pm, p.sign() * p.n));
+            .fold(Moments::default(), |s, (p, pm)| {
+                s.plus(&pm.0, p.sign() * p.n)
+            });
         let cubic = pieces
             .iter()
-            .zip(&local)
-            .fold(Cubic::default(), |s, (p, c)| {
-                s.plus(&Cubic::of_contours(c), p.sign() * p.n)
-            })
+            .zip(&each)
+            .fold(Cubic::default(), |s, (p, pc)| s.plus(&pc.1, p.sign() * p.n))
             .central(&m)
             .unwrap_or_default();
         let finite = [m.a, m.sx, m.sy, m.ixx, m.iyy, m.ixy]
@@ -189,7 +193,7 @@ impl Properties {
         let mass_area = pieces
             .iter()
             .zip(&each)
-            .map(|(p, pm)| p.density.map(|rho| p.sign() * rho * pm.a))
+            .map(|(p, pm)| p.density.map(|rho| p.sign() * rho * pm.0.a))
             .sum::<Option<f64>>();
         Ok(Properties {
             area,
