@@ -101,7 +101,7 @@ fn read(text: &str, root: &Table) -> Result<Document, Diagnostic> {
             _ => return Err(Diagnostic::new(span(item, 0..1), "`format` must be the integer 1")),
         },
     }
-    let title = r.opt_str(root, "title", 0..1)?.map(|s| s.0);
+    let title = r.opt_string(root, "title", 0..1)?.map(|s| s.0);
     let (units, units_span) = match r.opt_str(root, "units", 0..1)? {
         None => {
             return Err(Diagnostic::new(
@@ -208,6 +208,11 @@ fn string_map(raw: &str, start: usize) -> Vec<(usize, usize)> {
     };
     let basic = raw.starts_with('"');
     let b = raw.as_bytes();
+    // A one-line string with no escape maps one to one past its quote: no checkpoints
+    // (and nothing allocated for the usual value).
+    if !multi && !(basic && b.contains(&b'\\')) {
+        return Vec::new();
+    }
     let mut i = delim;
     if multi {
         if raw[i..].starts_with("\r\n") {
@@ -407,22 +412,35 @@ impl Reader<'_> {
         t.get(key).map(|v| self.val(v, key, fallback)).transpose()
     }
 
-    fn opt_str(
+    /// The string under `key`, borrowed from the tree.
+    fn opt_str<'t>(
         &self,
-        t: &Table,
+        t: &'t Table,
         key: &str,
         fallback: Span,
-    ) -> Result<Option<(String, Span)>, Diagnostic> {
+    ) -> Result<Option<(&'t str, Span)>, Diagnostic> {
         match t.get(key) {
             None => Ok(None),
             Some(item) => match item.str() {
-                Some(s) => Ok(Some((s.to_string(), span(item, fallback)))),
+                Some(s) => Ok(Some((s, span(item, fallback)))),
                 None => Err(Diagnostic::new(
                     span(item, fallback),
                     format!("`{key}` must be a string in quotes"),
                 )),
             },
         }
+    }
+
+    /// [`Reader::opt_str`] as an owned string, for the document.
+    fn opt_string(
+        &self,
+        t: &Table,
+        key: &str,
+        fallback: Span,
+    ) -> Result<Option<(String, Span)>, Diagnostic> {
+        Ok(self
+            .opt_str(t, key, fallback)?
+            .map(|(s, sp)| (s.to_string(), sp)))
     }
 
     fn opt_bool(
@@ -465,7 +483,7 @@ impl Reader<'_> {
     fn material(&self, t: &Table, sp: Span) -> Result<MaterialDoc, Diagnostic> {
         self.known_keys(t, MATERIAL_KEYS, "[[materials]]", sp.clone())?;
         let name = self
-            .opt_str(t, "name", sp.clone())?
+            .opt_string(t, "name", sp.clone())?
             .ok_or_else(|| {
                 Diagnostic::new(
                     sp.clone(),
@@ -525,8 +543,8 @@ impl Reader<'_> {
         }
         let mut dims = Vec::with_capacity(t.entries.len());
         for e in &t.entries {
-            if kind.key(&e.key).is_some() {
-                dims.push((e.key.to_string(), self.val(&e.item, &e.key, sp.clone())?));
+            if let Some(k) = kind.key(&e.key) {
+                dims.push((k.key, self.val(&e.item, &e.key, sp.clone())?));
             }
         }
         let (points, points_span) = match t.get("points") {
@@ -563,7 +581,7 @@ remove `void = false` or set `hole = false`",
             ));
         }
         Ok(PartDoc {
-            name: self.opt_str(t, "name", sp.clone())?.map(|s| s.0),
+            name: self.opt_string(t, "name", sp.clone())?.map(|s| s.0),
             shape: kind,
             shape_span,
             dims,
@@ -580,7 +598,7 @@ remove `void = false` or set `hole = false`",
             void: self.opt_bool(t, "void", false, sp.clone())? || hole,
             hole,
             enabled: self.opt_bool(t, "enabled", true, sp.clone())?,
-            material: self.opt_str(t, "material", sp.clone())?,
+            material: self.opt_string(t, "material", sp.clone())?,
             span: sp,
         })
     }
@@ -647,7 +665,7 @@ remove `void = false` or set `hole = false`",
     /// `[sheet]`: every field an optional string.
     fn sheet(&self, t: &Table, sp: Span) -> Result<SheetDoc, Diagnostic> {
         self.known_keys(t, SHEET_KEYS, "[sheet]", sp.clone())?;
-        let f = |key: &str| self.opt_str(t, key, sp.clone());
+        let f = |key: &str| self.opt_string(t, key, sp.clone());
         Ok(SheetDoc {
             project: f("project")?,
             job: f("job")?,
@@ -665,7 +683,7 @@ remove `void = false` or set `hole = false`",
             Diagnostic::new(sp.clone(), "[member] needs `span`, e.g. span = \"6 m\"")
         })?;
         let support = self
-            .opt_str(t, "support", sp.clone())?
+            .opt_string(t, "support", sp.clone())?
             .unwrap_or(("simple".into(), sp.clone()));
         let mut points = Vec::new();
         if let Some(item) = t.get("point") {
@@ -701,7 +719,7 @@ remove `void = false` or set `hole = false`",
             self_weight: self.opt_bool(t, "self_weight", false, sp.clone())?,
             shear_deformation: self.opt_bool(t, "shear_deformation", false, sp.clone())?,
             c1: self.opt_val(t, "c1", sp.clone())?,
-            load_height: self.opt_str(t, "load_height", sp.clone())?,
+            load_height: self.opt_string(t, "load_height", sp.clone())?,
             span: sp,
         })
     }

@@ -738,8 +738,9 @@ fn ruled(ctx: &Ctx, v: &Val, k: &KeySpec) -> Result<f64, Diagnostic> {
 fn resolve_part(ctx: &Ctx, doc: &Document, i: usize, p: &PartDoc) -> Result<Part, Diagnostic> {
     let name = p.name.clone().unwrap_or_else(|| format!("part {}", i + 1));
     let kind = p.shape;
-    let mut values: Vec<(&'static str, f64)> = Vec::new();
-    for k in kind.spec().keys {
+    let keys = kind.spec().keys;
+    let mut values: Vec<(&'static str, f64)> = Vec::with_capacity(keys.len());
+    for k in keys {
         let x = match (p.dim(k.key), k.default) {
             (None, Some(default)) => default,
             (None, None) => {

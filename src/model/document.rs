@@ -35,8 +35,8 @@ pub struct PartDoc {
     pub name: Option<String>,
     pub shape: ShapeKind,
     pub shape_span: Span,
-    /// Dimension keys in file order (`b`, `h`, `tf`…).
-    pub dims: Vec<(String, Val)>,
+    /// Dimension keys in file order (`b`, `h`, `tf`…), as the shape's schema spells them.
+    pub dims: Vec<(&'static str, Val)>,
     /// `points` of a polygon.
     pub points: Option<Vec<[Val; 2]>>,
     pub points_span: Span,
@@ -59,7 +59,7 @@ pub struct PartDoc {
 impl PartDoc {
     /// The value of dimension `key`, if written.
     pub fn dim(&self, key: &str) -> Option<&Val> {
-        self.dims.iter().find(|(k, _)| k == key).map(|(_, v)| v)
+        self.dims.iter().find(|(k, _)| *k == key).map(|(_, v)| v)
     }
 }
 

@@ -15,6 +15,10 @@
 //! can exhaust the stack: the parser refuses nesting deeper than [`MAX_DEPTH`] and text
 //! longer than [`MAX_LEN`] characters, and chains of `+ -` or `* /` are kept flat.
 //!
+//! A parsed expression is a list of steps in postfix order (operands before what
+//! applies to them, as a stack machine runs them), so that parsing allocates once for
+//! the steps and once for the names, whatever the expression's shape.
+//!
 //! Not here: units (see [`super::units`]) and where an expression sits in the file.
 
 use std::collections::BTreeMap;
@@ -99,30 +103,42 @@ enum BinOp {
     Div,
 }
 
-#[derive(Debug, Clone, PartialEq)]
-enum Node {
+/// One step of an expression in postfix order: a value pushed on the stack, or an
+/// operation on the values on top of it. Operators of equal precedence follow their
+/// operands left to right, so long chains stay shallow.
+#[derive(Debug, Clone, Copy, PartialEq)]
+enum Op {
     Num(f64),
+    /// A param: its name is `len` bytes at `at` of [`Expr::names`], written at byte
+    /// `offset` of the text.
     Name {
-        name: String,
+        at: usize,
+        len: usize,
         offset: usize,
     },
-    Neg(Box<Node>),
-    /// Operators of equal precedence, applied left to right; flat so long chains stay shallow.
-    /// Each operator carries its byte offset.
-    Chain {
-        first: Box<Node>,
-        rest: Vec<(BinOp, usize, Node)>,
-    },
-    Pow {
-        base: Box<Node>,
-        exp: Box<Node>,
-        offset: usize,
-    },
+    Neg,
+    /// A binary operator, written at byte `offset`.
+    Bin(BinOp, usize),
+    /// `^`, written at byte `offset`.
+    Pow(usize),
+    /// A function of the `args` values on top, written at byte `offset`.
     Call {
         func: Func,
-        args: Vec<Node>,
+        args: usize,
         offset: usize,
     },
+}
+
+impl Op {
+    /// How many values the step takes from the stack.
+    fn takes(self) -> usize {
+        match self {
+            Op::Num(_) | Op::Name { .. } => 0,
+            Op::Neg => 1,
+            Op::Bin(..) | Op::Pow(_) => 2,
+            Op::Call { args, .. } => args,
+        }
+    }
 }
 
 /// A parsed arithmetic expression.
@@ -136,7 +152,39 @@ enum Node {
 /// ```
 #[derive(Debug, Clone, PartialEq)]
 pub struct Expr {
-    root: Node,
+    ops: Vec<Op>,
+    /// The names of the params used, one after the other.
+    names: String,
+    /// The most values on the stack while the steps run.
+    depth: usize,
+}
+
+/// Values an evaluation holds on the machine's own stack; a deeper expression (a call
+/// of many arguments) takes a vector.
+const ON_STACK: usize = 16;
+
+/// The values of an evaluation: a fixed slice, filled from the bottom. Reading below
+/// the bottom or writing past the top gives NaN or drops the value (which the parser's
+/// steps never do), so nothing here panics.
+struct Stack<'a> {
+    values: &'a mut [f64],
+    len: usize,
+}
+
+impl Stack<'_> {
+    fn push(&mut self, v: f64) {
+        if let Some(slot) = self.values.get_mut(self.len) {
+            *slot = v;
+        }
+        self.len += 1;
+    }
+
+    /// The top `n` values, taken off the stack, bottom first.
+    fn take(&mut self, n: usize) -> &[f64] {
+        let from = self.len.saturating_sub(n);
+        self.len = from;
+        self.values.get(from..from + n).unwrap_or(&[])
+    }
 }
 
 impl Expr {
@@ -160,10 +208,19 @@ impl Expr {
             src,
             pos: 0,
             depth: 0,
+            // About the steps of the usual text (one a token); more grow the vector.
+            ops: Vec::with_capacity(src.len() / 2 + 2),
+            names: String::new(),
+            height: 0,
+            max_height: 0,
         };
-        let root = parser.expr()?;
+        parser.expr()?;
         match parser.peek() {
-            None => Ok(Expr { root }),
+            None => Ok(Expr {
+                ops: parser.ops,
+                names: parser.names,
+                depth: parser.max_height,
+            }),
             Some(')') => Err(ExprError::new(
                 "unmatched `)`; remove it or add a `(` before it",
                 parser.pos,
@@ -197,7 +254,49 @@ impl Expr {
 
     /// Evaluate; `lookup` gives the value of a name (a param).
     pub fn eval(&self, lookup: &dyn Fn(&str) -> Option<f64>) -> Result<f64, ExprError> {
-        eval_node(&self.root, lookup)
+        if self.depth <= ON_STACK {
+            self.eval_on(&mut [0.0; ON_STACK], lookup)
+        } else {
+            self.eval_on(&mut vec![0.0; self.depth], lookup)
+        }
+    }
+
+    /// The name of a [`Op::Name`] step.
+    fn name(&self, at: usize, len: usize) -> &str {
+        self.names.get(at..at + len).unwrap_or("")
+    }
+
+    /// Runs the steps with `values` (at least [`Expr::depth`] long) for the stack.
+    fn eval_on(
+        &self,
+        values: &mut [f64],
+        lookup: &dyn Fn(&str) -> Option<f64>,
+    ) -> Result<f64, ExprError> {
+        let mut stack = Stack { values, len: 0 };
+        for &op in &self.ops {
+            let taken = stack.take(op.takes());
+            let v = match op {
+                Op::Num(v) => v,
+                Op::Name { at, len, offset } => {
+                    let name = self.name(at, len);
+                    match lookup(name) {
+                        Some(v) => finite(v, offset)?,
+                        None => {
+                            return Err(ExprError::new(
+                                format!("unknown name `{name}`; define it under [params]"),
+                                offset,
+                            ))
+                        }
+                    }
+                }
+                Op::Neg => -first(taken),
+                Op::Bin(op, offset) => binary(op, taken, offset)?,
+                Op::Pow(offset) => power(taken, offset)?,
+                Op::Call { func, offset, .. } => call(func, taken, offset)?,
+            };
+            stack.push(v);
+        }
+        Ok(first(stack.take(1)))
     }
 
     /// Names referenced (params), each once, in order of first appearance.
@@ -208,54 +307,29 @@ impl Expr {
             .collect()
     }
 
+    /// Every use of a name, with its byte offset, in the order of the text (postfix
+    /// order keeps the operands' left-to-right order).
+    fn uses(&self) -> impl Iterator<Item = (&str, usize)> {
+        self.ops.iter().filter_map(|op| match *op {
+            Op::Name { at, len, offset } => Some((self.name(at, len), offset)),
+            _ => None,
+        })
+    }
+
     /// Every place `name` is used, as byte offsets into the parsed text, in order.
     fn offsets_of(&self, name: &str) -> Vec<usize> {
-        let mut found = Vec::new();
-        let mut todo: Vec<&Node> = vec![&self.root];
-        while let Some(node) = todo.pop() {
-            match node {
-                Node::Num(_) => {}
-                Node::Name { name: n, offset } if n == name => found.push(*offset),
-                Node::Name { .. } => {}
-                Node::Neg(inner) => todo.push(inner),
-                Node::Chain { first, rest } => {
-                    todo.extend(rest.iter().map(|(_, _, n)| n));
-                    todo.push(first);
-                }
-                Node::Pow { base, exp, .. } => {
-                    todo.push(exp);
-                    todo.push(base);
-                }
-                Node::Call { args, .. } => todo.extend(args.iter()),
-            }
-        }
-        found.sort_unstable();
-        found
+        self.uses()
+            .filter(|(n, _)| *n == name)
+            .map(|(_, offset)| offset)
+            .collect()
     }
 
     /// Each referenced name once, with the byte offset of its first appearance.
     fn references(&self) -> Vec<(&str, usize)> {
         let mut found: Vec<(&str, usize)> = Vec::new();
-        let mut todo: Vec<&Node> = vec![&self.root];
-        // Depth-first, left to right: push children in reverse.
-        while let Some(node) = todo.pop() {
-            match node {
-                Node::Num(_) => {}
-                Node::Name { name, offset } => {
-                    if !found.iter().any(|(n, _)| n == name) {
-                        found.push((name, *offset));
-                    }
-                }
-                Node::Neg(inner) => todo.push(inner),
-                Node::Chain { first, rest } => {
-                    todo.extend(rest.iter().rev().map(|(_, _, n)| n));
-                    todo.push(first);
-                }
-                Node::Pow { base, exp, .. } => {
-                    todo.push(exp);
-                    todo.push(base);
-                }
-                Node::Call { args, .. } => todo.extend(args.iter().rev()),
+        for (name, offset) in self.uses() {
+            if !found.iter().any(|(n, _)| *n == name) {
+                found.push((name, offset));
             }
         }
         found
@@ -292,9 +366,23 @@ struct Parser<'a> {
     src: &'a str,
     pos: usize,
     depth: usize,
+    /// The steps so far, in postfix order.
+    ops: Vec<Op>,
+    /// The names of the [`Op::Name`] steps, one after the other.
+    names: String,
+    /// Values on the stack after the steps so far, and the most at any point.
+    height: usize,
+    max_height: usize,
 }
 
 impl Parser<'_> {
+    /// Appends a step, keeping count of the stack it needs.
+    fn emit(&mut self, op: Op) {
+        self.height = self.height.saturating_sub(op.takes()) + 1;
+        self.max_height = self.max_height.max(self.height);
+        self.ops.push(op);
+    }
+
     fn rest(&self) -> &str {
         self.src.get(self.pos..).unwrap_or("")
     }
@@ -349,7 +437,7 @@ impl Parser<'_> {
         Ok(())
     }
 
-    fn expr(&mut self) -> Result<Node, ExprError> {
+    fn expr(&mut self) -> Result<(), ExprError> {
         self.chain(
             |c| match c {
                 '+' => Some(BinOp::Add),
@@ -360,7 +448,7 @@ impl Parser<'_> {
         )
     }
 
-    fn term(&mut self) -> Result<Node, ExprError> {
+    fn term(&mut self) -> Result<(), ExprError> {
         self.chain(
             |c| match c {
                 '*' => Some(BinOp::Mul),
@@ -375,60 +463,49 @@ impl Parser<'_> {
     fn chain(
         &mut self,
         op_of: fn(char) -> Option<BinOp>,
-        operand: fn(&mut Self) -> Result<Node, ExprError>,
-    ) -> Result<Node, ExprError> {
-        let first = operand(self)?;
-        let mut rest = Vec::new();
+        operand: fn(&mut Self) -> Result<(), ExprError>,
+    ) -> Result<(), ExprError> {
+        operand(self)?;
         while let Some(op) = self.peek().and_then(op_of) {
             let offset = self.pos;
             self.bump();
-            rest.push((op, offset, operand(self)?));
+            operand(self)?;
+            self.emit(Op::Bin(op, offset));
         }
-        Ok(if rest.is_empty() {
-            first
-        } else {
-            Node::Chain {
-                first: Box::new(first),
-                rest,
-            }
-        })
+        Ok(())
     }
 
-    fn unary(&mut self) -> Result<Node, ExprError> {
+    fn unary(&mut self) -> Result<(), ExprError> {
         match self.peek() {
             Some(sign @ ('-' | '+')) => {
                 self.nest(self.pos)?;
                 self.bump();
-                let inner = self.unary()?;
+                self.unary()?;
                 self.depth -= 1;
-                Ok(if sign == '-' {
-                    Node::Neg(Box::new(inner))
-                } else {
-                    inner
-                })
+                if sign == '-' {
+                    self.emit(Op::Neg);
+                }
+                Ok(())
             }
             _ => self.power(),
         }
     }
 
-    fn power(&mut self) -> Result<Node, ExprError> {
-        let base = self.primary()?;
+    fn power(&mut self) -> Result<(), ExprError> {
+        self.primary()?;
         if self.peek() != Some('^') {
-            return Ok(base);
+            return Ok(());
         }
         let offset = self.pos;
         self.nest(offset)?;
         self.bump();
-        let exp = self.unary()?;
+        self.unary()?;
         self.depth -= 1;
-        Ok(Node::Pow {
-            base: Box::new(base),
-            exp: Box::new(exp),
-            offset,
-        })
+        self.emit(Op::Pow(offset));
+        Ok(())
     }
 
-    fn primary(&mut self) -> Result<Node, ExprError> {
+    fn primary(&mut self) -> Result<(), ExprError> {
         match self.peek() {
             None => Err(ExprError::new(
                 "expression ends too early; a number, name or `(` is missing here",
@@ -440,10 +517,10 @@ impl Parser<'_> {
                 let open = self.pos;
                 self.nest(open)?;
                 self.bump();
-                let inner = self.expr()?;
+                self.expr()?;
                 self.close(open, false)?;
                 self.depth -= 1;
-                Ok(inner)
+                Ok(())
             }
             Some(')') => Err(ExprError::new(
                 "unexpected `)`; a number, name or `(` is missing before it",
@@ -510,7 +587,7 @@ impl Parser<'_> {
         n
     }
 
-    fn number(&mut self) -> Result<Node, ExprError> {
+    fn number(&mut self) -> Result<(), ExprError> {
         let start = self.pos;
         let mut count = self.digits();
         if self.rest().starts_with('.') {
@@ -540,7 +617,10 @@ impl Parser<'_> {
         }
         let text = self.src.get(start..self.pos).unwrap_or("");
         match text.parse::<f64>() {
-            Ok(v) if v.is_finite() => Ok(Node::Num(v)),
+            Ok(v) if v.is_finite() => {
+                self.emit(Op::Num(v));
+                Ok(())
+            }
             _ => Err(ExprError::new(
                 format!("number `{text}` is too large; the largest is about 1.8e308"),
                 start,
@@ -548,7 +628,7 @@ impl Parser<'_> {
         }
     }
 
-    fn name(&mut self) -> Result<Node, ExprError> {
+    fn name(&mut self) -> Result<(), ExprError> {
         let start = self.pos;
         let len = self
             .rest()
@@ -567,7 +647,8 @@ impl Parser<'_> {
             return self.call(func, start);
         }
         if name == "pi" {
-            return Ok(Node::Num(std::f64::consts::PI));
+            self.emit(Op::Num(std::f64::consts::PI));
+            return Ok(());
         }
         if Func::named(name).is_some() {
             return Err(ExprError::new(
@@ -575,23 +656,28 @@ impl Parser<'_> {
                 start,
             ));
         }
-        Ok(Node::Name {
-            name: name.to_string(),
+        let at = self.names.len();
+        self.names.push_str(name);
+        self.emit(Op::Name {
+            at,
+            len: name.len(),
             offset: start,
-        })
+        });
+        Ok(())
     }
 
     /// The argument list of a call; the current character is its `(`.
-    fn call(&mut self, func: Func, offset: usize) -> Result<Node, ExprError> {
+    fn call(&mut self, func: Func, offset: usize) -> Result<(), ExprError> {
         let open = self.pos;
         self.nest(open)?;
         self.bump();
-        let mut args = Vec::new();
+        let mut n = 0;
         if self.peek() == Some(')') {
             self.bump();
         } else {
             loop {
-                args.push(self.expr()?);
+                self.expr()?;
+                n += 1;
                 if self.peek() == Some(',') {
                     self.bump();
                 } else {
@@ -602,7 +688,6 @@ impl Parser<'_> {
         }
         self.depth -= 1;
         let name = func.name();
-        let n = args.len();
         if func.variadic() && n < 2 {
             return Err(ExprError::new(
                 format!("`{name}` takes 2 or more arguments, found {n}"),
@@ -615,7 +700,12 @@ impl Parser<'_> {
                 offset,
             ));
         }
-        Ok(Node::Call { func, args, offset })
+        self.emit(Op::Call {
+            func,
+            args: n,
+            offset,
+        });
+        Ok(())
     }
 }
 
@@ -630,77 +720,65 @@ fn finite(v: f64, offset: usize) -> Result<f64, ExprError> {
     }
 }
 
-fn eval_node(node: &Node, lookup: &dyn Fn(&str) -> Option<f64>) -> Result<f64, ExprError> {
-    match node {
-        Node::Num(v) => Ok(*v),
-        Node::Name { name, offset } => match lookup(name) {
-            Some(v) => finite(v, *offset),
-            None => Err(ExprError::new(
-                format!("unknown name `{name}`; define it under [params]"),
-                *offset,
-            )),
-        },
-        Node::Neg(inner) => Ok(-eval_node(inner, lookup)?),
-        Node::Chain { first, rest } => {
-            let mut acc = eval_node(first, lookup)?;
-            for (op, offset, operand) in rest {
-                let v = eval_node(operand, lookup)?;
-                acc = match op {
-                    BinOp::Add => acc + v,
-                    BinOp::Sub => acc - v,
-                    BinOp::Mul => acc * v,
-                    BinOp::Div if v == 0.0 => {
-                        return Err(ExprError::new(
-                            "division by zero; check the divisor",
-                            *offset,
-                        ))
-                    }
-                    BinOp::Div => acc / v,
-                };
-                finite(acc, *offset)?;
-            }
-            Ok(acc)
+/// The first of `values` (NaN for none, which the parser's steps never give).
+fn first(values: &[f64]) -> f64 {
+    values.first().copied().unwrap_or(f64::NAN)
+}
+
+/// `a op b` of the two `values`, the operator written at `offset`.
+fn binary(op: BinOp, values: &[f64], offset: usize) -> Result<f64, ExprError> {
+    let (acc, v) = (first(values), values.get(1).copied().unwrap_or(f64::NAN));
+    let x = match op {
+        BinOp::Add => acc + v,
+        BinOp::Sub => acc - v,
+        BinOp::Mul => acc * v,
+        BinOp::Div if v == 0.0 => {
+            return Err(ExprError::new(
+                "division by zero; check the divisor",
+                offset,
+            ))
         }
-        Node::Pow { base, exp, offset } => {
-            let b = eval_node(base, lookup)?;
-            let e = eval_node(exp, lookup)?;
-            if b < 0.0 && e.fract() != 0.0 {
-                return Err(ExprError::new(
-                    format!("`{b}^{e}`: a negative number to a fractional power has no real value"),
-                    *offset,
-                ));
-            }
-            finite(b.powf(e), *offset)
-        }
-        Node::Call { func, args, offset } => {
-            let vals = args
-                .iter()
-                .map(|a| eval_node(a, lookup))
-                .collect::<Result<Vec<f64>, _>>()?;
-            let x = vals.first().copied().unwrap_or(f64::NAN);
-            let v = match func {
-                Func::Sqrt if x < 0.0 => {
-                    return Err(ExprError::new(
-                        format!("square root of a negative number ({x}); check the sign"),
-                        *offset,
-                    ))
-                }
-                Func::Sqrt => x.sqrt(),
-                Func::Sin => sin_deg(x),
-                Func::Cos => sin_deg(x + 90.0),
-                Func::Tan => tan_deg(x).ok_or_else(|| {
-                    ExprError::new(
-                        format!("tan({x}) is undefined (90° + k·180°); check the angle"),
-                        *offset,
-                    )
-                })?,
-                Func::Abs => x.abs(),
-                Func::Min => vals.iter().copied().fold(f64::INFINITY, f64::min),
-                Func::Max => vals.iter().copied().fold(f64::NEG_INFINITY, f64::max),
-            };
-            finite(v, *offset)
-        }
+        BinOp::Div => acc / v,
+    };
+    finite(x, offset)
+}
+
+/// `b^e` of the two `values`, the `^` written at `offset`.
+fn power(values: &[f64], offset: usize) -> Result<f64, ExprError> {
+    let (b, e) = (first(values), values.get(1).copied().unwrap_or(f64::NAN));
+    if b < 0.0 && e.fract() != 0.0 {
+        return Err(ExprError::new(
+            format!("`{b}^{e}`: a negative number to a fractional power has no real value"),
+            offset,
+        ));
     }
+    finite(b.powf(e), offset)
+}
+
+/// `func` of its arguments `vals`, the call written at `offset`.
+fn call(func: Func, vals: &[f64], offset: usize) -> Result<f64, ExprError> {
+    let x = first(vals);
+    let v = match func {
+        Func::Sqrt if x < 0.0 => {
+            return Err(ExprError::new(
+                format!("square root of a negative number ({x}); check the sign"),
+                offset,
+            ))
+        }
+        Func::Sqrt => x.sqrt(),
+        Func::Sin => sin_deg(x),
+        Func::Cos => sin_deg(x + 90.0),
+        Func::Tan => tan_deg(x).ok_or_else(|| {
+            ExprError::new(
+                format!("tan({x}) is undefined (90° + k·180°); check the angle"),
+                offset,
+            )
+        })?,
+        Func::Abs => x.abs(),
+        Func::Min => vals.iter().copied().fold(f64::INFINITY, f64::min),
+        Func::Max => vals.iter().copied().fold(f64::NEG_INFINITY, f64::max),
+    };
+    finite(v, offset)
 }
 
 /// Sine of an angle in degrees, exact at multiples of 30° where the value is rational
@@ -768,6 +846,12 @@ fn check_param_name(name: &str) -> Result<(), ExprError> {
     Err(ExprError::new(message, 0))
 }
 
+/// A param as [`resolve_params`] reads it: a number, or an expression of others.
+enum Param {
+    Number(f64),
+    Expr(Expr),
+}
+
 /// Resolve `[params]` in any order of dependence.
 ///
 /// Input: (name, value) in file order. Output: every value, or the index of the offending
@@ -793,20 +877,20 @@ pub fn resolve_params(
         .iter()
         .enumerate()
         .map(|(i, (_, value))| match value {
-            Value::Number(v) => finite(*v, 0)
-                .map(|v| Expr { root: Node::Num(v) })
-                .map_err(|e| (i, e)),
-            Value::Expr(src) => Expr::parse(src).map_err(|e| (i, e)),
+            Value::Number(v) => finite(*v, 0).map(Param::Number).map_err(|e| (i, e)),
+            Value::Expr(src) => Expr::parse(src).map(Param::Expr).map_err(|e| (i, e)),
         })
-        .collect::<Result<Vec<Expr>, _>>()?;
+        .collect::<Result<Vec<Param>, _>>()?;
     // deps[i]: (param index, offset of the reference) for each param that param i uses.
     let deps: Vec<Vec<(usize, usize)>> = exprs
         .iter()
-        .map(|e| {
-            e.references()
+        .map(|p| match p {
+            Param::Number(_) => Vec::new(),
+            Param::Expr(e) => e
+                .references()
                 .into_iter()
                 .filter_map(|(name, offset)| index.get(name).map(|&j| (j, offset)))
-                .collect()
+                .collect(),
         })
         .collect();
     let order = dependency_order(&deps).map_err(|cycle| cycle_error(&cycle, &deps, params))?;
@@ -815,7 +899,10 @@ pub fn resolve_params(
         let (Some((name, _)), Some(expr)) = (params.get(i), exprs.get(i)) else {
             continue;
         };
-        let v = expr.eval(&|n| values.get(n).copied()).map_err(|e| (i, e))?;
+        let v = match expr {
+            Param::Number(v) => *v,
+            Param::Expr(e) => e.eval(&|n| values.get(n).copied()).map_err(|e| (i, e))?,
+        };
         values.insert(name.clone(), v);
     }
     Ok(values)
