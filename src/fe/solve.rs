@@ -684,10 +684,12 @@ pub struct Multigrid {
 }
 
 /// A refinement is factored directly, and becomes the coarsest level, when its factor
-/// takes at most this many multiply-adds per stored matrix entry: about what the
-/// 7–9 preconditioned iterations cost (each a product, two Gauss–Seidel sweeps and the
-/// coarser levels, some 6 operations per entry), our measure on the bench sections.
-const DIRECT_FLOPS_PER_ENTRY: f64 = 40.0;
+/// takes at most this many multiply-adds per stored matrix entry (for each right-hand
+/// side): measured in instructions (callgrind) on the bench sections, the iterations
+/// cost about 700 a matrix entry (the loading-bay beam's first refinement), the factor
+/// about 3 a multiply-add and 40 a factor entry besides its ordering, so that it is the
+/// cheaper up to about 150.
+const DIRECT_FLOPS_PER_ENTRY: f64 = 150.0;
 /// Refinements with more rows than this are not considered for a direct factor (its
 /// ordering alone would cost a good part of an iterative solve, and the factor of a
 /// 2-D mesh grows faster than its rows).
