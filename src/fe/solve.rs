@@ -263,10 +263,10 @@ impl Csr {
 
     /// `y = A·x`.
     pub fn mul(&self, x: &[f64], y: &mut [f64]) {
-        for (i, yi) in y.iter_mut().enumerate() {
+        for (yi, at) in y.iter_mut().zip(self.ptr.windows(2)) {
             let mut s = 0.0;
-            for k in self.ptr[i]..self.ptr[i + 1] {
-                s += self.val[k] * x[self.col[k] as usize];
+            for (&c, &v) in self.col[at[0]..at[1]].iter().zip(&self.val[at[0]..at[1]]) {
+                s += v * x[c as usize];
             }
             *yi = s;
         }
@@ -277,9 +277,10 @@ impl Csr {
     fn gauss_seidel(&self, b: &[f64], x: &mut [f64], forward: bool) {
         let n = self.rows();
         let mut row = |i: usize| {
+            let (from, to) = (self.ptr[i], self.ptr[i + 1]);
             let mut s = b[i];
-            for k in self.ptr[i]..self.ptr[i + 1] {
-                s -= self.val[k] * x[self.col[k] as usize];
+            for (&c, &v) in self.col[from..to].iter().zip(&self.val[from..to]) {
+                s -= v * x[c as usize];
             }
             let d = self.val[self.diag[i]];
             x[i] += s / d;
