@@ -263,10 +263,10 @@ impl Csr {
 
     /// `y = A·x`.
     pub fn mul(&self, x: &[f64], y: &mut [f64]) {
-        for (i, yi) in y.iter_mut().enumerate() {
+        for (yi, at) in y.iter_mut().zip(self.ptr.windows(2)) {
             let mut s = 0.0;
-            for k in self.ptr[i]..self.ptr[i + 1] {
-                s += self.val[k] * x[self.col[k] as usize];
+            for (&c, &v) in self.col[at[0]..at[1]].iter().zip(&self.val[at[0]..at[1]]) {
+                s += v * x[c as usize];
             }
             *yi = s;
         }
@@ -277,9 +277,10 @@ impl Csr {
     fn gauss_seidel(&self, b: &[f64], x: &mut [f64], forward: bool) {
         let n = self.rows();
         let mut row = |i: usize| {
+            let (from, to) = (self.ptr[i], self.ptr[i + 1]);
             let mut s = b[i];
-            for k in self.ptr[i]..self.ptr[i + 1] {
-                s -= self.val[k] * x[self.col[k] as usize];
+            for (&c, &v) in self.col[from..to].iter().zip(&self.val[from..to]) {
+                s -= v * x[c as usize];
             }
             let d = self.val[self.diag[i]];
             x[i] += s / d;
@@ -684,10 +685,12 @@ pub struct Multigrid {
 }
 
 /// A refinement is factored directly, and becomes the coarsest level, when its factor
-/// takes at most this many multiply-adds per stored matrix entry: about what the
-/// 7–9 preconditioned iterations cost (each a product, two Gauss–Seidel sweeps and the
-/// coarser levels, some 6 operations per entry), our measure on the bench sections.
-const DIRECT_FLOPS_PER_ENTRY: f64 = 40.0;
+/// takes at most this many multiply-adds per stored matrix entry (for each right-hand
+/// side): measured in instructions (callgrind) on the bench sections, the iterations
+/// cost about 700 a matrix entry (the loading-bay beam's first refinement), the factor
+/// about 3 a multiply-add and 40 a factor entry besides its ordering, so that it is the
+/// cheaper up to about 150.
+const DIRECT_FLOPS_PER_ENTRY: f64 = 150.0;
 /// Refinements with more rows than this are not considered for a direct factor (its
 /// ordering alone would cost a good part of an iterative solve, and the factor of a
 /// 2-D mesh grows faster than its rows).
