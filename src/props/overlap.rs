@@ -13,8 +13,8 @@
 
 use crate::geom::contour::union_bounds;
 use crate::geom::meet::{self, Edge};
-use crate::geom::Pt;
 use crate::geom::{BoundaryIntegral, Piece};
+use crate::geom::{Pt, Seg};
 use crate::model::warning::{More, Warning};
 use std::cell::OnceCell;
 
@@ -37,7 +37,11 @@ struct Shape<'a> {
 
 impl<'a> Shape<'a> {
     fn of(p: &'a Piece) -> Option<Shape<'a>> {
-        let (mut edges, mut first) = (Vec::new(), Vec::new());
+        // Room for a line an edge and an arc four (a full turn in quarters).
+        let room: usize = (p.contours.iter().flat_map(|c| &c.segs))
+            .map(|s| if matches!(s, Seg::Arc { .. }) { 4 } else { 1 })
+            .sum();
+        let (mut edges, mut first) = (Vec::with_capacity(room), Vec::with_capacity(room));
         // `Piece::bounds`: a segment kept whole as one edge has that edge's box (the same
         // ends and extreme points), an arc cut in several its own.
         let mut bounds: Option<[f64; 4]> = None;
