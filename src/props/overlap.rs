@@ -28,6 +28,8 @@ struct Shape<'a> {
     edges: Vec<Edge>,
     /// Whether each edge starts its loop (its start does not continue the edge before).
     first: Vec<bool>,
+    /// `∮ x dy` along each whole edge (`Edge::x_dy(0, 1)`), the area its sum.
+    whole: Vec<f64>,
     bounds: [f64; 4],
     area: f64,
     /// A point inside and its distance to the boundary (> 0), when the centroid is one;
@@ -60,11 +62,13 @@ impl<'a> Shape<'a> {
             first.extend((n..edges.len()).map(|k| k == n));
         }
         let bounds = bounds?;
-        let area = edges.iter().map(|e| e.x_dy(0.0, 1.0)).sum();
+        let whole: Vec<f64> = edges.iter().map(|e| e.x_dy(0.0, 1.0)).collect();
+        let area = whole.iter().sum();
         Some(Shape {
             piece: p,
             edges,
             first,
+            whole,
             bounds,
             area,
             core: OnceCell::new(),
@@ -254,7 +258,7 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64, w: &mut Scratch
         // that side (the same sum as the general case below, which it skips).
         if let (true, Some(inside)) = (near.is_empty(), side) {
             if inside {
-                sum += edge.x_dy(0.0, 1.0);
+                sum += p.whole[k];
             }
             continue;
         }
@@ -286,7 +290,12 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64, w: &mut Scratch
                 }
             };
             if keep {
-                sum += edge.x_dy(w[0], w[1]);
+                // A piece that is the whole edge (from +0 to 1) has its sum already.
+                sum += if w[0].to_bits() == 0 && w[1] == 1.0 {
+                    p.whole[k]
+                } else {
+                    edge.x_dy(w[0], w[1])
+                };
             }
         }
     }
