@@ -363,17 +363,18 @@ impl ArcOffsets {
     /// The facet points about its centre of the arc of radius `r` from `a0` to `a1`,
     /// chords of at most `max_angle` ([`arc_offsets`]), cut the first time.
     fn offsets(&mut self, r: f64, a0: f64, a1: f64, max_angle: f64) -> &[Pt] {
-        let key = [r, a0, a1, max_angle].map(f64::to_bits);
-        if !self.arcs.contains_key(&key) {
-            let pts: Vec<Pt> = arc_offsets(r, a0, a1, max_angle).collect();
-            if self.points + pts.len() > Self::POINTS {
-                self.arcs.clear();
-                self.points = 0;
-            }
-            self.points += pts.len();
-            self.arcs.insert(key, pts);
+        // An arc has at most 4,096 points: this keeps fewer than `POINTS` + 4,096.
+        if self.points >= Self::POINTS {
+            self.arcs.clear();
+            self.points = 0;
         }
-        &self.arcs[&key]
+        let key = [r, a0, a1, max_angle].map(f64::to_bits);
+        let points = &mut self.points;
+        self.arcs.entry(key).or_insert_with(|| {
+            let pts: Vec<Pt> = arc_offsets(r, a0, a1, max_angle).collect();
+            *points += pts.len();
+            pts
+        })
     }
 }
 
@@ -442,9 +443,19 @@ impl Contour {
         self.segs.iter().map(Seg::bounds).reduce(union_bounds)
     }
 
+    /// The number of points of [`Contour::facets`]: one a line, an arc's chords.
+    fn facet_count(&self, max_angle: f64) -> usize {
+        (self.segs.iter())
+            .map(|s| match *s {
+                Seg::Line(..) => 1,
+                Seg::Arc { a0, a1, .. } => chords(a1 - a0, max_angle),
+            })
+            .sum()
+    }
+
     /// The loop as a polygon, arcs cut into chords of at most `max_angle` radians.
     pub fn facets(&self, max_angle: f64) -> Vec<Pt> {
-        let mut out = Vec::with_capacity(self.segs.len());
+        let mut out = Vec::with_capacity(self.facet_count(max_angle));
         for s in &self.segs {
             s.facet_points(max_angle, &mut out);
         }
@@ -453,7 +464,7 @@ impl Contour {
 
     /// [`Contour::facets`], with arcs cut before taken from `memo`.
     pub fn facets_in(&self, max_angle: f64, memo: &mut ArcOffsets) -> Vec<Pt> {
-        let mut out = Vec::with_capacity(self.segs.len());
+        let mut out = Vec::with_capacity(self.facet_count(max_angle));
         for s in &self.segs {
             s.facet_points_in(max_angle, memo, &mut out);
         }

@@ -44,17 +44,31 @@ impl TrigPoly {
     /// nonzero coefficient of `self` (in the order of `i`, then `j`) times every term
     /// of `o` that stays within degree 5.
     pub fn mul(&self, o: &TrigPoly) -> TrigPoly {
+        // The degrees the moments multiply (linear and quadratic factors) as constants,
+        // so that the loops below unroll; any other pair as it comes.
+        match (self.deg, o.deg) {
+            (1, 1) => self.product(o, 1, 1),
+            (1, 2) => self.product(o, 1, 2),
+            (2, 1) => self.product(o, 2, 1),
+            (2, 2) => self.product(o, 2, 2),
+            (d, e) => self.product(o, d, e),
+        }
+    }
+
+    /// [`TrigPoly::mul`] for `self` of degree `ds` and `o` of degree `od`.
+    #[inline(always)]
+    fn product(&self, o: &TrigPoly, ds: usize, od: usize) -> TrigPoly {
         let mut out = TrigPoly {
             c: [0.0; 36],
-            deg: (self.deg + o.deg).min(5),
+            deg: (ds + od).min(5),
         };
-        for i in 0..=self.deg {
-            for j in 0..=self.deg - i {
+        for i in 0..=ds {
+            for j in 0..=ds - i {
                 let a = self.c[6 * i + j];
                 if a == 0.0 {
                     continue;
                 }
-                let room = o.deg.min(5 - i - j);
+                let room = od.min(5 - i - j);
                 for &at in &BY_DEGREE[..(room + 1) * (room + 2) / 2] {
                     out.c[6 * i + j + at] += a * o.c[at];
                 }
@@ -65,9 +79,23 @@ impl TrigPoly {
 
     /// `∫ p(t) dt` over the arc of `m`, exactly: `Σ c[i][j]·∫cosⁱ t sinʲ t dt`.
     pub fn integral(&self, m: &Monomials) -> f64 {
+        // Each degree as a constant, so that the loops below unroll.
+        match self.deg {
+            0 => self.sum_with(m, 0),
+            1 => self.sum_with(m, 1),
+            2 => self.sum_with(m, 2),
+            3 => self.sum_with(m, 3),
+            4 => self.sum_with(m, 4),
+            d => self.sum_with(m, d),
+        }
+    }
+
+    /// [`TrigPoly::integral`] of `self`, of degree `deg`.
+    #[inline(always)]
+    fn sum_with(&self, m: &Monomials, deg: usize) -> f64 {
         let mut sum = 0.0;
-        for i in 0..=self.deg {
-            for j in 0..=self.deg - i {
+        for i in 0..=deg {
+            for j in 0..=deg - i {
                 let a = self.c[6 * i + j];
                 if a != 0.0 {
                     sum += a * m.0[i][j];
@@ -221,6 +249,25 @@ mod tests {
             assert!((mono(i, j).integral(&q) - v).abs() < 1e-15, "{i} {j}");
             assert!((mono(i, j).integral(&back) + v).abs() < 1e-15, "{i} {j}");
         }
+    }
+
+    #[test]
+    fn products_of_every_degree_pair_integrate_as_their_expansions() {
+        // (1 + cos t)² = 1 + 2cos t + cos²t; over [0, π/2] (the quarter-period values
+        // above: ∫cos = 1, ∫cos² = π/4, ∫cos³ = 2/3, ∫cos⁴ = 3π/16) it is 3π/4 + 2;
+        // times cos t: ∫(cos + 2cos² + cos³) = 1 + π/2 + 2/3; squared again:
+        // ∫(1 + 4cos + 6cos² + 4cos³ + cos⁴) = π/2 + 4 + 3π/2 + 8/3 + 3π/16.
+        let q = (0.0, PI / 2.0);
+        let (one_cos, cos) = (TrigPoly::linear(1.0, 1.0, 0.0), mono(1, 0));
+        let sq = one_cos.mul(&one_cos);
+        assert!((int(&sq, q.0, q.1) - (0.75 * PI + 2.0)).abs() < 1e-14);
+        for p in [sq.mul(&cos), cos.mul(&sq)] {
+            assert!((int(&p, q.0, q.1) - (1.0 + PI / 2.0 + 2.0 / 3.0)).abs() < 1e-14);
+        }
+        let fourth = 2.0 * PI + 4.0 + 8.0 / 3.0 + 3.0 * PI / 16.0;
+        assert!((int(&sq.mul(&sq), q.0, q.1) - fourth).abs() < 1e-13);
+        let cubed = sq.mul(&one_cos);
+        assert!((int(&cubed.mul(&one_cos), q.0, q.1) - fourth).abs() < 1e-13);
     }
 
     #[test]

@@ -13,8 +13,8 @@
 
 use crate::geom::contour::union_bounds;
 use crate::geom::meet::{self, Edge};
-use crate::geom::Pt;
 use crate::geom::{BoundaryIntegral, Piece};
+use crate::geom::{Pt, Seg};
 use crate::model::warning::{More, Warning};
 use std::cell::OnceCell;
 
@@ -28,6 +28,8 @@ struct Shape<'a> {
     edges: Vec<Edge>,
     /// Whether each edge starts its loop (its start does not continue the edge before).
     first: Vec<bool>,
+    /// `∮ x dy` along each whole edge (`Edge::x_dy(0, 1)`), the area its sum.
+    whole: Vec<f64>,
     bounds: [f64; 4],
     area: f64,
     /// A point inside and its distance to the boundary (> 0), when the centroid is one;
@@ -37,7 +39,11 @@ struct Shape<'a> {
 
 impl<'a> Shape<'a> {
     fn of(p: &'a Piece) -> Option<Shape<'a>> {
-        let (mut edges, mut first) = (Vec::new(), Vec::new());
+        // Room for a line an edge and an arc four (a full turn in quarters).
+        let room: usize = (p.contours.iter().flat_map(|c| &c.segs))
+            .map(|s| if matches!(s, Seg::Arc { .. }) { 4 } else { 1 })
+            .sum();
+        let (mut edges, mut first) = (Vec::with_capacity(room), Vec::with_capacity(room));
         // `Piece::bounds`: a segment kept whole as one edge has that edge's box (the same
         // ends and extreme points), an arc cut in several its own.
         let mut bounds: Option<[f64; 4]> = None;
@@ -56,11 +62,13 @@ impl<'a> Shape<'a> {
             first.extend((n..edges.len()).map(|k| k == n));
         }
         let bounds = bounds?;
-        let area = edges.iter().map(|e| e.x_dy(0.0, 1.0)).sum();
+        let whole: Vec<f64> = edges.iter().map(|e| e.x_dy(0.0, 1.0)).collect();
+        let area = whole.iter().sum();
         Some(Shape {
             piece: p,
             edges,
             first,
+            whole,
             bounds,
             area,
             core: OnceCell::new(),
@@ -250,7 +258,7 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64, w: &mut Scratch
         // that side (the same sum as the general case below, which it skips).
         if let (true, Some(inside)) = (near.is_empty(), side) {
             if inside {
-                sum += edge.x_dy(0.0, 1.0);
+                sum += p.whole[k];
             }
             continue;
         }
@@ -282,7 +290,12 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64, w: &mut Scratch
                 }
             };
             if keep {
-                sum += edge.x_dy(w[0], w[1]);
+                // A piece that is the whole edge (from +0 to 1) has its sum already.
+                sum += if w[0].to_bits() == 0 && w[1] == 1.0 {
+                    p.whole[k]
+                } else {
+                    edge.x_dy(w[0], w[1])
+                };
             }
         }
     }
