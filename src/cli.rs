@@ -97,6 +97,10 @@ fn write_failed(e: &std::io::Error, mut say: impl FnMut(&str)) -> i32 {
     }
 }
 
+/// The bytes `kern calc` gathers before it writes to stdout: some fifty JSON lines of
+/// a usual section (a write is a system call).
+const OUT_BUFFER: usize = 64 * 1024;
+
 /// `kern calc`: prints a table (or one JSON line) per file, in input order, each as
 /// soon as it and the files before it are done (at most [`crate::parallel::WINDOW`]
 /// wait, so a huge batch stays in bounded memory); invalid files print
@@ -107,7 +111,7 @@ fn write_failed(e: &std::io::Error, mut say: impl FnMut(&str)) -> i32 {
 /// stdout. When the output cannot be written (the reader has gone) no more files are
 /// started.
 pub fn calc(args: &CalcArgs) -> i32 {
-    let out = std::io::BufWriter::new(std::io::stdout().lock());
+    let out = std::io::BufWriter::with_capacity(OUT_BUFFER, std::io::stdout().lock());
     calc_into(args, |p| calc_one(args, p), out, say)
 }
 

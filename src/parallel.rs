@@ -74,6 +74,8 @@ pub fn parallel_for_each<T: Sync, R: Send>(
             taken: 0,
             started: 0,
             stop: false,
+            waiting_for_room: 0,
+            waiting_for_done: false,
         }),
         room: Condvar::new(),
         done: Condvar::new(),
@@ -112,7 +114,8 @@ enum Step<R> {
 }
 
 /// The items of a [`parallel_for_each`] between the one taken next and the last one
-/// started, with what the threads wait on.
+/// started, with what the threads wait on. A condition is signalled only when a thread
+/// waits on it (a signal is a system call even when nobody waits).
 struct Queue<R> {
     state: Mutex<State<R>>,
     /// Signalled when an item may be started (a result taken) or the run stops.
@@ -127,6 +130,10 @@ struct State<R> {
     taken: usize,
     started: usize,
     stop: bool,
+    /// Workers waiting on `room`.
+    waiting_for_room: usize,
+    /// Whether the calling thread waits on `done`.
+    waiting_for_done: bool,
 }
 
 impl<R> State<R> {
@@ -159,7 +166,9 @@ impl<R> Queue<R> {
             if let Some(i) = st.begin(len) {
                 return Some(i);
             }
+            st.waiting_for_room += 1;
             st = self.room.wait(st).unwrap_or_else(PoisonError::into_inner);
+            st.waiting_for_room -= 1;
         }
     }
 
@@ -168,7 +177,7 @@ impl<R> Queue<R> {
         let mut st = self.lock();
         let at = i - st.taken;
         st.waiting[at] = Some(r);
-        if at == 0 {
+        if at == 0 && st.waiting_for_done {
             self.done.notify_one();
         }
     }
@@ -188,13 +197,17 @@ impl<R> Queue<R> {
                 };
                 let i = st.taken;
                 st.taken += 1;
-                self.room.notify_one();
+                if st.waiting_for_room > 0 {
+                    self.room.notify_one();
+                }
                 return Step::Take(i, r);
             }
             if let Some(i) = st.begin(len) {
                 return Step::Work(i);
             }
+            st.waiting_for_done = true;
             st = self.done.wait(st).unwrap_or_else(PoisonError::into_inner);
+            st.waiting_for_done = false;
         }
     }
 

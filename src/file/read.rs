@@ -109,7 +109,7 @@ fn read(text: &str, root: &Table) -> Result<Document, Diagnostic> {
                 "missing `units`; add units = \"mm\" (or cm, m, in, ft)",
             ))
         }
-        Some((u, sp)) => match LengthUnit::parse(&u) {
+        Some((u, sp)) => match LengthUnit::parse(u) {
             Some(unit) => (unit, sp),
             None => {
                 return Err(Diagnostic::new(
@@ -210,7 +210,7 @@ fn string_map(raw: &str, start: usize) -> Vec<(usize, usize)> {
     let b = raw.as_bytes();
     // A one-line string with no escape maps one to one past its quote: no checkpoints
     // (and nothing allocated for the usual value).
-    if !multi && !(basic && b.contains(&b'\\')) {
+    if !(multi || (basic && b.contains(&b'\\'))) {
         return Vec::new();
     }
     let mut i = delim;
@@ -517,12 +517,12 @@ impl Reader<'_> {
                 "a part needs a `shape`, e.g. shape = \"rect\"",
             ));
         };
-        let Some(kind) = ShapeKind::parse(&shape) else {
+        let Some(kind) = ShapeKind::parse(shape) else {
             let best = SPECS
                 .iter()
                 .map(|s| s.name)
-                .min_by_key(|s| distance(&shape, s))
-                .filter(|s| distance(&shape, s) <= 3);
+                .min_by_key(|s| distance(shape, s))
+                .filter(|s| distance(shape, s) <= 3);
             let hint = best.map_or(String::new(), |b| format!("did you mean `{b}`? "));
             return Err(Diagnostic::new(
                 shape_span,
@@ -563,7 +563,7 @@ impl Reader<'_> {
         };
         let anchor = match self.opt_str(t, "anchor", sp.clone())? {
             None => None,
-            Some((a, asp)) => Some(Anchor::parse(&a).ok_or_else(|| {
+            Some((a, asp)) => Some(Anchor::parse(a).ok_or_else(|| {
                 let names: Vec<&str> = Anchor::ALL.iter().map(|a| a.1).collect();
                 Diagnostic::new(
                     asp,

@@ -133,7 +133,15 @@ struct Ctx<'a> {
     notes: Option<&'a RefCell<Notes>>,
     /// Expressions parsed before, by where their value starts ([`Varying`]).
     parsed: Option<&'a Parsed>,
+    /// The expressions evaluated so far by their text, at most [`MEMO`] of them, when
+    /// no notes are taken: with the params fixed, a text the file repeats (`d/2 + 15`
+    /// for a pair of holes) has one value, or one error for [`expr_diag`] to place at
+    /// each use.
+    memo: RefCell<Vec<(String, Result<f64, ExprError>)>>,
 }
+
+/// The most expression texts a [`Ctx`] remembers the value of (a short list to search).
+const MEMO: usize = 16;
 
 impl Ctx<'_> {
     /// The finite value of the param `s` names alone ([`Expr::lone_name`]), unless
@@ -141,6 +149,49 @@ impl Ctx<'_> {
     fn lone_param(&self, s: &str) -> Option<f64> {
         let name = Expr::lone_name(s).filter(|_| self.notes.is_none())?;
         self.params.get(name).copied().filter(|x| x.is_finite())
+    }
+
+    /// The value of expression `s`, whose value starts at byte `start` of the file,
+    /// from [`Ctx::memo`] when it holds the text.
+    fn remembered(&self, s: &str, start: usize) -> Result<f64, ExprError> {
+        if self.notes.is_some() {
+            return self.evaluate(s, start);
+        }
+        if let Some((_, r)) = self.memo.borrow().iter().find(|(t, _)| *t == s) {
+            return r.clone();
+        }
+        let r = self.evaluate(s, start);
+        let mut memo = self.memo.borrow_mut();
+        if memo.len() < MEMO {
+            memo.push((s.to_string(), r.clone()));
+        }
+        r
+    }
+
+    /// The value of expression `s` (starting at byte `start`), parsed unless
+    /// [`Ctx::parsed`] holds it, noting what it parses and reads when notes are taken.
+    fn evaluate(&self, s: &str, start: usize) -> Result<f64, ExprError> {
+        let before = (self.parsed)
+            .and_then(|p| p.get(&start))
+            .filter(|(text, _)| text == s);
+        let parsed;
+        let e = match before {
+            Some((_, e)) => e,
+            None => {
+                parsed = Expr::parse(s)?;
+                if let Some(n) = self.notes {
+                    let entry = (start, s.to_string(), parsed.clone());
+                    n.borrow_mut().parsed.push(entry);
+                }
+                &parsed
+            }
+        };
+        e.eval(&|n| {
+            if let Some(notes) = self.notes {
+                notes.borrow_mut().read.push(n.to_owned());
+            }
+            self.params.get(n).copied()
+        })
     }
 
     /// A length or plain number in the file's unit.
@@ -152,30 +203,8 @@ impl Ctx<'_> {
             // taken, the expression is parsed and its error is the parser's.
             Value::Expr(s) => match self.lone_param(s) {
                 Some(x) => x,
-                None => {
-                    let before = (self.parsed)
-                        .and_then(|p| p.get(&v.span.start))
-                        .filter(|(text, _)| text == s);
-                    let parsed;
-                    let e = match before {
-                        Some((_, e)) => e,
-                        None => {
-                            parsed = Expr::parse(s).map_err(|e| expr_diag(v, self.maps, e, key))?;
-                            if let Some(n) = self.notes {
-                                let entry = (v.span.start, s.clone(), parsed.clone());
-                                n.borrow_mut().parsed.push(entry);
-                            }
-                            &parsed
-                        }
-                    };
-                    e.eval(&|n| {
-                        if let Some(notes) = self.notes {
-                            notes.borrow_mut().read.push(n.to_owned());
-                        }
-                        self.params.get(n).copied()
-                    })
-                    .map_err(|e| expr_diag(v, self.maps, e, key))?
-                }
+                None => (self.remembered(s, v.span.start))
+                    .map_err(|e| expr_diag(v, self.maps, e, key))?,
             },
         };
         if x.is_finite() {
@@ -327,6 +356,7 @@ impl Resolved {
             maps: &doc.string_maps,
             notes: None,
             parsed: keep.map(|k| &*k.parsed),
+            memo: RefCell::new(Vec::new()),
         };
         let materials = (doc.materials.iter().enumerate())
             .map(|(i, m)| {
@@ -532,6 +562,7 @@ impl Items {
             maps: &doc.string_maps,
             notes: Some(&notes),
             parsed: None,
+            memo: RefCell::new(Vec::new()),
         };
         // The params read since the last call.
         let read = || std::mem::take(&mut notes.borrow_mut().read);
