@@ -52,10 +52,12 @@ impl<'a> Shape<'a> {
             for s in &c.segs {
                 let m = edges.len();
                 Edge::split(s, &mut edges);
+                // An arc cut in several: its ends are the first piece's start and the
+                // last one's end (the same angles, a finite sweep).
                 let b = if edges.len() == m + 1 {
                     edges[m].bbox
                 } else {
-                    s.bounds()
+                    s.bounds_between(edges[m].from, edges[edges.len() - 1].to)
                 };
                 bounds = Some(bounds.map_or(b, |u| union_bounds(u, b)));
             }
