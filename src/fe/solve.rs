@@ -695,7 +695,9 @@ pub struct Multigrid {
 /// side): measured in instructions (callgrind) on the bench sections, the iterations
 /// cost about 700 a matrix entry (the loading-bay beam's first refinement), the factor
 /// about 3 a multiply-add and 40 a factor entry besides its ordering, so that it is the
-/// cheaper up to about 150.
+/// cheaper up to about 150. In CPU time the factor's dependent inner products run
+/// slower an instruction: for one right-hand side the loading-bay beam came out even,
+/// with three (the flexure problem's) the factor was well ahead (DEVELOPERS.md).
 const DIRECT_FLOPS_PER_ENTRY: f64 = 150.0;
 /// The envelope factor of a refinement takes at least this many times the coarser
 /// factor's multiply-adds a matrix entry (a 2-D mesh's envelope widens with its rows:
