@@ -80,11 +80,7 @@ impl Csr {
 
     /// [`Csr::pattern`], and with `map` the positions of every element's entries
     /// (left empty when the matrix has more entries than a `u32` counts).
-    fn pattern_mapped(
-        nodes: usize,
-        elems: &[[u32; 6]],
-        mut map: Option<&mut Vec<[u32; 36]>>,
-    ) -> Csr {
+    fn pattern_mapped(nodes: usize, elems: &[[u32; 6]], map: Option<&mut Vec<[u32; 36]>>) -> Csr {
         // Elements touching each node, in compressed form.
         let mut count = vec![0usize; nodes + 1];
         for e in elems {
@@ -103,61 +99,66 @@ impl Csr {
                 fill[v as usize] += 1;
             }
         }
-        if let Some(m) = map.as_deref_mut() {
-            m.clear();
-            m.resize(elems.len(), [0; 36]);
-        }
+        // Each row's columns as they are met (each once: `listed` holds the last row
+        // that listed a column), a node of no element coupled to itself alone.
         let mut ptr = Vec::with_capacity(nodes + 1);
         ptr.push(0);
-        let mut col = Vec::with_capacity(nodes * 16);
-        let mut diag = Vec::with_capacity(nodes);
-        let mut row: Vec<u32> = Vec::with_capacity(64);
-        // The last row that listed each column (each column enters a row once, so only
-        // the distinct columns are sorted), and each column's place in the current row.
+        let mut met: Vec<u32> = Vec::with_capacity(nodes * 16);
         let mut listed = vec![usize::MAX; nodes];
-        let mut place = vec![0u32; if map.is_some() { nodes } else { 0 }];
         for i in 0..nodes {
-            row.clear();
+            let before = met.len();
             for &k in &adj[count[i]..count[i + 1]] {
                 for &v in &elems[k as usize] {
                     if listed[v as usize] != i {
                         listed[v as usize] = i;
-                        row.push(v);
+                        met.push(v);
                     }
                 }
             }
-            if row.is_empty() {
-                row.push(i as u32);
+            if met.len() == before {
+                met.push(i as u32);
             }
-            row.sort_unstable();
-            let start = col.len();
-            diag.push(start + row.partition_point(|&c| c < i as u32));
-            col.extend_from_slice(&row);
-            ptr.push(col.len());
-            if let Some(m) = map
-                .as_deref_mut()
-                .filter(|_| col.len() <= u32::MAX as usize)
-            {
-                for (off, &c) in row.iter().enumerate() {
-                    place[c as usize] = (start + off) as u32;
+            ptr.push(met.len());
+        }
+        // Sorted by one transposition: the pattern is symmetric, so row c of the
+        // transpose is row c itself, its columns met in increasing order.
+        let nnz = met.len();
+        let mut col = vec![0u32; nnz];
+        let mut diag = vec![0usize; nodes];
+        let mut next = ptr[..nodes].to_vec();
+        for i in 0..nodes {
+            for &c in &met[ptr[i]..ptr[i + 1]] {
+                let c = c as usize;
+                if c == i {
+                    diag[i] = next[i];
                 }
-                for &k in &adj[count[i]..count[i + 1]] {
-                    let e = &elems[k as usize];
-                    let at = &mut m[k as usize];
-                    for a in (0..6).filter(|&a| e[a] as usize == i) {
-                        for b in 0..6 {
-                            at[6 * a + b] = place[e[b] as usize];
+                col[next[c]] = i as u32;
+                next[c] += 1;
+            }
+        }
+        drop(met);
+        if let Some(m) = map {
+            m.clear();
+            if nnz <= u32::MAX as usize {
+                m.resize(elems.len(), [0; 36]);
+                // Each column's place in the current row.
+                let mut place = vec![0u32; nodes];
+                for i in 0..nodes {
+                    for (at, &c) in (ptr[i]..).zip(&col[ptr[i]..ptr[i + 1]]) {
+                        place[c as usize] = at as u32;
+                    }
+                    for &k in &adj[count[i]..count[i + 1]] {
+                        let e = &elems[k as usize];
+                        let at = &mut m[k as usize];
+                        for a in (0..6).filter(|&a| e[a] as usize == i) {
+                            for b in 0..6 {
+                                at[6 * a + b] = place[e[b] as usize];
+                            }
                         }
                     }
                 }
             }
         }
-        if col.len() > u32::MAX as usize {
-            if let Some(m) = map {
-                m.clear();
-            }
-        }
-        let nnz = col.len();
         Csr {
             ptr,
             col,
@@ -339,6 +340,8 @@ pub struct Envelope {
     first: Vec<usize>,
     start: Vec<usize>,
     val: Vec<f64>,
+    /// Multiply-adds the factorisation took ([`Plan::flops`]).
+    flops: f64,
     /// The permuted right-hand side, kept between solves.
     work: RefCell<Vec<f64>>,
 }
@@ -443,6 +446,7 @@ impl Envelope {
             inv,
             first,
             start,
+            flops,
             ..
         } = plan;
         let n = a.rows();
@@ -488,6 +492,7 @@ impl Envelope {
             first,
             start,
             val,
+            flops,
             work: RefCell::new(Vec::new()),
         })
     }
@@ -522,6 +527,7 @@ impl Envelope {
 impl Envelope {
     /// `x[c] = A⁻¹·b[c]` for `K` right-hand sides in one pass over the factor, each
     /// column with the arithmetic of [`Envelope::solve`] (the same result to the bit).
+    #[inline]
     pub fn solve_many<const K: usize>(&self, b: [&[f64]; K], x: [&mut [f64]; K]) {
         let n = self.perm.len();
         // Row i of the permuted block at y[K·i .. K·i + K].
@@ -689,8 +695,15 @@ pub struct Multigrid {
 /// side): measured in instructions (callgrind) on the bench sections, the iterations
 /// cost about 700 a matrix entry (the loading-bay beam's first refinement), the factor
 /// about 3 a multiply-add and 40 a factor entry besides its ordering, so that it is the
-/// cheaper up to about 150.
+/// cheaper up to about 150. In CPU time the factor's dependent inner products run
+/// slower an instruction: for one right-hand side the loading-bay beam came out even,
+/// with three (the flexure problem's) the factor was well ahead (DEVELOPERS.md).
 const DIRECT_FLOPS_PER_ENTRY: f64 = 150.0;
+/// The envelope factor of a refinement takes at least this many times the coarser
+/// factor's multiply-adds a matrix entry (a 2-D mesh's envelope widens with its rows:
+/// measured 3.1–3.9 on the bench sections' first refinements). Too low a figure only
+/// costs an ordering; too high leaves to the iterations a level cheaper to factor.
+const FACTOR_GROWTH: f64 = 3.0;
 /// Refinements with more rows than this are not considered for a direct factor (its
 /// ordering alone would cost a good part of an iterative solve, and the factor of a
 /// 2-D mesh grows faster than its rows).
@@ -719,9 +732,17 @@ impl Multigrid {
     /// [`Multigrid::solve`] is direct. A factor that fails (not positive, cancelled)
     /// leaves the matrix to the iterations.
     pub fn push(&mut self, p: Prolong, a: Csr, cancel: Option<&AtomicBool>) {
-        if a.rows() <= DIRECT_MAX_ROWS {
+        let per_entry = DIRECT_FLOPS_PER_ENTRY * self.rhs as f64;
+        // Only the refinement of a factored level may be cheap enough (a level left to
+        // the iterations was too dear, and this one is dearer), and only when the
+        // coarser factor's cost a matrix entry, times FACTOR_GROWTH, is within the limit:
+        // else the ordering is not even made.
+        let coarse = self.base.flops / self.base_matrix.val.len().max(1) as f64;
+        if a.rows() <= DIRECT_MAX_ROWS
+            && self.levels.is_empty()
+            && FACTOR_GROWTH * coarse <= per_entry
+        {
             let plan = Plan::of(&a);
-            let per_entry = DIRECT_FLOPS_PER_ENTRY * self.rhs as f64;
             if plan.fits() && plan.flops <= per_entry * a.val.len() as f64 {
                 if let Ok(f) = Envelope::factor_planned(&a, plan, cancel) {
                     self.base = f;
@@ -784,6 +805,7 @@ impl Multigrid {
     /// [`Multigrid::solve`] for `K` right-hand sides: one pass over the factor for all
     /// of them when the finest matrix is factored, else one after another. Returns the
     /// iterations of each.
+    #[inline]
     pub fn solve_many<const K: usize>(
         &self,
         b: [&[f64]; K],

@@ -261,11 +261,12 @@ fn solve(
     // [A, ∫x, ∫y, ∫x², ∫y², ∫xy] about the mesh centroid.
     let mut w = Vec::with_capacity(pts.len());
     let mut own = vec![[0.0; 7]; m.pinned.len()];
-    let comp_of = |k: usize| m.component[m.elems[k / nq][0] as usize] as usize;
+    let comp_of = |e: &[u32; 6]| m.component[e[0] as usize] as usize;
     for (e, pe) in m.elems.iter().zip(pts.chunks_exact(nq)) {
-        let comp = m.component[e[0] as usize] as usize;
+        let comp = comp_of(e);
+        let ue = e.map(|v| u[v as usize]);
         for (q, &[da, x, y]) in pe.iter().enumerate() {
-            let wq: f64 = (0..6).map(|i| r4.n[q][i] * u[e[i] as usize]).sum();
+            let wq: f64 = (0..6).map(|i| r4.n[q][i] * ue[i]).sum();
             w.push(wq);
             if let Some(o) = own.get_mut(comp) {
                 let (x, y) = (x - c.x, y - c.y);
@@ -295,9 +296,10 @@ fn solve(
         })
         .collect();
     let zero = [0.0; 7];
-    let own_of = |k: usize| own.get(comp_of(k)).unwrap_or(&zero);
-    for (k, wq) in w.iter_mut().enumerate() {
-        *wq -= own_of(k)[0];
+    let own_of = |e: &[u32; 6]| own.get(comp_of(e)).unwrap_or(&zero);
+    for (we, e) in w.chunks_exact_mut(nq).zip(&m.elems) {
+        let mean = own_of(e)[0];
+        we.iter_mut().for_each(|wq| *wq -= mean);
     }
     // Trefftz with the components' own second moments: I_ωx = ∫xω, I_ωy = ∫yω.
     let (mut iwx, mut iwy) = (0.0, 0.0);
@@ -316,11 +318,14 @@ fn solve(
     };
     // Cw = Σ_i [∫_i ω_S² − (∫_i ω_S)²/A_i], ω_S = ω − ys·X_i + xs·Y_i on component i.
     let mut sums = vec![[0.0; 2]; own.len()];
-    for (k, (&[da, x, y], &wq)) in pts.iter().zip(&w).enumerate() {
-        let o = own_of(k);
-        let (xi, yi) = (x - c.x - o[2], y - c.y - o[3]);
-        let ws = wq - ys * xi + xs * yi;
-        if let Some(sm) = sums.get_mut(comp_of(k)) {
+    for ((pe, we), e) in pts.chunks_exact(nq).zip(w.chunks_exact(nq)).zip(&m.elems) {
+        let o = own_of(e);
+        let Some(sm) = sums.get_mut(comp_of(e)) else {
+            continue;
+        };
+        for (&[da, x, y], &wq) in pe.iter().zip(we) {
+            let (xi, yi) = (x - c.x - o[2], y - c.y - o[3]);
+            let ws = wq - ys * xi + xs * yi;
             sm[0] += da * ws;
             sm[1] += da * ws * ws;
         }
