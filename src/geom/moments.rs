@@ -136,6 +136,11 @@ impl FirstMoments {
             sy: t.yw.integral(&t.m) / 3.0,
         }
     }
+
+    /// `(x̄, ȳ) = (∫x dA / A, ∫y dA / A)`; `None` when the area is not positive.
+    pub fn centroid(&self) -> Option<Pt> {
+        (self.a > 0.0 && self.a.is_finite()).then(|| Pt::new(self.sx / self.a, self.sy / self.a))
+    }
 }
 
 impl BoundaryIntegral for FirstMoments {
@@ -205,9 +210,10 @@ impl Moments {
         }
     }
 
-    /// `(x̄, ȳ) = (∫x dA / A, ∫y dA / A)`; `None` when the area is not positive.
+    /// [`FirstMoments::centroid`] of the first three.
     pub fn centroid(&self) -> Option<Pt> {
-        (self.a > 0.0 && self.a.is_finite()).then(|| Pt::new(self.sx / self.a, self.sy / self.a))
+        let (a, sx, sy) = (self.a, self.sx, self.sy);
+        FirstMoments { a, sx, sy }.centroid()
     }
 
     /// Carried to the centroid by the parallel axis theorem; `None` when `A ≤ 0`.

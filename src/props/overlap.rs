@@ -13,6 +13,7 @@
 
 use crate::geom::contour::union_bounds;
 use crate::geom::meet::{self, Edge};
+use crate::geom::moments::FirstMoments;
 use crate::geom::{BoundaryIntegral, Piece};
 use crate::geom::{Pt, Seg};
 use crate::model::warning::{More, Warning};
@@ -81,8 +82,8 @@ impl<'a> Shape<'a> {
     /// inside.
     fn core(&self) -> Option<(Pt, f64)> {
         *self.core.get_or_init(|| {
-            let c = <crate::props::Moments as BoundaryIntegral>::of_contours(&self.piece.contours)
-                .centroid()?;
+            // The first moments alone: the centroid of the full moments, bit for bit.
+            let c = FirstMoments::of_contours(&self.piece.contours).centroid()?;
             let r = self.clearance(c);
             (self.winding(c) > 0 && r > 0.0).then_some((c, r))
         })
