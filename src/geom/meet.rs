@@ -142,16 +142,33 @@ impl Edge {
     /// a line; on an arc, with `x = cₓ + r cos θ`, `dy = r cos θ dθ`,
     /// `cₓ r (sin θ₁ − sin θ₀) + r²(θ₁ − θ₀)/2 + r²(sin 2θ₁ − sin 2θ₀)/4`.
     pub fn x_dy(&self, t0: f64, t1: f64) -> f64 {
+        self.x_dy_between(self.x_dy_end(t0), self.x_dy_end(t1))
+    }
+
+    /// What [`Edge::x_dy`] takes from the parameter `t` of one end: on a line the point
+    /// `[x, y, 0]`, on an arc the angle θ there and `[θ, sin θ, sin 2θ]` (so that pieces
+    /// meeting at `t` share its sines).
+    pub fn x_dy_end(&self, t: f64) -> [f64; 3] {
         match self.seg {
             Seg::Line(..) => {
-                let (s0, s1) = (self.at(t0), self.at(t1));
-                0.5 * (s0.x + s1.x) * (s1.y - s0.y)
+                let p = self.at(t);
+                [p.x, p.y, 0.0]
             }
-            Seg::Arc { c, r, a0, a1 } => {
-                let (th0, th1) = (a0 + t0 * (a1 - a0), a0 + t1 * (a1 - a0));
-                c.x * r * (th1.sin() - th0.sin())
-                    + 0.5 * r * r * (th1 - th0)
-                    + 0.25 * r * r * ((2.0 * th1).sin() - (2.0 * th0).sin())
+            Seg::Arc { a0, a1, .. } => {
+                let th = a0 + t * (a1 - a0);
+                [th, th.sin(), (2.0 * th).sin()]
+            }
+        }
+    }
+
+    /// [`Edge::x_dy`] between two ends of [`Edge::x_dy_end`].
+    pub fn x_dy_between(&self, e0: [f64; 3], e1: [f64; 3]) -> f64 {
+        match self.seg {
+            Seg::Line(..) => 0.5 * (e0[0] + e1[0]) * (e1[1] - e0[1]),
+            Seg::Arc { c, r, .. } => {
+                c.x * r * (e1[1] - e0[1])
+                    + 0.5 * r * r * (e1[0] - e0[0])
+                    + 0.25 * r * r * (e1[2] - e0[2])
             }
         }
     }

@@ -16,7 +16,7 @@
 //! up part by part; [`Moments::centroidal`] applies the parallel axis theorem,
 //! `I_c = I_o − A·d²`.
 
-use super::trig::{Monomials, TrigPoly};
+use super::trig::{Angle, Monomials, TrigPoly};
 use super::{Contour, Pt, Seg};
 
 /// Area moments about the origin: `a = ∫dA`, `sx = ∫x dA`, `sy = ∫y dA`,
@@ -66,18 +66,24 @@ pub trait BoundaryIntegral: Default {
 
     /// Over one closed contour.
     fn of_contour(c: &Contour) -> Self {
-        c.segs
-            .iter()
-            .map(Self::of_seg)
-            .fold(Self::default(), |s, m| s.plus(&m, 1.0))
+        summed(c.segs.iter().map(Self::of_seg))
     }
 
     /// Over several contours (an outline and its holes).
     fn of_contours(cs: &[Contour]) -> Self {
-        cs.iter()
-            .map(Self::of_contour)
-            .fold(Self::default(), |s, m| s.plus(&m, 1.0))
+        Self::of_contours_by(cs, Self::of_seg)
     }
+
+    /// [`BoundaryIntegral::of_contours`] with each segment's share from `share` (the
+    /// same sums in the same order), for a caller that keeps something of each segment.
+    fn of_contours_by(cs: &[Contour], mut share: impl FnMut(&Seg) -> Self) -> Self {
+        summed(cs.iter().map(|c| summed(c.segs.iter().map(&mut share))))
+    }
+}
+
+/// The sum of `shares` with weight 1, from zero, in their order.
+fn summed<T: BoundaryIntegral>(shares: impl Iterator<Item = T>) -> T {
+    shares.fold(T::default(), |s, m| s.plus(&m, 1.0))
 }
 
 /// The polynomials every moment over one arc is built from, and the integrals of the
@@ -91,19 +97,24 @@ pub struct ArcTerms {
     pub xw: TrigPoly,
     pub yw: TrigPoly,
     pub m: Monomials,
+    /// The end angles with their cosines and sines, from which `m` was formed.
+    pub ends: [Angle; 2],
 }
 
 impl ArcTerms {
     /// The arc about `c` of radius `r` from `a0` to `a1` (radians).
     pub fn new(c: Pt, r: f64, a0: f64, a1: f64) -> ArcTerms {
         let [x, y, w] = TrigPoly::arc(c, r);
+        // `Monomials::new(a0, a1)`, its angles kept.
+        let ends = [Angle::new(a0), Angle::new(a1)];
         ArcTerms {
             x,
             y,
             w,
             xw: x.mul(&w),
             yw: y.mul(&w),
-            m: Monomials::new(a0, a1),
+            m: Monomials::between(&ends[0], &ends[1]),
+            ends,
         }
     }
 }
@@ -135,6 +146,11 @@ impl FirstMoments {
             sx: t.xw.integral(&t.m) / 3.0,
             sy: t.yw.integral(&t.m) / 3.0,
         }
+    }
+
+    /// `(x̄, ȳ) = (∫x dA / A, ∫y dA / A)`; `None` when the area is not positive.
+    pub fn centroid(&self) -> Option<Pt> {
+        (self.a > 0.0 && self.a.is_finite()).then(|| Pt::new(self.sx / self.a, self.sy / self.a))
     }
 }
 
@@ -205,9 +221,10 @@ impl Moments {
         }
     }
 
-    /// `(x̄, ȳ) = (∫x dA / A, ∫y dA / A)`; `None` when the area is not positive.
+    /// [`FirstMoments::centroid`] of the first three.
     pub fn centroid(&self) -> Option<Pt> {
-        (self.a > 0.0 && self.a.is_finite()).then(|| Pt::new(self.sx / self.a, self.sy / self.a))
+        let (a, sx, sy) = (self.a, self.sx, self.sy);
+        FirstMoments { a, sx, sy }.centroid()
     }
 
     /// Carried to the centroid by the parallel axis theorem; `None` when `A ≤ 0`.

@@ -89,17 +89,23 @@ impl BoundaryIntegral for Cubic {
 /// alone.
 impl BoundaryIntegral for (Moments, Cubic) {
     fn of_seg(s: &Seg) -> (Moments, Cubic) {
-        match *s {
-            Seg::Line(..) => (Moments::of_seg(s), Cubic::of_seg(s)),
-            Seg::Arc { c, r, a0, a1 } => {
-                let t = ArcTerms::new(c, r, a0, a1);
-                (Moments::of_arc(&t), Cubic::of_arc(&t))
-            }
-        }
+        of_seg_keeping(s, |_| {})
     }
 
     fn plus(&self, o: &(Moments, Cubic), w: f64) -> (Moments, Cubic) {
         (self.0.plus(&o.0, w), self.1.plus(&o.1, w))
+    }
+}
+
+/// The share of `s` in `<(Moments, Cubic)>::of_seg`, an arc's terms passed to `keep`.
+pub fn of_seg_keeping(s: &Seg, mut keep: impl FnMut(&ArcTerms)) -> (Moments, Cubic) {
+    match *s {
+        Seg::Line(..) => (Moments::of_seg(s), Cubic::of_seg(s)),
+        Seg::Arc { c, r, a0, a1 } => {
+            let t = ArcTerms::new(c, r, a0, a1);
+            keep(&t);
+            (Moments::of_arc(&t), Cubic::of_arc(&t))
+        }
     }
 }
 

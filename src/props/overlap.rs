@@ -13,6 +13,7 @@
 
 use crate::geom::contour::union_bounds;
 use crate::geom::meet::{self, Edge};
+use crate::geom::moments::FirstMoments;
 use crate::geom::{BoundaryIntegral, Piece};
 use crate::geom::{Pt, Seg};
 use crate::model::warning::{More, Warning};
@@ -81,8 +82,8 @@ impl<'a> Shape<'a> {
     /// inside.
     fn core(&self) -> Option<(Pt, f64)> {
         *self.core.get_or_init(|| {
-            let c = <crate::props::Moments as BoundaryIntegral>::of_contours(&self.piece.contours)
-                .centroid()?;
+            // The first moments alone: the centroid of the full moments, bit for bit.
+            let c = FirstMoments::of_contours(&self.piece.contours).centroid()?;
             let r = self.clearance(c);
             (self.winding(c) > 0 && r > 0.0).then_some((c, r))
         })
@@ -270,6 +271,9 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64, w: &mut Scratch
             edge.cuts(&q.edges[f as usize], tol, ts);
         }
         ts.sort_by(f64::total_cmp);
+        // The `Edge::x_dy_end` of the end of the last piece kept, shared with the next
+        // piece when it starts there.
+        let mut last_end: Option<(f64, [f64; 3])> = None;
         for w in ts.windows(2) {
             if w[1] - w[0] <= 1e-12 {
                 continue;
@@ -296,7 +300,13 @@ fn boundary_inside(p: &Shape, q: &Shape, shared: bool, tol: f64, w: &mut Scratch
                 sum += if w[0].to_bits() == 0 && w[1] == 1.0 {
                     p.whole[k]
                 } else {
-                    edge.x_dy(w[0], w[1])
+                    let start = match last_end {
+                        Some((t, e)) if t.to_bits() == w[0].to_bits() => e,
+                        _ => edge.x_dy_end(w[0]),
+                    };
+                    let end = edge.x_dy_end(w[1]);
+                    last_end = Some((w[1], end));
+                    edge.x_dy_between(start, end)
                 };
             }
         }

@@ -37,16 +37,26 @@ struct Below {
     width: f64,
 }
 
-/// The plastic axis parallel to x of a weighted region spanning `ymin..ymax`.
-/// `None` if the weighted area is not positive.
-pub fn plastic_axis_x(parts: &[Weighted], ymin: f64, ymax: f64) -> Option<PlasticAxis> {
-    search(&edges(parts, |s| *s), ymin, ymax)
+/// The end angles of an arc and the integrals of the monomials between them
+/// (`Monomials::between` of the two), when already formed.
+pub type ArcEnds = ([Angle; 2], Monomials);
+
+/// The plastic axis parallel to x of a weighted region spanning `ymin..ymax`; `known`:
+/// the [`ArcEnds`] of the parts' arcs in order, as far as they are at hand (the rest are
+/// formed here, the same numbers). `None` if the weighted area is not positive.
+pub fn plastic_axis_x(
+    parts: &[Weighted],
+    known: &[ArcEnds],
+    ymin: f64,
+    ymax: f64,
+) -> Option<PlasticAxis> {
+    search(&edges(parts, |s| *s, known), ymin, ymax)
 }
 
 /// The plastic axis parallel to y: the same problem after `(x, y) ↦ (y, −x)`; the
 /// level returned is the x of the axis.
 pub fn plastic_axis_y(parts: &[Weighted], xmin: f64, xmax: f64) -> Option<PlasticAxis> {
-    search(&edges(parts, Seg::quarter_turn_cw), -xmax, -xmin).map(|p| PlasticAxis {
+    search(&edges(parts, Seg::quarter_turn_cw, &[]), -xmax, -xmin).map(|p| PlasticAxis {
         level: -p.level,
         z: p.z,
     })
@@ -122,17 +132,22 @@ struct ArcEdge {
 impl ArcEdge {
     /// `∮ x dy`, `∮ x·y dy` from `e0` to `e1` along the arc, exactly.
     fn part(&self, e0: &Angle, e1: &Angle) -> Below {
-        let m = Monomials::between(e0, e1);
+        self.part_over(&Monomials::between(e0, e1))
+    }
+
+    /// [`ArcEdge::part`] between the ends of `m`.
+    fn part_over(&self, m: &Monomials) -> Below {
         Below {
-            a: self.xdy.integral(&m),
-            q: self.xydy.integral(&m),
+            a: self.xdy.integral(m),
+            q: self.xydy.integral(m),
             width: 0.0,
         }
     }
 }
 
-/// The edges of every part, each segment mapped by `turn` first.
-fn edges(parts: &[Weighted], turn: impl Fn(&Seg) -> Seg) -> Edges {
+/// The edges of every part, each segment mapped by `turn` first; the `k`-th arc's ends
+/// are `known[k]` when there is one.
+fn edges(parts: &[Weighted], turn: impl Fn(&Seg) -> Seg, known: &[ArcEnds]) -> Edges {
     let segs = parts.iter().flat_map(|p| p.contours).flat_map(|c| &c.segs);
     let arcs = segs
         .clone()
@@ -151,15 +166,22 @@ fn edges(parts: &[Weighted], turn: impl Fn(&Seg) -> Seg) -> Edges {
                         let x = TrigPoly::linear(o.x, r, 0.0);
                         let y = TrigPoly::linear(o.y, 0.0, r);
                         let xdy = x.mul(&TrigPoly::linear(0.0, r, 0.0));
+                        let (ends, m) = match known.get(out.arcs.len()) {
+                            Some((ends, m)) => (*ends, Some(m)),
+                            None => ([Angle::new(a0), Angle::new(a1)], None),
+                        };
                         let arc = ArcEdge {
                             o,
                             r,
-                            a0: Angle::new(a0),
-                            a1: Angle::new(a1),
+                            a0: ends[0],
+                            a1: ends[1],
                             xdy,
                             xydy: xdy.mul(&y),
                         };
-                        let whole = arc.part(&arc.a0, &arc.a1);
+                        let whole = match m {
+                            Some(m) => arc.part_over(m),
+                            None => arc.part(&arc.a0, &arc.a1),
+                        };
                         out.arcs.push(arc);
                         (whole, Shape::Arc(out.arcs.len() - 1))
                     }
@@ -286,7 +308,7 @@ mod tests {
             contours: &r,
             weight: 1.0,
         }];
-        let px = plastic_axis_x(&w, -20.0, 70.0).unwrap();
+        let px = plastic_axis_x(&w, &[], -20.0, 70.0).unwrap();
         assert!((px.level - 25.0).abs() < 1e-12);
         assert!((px.z - b * h * h / 4.0).abs() < 1e-9 * b * h * h);
         let py = plastic_axis_y(&w, 10.0, 50.0).unwrap();
@@ -304,7 +326,7 @@ mod tests {
             contours: &c,
             weight: 1.0,
         }];
-        let px = plastic_axis_x(&w, 7.0 - 30.0, 37.0).unwrap();
+        let px = plastic_axis_x(&w, &[], 7.0 - 30.0, 37.0).unwrap();
         assert!((px.level - 7.0).abs() < 1e-10);
         assert!((px.z - d.powi(3) / 6.0).abs() < 1e-9 * d.powi(3));
     }
@@ -324,7 +346,7 @@ mod tests {
             weight: 1.0,
         }];
         let z = (d.powi(3) - di.powi(3)) / 6.0;
-        let px = plastic_axis_x(&w, o.y - 25.0, o.y + 25.0).unwrap();
+        let px = plastic_axis_x(&w, &[], o.y - 25.0, o.y + 25.0).unwrap();
         assert!((px.level - o.y).abs() < 1e-10);
         assert!((px.z - z).abs() < 1e-12 * z);
         let py = plastic_axis_y(&w, o.x - 25.0, o.x + 25.0).unwrap();

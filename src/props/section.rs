@@ -4,13 +4,14 @@
 //! not the file origin, so a section drawn far from its origin loses no digits to the
 //! parallel axis theorem.
 
+use super::cubic::of_seg_keeping;
 use super::cubic::Cubic;
-use super::plastic::{plastic_axis_x, plastic_axis_y, Weighted};
+use super::plastic::{plastic_axis_x, plastic_axis_y, ArcEnds, Weighted};
 use super::principal::Principal;
 use crate::geom::contour::{union_bounds, Turn};
 use crate::geom::moments::{Centroidal, Moments};
 use crate::geom::BoundaryIntegral;
-use crate::geom::{solid_bounds, Contour, Piece, Pt};
+use crate::geom::{solid_bounds, Contour, Piece, Pt, Seg};
 
 /// Elastic section moduli to the extreme fibres: `Ixx/(ymax − ȳ)`, `Ixx/(ȳ − ymin)`,
 /// `Iyy/(x̄ − xmin)`, `Iyy/(xmax − x̄)`.
@@ -120,10 +121,26 @@ impl Properties {
             .iter()
             .map(|p| shifted(&p.contours, origin))
             .collect();
-        // Second and third moments of each piece in one pass over its arcs.
+        // Second and third moments of each piece in one pass over its arcs; the arcs'
+        // ends kept for the plastic axis parallel to x.
+        let mut arcs: Vec<ArcEnds> = Vec::with_capacity(if plastic {
+            (local.iter().flatten().flat_map(|c| &c.segs))
+                .filter(|s| matches!(s, Seg::Arc { .. }))
+                .count()
+        } else {
+            0
+        });
         let each: Vec<(Moments, Cubic)> = local
             .iter()
-            .map(|c| <(Moments, Cubic)>::of_contours(c))
+            .map(|c| {
+                <(Moments, Cubic)>::of_contours_by(c, |s| {
+                    of_seg_keeping(s, |t| {
+                        if plastic {
+                            arcs.push((t.ends, t.m));
+                        }
+                    })
+                })
+            })
             .collect();
         let m = pieces
             .iter()
@@ -186,7 +203,7 @@ impl Properties {
             .flatten();
         let size = (b[1] - b[0]).max(b[3] - b[2]);
         let plastic = if plastic {
-            plastic_moduli(pieces, &local, lb, origin, size)
+            plastic_moduli(pieces, &local, &arcs, lb, origin, size)
         } else {
             None
         };
@@ -235,6 +252,7 @@ impl Properties {
 fn plastic_moduli(
     pieces: &[Piece],
     local: &[Vec<Contour>],
+    arcs: &[ArcEnds],
     lb: [f64; 4],
     origin: Pt,
     size: f64,
@@ -247,7 +265,7 @@ fn plastic_moduli(
             weight: p.sign() * p.strength,
         })
         .collect();
-    let px = plastic_axis_x(&weighted, lb[2], lb[3])?;
+    let px = plastic_axis_x(&weighted, arcs, lb[2], lb[3])?;
     let py = plastic_axis_y(&weighted, lb[0], lb[1])?;
     Some(Plastic {
         zx: px.z,
