@@ -55,12 +55,11 @@ pub fn parse(text: &str) -> Option<Table<'_>> {
                         Item::Value(_) => return None,
                     },
                 };
-                let entry = p.keyval(table, 0)?;
+                let end = p.keyval(table, 0)?;
                 p.line_end()?;
-                if let (Some(t), Some(v)) = (&table.span, entry.item.span()) {
-                    table.span = Some(t.start..v.end);
+                if let Some(t) = &table.span {
+                    table.span = Some(t.start..end);
                 }
-                table.entries.push(entry);
             }
         }
     }
@@ -248,9 +247,10 @@ impl<'a> Parser<'a> {
         }
     }
 
-    /// `key = value` (the line's end not taken), its value nested `depth` deep; `None`
+    /// `key = value` (the line's end not taken), its value nested `depth` deep, put at
+    /// the end of `table` (no copy of the entry on the way): where the value ends; `None`
     /// for a key already in `table`.
-    fn keyval(&mut self, table: &Table<'a>, depth: usize) -> Option<Entry<'a>> {
+    fn keyval(&mut self, table: &mut Table<'a>, depth: usize) -> Option<usize> {
         let (key, key_span) = self.key()?;
         self.skip_ws();
         if self.peek() != Some(b'=') {
@@ -262,11 +262,12 @@ impl<'a> Parser<'a> {
         if table.entries.iter().any(|e| e.key == key) {
             return None;
         }
-        Some(Entry {
+        table.entries.push(Entry {
             key: Cow::Borrowed(key),
             key_span: Some(key_span),
             item: Item::Value(value),
-        })
+        });
+        Some(self.i)
     }
 
     fn value(&mut self, depth: usize) -> Option<Value<'a>> {
@@ -454,8 +455,7 @@ impl<'a> Parser<'a> {
         }
         loop {
             self.skip_ws();
-            let entry = self.keyval(&t, depth)?;
-            t.entries.push(entry);
+            self.keyval(&mut t, depth)?;
             self.skip_ws();
             match self.peek()? {
                 b',' => self.i += 1,
