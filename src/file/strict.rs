@@ -419,7 +419,8 @@ impl<'a> Parser<'a> {
     /// `[a, b, ...]`, over lines and with comments, a trailing comma allowed.
     fn array(&mut self, depth: usize) -> Option<Vec<Value<'a>>> {
         self.i += 1;
-        let mut out = Vec::new();
+        // The room a first push would make (a point's two coordinates fit), made at once.
+        let mut out = Vec::with_capacity(4);
         loop {
             self.skip_ws_comments()?;
             if self.peek() == Some(b']') {
