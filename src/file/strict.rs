@@ -55,12 +55,11 @@ pub fn parse(text: &str) -> Option<Table<'_>> {
                         Item::Value(_) => return None,
                     },
                 };
-                let entry = p.keyval(table, 0)?;
+                let end = p.keyval(table, 0)?;
                 p.line_end()?;
-                if let (Some(t), Some(v)) = (&table.span, entry.item.span()) {
-                    table.span = Some(t.start..v.end);
+                if let Some(t) = &table.span {
+                    table.span = Some(t.start..end);
                 }
-                table.entries.push(entry);
             }
         }
     }
@@ -90,19 +89,65 @@ fn ends_scalar(c: Option<u8>) -> bool {
     )
 }
 
-fn is_bare(c: u8) -> bool {
-    c.is_ascii_alphanumeric() || c == b'_' || c == b'-'
-}
+/// Classes of bytes, one bit each in [`CLASS`]: a bare key's letters, digits, `-` and
+/// `_`; a space or tab; a decimal digit; what a comment may hold (tab, printable ASCII
+/// and every byte of a multi-byte UTF-8 character); and that less `"` and `\\` (what a
+/// basic string holds unescaped) or less `'` (a literal string's).
+const BARE: u8 = 1;
+const BLANK: u8 = 2;
+const DIGIT: u8 = 4;
+const COMMENT: u8 = 8;
+const BASIC: u8 = 16;
+const LITERAL: u8 = 32;
+
+/// The classes of each byte, looked up once a byte in the loops over runs.
+static CLASS: [u8; 256] = {
+    let mut t = [0u8; 256];
+    let mut c = 0;
+    while c < 256 {
+        let b = c as u8;
+        let mut k = 0;
+        if b.is_ascii_alphanumeric() || b == b'_' || b == b'-' {
+            k |= BARE;
+        }
+        if b == b' ' || b == b'\t' {
+            k |= BLANK;
+        }
+        if b.is_ascii_digit() {
+            k |= DIGIT;
+        }
+        if b == b'\t' || (b >= 0x20 && b <= 0x7e) || b >= 0x80 {
+            k |= COMMENT;
+            if b != b'"' && b != b'\\' {
+                k |= BASIC;
+            }
+            if b != b'\'' {
+                k |= LITERAL;
+            }
+        }
+        t[c] = k;
+        c += 1;
+    }
+    t
+};
 
 impl<'a> Parser<'a> {
     fn peek(&self) -> Option<u8> {
         self.b.get(self.i).copied()
     }
 
+    /// Steps over the bytes of `class` from here; how many there were.
+    fn run(&mut self, class: u8) -> usize {
+        let n = self.b[self.i..]
+            .iter()
+            .take_while(|&&c| CLASS[usize::from(c)] & class != 0)
+            .count();
+        self.i += n;
+        n
+    }
+
     fn skip_ws(&mut self) {
-        while matches!(self.peek(), Some(b' ' | b'\t')) {
-            self.i += 1;
-        }
+        self.run(BLANK);
     }
 
     /// A line end: LF or CR LF.
@@ -119,15 +164,12 @@ impl<'a> Parser<'a> {
     /// only (TOML 1.0: no control characters but tab in a comment).
     fn comment(&mut self) -> Option<()> {
         self.i += 1;
-        while let Some(c) = self.peek() {
-            match c {
-                b'\n' => break,
-                b'\r' => return (self.b.get(self.i + 1) == Some(&b'\n')).then_some(()),
-                b'\t' | 0x20..=0x7e | 0x80.. => self.i += 1,
-                _ => return None,
-            }
+        self.run(COMMENT);
+        match self.peek() {
+            None | Some(b'\n') => Some(()),
+            Some(b'\r') => (self.b.get(self.i + 1) == Some(&b'\n')).then_some(()),
+            Some(_) => None,
         }
-        Some(())
     }
 
     /// The rest of a line after a value or header: white space, a comment, the end.
@@ -157,10 +199,7 @@ impl<'a> Parser<'a> {
     /// A bare key and its range.
     fn key(&mut self) -> Option<(&'a str, std::ops::Range<usize>)> {
         let start = self.i;
-        while self.peek().is_some_and(is_bare) {
-            self.i += 1;
-        }
-        (self.i > start).then(|| (&self.text[start..self.i], start..self.i))
+        (self.run(BARE) > 0).then(|| (&self.text[start..self.i], start..self.i))
     }
 
     /// `[name]` or `[[name]]`, with its line: the index of its table in the root.
@@ -208,9 +247,10 @@ impl<'a> Parser<'a> {
         }
     }
 
-    /// `key = value` (the line's end not taken), its value nested `depth` deep; `None`
+    /// `key = value` (the line's end not taken), its value nested `depth` deep, put at
+    /// the end of `table` (no copy of the entry on the way): where the value ends; `None`
     /// for a key already in `table`.
-    fn keyval(&mut self, table: &Table<'a>, depth: usize) -> Option<Entry<'a>> {
+    fn keyval(&mut self, table: &mut Table<'a>, depth: usize) -> Option<usize> {
         let (key, key_span) = self.key()?;
         self.skip_ws();
         if self.peek() != Some(b'=') {
@@ -222,11 +262,12 @@ impl<'a> Parser<'a> {
         if table.entries.iter().any(|e| e.key == key) {
             return None;
         }
-        Some(Entry {
+        table.entries.push(Entry {
             key: Cow::Borrowed(key),
             key_span: Some(key_span),
             item: Item::Value(value),
-        })
+        });
+        Some(self.i)
     }
 
     fn value(&mut self, depth: usize) -> Option<Value<'a>> {
@@ -256,11 +297,7 @@ impl<'a> Parser<'a> {
     }
 
     fn digits(&mut self) -> usize {
-        let s = self.i;
-        while self.peek().is_some_and(|c| c.is_ascii_digit()) {
-            self.i += 1;
-        }
-        self.i - s
+        self.run(DIGIT)
     }
 
     /// A decimal integer or float without underscores (TOML 1.0: no leading zeros in
@@ -315,8 +352,8 @@ impl<'a> Parser<'a> {
         let mut run = self.i;
         let mut owned: Option<String> = None;
         loop {
-            let c = self.peek()?;
-            match c {
+            self.run(BASIC);
+            match self.peek()? {
                 b'"' => {
                     let tail = &self.text[run..self.i];
                     self.i += 1;
@@ -348,7 +385,6 @@ impl<'a> Parser<'a> {
                     s.push(ch);
                     run = self.i;
                 }
-                b'\t' | 0x20..=0x7e | 0x80.. => self.i += 1,
                 _ => return None,
             }
         }
@@ -372,22 +408,19 @@ impl<'a> Parser<'a> {
         }
         self.i += 1;
         let start = self.i;
-        loop {
-            match self.peek()? {
-                b'\'' => {
-                    self.i += 1;
-                    return Some(Cow::Borrowed(&self.text[start..self.i - 1]));
-                }
-                b'\t' | 0x20..=0x7e | 0x80.. => self.i += 1,
-                _ => return None,
-            }
+        self.run(LITERAL);
+        if self.peek()? != b'\'' {
+            return None;
         }
+        self.i += 1;
+        Some(Cow::Borrowed(&self.text[start..self.i - 1]))
     }
 
     /// `[a, b, ...]`, over lines and with comments, a trailing comma allowed.
     fn array(&mut self, depth: usize) -> Option<Vec<Value<'a>>> {
         self.i += 1;
-        let mut out = Vec::new();
+        // The room a first push would make (a point's two coordinates fit), made at once.
+        let mut out = Vec::with_capacity(4);
         loop {
             self.skip_ws_comments()?;
             if self.peek() == Some(b']') {
@@ -423,8 +456,7 @@ impl<'a> Parser<'a> {
         }
         loop {
             self.skip_ws();
-            let entry = self.keyval(&t, depth)?;
-            t.entries.push(entry);
+            self.keyval(&mut t, depth)?;
             self.skip_ws();
             match self.peek()? {
                 b',' => self.i += 1,

@@ -41,7 +41,11 @@ impl Placement {
     /// A single mirror reverses the direction of travel, so those loops are reversed to
     /// keep outlines counter-clockwise.
     pub fn apply(&self, own: &[Contour]) -> Vec<Contour> {
-        let mut placed: Vec<Contour> = own.to_vec();
+        self.place(own.to_vec())
+    }
+
+    /// [`Placement::apply`] to contours the caller owns, placed where they are (no copy).
+    pub fn place(&self, mut placed: Vec<Contour>) -> Vec<Contour> {
         if self.flip_x || self.flip_y {
             for c in &mut placed {
                 for s in &mut c.segs {
@@ -52,11 +56,17 @@ impl Placement {
                 }
             }
         }
-        let bounds = placed
-            .iter()
-            .filter_map(Contour::bounds)
-            .reduce(union_bounds)
-            .unwrap_or([0.0; 4]);
+        // The origin and the centroid need no bounding box (an arc's ends cost a sine
+        // and cosine each).
+        let bounds = if matches!(self.anchor, Anchor::Origin | Anchor::Centroid) {
+            [0.0; 4]
+        } else {
+            placed
+                .iter()
+                .filter_map(Contour::bounds)
+                .reduce(union_bounds)
+                .unwrap_or([0.0; 4])
+        };
         let centroid = if self.anchor == Anchor::Centroid {
             super::moments::Moments::of_contours(&placed)
                 .centroid()

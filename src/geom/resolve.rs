@@ -426,7 +426,7 @@ impl Resolved {
                 Piece {
                     part: i,
                     name: p.name.clone(),
-                    contours: p.placement.apply(&p.shape.contours()),
+                    contours: p.placement.place(p.shape.contours()),
                     void: p.void,
                     n,
                     g,

@@ -77,12 +77,16 @@ impl Writer {
         self.end(b']')
     }
 
-    /// The key of the next member of the open object.
-    pub fn key(&mut self, k: &str) -> &mut Writer {
+    /// The key of the next member of the open object: a name of FORMAT.md, written
+    /// between quotes as it is (none has a character JSON escapes).
+    pub fn key(&mut self, k: &'static str) -> &mut Writer {
+        debug_assert!(!k.bytes().any(|b| b < 0x20 || b == b'"' || b == b'\\'));
         self.put(
             |b| {
-                string(b, k);
-                b.push(b':');
+                b.reserve(k.len() + 3);
+                b.push(b'"');
+                b.extend_from_slice(k.as_bytes());
+                b.extend_from_slice(b"\":");
             },
             false,
         )
