@@ -161,6 +161,20 @@ impl Edge {
         }
     }
 
+    /// [`Edge::x_dy_end`] at `t`, on an arc taken from `known` (the end of an arc
+    /// found before) when that is at the same angle, bit for bit: the same numbers
+    /// without their sines.
+    pub fn x_dy_end_or(&self, t: f64, known: Option<[f64; 3]>) -> [f64; 3] {
+        match (self.seg, known) {
+            (Seg::Arc { a0, a1, .. }, Some(k))
+                if (a0 + t * (a1 - a0)).to_bits() == k[0].to_bits() =>
+            {
+                k
+            }
+            _ => self.x_dy_end(t),
+        }
+    }
+
     /// [`Edge::x_dy`] between two ends of [`Edge::x_dy_end`].
     pub fn x_dy_between(&self, e0: [f64; 3], e1: [f64; 3]) -> f64 {
         match self.seg {

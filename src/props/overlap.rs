@@ -65,7 +65,17 @@ impl<'a> Shape<'a> {
             first.extend((n..edges.len()).map(|k| k == n));
         }
         let bounds = bounds?;
-        let whole: Vec<f64> = edges.iter().map(|e| e.x_dy(0.0, 1.0)).collect();
+        // `Edge::x_dy(0, 1)` of each edge; a piece of an arc starts where the one before
+        // ends (`Edge::split`), its sines found there.
+        let mut arc_end: Option<[f64; 3]> = None;
+        let whole: Vec<f64> = (edges.iter())
+            .map(|e| {
+                let start = e.x_dy_end_or(0.0, arc_end);
+                let end = e.x_dy_end(1.0);
+                arc_end = matches!(e.seg, Seg::Arc { .. }).then_some(end);
+                e.x_dy_between(start, end)
+            })
+            .collect();
         let area = whole.iter().sum();
         Some(Shape {
             piece: p,
