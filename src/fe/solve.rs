@@ -63,24 +63,29 @@ impl Csr {
         let mut map = Vec::new();
         let mut a = Csr::pattern_mapped(nodes, elems, Some(&mut map));
         if map.len() != elems.len() {
-            // More entries than a u32 position holds (past any mesh the budget admits).
+            // A row longer than a `u8` offset reaches (a node of hundreds of elements).
             for (k, e) in elems.iter().enumerate() {
                 a.add_element(e, &element(k)?);
             }
             return Ok(a);
         }
-        for (k, at) in map.iter().enumerate() {
+        for ((k, at), e) in map.iter().enumerate().zip(elems) {
             let ke = element(k)?;
-            for (&pos, &v) in at.iter().zip(ke.as_flattened()) {
-                a.val[pos as usize] += v;
+            for ((row, &v), &node) in at.chunks_exact(6).zip(&ke).zip(e) {
+                let start = a.ptr[node as usize];
+                for (&off, &x) in row.iter().zip(v.iter()) {
+                    a.val[start + off as usize] += x;
+                }
             }
         }
         Ok(a)
     }
 
-    /// [`Csr::pattern`], and with `map` the positions of every element's entries
-    /// (left empty when the matrix has more entries than a `u32` counts).
-    fn pattern_mapped(nodes: usize, elems: &[[u32; 6]], map: Option<&mut Vec<[u32; 36]>>) -> Csr {
+    /// [`Csr::pattern`], and with `map` where every element's entries lie: entry
+    /// `(a, b)` at offset `map[k][6a + b]` within row `elems[k][a]` (a byte each, a
+    /// quarter of the memory of an absolute position; left empty when some row holds
+    /// more entries than a byte counts).
+    fn pattern_mapped(nodes: usize, elems: &[[u32; 6]], map: Option<&mut Vec<[u8; 36]>>) -> Csr {
         // Elements touching each node, in compressed form.
         let mut count = vec![0usize; nodes + 1];
         for e in elems {
@@ -139,13 +144,13 @@ impl Csr {
         drop(met);
         if let Some(m) = map {
             m.clear();
-            if nnz <= u32::MAX as usize {
+            if (0..nodes).all(|i| ptr[i + 1] - ptr[i] <= 1 << u8::BITS) {
                 m.resize(elems.len(), [0; 36]);
-                // Each column's place in the current row.
-                let mut place = vec![0u32; nodes];
+                // Each column's offset in the current row.
+                let mut place = vec![0u8; nodes];
                 for i in 0..nodes {
-                    for (at, &c) in (ptr[i]..).zip(&col[ptr[i]..ptr[i + 1]]) {
-                        place[c as usize] = at as u32;
+                    for (at, &c) in (0..=u8::MAX).zip(&col[ptr[i]..ptr[i + 1]]) {
+                        place[c as usize] = at;
                     }
                     for &k in &adj[count[i]..count[i + 1]] {
                         let e = &elems[k as usize];
