@@ -109,13 +109,13 @@ impl Csr {
         let mut ptr = Vec::with_capacity(nodes + 1);
         ptr.push(0);
         let mut met: Vec<u32> = Vec::with_capacity(nodes * 16);
-        let mut listed = vec![usize::MAX; nodes];
+        let mut listed = vec![u32::MAX; nodes];
         for i in 0..nodes {
             let before = met.len();
             for &k in &adj[count[i]..count[i + 1]] {
                 for &v in &elems[k as usize] {
-                    if listed[v as usize] != i {
-                        listed[v as usize] = i;
+                    if listed[v as usize] != i as u32 {
+                        listed[v as usize] = i as u32;
                         met.push(v);
                     }
                 }
@@ -130,7 +130,11 @@ impl Csr {
         let nnz = met.len();
         let mut col = vec![0u32; nnz];
         let mut diag = vec![0usize; nodes];
-        let mut next = ptr[..nodes].to_vec();
+        drop(listed);
+        // `fill` is spent: it holds each row's next free place now.
+        let mut next = fill;
+        next.truncate(nodes);
+        next.copy_from_slice(&ptr[..nodes]);
         for i in 0..nodes {
             for &c in &met[ptr[i]..ptr[i + 1]] {
                 let c = c as usize;
