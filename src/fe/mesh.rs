@@ -916,19 +916,21 @@ impl Mesh {
             .max()
             .map_or(0, |&c| c as usize + 1);
         let mids = self.nodes.len().checked_sub(corners)?;
-        let mut rows = vec![[(0u32, 0.0); 6]; mids];
+        let mut nodes = vec![[0u32; 6]; mids];
         let mut set = vec![false; mids];
         for e in &self.elems {
             for k in 0..3 {
                 let (a, b) = (e[k], e[(k + 1) % 3]);
                 let i = (e[3 + k] as usize).checked_sub(corners)?;
-                rows[i] = [(a, 0.5), (b, 0.5), (a, 0.0), (a, 0.0), (a, 0.0), (a, 0.0)];
+                nodes[i] = [a, b, a, a, a, a];
                 set[i] = true;
             }
         }
         set.iter().all(|&s| s).then_some(Prolong {
             coarse: corners,
-            rows,
+            kind: vec![0; mids],
+            nodes,
+            weights: vec![[0.5, 0.5, 0.0, 0.0, 0.0, 0.0]],
         })
     }
 
@@ -938,7 +940,10 @@ impl Mesh {
     pub fn prolongation(&self, fine: &Mesh) -> Prolong {
         let w = new_weights();
         let old = self.nodes.len();
-        let mut rows = vec![[(0u32, 0.0); 6]; fine.nodes.len().saturating_sub(old)];
+        let new = fine.nodes.len().saturating_sub(old);
+        let mut nodes = vec![[0u32; 6]; new];
+        // A node no parent sets takes the last row of weights: zeros.
+        let mut kind = vec![w.len() as u8; new];
         for (e, children) in self.elems.iter().zip(fine.elems.chunks_exact(4)) {
             // Children hold the new nodes at known places (see `refine`).
             let set = [
@@ -953,14 +958,19 @@ impl Mesh {
                 (children[2][3], 8),
             ];
             for (node, k) in set {
-                if let Some(row) = (node as usize)
-                    .checked_sub(old)
-                    .and_then(|i| rows.get_mut(i))
-                {
-                    *row = [0, 1, 2, 3, 4, 5].map(|i| (e[i], w[k][i]));
+                if let Some(i) = (node as usize).checked_sub(old).filter(|&i| i < new) {
+                    nodes[i] = *e;
+                    kind[i] = k as u8;
                 }
             }
         }
-        Prolong { coarse: old, rows }
+        let mut weights = w.to_vec();
+        weights.push([0.0; 6]);
+        Prolong {
+            coarse: old,
+            nodes,
+            kind,
+            weights,
+        }
     }
 }

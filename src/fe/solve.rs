@@ -63,24 +63,29 @@ impl Csr {
         let mut map = Vec::new();
         let mut a = Csr::pattern_mapped(nodes, elems, Some(&mut map));
         if map.len() != elems.len() {
-            // More entries than a u32 position holds (past any mesh the budget admits).
+            // A row longer than a `u8` offset reaches (a node of hundreds of elements).
             for (k, e) in elems.iter().enumerate() {
                 a.add_element(e, &element(k)?);
             }
             return Ok(a);
         }
-        for (k, at) in map.iter().enumerate() {
+        for ((k, at), e) in map.iter().enumerate().zip(elems) {
             let ke = element(k)?;
-            for (&pos, &v) in at.iter().zip(ke.as_flattened()) {
-                a.val[pos as usize] += v;
+            for ((row, &v), &node) in at.chunks_exact(6).zip(&ke).zip(e) {
+                let start = a.ptr[node as usize];
+                for (&off, &x) in row.iter().zip(v.iter()) {
+                    a.val[start + off as usize] += x;
+                }
             }
         }
         Ok(a)
     }
 
-    /// [`Csr::pattern`], and with `map` the positions of every element's entries
-    /// (left empty when the matrix has more entries than a `u32` counts).
-    fn pattern_mapped(nodes: usize, elems: &[[u32; 6]], map: Option<&mut Vec<[u32; 36]>>) -> Csr {
+    /// [`Csr::pattern`], and with `map` where every element's entries lie: entry
+    /// `(a, b)` at offset `map[k][6a + b]` within row `elems[k][a]` (a byte each, a
+    /// quarter of the memory of an absolute position; left empty when some row holds
+    /// more entries than a byte counts).
+    fn pattern_mapped(nodes: usize, elems: &[[u32; 6]], map: Option<&mut Vec<[u8; 36]>>) -> Csr {
         // Elements touching each node, in compressed form.
         let mut count = vec![0usize; nodes + 1];
         for e in elems {
@@ -104,13 +109,13 @@ impl Csr {
         let mut ptr = Vec::with_capacity(nodes + 1);
         ptr.push(0);
         let mut met: Vec<u32> = Vec::with_capacity(nodes * 16);
-        let mut listed = vec![usize::MAX; nodes];
+        let mut listed = vec![u32::MAX; nodes];
         for i in 0..nodes {
             let before = met.len();
             for &k in &adj[count[i]..count[i + 1]] {
                 for &v in &elems[k as usize] {
-                    if listed[v as usize] != i {
-                        listed[v as usize] = i;
+                    if listed[v as usize] != i as u32 {
+                        listed[v as usize] = i as u32;
                         met.push(v);
                     }
                 }
@@ -125,7 +130,11 @@ impl Csr {
         let nnz = met.len();
         let mut col = vec![0u32; nnz];
         let mut diag = vec![0usize; nodes];
-        let mut next = ptr[..nodes].to_vec();
+        drop(listed);
+        // `fill` is spent: it holds each row's next free place now.
+        let mut next = fill;
+        next.truncate(nodes);
+        next.copy_from_slice(&ptr[..nodes]);
         for i in 0..nodes {
             for &c in &met[ptr[i]..ptr[i + 1]] {
                 let c = c as usize;
@@ -139,13 +148,13 @@ impl Csr {
         drop(met);
         if let Some(m) = map {
             m.clear();
-            if nnz <= u32::MAX as usize {
+            if (0..nodes).all(|i| ptr[i + 1] - ptr[i] <= 1 << u8::BITS) {
                 m.resize(elems.len(), [0; 36]);
-                // Each column's place in the current row.
-                let mut place = vec![0u32; nodes];
+                // Each column's offset in the current row.
+                let mut place = vec![0u8; nodes];
                 for i in 0..nodes {
-                    for (at, &c) in (ptr[i]..).zip(&col[ptr[i]..ptr[i + 1]]) {
-                        place[c as usize] = at as u32;
+                    for (at, &c) in (0..=u8::MAX).zip(&col[ptr[i]..ptr[i + 1]]) {
+                        place[c as usize] = at;
                     }
                     for &k in &adj[count[i]..count[i + 1]] {
                         let e = &elems[k as usize];
@@ -196,20 +205,20 @@ impl Csr {
             diag,
         };
         // Row i of P: the coarse nodes and weights it takes.
-        let row = |i: usize| -> ([(u32, f64); 6], usize) {
-            match i.checked_sub(nc) {
+        let row = |i: usize| -> Option<([(u32, f64); 6], usize)> {
+            Some(match i.checked_sub(nc) {
                 None => ([(i as u32, 1.0); 6], 1),
-                Some(k) => (p.rows[k], 6),
-            }
+                Some(k) => (p.row(k)?, 6),
+            })
         };
         for i in 0..n {
-            let (ri, ni) = row(i);
+            let (ri, ni) = row(i)?;
             for k in self.ptr[i]..self.ptr[i + 1] {
                 let v = self.val[k];
                 if v == 0.0 {
                     continue;
                 }
-                let (rj, nj) = row(self.col[k] as usize);
+                let (rj, nj) = row(self.col[k] as usize)?;
                 for &(a, wa) in ri[..ni].iter().filter(|t| t.1 != 0.0) {
                     for &(b, wb) in rj[..nj].iter().filter(|t| t.1 != 0.0) {
                         let at = c.find(a as usize, b)?;
@@ -300,19 +309,36 @@ impl Csr {
 #[derive(Debug, Clone, PartialEq)]
 pub struct Prolong {
     pub coarse: usize,
-    pub rows: Vec<[(u32, f64); 6]>,
+    /// The coarse nodes of each later fine node's row.
+    pub nodes: Vec<[u32; 6]>,
+    /// Which of `weights` each row takes (a refinement has few distinct rows of
+    /// weights, so a byte a row in place of six weights).
+    pub kind: Vec<u8>,
+    pub weights: Vec<[f64; 6]>,
 }
 
 impl Prolong {
     /// Number of fine nodes.
     pub fn fine(&self) -> usize {
-        self.coarse + self.rows.len()
+        self.coarse + self.nodes.len()
+    }
+
+    /// Row `k` of the later fine nodes: the coarse nodes and the weights they take
+    /// (`None` for a `kind` past `weights`).
+    fn row(&self, k: usize) -> Option<[(u32, f64); 6]> {
+        let w = self.weights.get(*self.kind.get(k)? as usize)?;
+        Some(std::array::from_fn(|i| (self.nodes[k][i], w[i])))
+    }
+
+    /// The rows in order.
+    fn rows(&self) -> impl Iterator<Item = [(u32, f64); 6]> + '_ {
+        (0..self.nodes.len()).map_while(|k| self.row(k))
     }
 
     /// `out += P·u` (`add`) or `out = P·u`.
     pub fn apply(&self, u: &[f64], out: &mut [f64], add: bool) {
         let (old, new) = out.split_at_mut(self.coarse);
-        for (o, row) in new.iter_mut().zip(&self.rows) {
+        for (o, row) in new.iter_mut().zip(self.rows()) {
             let s: f64 = row.iter().map(|&(j, w)| w * u[j as usize]).sum();
             *o = if add { *o + s } else { s };
         }
@@ -324,8 +350,8 @@ impl Prolong {
     /// `out = Pᵀ·r`.
     pub fn restrict(&self, r: &[f64], out: &mut [f64]) {
         out.copy_from_slice(&r[..self.coarse]);
-        for (row, &ri) in self.rows.iter().zip(&r[self.coarse..]) {
-            for &(j, w) in row {
+        for (row, &ri) in self.rows().zip(&r[self.coarse..]) {
+            for &(j, w) in &row {
                 out[j as usize] += w * ri;
             }
         }
@@ -1030,11 +1056,9 @@ mod tests {
         let (a, _) = small();
         let p = Prolong {
             coarse: 4,
-            rows: vec![
-                [(1, 0.5), (2, 0.5), (0, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
-                [(3, 0.5), (1, 0.5), (0, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
-                [(2, 0.5), (3, 0.5), (0, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
-            ],
+            nodes: vec![[1, 2, 0, 0, 0, 0], [3, 1, 0, 0, 0, 0], [2, 3, 0, 0, 0, 0]],
+            kind: vec![0; 3],
+            weights: vec![[0.5, 0.5, 0.0, 0.0, 0.0, 0.0]],
         };
         let c = a.galerkin(&p).expect("pattern holds it");
         let dense = |m: &Csr, i: usize, j: usize| m.find(i, j as u32).map_or(0.0, |k| m.val[k]);
@@ -1042,7 +1066,8 @@ mod tests {
             if i < 4 {
                 f64::from(u8::from(i == j))
             } else {
-                p.rows[i - 4]
+                p.row(i - 4)
+                    .expect("a row of weights")
                     .iter()
                     .filter(|t| t.0 as usize == j)
                     .map(|t| t.1)
@@ -1120,16 +1145,11 @@ mod tests {
         // (P·u)·r = u·(Pᵀ·r) for any u and r: the V-cycle is symmetric only if so.
         let p = Prolong {
             coarse: 3,
-            rows: vec![
-                [(0, 0.5), (1, 0.5), (2, 0.0), (0, 0.0), (0, 0.0), (0, 0.0)],
-                [
-                    (0, 0.25),
-                    (1, -0.125),
-                    (2, 0.875),
-                    (0, 0.0),
-                    (1, 0.0),
-                    (2, 0.0),
-                ],
+            nodes: vec![[0, 1, 2, 0, 0, 0], [0, 1, 2, 0, 1, 2]],
+            kind: vec![0, 1],
+            weights: vec![
+                [0.5, 0.5, 0.0, 0.0, 0.0, 0.0],
+                [0.25, -0.125, 0.875, 0.0, 0.0, 0.0],
             ],
         };
         let u = [1.0, -2.0, 3.0];
