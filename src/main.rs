@@ -197,6 +197,7 @@ fn torsion_options(no_torsion: bool) -> Options {
 }
 
 fn main() {
+    kern::heap::set_up();
     let cli = Cli::parse();
     let written = Written {
         numbers: cli.numbers.unwrap_or_default(),
