@@ -954,7 +954,8 @@ impl Multigrid {
 pub const MAX_ITERATIONS: usize = 150;
 
 /// The dot product over the shorter of `a` and `b`, summed in four interleaved parts
-/// (so that the compiler can keep them in one vector register), then the rest.
+/// (two vector registers of two), added lane by lane ((s₀ + s₂) + (s₁ + s₃), so that
+/// the compiler keeps the lanes in place), then the rest.
 #[inline]
 fn dot(a: &[f64], b: &[f64]) -> f64 {
     let n = a.len().min(b.len());
@@ -966,7 +967,7 @@ fn dot(a: &[f64], b: &[f64]) -> f64 {
             s[k] += x[k] * y[k];
         }
     }
-    let mut t = (s[0] + s[1]) + (s[2] + s[3]);
+    let mut t = (s[0] + s[2]) + (s[1] + s[3]);
     let (ra, rb) = (ca.remainder(), cb.remainder());
     for k in 0..ra.len().min(rb.len()) {
         t += ra[k] * rb[k];
