@@ -153,8 +153,9 @@ impl Csr {
                 // Each column's offset in the current row.
                 let mut place = vec![0u8; nodes];
                 for i in 0..nodes {
-                    for (at, &c) in (0..=u8::MAX).zip(&col[ptr[i]..ptr[i + 1]]) {
-                        place[c as usize] = at;
+                    // At most 256 entries a row (checked above): each offset fits a byte.
+                    for (at, &c) in col[ptr[i]..ptr[i + 1]].iter().enumerate() {
+                        place[c as usize] = at as u8;
                     }
                     for &k in &adj[count[i]..count[i + 1]] {
                         let e = &elems[k as usize];
@@ -282,11 +283,9 @@ impl Csr {
         }
     }
 
-    /// One Gauss–Seidel sweep on `A·x = b`, rows in increasing order when `forward`,
-    /// else in decreasing order.
-    fn gauss_seidel(&self, b: &[f64], x: &mut [f64], forward: bool) {
-        let n = self.rows();
-        let mut row = |i: usize| {
+    /// One backward Gauss–Seidel sweep on `A·x = b` (rows in decreasing order).
+    fn gauss_seidel_back(&self, b: &[f64], x: &mut [f64]) {
+        for i in (0..self.rows()).rev() {
             let (from, to) = (self.ptr[i], self.ptr[i + 1]);
             let mut s = b[i];
             for (&c, &v) in self.col[from..to].iter().zip(&self.val[from..to]) {
@@ -294,11 +293,30 @@ impl Csr {
             }
             let d = self.val[self.diag[i]];
             x[i] += s / d;
-        };
-        if forward {
-            (0..n).for_each(&mut row);
-        } else {
-            (0..n).rev().for_each(&mut row);
+        }
+    }
+
+    /// One forward Gauss–Seidel sweep on `A·x = b` from `x = 0`, and the residual
+    /// `res = b − A·x` after it, in one pass over the lower triangle. From zero, row i
+    /// sees only its columns j < i (the later unknowns are still 0), so `x` is the
+    /// sweep's to the bit; after the sweep, row i of the residual is −Σ_{j>i} a_ij·x_j
+    /// (the sweep zeroed the rest of it), gathered by symmetry (a_ij = a_ji) as each x_j
+    /// is set. The same as the sweep and then `res = b − A·x` but for rounding, at about
+    /// half the cost (Saad, Iterative Methods for Sparse Linear Systems, §4.1).
+    fn forward_from_zero(&self, b: &[f64], x: &mut [f64], res: &mut [f64]) {
+        res.iter_mut().for_each(|v| *v = 0.0);
+        for i in 0..self.rows() {
+            let (from, d) = (self.ptr[i], self.diag[i]);
+            let (col, val) = (&self.col[from..d], &self.val[from..d]);
+            let mut s = b[i];
+            for (&c, &v) in col.iter().zip(val) {
+                s -= v * x[c as usize];
+            }
+            let xi = s / self.val[d];
+            x[i] = xi;
+            for (&c, &v) in col.iter().zip(val) {
+                res[c as usize] -= v * xi;
+            }
         }
     }
 }
@@ -363,6 +381,8 @@ impl Prolong {
 pub struct Envelope {
     /// New position → original row.
     perm: Vec<u32>,
+    /// The ordering's roots ([`Plan::seeded`]).
+    roots: Vec<u32>,
     first: Vec<usize>,
     start: Vec<usize>,
     val: Vec<f64>,
@@ -395,6 +415,8 @@ pub const MAX_FLOPS: f64 = 1e10;
 /// each row's first column and where it starts, and its cost.
 pub struct Plan {
     perm: Vec<u32>,
+    /// The ordering's root in each connected component ([`rcm`]).
+    roots: Vec<u32>,
     /// Original row → new position.
     inv: Vec<u32>,
     first: Vec<usize>,
@@ -408,8 +430,15 @@ pub struct Plan {
 impl Plan {
     /// Orders `a` by reverse Cuthill–McKee and measures the envelope of its factor.
     pub fn of(a: &Csr) -> Plan {
+        Plan::seeded(a, &[])
+    }
+
+    /// [`Plan::of`] with the ordering started from `seeds` (see [`rcm`]): for a
+    /// refinement, the roots of the coarser level's ordering, whose nodes keep their
+    /// numbers and are as peripheral in the finer mesh, which saves their searches.
+    pub fn seeded(a: &Csr, seeds: &[u32]) -> Plan {
         let n = a.rows();
-        let perm = rcm(a);
+        let (perm, roots) = rcm(a, seeds);
         let mut inv = vec![0u32; n];
         for (k, &o) in perm.iter().enumerate() {
             inv[o as usize] = k as u32;
@@ -434,6 +463,7 @@ impl Plan {
         Plan {
             entries: start[n],
             perm,
+            roots,
             inv,
             first,
             start,
@@ -469,6 +499,7 @@ impl Envelope {
         }
         let Plan {
             perm,
+            roots,
             inv,
             first,
             start,
@@ -496,25 +527,26 @@ impl Envelope {
             }
             let fi = first[i];
             let (done, rest) = val.split_at_mut(start[i]);
-            let row = &mut rest[..start[i + 1] - start[i]];
-            for j in fi..i {
-                let fj = first[j];
-                // Columns lo..j of rows i and j (row j's diagonal left out).
-                let lo = fi.max(fj);
-                let (len, at_i, at_j) = (j - lo, lo - fi, start[j] + lo - fj);
-                let s = dot(&row[at_i..at_i + len], &done[at_j..at_j + len]);
-                row[j - fi] = (row[j - fi] - s) * recip[j];
+            let (off, diag) = rest[..start[i + 1] - start[i]].split_at_mut(i - fi);
+            // Column j = fi + k: rows i and j share the columns max(fi, fj)..j, the
+            // last `len` of row i's before j and of row j's before its diagonal (which
+            // ends row j, at start[j + 1] − 1).
+            for (k, (at, &rj)) in start[fi..=i].windows(2).zip(&recip[fi..i]).enumerate() {
+                let end = at[1] - 1;
+                let len = k.min(end - at[0]);
+                let s = dot(&off[k - len..k], &done[end - len..end]);
+                off[k] = (off[k] - s) * rj;
             }
-            let d = i - fi;
-            let s = row[d] - dot(&row[..d], &row[..d]);
+            let s = diag[0] - dot(off, off);
             if !(s > 0.0 && s.is_finite()) {
                 return Err(FactorError::NotPositive);
             }
-            row[d] = s.sqrt();
-            recip[i] = 1.0 / row[d];
+            diag[0] = s.sqrt();
+            recip[i] = 1.0 / diag[0];
         }
         Ok(Envelope {
             perm,
+            roots,
             first,
             start,
             val,
@@ -599,26 +631,19 @@ impl Envelope {
 }
 
 /// Reverse Cuthill–McKee ordering of the graph of `a` (George & Liu §4.3): breadth-first
-/// from a pseudo-peripheral node ([`peripheral`]), neighbours in order of increasing
-/// degree, each connected component in turn; the order is then reversed.
-fn rcm(a: &Csr) -> Vec<u32> {
+/// from a root in each connected component, neighbours in order of increasing degree;
+/// the order is then reversed. The roots are those of `seeds` (in order, each starting
+/// the component it lies in unless that is numbered already), then for the components
+/// left a pseudo-peripheral node ([`peripheral`]) found from each node in turn in order
+/// of increasing degree. Returns the order and the roots it started from.
+fn rcm(a: &Csr, seeds: &[u32]) -> (Vec<u32>, Vec<u32>) {
     let n = a.rows();
     let degree = |i: usize| a.ptr[i + 1] - a.ptr[i];
     let mut seen = vec![false; n];
     let mut order: Vec<u32> = Vec::with_capacity(n);
-    let mut by_degree: Vec<usize> = (0..n).collect();
-    by_degree.sort_by_key(|&i| degree(i));
+    let mut roots = Vec::new();
     let mut nbr: Vec<usize> = Vec::new();
-    let mut trial = Trial {
-        reached: vec![usize::MAX; n],
-        count: 0,
-        queue: Vec::new(),
-    };
-    for &s in &by_degree {
-        if seen[s] {
-            continue;
-        }
-        let s = peripheral(a, s, &seen, &mut trial);
+    let mut number = |s: usize, seen: &mut [bool], order: &mut Vec<u32>| {
         seen[s] = true;
         let mut head = order.len();
         order.push(s as u32);
@@ -638,9 +663,53 @@ fn rcm(a: &Csr) -> Vec<u32> {
                 order.push(j as u32);
             }
         }
+    };
+    for &s in seeds {
+        let s = s as usize;
+        if s < n && !seen[s] {
+            roots.push(s as u32);
+            number(s, &mut seen, &mut order);
+        }
+    }
+    if order.len() < n {
+        let mut trial = Trial {
+            reached: vec![usize::MAX; n],
+            count: 0,
+            queue: Vec::new(),
+        };
+        for s in by_degree(a) {
+            if seen[s] {
+                continue;
+            }
+            let s = peripheral(a, s, &seen, &mut trial);
+            roots.push(s as u32);
+            number(s, &mut seen, &mut order);
+        }
     }
     order.reverse();
-    order
+    (order, roots)
+}
+
+/// The rows of `a` in order of increasing degree (entries a row), rows of one degree in
+/// increasing order: a stable counting sort.
+fn by_degree(a: &Csr) -> Vec<usize> {
+    let n = a.rows();
+    let degree = |i: usize| a.ptr[i + 1] - a.ptr[i];
+    let top = (0..n).map(degree).max().unwrap_or(0);
+    let mut at = vec![0usize; top + 2];
+    for i in 0..n {
+        at[degree(i) + 1] += 1;
+    }
+    for d in 0..=top {
+        at[d + 1] += at[d];
+    }
+    let mut out = vec![0usize; n];
+    for i in 0..n {
+        let d = degree(i);
+        out[at[d]] = i;
+        at[d] += 1;
+    }
+    out
 }
 
 /// Scratch of [`levels`]: which trial last reached each node, and its queue.
@@ -738,13 +807,13 @@ pub const DIRECT_MAX_ROWS: usize = 8_000;
 impl Multigrid {
     /// Starts the hierarchy at the base mesh's matrix.
     pub fn new(
-        a: &Csr,
+        a: Csr,
         pinned: &[u32],
         cancel: Option<&AtomicBool>,
     ) -> Result<Multigrid, FactorError> {
         Ok(Multigrid {
-            base: Envelope::factor(a, cancel)?,
-            base_matrix: a.clone(),
+            base: Envelope::factor(&a, cancel)?,
+            base_matrix: a,
             levels: Vec::new(),
             pinned: pinned.to_vec(),
             work: RefCell::new(Vec::new()),
@@ -768,7 +837,8 @@ impl Multigrid {
             && self.levels.is_empty()
             && FACTOR_GROWTH * coarse <= per_entry
         {
-            let plan = Plan::of(&a);
+            // The refinement keeps the coarse nodes' numbers: the coarse roots seed it.
+            let plan = Plan::seeded(&a, &self.base.roots);
             if plan.fits() && plan.flops <= per_entry * a.val.len() as f64 {
                 if let Ok(f) = Envelope::factor_planned(&a, plan, cancel) {
                     self.base = f;
@@ -856,8 +926,6 @@ impl Multigrid {
             self.base.solve(r, z);
             return;
         };
-        z.iter_mut().for_each(|v| *v = 0.0);
-        a.gauss_seidel(r, z, true);
         // This level's vectors, taken out for the recursion and put back after.
         let [mut res, mut rc, mut zc] = {
             let mut w = self.work.borrow_mut();
@@ -867,10 +935,7 @@ impl Multigrid {
             std::mem::take(&mut w[l - 1])
         };
         res.resize(r.len(), 0.0);
-        a.mul(z, &mut res);
-        for (q, &ri) in res.iter_mut().zip(r) {
-            *q = ri - *q;
-        }
+        a.forward_from_zero(r, z, &mut res);
         rc.resize(p.coarse, 0.0);
         p.restrict(&res, &mut rc);
         for &i in &self.pinned {
@@ -879,7 +944,7 @@ impl Multigrid {
         zc.resize(p.coarse, 0.0);
         self.vcycle(l - 1, &rc, &mut zc);
         p.apply(&zc, z, true);
-        a.gauss_seidel(r, z, false);
+        a.gauss_seidel_back(r, z);
         self.work.borrow_mut()[l - 1] = [res, rc, zc];
     }
 }
@@ -889,7 +954,8 @@ impl Multigrid {
 pub const MAX_ITERATIONS: usize = 150;
 
 /// The dot product over the shorter of `a` and `b`, summed in four interleaved parts
-/// (so that the compiler can keep them in one vector register), then the rest.
+/// (two vector registers of two), added lane by lane ((s₀ + s₂) + (s₁ + s₃), so that
+/// the compiler keeps the lanes in place), then the rest.
 #[inline]
 fn dot(a: &[f64], b: &[f64]) -> f64 {
     let n = a.len().min(b.len());
@@ -901,7 +967,7 @@ fn dot(a: &[f64], b: &[f64]) -> f64 {
             s[k] += x[k] * y[k];
         }
     }
-    let mut t = (s[0] + s[1]) + (s[2] + s[3]);
+    let mut t = (s[0] + s[2]) + (s[1] + s[3]);
     let (ra, rb) = (ca.remainder(), cb.remainder());
     for k in 0..ra.len().min(rb.len()) {
         t += ra[k] * rb[k];

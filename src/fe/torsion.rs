@@ -390,11 +390,11 @@ fn base_solver(
         });
     let mut mg = match coarse {
         Some((p, c)) => {
-            let mut mg = Multigrid::new(&c, &m.pinned, cancel).map_err(factor_error)?;
+            let mut mg = Multigrid::new(c, &m.pinned, cancel).map_err(factor_error)?;
             mg.push(p, k, cancel);
             mg
         }
-        None => Multigrid::new(&k, &m.pinned, cancel).map_err(factor_error)?,
+        None => Multigrid::new(k, &m.pinned, cancel).map_err(factor_error)?,
     };
     mg.expect_rhs(rhs);
     Ok(mg)
