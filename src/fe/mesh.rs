@@ -692,8 +692,9 @@ fn build(
     // Splitting crossing constraints can leave a vertex a rounding error away from
     // another; such twins are merged and the slivers between them dropped.
     let mut map = vec![u32::MAX; pos.len()];
-    let mut nodes: Vec<Pt> = Vec::new();
-    let mut grid = Near::new(eps);
+    // Corners, then a mid-side node per element edge (about 1.5 an element).
+    let mut nodes: Vec<Pt> = Vec::with_capacity(pos.len() + 2 * tris.len());
+    let mut grid = Near::with_capacity(eps, pos.len());
     for t in tris {
         for &v in &t.v {
             if map[v] != u32::MAX {
@@ -716,7 +717,8 @@ fn build(
         })
         .collect();
     let index = ArcIndex::new(&arcs, sweeps);
-    let mut mids: MixMap<(u32, u32), u32> = MixMap::default();
+    let mut mids: MixMap<(u32, u32), u32> =
+        MixMap::with_capacity_and_hasher(2 * tris.len(), Default::default());
     let mut elems = Vec::with_capacity(tris.len());
     let mut edge_arc = Vec::with_capacity(tris.len());
     let mut curved = Vec::with_capacity(tris.len());
