@@ -1,5 +1,5 @@
 //! Lookups the base mesh makes many times: points merged within a distance (a hash grid
-//! of square cells of that size, with a cheap multiplicative hash for its integer keys),
+//! of square cells of twice that size, with a cheap multiplicative hash for its integer keys),
 //! and intervals along x found by a binary search over their sorted left ends.
 
 use crate::geom::Pt;
@@ -70,20 +70,23 @@ impl<T: Copy> Near<T> {
         }
     }
 
-    fn cell(&self, p: Pt) -> (i64, i64) {
-        (
-            (p.x / self.eps).floor() as i64,
-            (p.y / self.eps).floor() as i64,
-        )
+    /// The cell of a coordinate pair: squares of side `2·eps`.
+    fn cell(&self, x: f64, y: f64) -> (i64, i64) {
+        let side = 2.0 * self.eps;
+        ((x / side).floor() as i64, (y / side).floor() as i64)
     }
 
     /// The values of the points within `eps` of `p`, cell by cell (rows of x, then y),
-    /// in the order they were inserted within a cell.
+    /// in the order they were inserted within a cell. The cells searched are those
+    /// that meet the square of half-side `1.01·eps` about `p` (a margin for rounding):
+    /// two by two, or fewer.
     pub fn within(&self, p: Pt) -> impl Iterator<Item = T> + '_ {
-        let (cx, cy) = self.cell(p);
+        let reach = 1.01 * self.eps;
+        let (x0, y0) = self.cell(p.x - reach, p.y - reach);
+        let (x1, y1) = self.cell(p.x + reach, p.y + reach);
         let eps2 = self.eps * self.eps;
-        (-1..=1)
-            .flat_map(move |dx| (-1..=1).map(move |dy| (cx + dx, cy + dy)))
+        (x0..=x1)
+            .flat_map(move |x| (y0..=y1).map(move |y| (x, y)))
             .filter_map(|k| self.cells.get(&k))
             .flat_map(|&(first, _)| {
                 std::iter::successors(Some(first), |&i| {
@@ -95,13 +98,34 @@ impl<T: Copy> Near<T> {
             .map(|&(_, t, _)| t)
     }
 
-    /// The value of the first point within `eps` of `p`.
+    /// The value of the first point within `eps` of `p` (the first of [`Near::within`]).
     pub fn find(&self, p: Pt) -> Option<T> {
-        self.within(p).next()
+        let reach = 1.01 * self.eps;
+        let (x0, y0) = self.cell(p.x - reach, p.y - reach);
+        let (x1, y1) = self.cell(p.x + reach, p.y + reach);
+        let eps2 = self.eps * self.eps;
+        for x in x0..=x1 {
+            for y in y0..=y1 {
+                let Some(&(mut i, _)) = self.cells.get(&(x, y)) else {
+                    continue;
+                };
+                loop {
+                    let (q, t, next) = self.items[i as usize];
+                    if dist2(q, p) <= eps2 {
+                        return Some(t);
+                    }
+                    if next == u32::MAX {
+                        break;
+                    }
+                    i = next;
+                }
+            }
+        }
+        None
     }
 
     pub fn insert(&mut self, p: Pt, t: T) {
-        let key = self.cell(p);
+        let key = self.cell(p.x, p.y);
         let i = self.items.len() as u32;
         self.items.push((p, t, u32::MAX));
         let cell = self.cells.entry(key).or_insert((i, i));
