@@ -1,5 +1,5 @@
 //! Lookups the base mesh makes many times: points merged within a distance (a hash grid
-//! of square cells of that size, with a cheap multiplicative hash for its integer keys),
+//! of square cells of twice that size, with a cheap multiplicative hash for its integer keys),
 //! and intervals along x found by a binary search over their sorted left ends.
 
 use crate::geom::Pt;
@@ -45,47 +45,94 @@ impl Hasher for Mix {
 /// A hash map with the [`Mix`] hash.
 pub type MixMap<K, V> = HashMap<K, V, BuildHasherDefault<Mix>>;
 
-/// Points with a value each, found again by any point within `eps` of them.
+/// Points with a value each, found again by any point within `eps` of them. Each cell
+/// of the grid holds the first and last of its points, which are chained in the order
+/// they were inserted (one vector for all, no allocation per cell).
 pub struct Near<T> {
     eps: f64,
-    cells: MixMap<(i64, i64), Vec<(Pt, T)>>,
+    /// Cell → its first and last point, indices into `items`.
+    cells: MixMap<(i64, i64), (u32, u32)>,
+    /// The points, their values and the next point of the same cell (`u32::MAX`: none).
+    items: Vec<(Pt, T, u32)>,
 }
 
 impl<T: Copy> Near<T> {
     pub fn new(eps: f64) -> Near<T> {
+        Near::with_capacity(eps, 0)
+    }
+
+    /// A grid with room for `n` points.
+    pub fn with_capacity(eps: f64, n: usize) -> Near<T> {
         Near {
             eps,
-            cells: MixMap::default(),
+            cells: MixMap::with_capacity_and_hasher(n, Default::default()),
+            items: Vec::with_capacity(n),
         }
     }
 
-    fn cell(&self, p: Pt) -> (i64, i64) {
-        (
-            (p.x / self.eps).floor() as i64,
-            (p.y / self.eps).floor() as i64,
-        )
+    /// The cell of a coordinate pair: squares of side `2·eps`.
+    fn cell(&self, x: f64, y: f64) -> (i64, i64) {
+        let side = 2.0 * self.eps;
+        ((x / side).floor() as i64, (y / side).floor() as i64)
     }
 
-    /// The values of the points within `eps` of `p`, cell by cell (rows of x, then y).
+    /// The values of the points within `eps` of `p`, cell by cell (rows of x, then y),
+    /// in the order they were inserted within a cell. The cells searched are those
+    /// that meet the square of half-side `1.01·eps` about `p` (a margin for rounding):
+    /// two by two, or fewer.
     pub fn within(&self, p: Pt) -> impl Iterator<Item = T> + '_ {
-        let (cx, cy) = self.cell(p);
+        let reach = 1.01 * self.eps;
+        let (x0, y0) = self.cell(p.x - reach, p.y - reach);
+        let (x1, y1) = self.cell(p.x + reach, p.y + reach);
         let eps2 = self.eps * self.eps;
-        (-1..=1)
-            .flat_map(move |dx| (-1..=1).map(move |dy| (cx + dx, cy + dy)))
+        (x0..=x1)
+            .flat_map(move |x| (y0..=y1).map(move |y| (x, y)))
             .filter_map(|k| self.cells.get(&k))
-            .flatten()
-            .filter(move |(q, _)| dist2(*q, p) <= eps2)
-            .map(|&(_, t)| t)
+            .flat_map(|&(first, _)| {
+                std::iter::successors(Some(first), |&i| {
+                    Some(self.items[i as usize].2).filter(|&n| n != u32::MAX)
+                })
+            })
+            .map(|i| &self.items[i as usize])
+            .filter(move |(q, _, _)| dist2(*q, p) <= eps2)
+            .map(|&(_, t, _)| t)
     }
 
-    /// The value of the first point within `eps` of `p`.
+    /// The value of the first point within `eps` of `p` (the first of [`Near::within`]).
     pub fn find(&self, p: Pt) -> Option<T> {
-        self.within(p).next()
+        let reach = 1.01 * self.eps;
+        let (x0, y0) = self.cell(p.x - reach, p.y - reach);
+        let (x1, y1) = self.cell(p.x + reach, p.y + reach);
+        let eps2 = self.eps * self.eps;
+        for x in x0..=x1 {
+            for y in y0..=y1 {
+                let Some(&(mut i, _)) = self.cells.get(&(x, y)) else {
+                    continue;
+                };
+                loop {
+                    let (q, t, next) = self.items[i as usize];
+                    if dist2(q, p) <= eps2 {
+                        return Some(t);
+                    }
+                    if next == u32::MAX {
+                        break;
+                    }
+                    i = next;
+                }
+            }
+        }
+        None
     }
 
     pub fn insert(&mut self, p: Pt, t: T) {
-        let key = self.cell(p);
-        self.cells.entry(key).or_default().push((p, t));
+        let key = self.cell(p.x, p.y);
+        let i = self.items.len() as u32;
+        self.items.push((p, t, u32::MAX));
+        let cell = self.cells.entry(key).or_insert((i, i));
+        if cell.1 != i {
+            self.items[cell.1 as usize].2 = i;
+            cell.1 = i;
+        }
     }
 }
 

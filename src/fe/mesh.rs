@@ -513,7 +513,7 @@ fn grade_corners(
                 for k in 0..8 {
                     let t = TAU * (k as f64 + 0.5) / 8.0;
                     let p = pos[v].add(Pt::new(rho * t.cos(), rho * t.sin()));
-                    if classify(outlines, p).is_some() && clearance(outlines, p) > 0.3 * rho {
+                    if classify(outlines, p).is_some() && clear_of(outlines, p, 0.3 * rho) {
                         extra.push(p);
                     }
                 }
@@ -572,15 +572,24 @@ fn union_outline(cdt: &Cdt, outlines: &[Outline], joints: bool) -> (Vec<(Pt, Pt)
     (edges, interfaces)
 }
 
-/// Distance from `p` to the nearest boundary edge of any piece.
-fn clearance(outlines: &[Outline], p: Pt) -> f64 {
-    let mut d = f64::INFINITY;
-    for l in outlines.iter().flat_map(|o| &o.loops) {
-        for (i, &a) in l.iter().enumerate() {
-            d = d.min(p.dist_to_segment(a, l[(i + 1) % l.len()]));
-        }
-    }
-    d
+/// Whether every boundary edge of every piece is farther than `min` from `p` (by
+/// [`Pt::dist_to_segment`]). An edge, or a whole piece, whose box lies more than `2·min`
+/// from `p` along x or y is farther than `min` without the distance being computed (the
+/// box's gap is a lower bound of the distance, and both are exact to rounding).
+fn clear_of(outlines: &[Outline], p: Pt, min: f64) -> bool {
+    let far = 2.0 * min;
+    let gap =
+        |x0: f64, x1: f64, y0: f64, y1: f64| (x0 - p.x).max(p.x - x1).max(y0 - p.y).max(p.y - y1);
+    outlines.iter().all(|o| {
+        let b = o.bounds;
+        gap(b[0], b[1], b[2], b[3]) > far
+            || o.loops.iter().all(|l| {
+                l.iter().zip(l.iter().cycle().skip(1)).all(|(&a, &b)| {
+                    gap(a.x.min(b.x), a.x.max(b.x), a.y.min(b.y), a.y.max(b.y)) > far
+                        || p.dist_to_segment(a, b) > min
+                })
+            })
+    })
 }
 
 /// Moves the points that refinement put on an arc's chord (splitting a boundary
@@ -683,8 +692,9 @@ fn build(
     // Splitting crossing constraints can leave a vertex a rounding error away from
     // another; such twins are merged and the slivers between them dropped.
     let mut map = vec![u32::MAX; pos.len()];
-    let mut nodes: Vec<Pt> = Vec::new();
-    let mut grid = Near::new(eps);
+    // Corners, then a mid-side node per element edge (about 1.5 an element).
+    let mut nodes: Vec<Pt> = Vec::with_capacity(pos.len() + 2 * tris.len());
+    let mut grid = Near::with_capacity(eps, pos.len());
     for t in tris {
         for &v in &t.v {
             if map[v] != u32::MAX {
@@ -707,7 +717,8 @@ fn build(
         })
         .collect();
     let index = ArcIndex::new(&arcs, sweeps);
-    let mut mids: MixMap<(u32, u32), u32> = MixMap::default();
+    let mut mids: MixMap<(u32, u32), u32> =
+        MixMap::with_capacity_and_hasher(2 * tris.len(), Default::default());
     let mut elems = Vec::with_capacity(tris.len());
     let mut edge_arc = Vec::with_capacity(tris.len());
     let mut curved = Vec::with_capacity(tris.len());
