@@ -10,6 +10,7 @@
 //! < report < iterate < tui, cli, with `text` and `parallel` leaves for all.
 
 pub mod analysis;
+pub mod blocks;
 pub mod checks;
 pub mod cli;
 pub mod fe;
