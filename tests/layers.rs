@@ -24,8 +24,8 @@ const LAYERS: &[&[&str]] = &[
 ];
 
 /// Modules every module may name (leaves that themselves name nothing of the crate):
-/// the sanitiser and the parallel map.
-const LEAVES: &[&str] = &["text", "parallel"];
+/// the sanitiser, the parallel map and the allocator.
+const LEAVES: &[&str] = &["text", "parallel", "blocks"];
 
 fn layer(module: &str) -> Option<usize> {
     LAYERS.iter().position(|l| l.contains(&module))
