@@ -7,9 +7,11 @@
 //! The core (`model`, `geom`, `props`, `fe`, `checks`) does no terminal or file I/O.
 //! Each module names only modules below it (DEVELOPERS.md, "Layers"; kept by
 //! `tests/layers.rs`): model < geom < props < fe < checks < analysis < file < numfmt
-//! < report < iterate < tui, cli, with `text`, `parallel` and `heap` leaves for all.
+//! < report < iterate < tui, cli, with `text`, `parallel`, `blocks` and `heap` leaves for
+//! all.
 
 pub mod analysis;
+pub mod blocks;
 pub mod checks;
 pub mod cli;
 pub mod fe;

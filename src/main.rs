@@ -14,6 +14,10 @@ use kern::numfmt::Numbers;
 use kern::report::rows::Notation;
 use std::path::PathBuf;
 
+/// Small blocks are cached a thread in front of the system allocator ([`kern::blocks`]).
+#[global_allocator]
+static ALLOCATOR: kern::blocks::Blocks = kern::blocks::Blocks;
+
 /// Design and check beam and column cross-sections in the terminal.
 #[derive(Parser)]
 #[command(name = "kern", version, about, long_about = None)]

@@ -24,8 +24,8 @@ const LAYERS: &[&[&str]] = &[
 ];
 
 /// Modules every module may name (leaves that themselves name nothing of the crate):
-/// the sanitiser, the parallel map and the heap's set-up.
-const LEAVES: &[&str] = &["text", "parallel", "heap"];
+/// the sanitiser, the parallel map, the allocator and the heap's set-up.
+const LEAVES: &[&str] = &["text", "parallel", "blocks", "heap"];
 
 fn layer(module: &str) -> Option<usize> {
     LAYERS.iter().position(|l| l.contains(&module))
