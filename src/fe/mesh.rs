@@ -832,10 +832,12 @@ impl Mesh {
     pub fn refine(&self) -> Mesh {
         let w = new_weights();
         let old = self.nodes.len();
-        let mut nodes = self.nodes.clone();
+        let ne = self.elems.len();
+        // Two new nodes per old mid-side node (fewer than `old`), three inside each element.
+        let mut nodes = Vec::with_capacity(3 * old + 3 * ne);
+        nodes.extend_from_slice(&self.nodes);
         // First of the two half-edge nodes of each old mid-side node.
         let mut half = vec![u32::MAX; old];
-        let ne = self.elems.len();
         let mut elems = Vec::with_capacity(4 * ne);
         let mut edge_arc = Vec::with_capacity(4 * ne);
         let mut curved = Vec::with_capacity(4 * ne);
