@@ -136,11 +136,10 @@ impl Csr {
         next.truncate(nodes);
         next.copy_from_slice(&ptr[..nodes]);
         for i in 0..nodes {
+            // Rows before i have placed row i's columns below i: its diagonal is next.
+            diag[i] = next[i];
             for &c in &met[ptr[i]..ptr[i + 1]] {
                 let c = c as usize;
-                if c == i {
-                    diag[i] = next[i];
-                }
                 col[next[c]] = i as u32;
                 next[c] += 1;
             }
@@ -445,10 +444,10 @@ impl Plan {
         }
         let mut first: Vec<usize> = (0..n).collect();
         for (i, f) in first.iter_mut().enumerate() {
-            let o = perm[i] as usize;
-            for k in a.ptr[o]..a.ptr[o + 1] {
-                if a.val[k] != 0.0 {
-                    *f = (*f).min(inv[a.col[k] as usize] as usize);
+            let r = a.ptr[perm[i] as usize]..a.ptr[perm[i] as usize + 1];
+            for (&c, &v) in a.col[r.clone()].iter().zip(&a.val[r]) {
+                if v != 0.0 {
+                    *f = (*f).min(inv[c as usize] as usize);
                 }
             }
         }
@@ -509,11 +508,12 @@ impl Envelope {
         let n = a.rows();
         let mut val = vec![0.0; start[n]];
         for i in 0..n {
-            let o = perm[i] as usize;
-            for k in a.ptr[o]..a.ptr[o + 1] {
-                let j = inv[a.col[k] as usize] as usize;
-                if j <= i && a.val[k] != 0.0 {
-                    val[start[i] + j - first[i]] = a.val[k];
+            let r = a.ptr[perm[i] as usize]..a.ptr[perm[i] as usize + 1];
+            let row = &mut val[start[i]..start[i + 1]];
+            for (&c, &v) in a.col[r.clone()].iter().zip(&a.val[r]) {
+                let j = inv[c as usize] as usize;
+                if j <= i && v != 0.0 {
+                    row[j - first[i]] = v;
                 }
             }
         }
