@@ -14,9 +14,11 @@ use std::ptr;
 use std::sync::atomic::{AtomicBool, AtomicU32, Ordering};
 use std::sync::Once;
 
-/// The step between size classes, and the alignment every cached block has (what
-/// malloc gives on the 64-bit targets).
+/// The step between size classes.
 const GRAIN: usize = 16;
+/// The alignment cached requests may ask for: what malloc gives every block, two words
+/// (16 bytes on the 64-bit targets).
+const ALIGN: usize = 2 * std::mem::size_of::<usize>();
 /// Size classes: blocks of `GRAIN`, `2 GRAIN`, … `CLASSES · GRAIN` bytes.
 const CLASSES: usize = 64;
 /// The largest block cached; larger ones go straight to the system allocator.
@@ -64,16 +66,16 @@ static KEY_MADE: Once = Once::new();
 static KEY_OK: AtomicBool = AtomicBool::new(false);
 
 /// The size class of a request, when it is cached: `None` for more than [`LARGEST`]
-/// bytes, an alignment past [`GRAIN`], or no bytes.
+/// bytes, an alignment past [`ALIGN`], or no bytes.
 fn class(layout: Layout) -> Option<usize> {
-    (layout.align() <= GRAIN && (1..=LARGEST).contains(&layout.size()))
+    (layout.align() <= ALIGN && (1..=LARGEST).contains(&layout.size()))
         .then(|| (layout.size() - 1) / GRAIN)
 }
 
 /// The whole size and alignment of a block of class `c`.
 fn block(c: usize) -> Layout {
-    // SAFETY: GRAIN is a power of two and the size, at most LARGEST, cannot overflow.
-    unsafe { Layout::from_size_align_unchecked((c + 1) * GRAIN, GRAIN) }
+    // SAFETY: ALIGN is a power of two and the size, at most LARGEST, cannot overflow.
+    unsafe { Layout::from_size_align_unchecked((c + 1) * GRAIN, ALIGN) }
 }
 
 /// Empties the calling thread's cache and closes it: the `pthread` key's destructor.
@@ -149,7 +151,7 @@ fn keep(p: *mut u8, c: usize) -> bool {
                 return false;
             }
             // SAFETY: the block is the caller's to give up, at least GRAIN bytes and
-            // aligned to GRAIN: its first word holds the list's next block.
+            // aligned to ALIGN: its first word holds the list's next block.
             unsafe { p.cast::<*mut u8>().write(k.heads[c].get()) };
             k.heads[c].set(p);
             k.bytes.set(k.bytes.get() + size);
