@@ -564,7 +564,7 @@ impl Envelope {
         for i in 0..n {
             let row = &self.val[self.start[i]..self.start[i + 1]];
             let f = self.first[i];
-            let s: f64 = row[..i - f].iter().zip(&y[f..i]).map(|(l, v)| l * v).sum();
+            let s = dot(&row[..i - f], &y[f..i]);
             y[i] = (y[i] - s) / row[i - f];
         }
         for i in (0..n).rev() {
@@ -598,8 +598,21 @@ impl Envelope {
         for i in 0..n {
             let row = &self.val[self.start[i]..self.start[i + 1]];
             let f = self.first[i];
-            let mut s = [0.0; K];
-            for (l, yj) in row[..i - f].iter().zip(y[K * f..K * i].chunks_exact(K)) {
+            // [`dot`] for each column: four interleaved parts, then the rest.
+            let (mut lq, mut yq) = (
+                row[..i - f].chunks_exact(4),
+                y[K * f..K * i].chunks_exact(4 * K),
+            );
+            let mut p = [[0.0; 4]; K];
+            for (l, yj) in (&mut lq).zip(&mut yq) {
+                for q in 0..4 {
+                    for c in 0..K {
+                        p[c][q] += l[q] * yj[K * q + c];
+                    }
+                }
+            }
+            let mut s = p.map(|p| (p[0] + p[2]) + (p[1] + p[3]));
+            for (l, yj) in lq.remainder().iter().zip(yq.remainder().chunks_exact(K)) {
                 for c in 0..K {
                     s[c] += l * yj[c];
                 }
