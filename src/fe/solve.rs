@@ -655,7 +655,9 @@ fn rcm(a: &Csr, seeds: &[u32]) -> (Vec<u32>, Vec<u32>) {
     let mut seen = vec![false; n];
     let mut order: Vec<u32> = Vec::with_capacity(n);
     let mut roots = Vec::new();
-    let mut nbr: Vec<usize> = Vec::new();
+    // Each neighbour as its degree above its number: sorted as integers, by degree and
+    // then by number, the order of a stable sort by degree of the row's sorted columns.
+    let mut nbr: Vec<u64> = Vec::new();
     let mut number = |s: usize, seen: &mut [bool], order: &mut Vec<u32>| {
         seen[s] = true;
         let mut head = order.len();
@@ -667,13 +669,14 @@ fn rcm(a: &Csr, seeds: &[u32]) -> (Vec<u32>, Vec<u32>) {
             nbr.extend(
                 a.col[a.ptr[i]..a.ptr[i + 1]]
                     .iter()
-                    .map(|&j| j as usize)
-                    .filter(|&j| !seen[j]),
+                    .filter(|&&j| !seen[j as usize])
+                    .map(|&j| (degree(j as usize) as u64) << 32 | u64::from(j)),
             );
-            nbr.sort_by_key(|&j| degree(j));
+            nbr.sort_unstable();
             for &j in &nbr {
-                seen[j] = true;
-                order.push(j as u32);
+                let j = j as u32;
+                seen[j as usize] = true;
+                order.push(j);
             }
         }
     };
