@@ -564,7 +564,7 @@ impl Envelope {
         for i in 0..n {
             let row = &self.val[self.start[i]..self.start[i + 1]];
             let f = self.first[i];
-            let s: f64 = row[..i - f].iter().zip(&y[f..i]).map(|(l, v)| l * v).sum();
+            let s = dot(&row[..i - f], &y[f..i]);
             y[i] = (y[i] - s) / row[i - f];
         }
         for i in (0..n).rev() {
@@ -598,8 +598,21 @@ impl Envelope {
         for i in 0..n {
             let row = &self.val[self.start[i]..self.start[i + 1]];
             let f = self.first[i];
-            let mut s = [0.0; K];
-            for (l, yj) in row[..i - f].iter().zip(y[K * f..K * i].chunks_exact(K)) {
+            // [`dot`] for each column: four interleaved parts, then the rest.
+            let (mut lq, mut yq) = (
+                row[..i - f].chunks_exact(4),
+                y[K * f..K * i].chunks_exact(4 * K),
+            );
+            let mut p = [[0.0; 4]; K];
+            for (l, yj) in (&mut lq).zip(&mut yq) {
+                for q in 0..4 {
+                    for c in 0..K {
+                        p[c][q] += l[q] * yj[K * q + c];
+                    }
+                }
+            }
+            let mut s = p.map(|p| (p[0] + p[2]) + (p[1] + p[3]));
+            for (l, yj) in lq.remainder().iter().zip(yq.remainder().chunks_exact(K)) {
                 for c in 0..K {
                     s[c] += l * yj[c];
                 }
@@ -642,7 +655,9 @@ fn rcm(a: &Csr, seeds: &[u32]) -> (Vec<u32>, Vec<u32>) {
     let mut seen = vec![false; n];
     let mut order: Vec<u32> = Vec::with_capacity(n);
     let mut roots = Vec::new();
-    let mut nbr: Vec<usize> = Vec::new();
+    // Each neighbour as its degree above its number: sorted as integers, by degree and
+    // then by number, the order of a stable sort by degree of the row's sorted columns.
+    let mut nbr: Vec<u64> = Vec::new();
     let mut number = |s: usize, seen: &mut [bool], order: &mut Vec<u32>| {
         seen[s] = true;
         let mut head = order.len();
@@ -654,13 +669,14 @@ fn rcm(a: &Csr, seeds: &[u32]) -> (Vec<u32>, Vec<u32>) {
             nbr.extend(
                 a.col[a.ptr[i]..a.ptr[i + 1]]
                     .iter()
-                    .map(|&j| j as usize)
-                    .filter(|&j| !seen[j]),
+                    .filter(|&&j| !seen[j as usize])
+                    .map(|&j| (degree(j as usize) as u64) << 32 | u64::from(j)),
             );
-            nbr.sort_by_key(|&j| degree(j));
+            nbr.sort_unstable();
             for &j in &nbr {
-                seen[j] = true;
-                order.push(j as u32);
+                let j = j as u32;
+                seen[j as usize] = true;
+                order.push(j);
             }
         }
     };
