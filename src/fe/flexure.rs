@@ -39,7 +39,7 @@
 //! piece (separate pieces do not share a shear flow: refused by the caller).
 
 use super::mesh::Mesh;
-use super::p2::{at, Rule};
+use super::p2::{Element, Rule};
 use super::solve::{Multigrid, Prolong};
 use super::torsion::{Failure, Ladder, Level};
 use crate::geom::Pt;
@@ -598,23 +598,32 @@ fn solve_level(
     let mut dd = [0.0; 2];
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
+        let el = Element::new(&p, m.curved[ei]).ok_or(Failure::Degenerate)?;
         let (n, g) = (m.weight[ei], m.shear[ei]);
         let (gnu, w2) = (n * k1 - g, 2.0 * n * k1);
         let stiff = g > 0.0;
+        // The element's [from d, from r] loads, per load case and node.
+        let mut le = [[[0.0; 6]; 2]; 2];
         for q in 0..r4.points() {
-            let at_q = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
+            let at_q = el.at(&r4, q).ok_or(Failure::Degenerate)?;
             let (dv, r) = terms(mom, at_q.x, at_q.y);
-            for k in 0..2 {
+            for (k, lk) in le.iter_mut().enumerate() {
                 let dk = dv[k];
                 if stiff {
                     dd[k] += at_q.da * gnu * gnu * (dk[0] * dk[0] + dk[1] * dk[1]) / g;
                 }
-                for (a, &node) in e.iter().enumerate() {
-                    let from_d = gnu * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]);
-                    f[k][node as usize] += at_q.da * (from_d + w2 * r[k] * r4.n[q][a]);
-                    if stiff {
-                        fd[k][node as usize] += at_q.da * from_d;
-                    }
+                let (sd, sr) = (at_q.da * gnu, at_q.da * w2 * r[k]);
+                for a in 0..6 {
+                    lk[0][a] += sd * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]);
+                    lk[1][a] += sr * r4.n[q][a];
+                }
+            }
+        }
+        for (k, [ld, lr]) in le.iter().enumerate() {
+            for (a, &node) in e.iter().enumerate() {
+                f[k][node as usize] += ld[a] + lr[a];
+                if stiff {
+                    fd[k][node as usize] += ld[a];
                 }
             }
         }
@@ -726,8 +735,9 @@ fn recover(m: &Mesh, c: Pt, tau_at: &TauAt) -> Result<Vec<Sample>, Failure> {
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
         let area = tri_area(&p);
+        let el = Element::new(&p, m.curved[ei]).ok_or(Failure::Degenerate)?;
         for q in 0..6 {
-            let a = at(&p, &rule, q).ok_or(Failure::Degenerate)?;
+            let a = el.at(&rule, q).ok_or(Failure::Degenerate)?;
             let t = tau_at(ei, e, a.x, a.y, &a.gx, &a.gy);
             let node = e[q] as usize;
             if mixed[node] {

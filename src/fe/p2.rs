@@ -27,6 +27,8 @@ pub fn shape(l: [f64; 3]) -> [f64; 6] {
 /// weights normalised to sum to 1 (so Σ wᵢ·detJ/2 is the element area).
 pub struct Rule {
     pub w: Vec<f64>,
+    /// The points' reference coordinates (ξ, η).
+    pub xi: Vec<(f64, f64)>,
     pub n: Vec<[f64; 6]>,
     pub dxi: Vec<[f64; 6]>,
     pub deta: Vec<[f64; 6]>,
@@ -36,6 +38,7 @@ impl Rule {
     fn from_points(pts: &[(f64, f64, f64)]) -> Rule {
         let mut r = Rule {
             w: Vec::new(),
+            xi: Vec::new(),
             n: Vec::new(),
             dxi: Vec::new(),
             deta: Vec::new(),
@@ -43,6 +46,7 @@ impl Rule {
         for &(xi, eta, w) in pts {
             let l1 = 1.0 - xi - eta;
             r.w.push(w);
+            r.xi.push((xi, eta));
             r.n.push(shape([l1, xi, eta]));
             r.dxi.push([
                 -(4.0 * l1 - 1.0),
@@ -142,6 +146,67 @@ pub fn at(p: &[Pt; 6], rule: &Rule, q: usize) -> Option<At> {
         gx,
         gy,
     })
+}
+
+/// One element's map from the reference triangle, for [`Element::at`]: a straight
+/// element's is affine, x = x₀ + J·(ξ, η) with J from its corners, constant over it
+/// (Zienkiewicz & Taylor, The Finite Element Method, vol. 1, §9.3), so its inverse is
+/// taken once and a point costs the corners' interpolation and ∇N = J⁻ᵀ∇̂N; a curved
+/// one is mapped point by point ([`at`]).
+pub enum Element<'a> {
+    Straight {
+        /// The first corner, and J = [[x₁₀, x₂₀], [y₁₀, y₂₀]] as (xx, xe, yx, ye).
+        o: Pt,
+        j: [f64; 4],
+        det: f64,
+    },
+    Curved(&'a [Pt; 6]),
+}
+
+impl<'a> Element<'a> {
+    /// The map of the element with nodes `p`, straight unless `curved` (the mesh's
+    /// flag); `None` when a straight one is inverted or degenerate (det J ≤ 0).
+    pub fn new(p: &'a [Pt; 6], curved: bool) -> Option<Element<'a>> {
+        if curved {
+            return Some(Element::Curved(p));
+        }
+        let (a, b) = (p[1].sub(p[0]), p[2].sub(p[0]));
+        let det = a.x * b.y - b.x * a.y;
+        if det.is_nan() || det <= 0.0 {
+            return None;
+        }
+        Some(Element::Straight {
+            o: p[0],
+            j: [a.x, b.x, a.y, b.y],
+            det,
+        })
+    }
+
+    /// The element at point `q` of `rule`, as [`at`] gives it; `None` where a curved
+    /// element is inverted or degenerate.
+    pub fn at(&self, rule: &Rule, q: usize) -> Option<At> {
+        let (o, j, det) = match *self {
+            Element::Curved(p) => return at(p, rule, q),
+            Element::Straight { o, j, det } => (o, j, det),
+        };
+        let [xx, xe, yx, ye] = j;
+        let (s, t) = rule.xi[q];
+        let (dxi, deta) = (&rule.dxi[q], &rule.deta[q]);
+        let inv = 1.0 / det;
+        let mut gx = [0.0; 6];
+        let mut gy = [0.0; 6];
+        for i in 0..6 {
+            gx[i] = (ye * dxi[i] - yx * deta[i]) * inv;
+            gy[i] = (xx * deta[i] - xe * dxi[i]) * inv;
+        }
+        Some(At {
+            x: o.x + xx * s + xe * t,
+            y: o.y + yx * s + ye * t,
+            da: 0.5 * rule.w[q] * det,
+            gx,
+            gy,
+        })
+    }
 }
 
 /// A straight-sided element (mid-side nodes at the middles of its sides) is the affine
@@ -309,6 +374,28 @@ mod tests {
         assert!(k.iter().all(|r| r.iter().sum::<f64>().abs() < 1e-13));
         let flipped = [a, c, b, mid(a, c), mid(c, b), mid(b, a)];
         assert!(Straight::get().stiffness_and_load(&flipped).is_none());
+    }
+
+    #[test]
+    fn a_straight_elements_affine_map_matches_the_isoparametric_one() {
+        // On a straight element the isoparametric map is the affine one (Zienkiewicz &
+        // Taylor vol. 1, §9.3): same point, weight and gradients to rounding.
+        let (a, b, c) = (Pt::new(-3.0, 1.0), Pt::new(4.0, -2.5), Pt::new(0.5, 6.0));
+        let mid = |p: Pt, q: Pt| Pt::new(0.5 * (p.x + q.x), 0.5 * (p.y + q.y));
+        let p = [a, b, c, mid(a, b), mid(b, c), mid(c, a)];
+        let rule = Rule::degree4();
+        let e = Element::new(&p, false).expect("valid element");
+        for q in 0..rule.points() {
+            let (g, h) = (
+                at(&p, &rule, q).expect("valid"),
+                e.at(&rule, q).expect("valid"),
+            );
+            let close = |u: f64, v: f64| (u - v).abs() < 1e-13 * (1.0 + u.abs());
+            assert!(close(g.x, h.x) && close(g.y, h.y) && close(g.da, h.da));
+            assert!((0..6).all(|i| close(g.gx[i], h.gx[i]) && close(g.gy[i], h.gy[i])));
+        }
+        let flipped = [a, c, b, mid(a, c), mid(c, b), mid(b, a)];
+        assert!(Element::new(&flipped, false).is_none());
     }
 
     #[test]
