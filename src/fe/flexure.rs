@@ -39,7 +39,7 @@
 //! piece (separate pieces do not share a shear flow: refused by the caller).
 
 use super::mesh::Mesh;
-use super::p2::{Element, Rule};
+use super::p2::{Element, Rule, Straight};
 use super::solve::{Multigrid, Prolong};
 use super::torsion::{Failure, Ladder, Level};
 use crate::geom::Pt;
@@ -596,15 +596,31 @@ fn solve_level(
     let mut f = [vec![0.0; nn], vec![0.0; nn]];
     let mut fd = [vec![0.0; nn], vec![0.0; nn]];
     let mut dd = [0.0; 2];
+    let straight = Straight::get();
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
         let el = Element::new(&p, m.curved[ei]).ok_or(Failure::Degenerate)?;
         let (n, g) = (m.weight[ei], m.shear[ei]);
         let (gnu, w2) = (n * k1 - g, 2.0 * n * k1);
         let stiff = g > 0.0;
-        // The element's [from d, from r] loads, per load case and node.
+        // The element's [from d, from r] loads, per load case and node: on a straight
+        // element d and r are quadratics of its own space (p2::Straight::field_integrals).
         let mut le = [[[0.0; 6]; 2]; 2];
-        for q in 0..r4.points() {
+        let curved = matches!(el, Element::Curved(_));
+        if !curved {
+            let at_nodes = p.map(|pb| terms(mom, pb.x, pb.y));
+            for (k, lk) in le.iter_mut().enumerate() {
+                let (dk, rk) = (at_nodes.map(|t| t.0[k]), at_nodes.map(|t| t.1[k]));
+                let (ld, lr, dsq) =
+                    (straight.field_integrals(&p, &dk, &rk)).ok_or(Failure::Degenerate)?;
+                if stiff {
+                    dd[k] += gnu * gnu * dsq / g;
+                }
+                lk[0] = ld.map(|v| gnu * v);
+                lk[1] = lr.map(|v| w2 * v);
+            }
+        }
+        for q in (0..r4.points()).filter(|_| curved) {
             let at_q = el.at(&r4, q).ok_or(Failure::Degenerate)?;
             let (dv, r) = terms(mom, at_q.x, at_q.y);
             for (k, lk) in le.iter_mut().enumerate() {
