@@ -608,16 +608,22 @@ fn solve_level(
         let mut le = [[[0.0; 6]; 2]; 2];
         let curved = matches!(el, Element::Curved(_));
         if !curved {
-            let at_nodes = p.map(|pb| terms(mom, pb.x, pb.y));
+            let (mut dn, mut rn) = ([[[0.0; 2]; 6]; 2], [[0.0; 6]; 2]);
+            for (b, pb) in p.iter().enumerate() {
+                let (dv, r) = terms(mom, pb.x, pb.y);
+                for k in 0..2 {
+                    (dn[k][b], rn[k][b]) = (dv[k], r[k]);
+                }
+            }
             for (k, lk) in le.iter_mut().enumerate() {
-                let (dk, rk) = (at_nodes.map(|t| t.0[k]), at_nodes.map(|t| t.1[k]));
                 let (ld, lr, dsq) =
-                    (straight.field_integrals(&p, &dk, &rk)).ok_or(Failure::Degenerate)?;
+                    (straight.field_integrals(&p, &dn[k], &rn[k])).ok_or(Failure::Degenerate)?;
                 if stiff {
                     dd[k] += gnu * gnu * dsq / g;
                 }
-                lk[0] = ld.map(|v| gnu * v);
-                lk[1] = lr.map(|v| w2 * v);
+                for a in 0..6 {
+                    (lk[0][a], lk[1][a]) = (gnu * ld[a], w2 * lr[a]);
+                }
             }
         }
         for q in (0..r4.points()).filter(|_| curved) {
