@@ -635,9 +635,10 @@ fn solve_level(
                     dd[k] += at_q.da * gnu * gnu * (dk[0] * dk[0] + dk[1] * dk[1]) / g;
                 }
                 let (sd, sr) = (at_q.da * gnu, at_q.da * w2 * r[k]);
-                for a in 0..6 {
-                    lk[0][a] += sd * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]);
-                    lk[1][a] += sr * r4.n[q][a];
+                let [ld, lr] = lk;
+                for (a, (l0, l1)) in ld.iter_mut().zip(lr.iter_mut()).enumerate() {
+                    *l0 += sd * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]);
+                    *l1 += sr * r4.n[q][a];
                 }
             }
         }
