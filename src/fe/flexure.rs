@@ -673,9 +673,9 @@ fn solve_level(
         mg.solve_many([&f[0], &f[1]], [p0, p1], RTOL, cancel)?;
     }
     let mut energy = [0.0; 2];
+    let kk = mg.finest().ok_or(Failure::Degenerate)?;
+    let mut ku = vec![0.0; nn];
     for k in 0..2 {
-        let kk = mg.finest().ok_or(Failure::Degenerate)?;
-        let mut ku = vec![0.0; nn];
         kk.mul(&psi[k], &mut ku);
         super::torsion::converged(&ku, &f[k], m.elems.len())?;
         // The energy ∫τ²/g dA of the unit shear, τ = s·(g∇Ψ − gν·d) with s = 1/(2(1 + ν_ref)D):
