@@ -39,7 +39,7 @@
 //! piece (separate pieces do not share a shear flow: refused by the caller).
 
 use super::mesh::Mesh;
-use super::p2::{at, Rule};
+use super::p2::{Element, Rule, Straight};
 use super::solve::{Multigrid, Prolong};
 use super::torsion::{Failure, Ladder, Level};
 use crate::geom::Pt;
@@ -596,25 +596,57 @@ fn solve_level(
     let mut f = [vec![0.0; nn], vec![0.0; nn]];
     let mut fd = [vec![0.0; nn], vec![0.0; nn]];
     let mut dd = [0.0; 2];
+    let straight = Straight::get();
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
+        let el = Element::new(&p, m.curved[ei]).ok_or(Failure::Degenerate)?;
         let (n, g) = (m.weight[ei], m.shear[ei]);
         let (gnu, w2) = (n * k1 - g, 2.0 * n * k1);
         let stiff = g > 0.0;
-        for q in 0..r4.points() {
-            let at_q = at(&p, &r4, q).ok_or(Failure::Degenerate)?;
+        // The element's [from d, from r] loads, per load case and node: on a straight
+        // element d and r are quadratics of its own space (p2::Straight::field_integrals).
+        let mut le = [[[0.0; 6]; 2]; 2];
+        let curved = matches!(el, Element::Curved(_));
+        if !curved {
+            let (mut dn, mut rn) = ([[[0.0; 2]; 6]; 2], [[0.0; 6]; 2]);
+            for (b, pb) in p.iter().enumerate() {
+                let (dv, r) = terms(mom, pb.x, pb.y);
+                for k in 0..2 {
+                    (dn[k][b], rn[k][b]) = (dv[k], r[k]);
+                }
+            }
+            for (k, lk) in le.iter_mut().enumerate() {
+                let (ld, lr, dsq) =
+                    (straight.field_integrals(&p, &dn[k], &rn[k])).ok_or(Failure::Degenerate)?;
+                if stiff {
+                    dd[k] += gnu * gnu * dsq / g;
+                }
+                for a in 0..6 {
+                    (lk[0][a], lk[1][a]) = (gnu * ld[a], w2 * lr[a]);
+                }
+            }
+        }
+        for q in (0..r4.points()).filter(|_| curved) {
+            let at_q = el.at(&r4, q).ok_or(Failure::Degenerate)?;
             let (dv, r) = terms(mom, at_q.x, at_q.y);
-            for k in 0..2 {
+            for (k, lk) in le.iter_mut().enumerate() {
                 let dk = dv[k];
                 if stiff {
                     dd[k] += at_q.da * gnu * gnu * (dk[0] * dk[0] + dk[1] * dk[1]) / g;
                 }
-                for (a, &node) in e.iter().enumerate() {
-                    let from_d = gnu * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]);
-                    f[k][node as usize] += at_q.da * (from_d + w2 * r[k] * r4.n[q][a]);
-                    if stiff {
-                        fd[k][node as usize] += at_q.da * from_d;
-                    }
+                let (sd, sr) = (at_q.da * gnu, at_q.da * w2 * r[k]);
+                let [ld, lr] = lk;
+                for (a, (l0, l1)) in ld.iter_mut().zip(lr.iter_mut()).enumerate() {
+                    *l0 += sd * (dk[0] * at_q.gx[a] + dk[1] * at_q.gy[a]);
+                    *l1 += sr * r4.n[q][a];
+                }
+            }
+        }
+        for (k, [ld, lr]) in le.iter().enumerate() {
+            for (a, &node) in e.iter().enumerate() {
+                f[k][node as usize] += ld[a] + lr[a];
+                if stiff {
+                    fd[k][node as usize] += ld[a];
                 }
             }
         }
@@ -641,9 +673,9 @@ fn solve_level(
         mg.solve_many([&f[0], &f[1]], [p0, p1], RTOL, cancel)?;
     }
     let mut energy = [0.0; 2];
+    let kk = mg.finest().ok_or(Failure::Degenerate)?;
+    let mut ku = vec![0.0; nn];
     for k in 0..2 {
-        let kk = mg.finest().ok_or(Failure::Degenerate)?;
-        let mut ku = vec![0.0; nn];
         kk.mul(&psi[k], &mut ku);
         super::torsion::converged(&ku, &f[k], m.elems.len())?;
         // The energy ∫τ²/g dA of the unit shear, τ = s·(g∇Ψ − gν·d) with s = 1/(2(1 + ν_ref)D):
@@ -726,8 +758,9 @@ fn recover(m: &Mesh, c: Pt, tau_at: &TauAt) -> Result<Vec<Sample>, Failure> {
     for (ei, e) in m.elems.iter().enumerate() {
         let p = e.map(|v| m.nodes[v as usize].sub(c));
         let area = tri_area(&p);
+        let el = Element::new(&p, m.curved[ei]).ok_or(Failure::Degenerate)?;
         for q in 0..6 {
-            let a = at(&p, &rule, q).ok_or(Failure::Degenerate)?;
+            let a = el.at(&rule, q).ok_or(Failure::Degenerate)?;
             let t = tau_at(ei, e, a.x, a.y, &a.gx, &a.gy);
             let node = e[q] as usize;
             if mixed[node] {

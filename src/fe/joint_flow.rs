@@ -31,7 +31,7 @@
 
 use super::flexure::TauAt;
 use super::mesh::Mesh;
-use super::p2::{at, Rule};
+use super::p2::{Element, Rule};
 use super::torsion::Failure;
 use crate::geom::Pt;
 use std::collections::HashMap;
@@ -169,9 +169,10 @@ pub fn level(
         let piece = m.piece[ei];
         let p = e.map(|v| m.nodes[v as usize].sub(c));
         let touches = e.iter().any(|&v| shares.contains_key(&(v, piece)));
+        let el = Element::new(&p, m.curved[ei]).ok_or(Failure::Degenerate)?;
         let mut f = [[0.0; 2]; 6];
         for q in 0..rule.points() {
-            let g = at(&p, &rule, q).ok_or(Failure::Degenerate)?;
+            let g = el.at(&rule, q).ok_or(Failure::Degenerate)?;
             let b = load(ei, g.x, g.y);
             for k in 0..2 {
                 piece_load[piece as usize][k] += g.da * b[k];

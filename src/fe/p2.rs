@@ -27,6 +27,8 @@ pub fn shape(l: [f64; 3]) -> [f64; 6] {
 /// weights normalised to sum to 1 (so Σ wᵢ·detJ/2 is the element area).
 pub struct Rule {
     pub w: Vec<f64>,
+    /// The points' reference coordinates (ξ, η).
+    pub xi: Vec<(f64, f64)>,
     pub n: Vec<[f64; 6]>,
     pub dxi: Vec<[f64; 6]>,
     pub deta: Vec<[f64; 6]>,
@@ -36,6 +38,7 @@ impl Rule {
     fn from_points(pts: &[(f64, f64, f64)]) -> Rule {
         let mut r = Rule {
             w: Vec::new(),
+            xi: Vec::new(),
             n: Vec::new(),
             dxi: Vec::new(),
             deta: Vec::new(),
@@ -43,6 +46,7 @@ impl Rule {
         for &(xi, eta, w) in pts {
             let l1 = 1.0 - xi - eta;
             r.w.push(w);
+            r.xi.push((xi, eta));
             r.n.push(shape([l1, xi, eta]));
             r.dxi.push([
                 -(4.0 * l1 - 1.0),
@@ -144,6 +148,67 @@ pub fn at(p: &[Pt; 6], rule: &Rule, q: usize) -> Option<At> {
     })
 }
 
+/// One element's map from the reference triangle, for [`Element::at`]: a straight
+/// element's is affine, x = x₀ + J·(ξ, η) with J from its corners, constant over it
+/// (Zienkiewicz & Taylor, The Finite Element Method, vol. 1, §9.3), so its inverse is
+/// taken once and a point costs the corners' interpolation and ∇N = J⁻ᵀ∇̂N; a curved
+/// one is mapped point by point ([`at`]).
+pub enum Element<'a> {
+    Straight {
+        /// The first corner, and J = [[x₁₀, x₂₀], [y₁₀, y₂₀]] as (xx, xe, yx, ye).
+        o: Pt,
+        j: [f64; 4],
+        det: f64,
+    },
+    Curved(&'a [Pt; 6]),
+}
+
+impl<'a> Element<'a> {
+    /// The map of the element with nodes `p`, straight unless `curved` (the mesh's
+    /// flag); `None` when a straight one is inverted or degenerate (det J ≤ 0).
+    pub fn new(p: &'a [Pt; 6], curved: bool) -> Option<Element<'a>> {
+        if curved {
+            return Some(Element::Curved(p));
+        }
+        let (a, b) = (p[1].sub(p[0]), p[2].sub(p[0]));
+        let det = a.x * b.y - b.x * a.y;
+        if det.is_nan() || det <= 0.0 {
+            return None;
+        }
+        Some(Element::Straight {
+            o: p[0],
+            j: [a.x, b.x, a.y, b.y],
+            det,
+        })
+    }
+
+    /// The element at point `q` of `rule`, as [`at`] gives it; `None` where a curved
+    /// element is inverted or degenerate.
+    pub fn at(&self, rule: &Rule, q: usize) -> Option<At> {
+        let (o, j, det) = match *self {
+            Element::Curved(p) => return at(p, rule, q),
+            Element::Straight { o, j, det } => (o, j, det),
+        };
+        let [xx, xe, yx, ye] = j;
+        let (s, t) = rule.xi[q];
+        let (dxi, deta) = (&rule.dxi[q], &rule.deta[q]);
+        let inv = 1.0 / det;
+        let mut gx = [0.0; 6];
+        let mut gy = [0.0; 6];
+        for i in 0..6 {
+            gx[i] = (ye * dxi[i] - yx * deta[i]) * inv;
+            gy[i] = (xx * deta[i] - xe * dxi[i]) * inv;
+        }
+        Some(At {
+            x: o.x + xx * s + xe * t,
+            y: o.y + yx * s + ye * t,
+            da: 0.5 * rule.w[q] * det,
+            gx,
+            gy,
+        })
+    }
+}
+
 /// A straight-sided element (mid-side nodes at the middles of its sides) is the affine
 /// image x = x₀ + J·(ξ, η) of the reference triangle, with J = [[x₁ − x₀, x₂ − x₀],
 /// [y₁ − y₀, y₂ − y₀]] constant, so ∇N = J⁻ᵀ∇̂N and its integrals are fixed
@@ -165,6 +230,10 @@ pub struct Straight {
     /// ∫ ∂Nₐ/∂ξ·(1, ξ, η) and ∫ ∂Nₐ/∂η·(1, ξ, η).
     lxi: [[f64; 6]; 3],
     leta: [[f64; 6]; 3],
+    /// ∫ N_b ∂Nₐ/∂ξ and ∫ N_b ∂Nₐ/∂η, as `[b][a]`.
+    nd: [[[f64; 6]; 6]; 2],
+    /// The reference mass ∫ Nₐ N_b.
+    mass: [[f64; 6]; 6],
 }
 
 impl Straight {
@@ -177,6 +246,8 @@ impl Straight {
                 s: [[[0.0; 6]; 6]; 3],
                 lxi: [[0.0; 6]; 3],
                 leta: [[0.0; 6]; 3],
+                nd: [[[0.0; 6]; 6]; 2],
+                mass: [[0.0; 6]; 6],
             };
             // The reference element itself: x = ξ, y = η, ∇N = ∇̂N, dA = dξ dη.
             let h = 0.5;
@@ -203,8 +274,55 @@ impl Straight {
                     }
                 }
             }
+            // Degree 3 and 4 integrands: the degree-4 rule is exact.
+            let r4 = Rule::degree4();
+            for (q, g) in (0..r4.points()).filter_map(|q| Some((q, at(&unit, &r4, q)?))) {
+                let n = &r4.n[q];
+                for b in 0..6 {
+                    for a in 0..6 {
+                        t.nd[0][b][a] += g.da * n[b] * g.gx[a];
+                        t.nd[1][b][a] += g.da * n[b] * g.gy[a];
+                        t.mass[b][a] += g.da * n[b] * n[a];
+                    }
+                }
+            }
             t
         })
+    }
+
+    /// For a vector field `v` and a scalar `s` of the element's own (quadratic) space,
+    /// given by their values at its nodes `p` (exact for any quadratic v and s on a
+    /// straight element, where such polynomials are Σ N_b·v_b): ∫ v·∇Nₐ dA, ∫ s·Nₐ dA
+    /// and ∫ |v|² dA. With ∇N = J⁻ᵀ∇̂N, v·∇Nₐ = (J⁻¹v)·∇̂Nₐ and det J cancels in the
+    /// first; the others are det J times the reference mass. `None` when the element is
+    /// inverted or degenerate.
+    pub fn field_integrals(
+        &self,
+        p: &[Pt; 6],
+        v: &[[f64; 2]; 6],
+        s: &[f64; 6],
+    ) -> Option<([f64; 6], [f64; 6], f64)> {
+        let (x0, y0) = (p[0].x, p[0].y);
+        let (xx, yx, xe, ye) = (p[1].x - x0, p[1].y - y0, p[2].x - x0, p[2].y - y0);
+        let det = xx * ye - xe * yx;
+        if det.is_nan() || det <= 0.0 {
+            return None;
+        }
+        let (mut dv, mut sn, mut vv) = ([0.0; 6], [0.0; 6], 0.0);
+        for (b, vb) in v.iter().enumerate() {
+            // det J·J⁻¹v at node b.
+            let (u0, u1) = (ye * vb[0] - xe * vb[1], xx * vb[1] - yx * vb[0]);
+            let (nx, ny, mb) = (&self.nd[0][b], &self.nd[1][b], &self.mass[b]);
+            let mut mv = [0.0; 2];
+            for a in 0..6 {
+                dv[a] += u0 * nx[a] + u1 * ny[a];
+                sn[a] += s[b] * mb[a];
+                mv[0] += mb[a] * v[a][0];
+                mv[1] += mb[a] * v[a][1];
+            }
+            vv += vb[0] * mv[0] + vb[1] * mv[1];
+        }
+        Some((dv, sn.map(|x| x * det), vv * det))
     }
 
     /// The stiffness ∫∇Nₐ·∇N_b dA and the torsion load ∫(y ∂Nₐ/∂x − x ∂Nₐ/∂y) dA of
@@ -309,6 +427,59 @@ mod tests {
         assert!(k.iter().all(|r| r.iter().sum::<f64>().abs() < 1e-13));
         let flipped = [a, c, b, mid(a, c), mid(c, b), mid(b, a)];
         assert!(Straight::get().stiffness_and_load(&flipped).is_none());
+    }
+
+    #[test]
+    fn a_straight_elements_affine_map_matches_the_isoparametric_one() {
+        // On a straight element the isoparametric map is the affine one (Zienkiewicz &
+        // Taylor vol. 1, §9.3): same point, weight and gradients to rounding.
+        let (a, b, c) = (Pt::new(-3.0, 1.0), Pt::new(4.0, -2.5), Pt::new(0.5, 6.0));
+        let mid = |p: Pt, q: Pt| Pt::new(0.5 * (p.x + q.x), 0.5 * (p.y + q.y));
+        let p = [a, b, c, mid(a, b), mid(b, c), mid(c, a)];
+        let rule = Rule::degree4();
+        let e = Element::new(&p, false).expect("valid element");
+        for q in 0..rule.points() {
+            let (g, h) = (
+                at(&p, &rule, q).expect("valid"),
+                e.at(&rule, q).expect("valid"),
+            );
+            let close = |u: f64, v: f64| (u - v).abs() < 1e-13 * (1.0 + u.abs());
+            assert!(close(g.x, h.x) && close(g.y, h.y) && close(g.da, h.da));
+            assert!((0..6).all(|i| close(g.gx[i], h.gx[i]) && close(g.gy[i], h.gy[i])));
+        }
+        let flipped = [a, c, b, mid(a, c), mid(c, b), mid(b, a)];
+        assert!(Element::new(&flipped, false).is_none());
+    }
+
+    #[test]
+    fn field_integrals_match_the_quadrature_of_the_quadratics() {
+        // v = (x² − y, xy), s = 1 + x − y² on a straight element: ∫v·∇Nₐ, ∫s·Nₐ and
+        // ∫|v|² against the degree-4 rule (exact for these degree ≤ 4 integrands,
+        // Dunavant 1985).
+        let (a, b, c) = (Pt::new(-3.0, 1.0), Pt::new(4.0, -2.5), Pt::new(0.5, 6.0));
+        let mid = |p: Pt, q: Pt| Pt::new(0.5 * (p.x + q.x), 0.5 * (p.y + q.y));
+        let p = [a, b, c, mid(a, b), mid(b, c), mid(c, a)];
+        let v = |x: f64, y: f64| [x * x - y, x * y];
+        let s = |x: f64, y: f64| 1.0 + x - y * y;
+        let (dv, sn, vv) = Straight::get()
+            .field_integrals(&p, &p.map(|q| v(q.x, q.y)), &p.map(|q| s(q.x, q.y)))
+            .expect("valid element");
+        let rule = Rule::degree4();
+        let (mut dq, mut sq, mut vq) = ([0.0; 6], [0.0; 6], 0.0);
+        for q in 0..rule.points() {
+            let g = at(&p, &rule, q).expect("valid element");
+            let (vg, sg) = (v(g.x, g.y), s(g.x, g.y));
+            vq += g.da * (vg[0] * vg[0] + vg[1] * vg[1]);
+            for i in 0..6 {
+                dq[i] += g.da * (vg[0] * g.gx[i] + vg[1] * g.gy[i]);
+                sq[i] += g.da * sg * rule.n[q][i];
+            }
+        }
+        let close = |u: f64, w: f64| (u - w).abs() < 1e-11 * (1.0 + w.abs());
+        assert!(close(vv, vq), "{vv} vs {vq}");
+        for i in 0..6 {
+            assert!(close(dv[i], dq[i]) && close(sn[i], sq[i]), "{i}");
+        }
     }
 
     #[test]
