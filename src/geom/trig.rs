@@ -43,6 +43,7 @@ impl TrigPoly {
     /// The product; terms beyond degree 5 are dropped (no caller makes them). Each
     /// nonzero coefficient of `self` (in the order of `i`, then `j`) times every term
     /// of `o` that stays within degree 5.
+    #[inline]
     pub fn mul(&self, o: &TrigPoly) -> TrigPoly {
         // The degrees the moments multiply (linear and quadratic factors) as constants,
         // so that the loops below unroll; any other pair as it comes.
